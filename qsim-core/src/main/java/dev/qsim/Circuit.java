@@ -1,0 +1,753 @@
+package dev.qsim;
+
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.List;
+import java.util.Objects;
+import java.util.function.Consumer;
+
+/**
+ * An immutable list of instructions on a fixed number of qubits and classical bits. Built with
+ * {@link #builder(int)}; run with {@link Simulator} (any circuit) or
+ * {@link StateVector#apply(Circuit)} (circuits of gates only). Thread-safe.
+ *
+ * <p>Example:
+ * <pre>{@code
+ * Circuit bell = Circuit.builder(2).h(0).cnot(0, 1).measure().build();
+ * Tally tally = Simulator.seeded(7).run(bell, 1000);
+ * }</pre>
+ *
+ * <p>Qubit and bit order follow the {@linkplain dev.qsim package conventions}. Gate matrices
+ * are those of {@link Gates} (Nielsen and Chuang 2010, §4.2 and §4.3).
+ *
+ * @since 0.1
+ */
+public final class Circuit {
+    /** The most qubits a circuit may have: {@value}. */
+    public static final int MAX_QUBITS = 1 << 20;
+
+    private final int qubits;
+    private final int clbits;
+    private final List<Instruction> instructions;
+
+    private Circuit(int qubits, int clbits, List<Instruction> instructions) {
+        this.qubits = qubits;
+        this.clbits = clbits;
+        this.instructions = List.copyOf(instructions);
+    }
+
+    /**
+     * Starts a circuit on {@code qubits} qubits with as many classical bits.
+     *
+     * @param qubits the number of qubits, {@code 1 <= qubits <= }{@value #MAX_QUBITS}
+     * @return a new builder
+     * @throws IllegalArgumentException if {@code qubits} is out of range
+     */
+    public static Builder builder(int qubits) {
+        Checks.requireInRange(qubits, 1, MAX_QUBITS, "qubit count");
+        return new Builder(qubits, qubits);
+    }
+
+    /**
+     * Starts a circuit on {@code qubits} qubits and {@code clbits} classical bits.
+     *
+     * @param qubits the number of qubits, {@code 1 <= qubits <= }{@value #MAX_QUBITS}
+     * @param clbits the number of classical bits, {@code 0 <= clbits <= }{@value #MAX_QUBITS}
+     * @return a new builder
+     * @throws IllegalArgumentException if a count is out of range
+     */
+    public static Builder builder(int qubits, int clbits) {
+        Checks.requireInRange(qubits, 1, MAX_QUBITS, "qubit count");
+        Checks.requireInRange(clbits, 0, MAX_QUBITS, "clbit count");
+        return new Builder(qubits, clbits);
+    }
+
+    /**
+     * Returns the number of qubits.
+     *
+     * @return the qubit count
+     */
+    public int qubits() {
+        return qubits;
+    }
+
+    /**
+     * Returns the number of classical bits.
+     *
+     * @return the clbit count
+     */
+    public int clbits() {
+        return clbits;
+    }
+
+    /**
+     * Returns the number of instructions; a conditioned block counts as one.
+     *
+     * @return the instruction count
+     */
+    public int size() {
+        return instructions.size();
+    }
+
+    /**
+     * Returns the instructions in order.
+     *
+     * @return an unmodifiable list
+     */
+    public List<Instruction> instructions() {
+        return instructions;
+    }
+
+    /**
+     * Tells whether this circuit holds only gates (no measurement, reset or condition), so that
+     * {@link StateVector#apply(Circuit)}, {@link #inverse()} and {@link #toOperator()} accept it.
+     *
+     * @return whether the circuit is gates only
+     */
+    public boolean isGatesOnly() {
+        for (Instruction in : instructions) {
+            if (in.isClassical()) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /**
+     * Returns the depth: the number of layers when each instruction is placed in the first layer
+     * after every earlier instruction that shares a qubit or classical bit with it. A conditioned
+     * block is one instruction touching its clbit and everything its body touches.
+     *
+     * @return the depth, 0 for an empty circuit
+     */
+    public int depth() {
+        int[] qLevel = new int[qubits];
+        int[] cLevel = new int[clbits];
+        int depth = 0;
+        for (Instruction in : instructions) {
+            List<Integer> qs = new ArrayList<>();
+            List<Integer> cs = new ArrayList<>();
+            touched(in, qs, cs);
+            int level = 0;
+            for (int q : qs) {
+                level = Math.max(level, qLevel[q]);
+            }
+            for (int c : cs) {
+                level = Math.max(level, cLevel[c]);
+            }
+            level++;
+            for (int q : qs) {
+                qLevel[q] = level;
+            }
+            for (int c : cs) {
+                cLevel[c] = level;
+            }
+            depth = Math.max(depth, level);
+        }
+        return depth;
+    }
+
+    static void touched(Instruction in, List<Integer> qs, List<Integer> cs) {
+        for (int q : in.targetsRaw()) {
+            qs.add(q);
+        }
+        for (int q : in.controlsRaw()) {
+            qs.add(q);
+        }
+        if (in.clbit() >= 0) {
+            cs.add(in.clbit());
+        }
+        for (Instruction b : in.body()) {
+            touched(b, qs, cs);
+        }
+    }
+
+    /**
+     * Returns the circuit that undoes this one: the gates in reverse order, each replaced by its
+     * inverse ({@code s} by {@code sDagger}, {@code rz(θ)} by {@code rz(-θ)}, a general operator
+     * by its adjoint).
+     *
+     * @return the inverse circuit
+     * @throws IllegalArgumentException if the circuit measures, resets or has conditions
+     */
+    public Circuit inverse() {
+        requireGatesOnly("inverse()");
+        List<Instruction> out = new ArrayList<>(instructions.size());
+        for (int i = instructions.size() - 1; i >= 0; i--) {
+            out.add(inverseOf(instructions.get(i)));
+        }
+        return new Circuit(qubits, clbits, out);
+    }
+
+    private static Instruction inverseOf(Instruction in) {
+        String name = in.name();
+        double[] a = in.anglesRaw();
+        int[] t = in.targetsRaw();
+        int[] c = in.controlsRaw();
+        switch (name) {
+            case "s":
+                return Instruction.gate("sDagger", new double[0], Gates.S_DAGGER, t, c);
+            case "sDagger":
+                return Instruction.gate("s", new double[0], Gates.S, t, c);
+            case "t":
+                return Instruction.gate("tDagger", new double[0], Gates.T_DAGGER, t, c);
+            case "tDagger":
+                return Instruction.gate("t", new double[0], Gates.T, t, c);
+            case "sqrtX":
+                return Instruction.gate("sqrtXDagger", new double[0], Gates.SQRT_X_DAGGER, t, c);
+            case "sqrtXDagger":
+                return Instruction.gate("sqrtX", new double[0], Gates.SQRT_X, t, c);
+            case "rx":
+                return Instruction.gate(name, new double[] {-a[0]}, Gates.rx(-a[0]), t, c);
+            case "ry":
+                return Instruction.gate(name, new double[] {-a[0]}, Gates.ry(-a[0]), t, c);
+            case "rz":
+                return Instruction.gate(name, new double[] {-a[0]}, Gates.rz(-a[0]), t, c);
+            case "phase":
+                return Instruction.gate(name, new double[] {-a[0]}, Gates.phase(-a[0]), t, c);
+            case "cphase":
+                return Instruction.gate(name, new double[] {-a[0]}, Gates.cphase(-a[0]), t, c);
+            case "rzz":
+                return Instruction.gate(name, new double[] {-a[0]}, Gates.rzz(-a[0]), t, c);
+            default:
+                Operator op = in.operator();
+                Operator inv = op.dagger();
+                return Instruction.gate(name, a, inv.equals(op) ? op : inv, t, c);
+        }
+    }
+
+    /**
+     * Returns the dense {@code 2^n × 2^n} matrix of this circuit: column {@code j} is the state
+     * the circuit makes from basis state {@code j}.
+     *
+     * @return the circuit's operator
+     * @throws IllegalArgumentException if the circuit has more than {@value Operator#MAX_QUBITS}
+     *     qubits, or measures, resets or has conditions
+     */
+    public Operator toOperator() {
+        if (qubits > Operator.MAX_QUBITS) {
+            throw new IllegalArgumentException("toOperator() handles at most " + Operator.MAX_QUBITS
+                    + " qubits but the circuit has " + qubits);
+        }
+        requireGatesOnly("toOperator()");
+        int d = 1 << qubits;
+        double[] m = new double[2 * d * d];
+        for (int col = 0; col < d; col++) {
+            StateVector s = StateVector.basis(qubits, col).withThreads(1).apply(this);
+            for (int row = 0; row < d; row++) {
+                m[2 * (row * d + col)] = s.store().re(row);
+                m[2 * (row * d + col) + 1] = s.store().im(row);
+            }
+        }
+        return Operator.ofRaw(qubits, m);
+    }
+
+    void requireGatesOnly(String what) {
+        for (int i = 0; i < instructions.size(); i++) {
+            Instruction in = instructions.get(i);
+            if (in.isClassical()) {
+                throw new IllegalArgumentException(what + " needs a circuit of gates only, but"
+                        + " instruction " + i + " is '" + in + "'; run circuits with measurement,"
+                        + " reset or conditions with Simulator");
+            }
+        }
+    }
+
+    /**
+     * Draws the circuit as text: one line per qubit with time running left to right, and
+     * connector lines between them. Controls are {@code @}, a controlled NOT's target is
+     * {@code (+)}, swaps are {@code x}, a measurement into clbit {@code c} is {@code M>c}, a
+     * reset is {@code |0>}, and a conditioned gate carries its condition, as in
+     * {@code X[c0=1]}.
+     *
+     * @return the drawing, lines separated by {@code '\n'}
+     */
+    public String diagram() {
+        return Diagram.draw(this);
+    }
+
+    /**
+     * Compares qubit and clbit counts and the instructions.
+     *
+     * @param o another object
+     * @return whether the circuits are equal
+     */
+    @Override
+    public boolean equals(Object o) {
+        if (this == o) {
+            return true;
+        }
+        if (!(o instanceof Circuit)) {
+            return false;
+        }
+        Circuit c = (Circuit) o;
+        return qubits == c.qubits && clbits == c.clbits && instructions.equals(c.instructions);
+    }
+
+    /**
+     * Returns a hash code consistent with {@link #equals(Object)}.
+     *
+     * @return the hash code
+     */
+    @Override
+    public int hashCode() {
+        return Objects.hash(qubits, clbits, instructions);
+    }
+
+    /**
+     * Returns a short summary, such as {@code "Circuit[3 qubits, 3 clbits, 6 instructions,
+     * depth 4]"}; see {@link #diagram()} for a drawing.
+     *
+     * @return the summary
+     */
+    @Override
+    public String toString() {
+        return "Circuit[" + qubits + " qubits, " + clbits + " clbits, " + instructions.size()
+                + " instructions, depth " + depth() + "]";
+    }
+
+    /**
+     * Records instructions for a {@link Circuit}. Every method checks its arguments before it
+     * records anything, so a refused call leaves the builder as it was. Mutable; not
+     * thread-safe. {@link #build()} may be called more than once.
+     *
+     * @since 0.1
+     */
+    public static final class Builder {
+        private final int qubits;
+        private final int clbits;
+        private final List<Instruction> list = new ArrayList<>();
+
+        private Builder(int qubits, int clbits) {
+            this.qubits = qubits;
+            this.clbits = clbits;
+        }
+
+        private Builder one(String name, Operator op, int q) {
+            Checks.requireQubit(q, qubits);
+            list.add(Instruction.gate(name, op, q));
+            return this;
+        }
+
+        private Builder rotation(String name, Operator op, double angle, int... qs) {
+            Checks.requireDistinctQubits(qs, qubits, "the qubits of " + name);
+            list.add(Instruction.gate(name, new double[] {angle}, op, qs, new int[0]));
+            return this;
+        }
+
+        /**
+         * Appends a Hadamard gate.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder h(int q) {
+            return one("h", Gates.H, q);
+        }
+
+        /**
+         * Appends a Pauli X (NOT) gate.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder x(int q) {
+            return one("x", Gates.X, q);
+        }
+
+        /**
+         * Appends a Pauli Y gate.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder y(int q) {
+            return one("y", Gates.Y, q);
+        }
+
+        /**
+         * Appends a Pauli Z gate.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder z(int q) {
+            return one("z", Gates.Z, q);
+        }
+
+        /**
+         * Appends an S gate, {@code diag(1, i)}.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder s(int q) {
+            return one("s", Gates.S, q);
+        }
+
+        /**
+         * Appends an S† gate, {@code diag(1, -i)}.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder sDagger(int q) {
+            return one("sDagger", Gates.S_DAGGER, q);
+        }
+
+        /**
+         * Appends a T gate, {@code diag(1, e^{iπ/4})}.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder t(int q) {
+            return one("t", Gates.T, q);
+        }
+
+        /**
+         * Appends a T† gate, {@code diag(1, e^{-iπ/4})}.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder tDagger(int q) {
+            return one("tDagger", Gates.T_DAGGER, q);
+        }
+
+        /**
+         * Appends a square root of X, {@link Gates#SQRT_X}.
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder sqrtX(int q) {
+            return one("sqrtX", Gates.SQRT_X, q);
+        }
+
+        /**
+         * Appends {@code rx(angle) = exp(-i angle X/2)}.
+         *
+         * @param q the qubit
+         * @param angle radians, finite
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         * @throws IllegalArgumentException if {@code angle} is not finite
+         */
+        public Builder rx(int q, double angle) {
+            return rotation("rx", Gates.rx(angle), angle, q);
+        }
+
+        /**
+         * Appends {@code ry(angle) = exp(-i angle Y/2)}.
+         *
+         * @param q the qubit
+         * @param angle radians, finite
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         * @throws IllegalArgumentException if {@code angle} is not finite
+         */
+        public Builder ry(int q, double angle) {
+            return rotation("ry", Gates.ry(angle), angle, q);
+        }
+
+        /**
+         * Appends {@code rz(angle) = exp(-i angle Z/2)}.
+         *
+         * @param q the qubit
+         * @param angle radians, finite
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         * @throws IllegalArgumentException if {@code angle} is not finite
+         */
+        public Builder rz(int q, double angle) {
+            return rotation("rz", Gates.rz(angle), angle, q);
+        }
+
+        /**
+         * Appends {@code phase(angle) = diag(1, e^{i angle})}.
+         *
+         * @param q the qubit
+         * @param angle radians, finite
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         * @throws IllegalArgumentException if {@code angle} is not finite
+         */
+        public Builder phase(int q, double angle) {
+            return rotation("phase", Gates.phase(angle), angle, q);
+        }
+
+        /**
+         * Appends a controlled NOT.
+         *
+         * @param control the control qubit
+         * @param target the target qubit, not the control
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if {@code control == target}
+         */
+        public Builder cnot(int control, int target) {
+            return controlledGate("cnot", Gates.X, new int[] {control}, target);
+        }
+
+        /**
+         * Appends a controlled Z, {@link Gates#CZ}.
+         *
+         * @param a one qubit
+         * @param b another qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if {@code a == b}
+         */
+        public Builder cz(int a, int b) {
+            int[] qs = {a, b};
+            Checks.requireDistinctQubits(qs, qubits, "the qubits of cz");
+            list.add(Instruction.gate("cz", Gates.CZ, qs));
+            return this;
+        }
+
+        /**
+         * Appends a controlled phase {@code cphase(angle) = diag(1, 1, 1, e^{i angle})} on
+         * {@code (control, target)}; the gate is symmetric in its qubits.
+         *
+         * @param control the control qubit
+         * @param target the target qubit
+         * @param angle radians, finite
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if the qubits are equal or the angle is not finite
+         */
+        public Builder cphase(int control, int target, double angle) {
+            return rotation("cphase", Gates.cphase(angle), angle, control, target);
+        }
+
+        /**
+         * Swaps two qubits.
+         *
+         * @param a one qubit
+         * @param b another qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if {@code a == b}
+         */
+        public Builder swap(int a, int b) {
+            int[] qs = {a, b};
+            Checks.requireDistinctQubits(qs, qubits, "the qubits of swap");
+            list.add(Instruction.gate("swap", Gates.SWAP, qs));
+            return this;
+        }
+
+        /**
+         * Appends the Ising coupling {@code rzz(angle) = exp(-i angle Z⊗Z/2)}.
+         *
+         * @param a one qubit
+         * @param b another qubit
+         * @param angle radians, finite
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if the qubits are equal or the angle is not finite
+         */
+        public Builder rzz(int a, int b, double angle) {
+            return rotation("rzz", Gates.rzz(angle), angle, a, b);
+        }
+
+        /**
+         * Appends a Toffoli gate: flips {@code target} when both controls are 1.
+         *
+         * @param c1 first control
+         * @param c2 second control
+         * @param target the target
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if two of the qubits are equal
+         */
+        public Builder toffoli(int c1, int c2, int target) {
+            return controlledGate("toffoli", Gates.X, new int[] {c1, c2}, target);
+        }
+
+        /**
+         * Appends a Fredkin gate: swaps {@code a} and {@code b} when {@code control} is 1.
+         *
+         * @param control the control
+         * @param a one swapped qubit
+         * @param b the other swapped qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if two of the qubits are equal
+         */
+        public Builder fredkin(int control, int a, int b) {
+            return controlledGate("fredkin", Gates.SWAP, new int[] {control}, a, b);
+        }
+
+        private Builder controlledGate(String name, Operator op, int[] controls, int... targets) {
+            int[] all = new int[controls.length + targets.length];
+            System.arraycopy(controls, 0, all, 0, controls.length);
+            System.arraycopy(targets, 0, all, controls.length, targets.length);
+            Checks.requireDistinctQubits(all, qubits, "the qubits of " + name);
+            list.add(Instruction.gate(name, new double[0], op, targets.clone(), controls.clone()));
+            return this;
+        }
+
+        /**
+         * Appends any unitary operator on the given qubits; bit {@code j} of the operator's
+         * matrix index is {@code qubits[j]}.
+         *
+         * @param op a unitary operator (within {@value Operator#UNITARY_TOLERANCE})
+         * @param qubits distinct qubits, as many as the operator acts on
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if the count of qubits does not match the operator,
+         *     a qubit repeats, or the operator is not unitary
+         */
+        public Builder apply(Operator op, int... qubits) {
+            Objects.requireNonNull(op, "op");
+            requireGateShape(op, qubits, "apply");
+            list.add(Instruction.gate("apply", new double[0], op, qubits.clone(), new int[0]));
+            return this;
+        }
+
+        /**
+         * Appends an operator applied to {@code targets} only where every control qubit is 1.
+         *
+         * @param op a unitary operator (within {@value Operator#UNITARY_TOLERANCE})
+         * @param controls control qubits (may be empty)
+         * @param targets target qubits, as many as the operator acts on
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if the count of targets does not match the operator,
+         *     a qubit repeats among controls and targets, or the operator is not unitary
+         */
+        public Builder controlled(Operator op, int[] controls, int... targets) {
+            Objects.requireNonNull(op, "op");
+            Objects.requireNonNull(controls, "controls");
+            requireGateShape(op, targets, "controlled");
+            int[] all = new int[controls.length + targets.length];
+            System.arraycopy(controls, 0, all, 0, controls.length);
+            System.arraycopy(targets, 0, all, controls.length, targets.length);
+            Checks.requireDistinctQubits(all, qubits, "the controls and targets");
+            list.add(Instruction.gate("controlled", new double[0], op, targets.clone(),
+                    controls.clone()));
+            return this;
+        }
+
+        private void requireGateShape(Operator op, int[] qs, String what) {
+            Objects.requireNonNull(qs, "qubits");
+            if (qs.length != op.qubits()) {
+                throw new IllegalArgumentException("the operator acts on " + op.qubits()
+                        + " qubit(s) but " + qs.length + " qubit index(es) were given to " + what);
+            }
+            Checks.requireDistinctQubits(qs, qubits, "the qubits of " + what);
+            double err = op.unitarityError();
+            if (!(err <= Operator.UNITARY_TOLERANCE)) {
+                throw new IllegalArgumentException("the operator is not unitary: the largest entry"
+                        + " of |U†U - I| is " + err + " but at most " + Operator.UNITARY_TOLERANCE
+                        + " is allowed");
+            }
+        }
+
+        /**
+         * Measures one qubit in the computational basis into one classical bit.
+         *
+         * @param qubit the qubit
+         * @param clbit the classical bit that receives the outcome
+         * @return this builder
+         * @throws IndexOutOfBoundsException if the qubit or clbit is out of range
+         */
+        public Builder measure(int qubit, int clbit) {
+            Checks.requireQubit(qubit, qubits);
+            Checks.requireClbit(clbit, clbits);
+            list.add(Instruction.measure(qubit, clbit));
+            return this;
+        }
+
+        /**
+         * Measures every qubit {@code k} into classical bit {@code k}.
+         *
+         * @return this builder
+         * @throws IllegalArgumentException if there are fewer classical bits than qubits
+         */
+        public Builder measure() {
+            if (clbits < qubits) {
+                throw new IllegalArgumentException("measure() needs at least as many clbits as"
+                        + " qubits, but the circuit has " + clbits + " clbit(s) for " + qubits
+                        + " qubit(s)");
+            }
+            for (int q = 0; q < qubits; q++) {
+                list.add(Instruction.measure(q, q));
+            }
+            return this;
+        }
+
+        /**
+         * Resets a qubit to |0> (measure, then flip if the outcome was 1).
+         *
+         * @param q the qubit
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         */
+        public Builder reset(int q) {
+            Checks.requireQubit(q, qubits);
+            list.add(Instruction.reset(q));
+            return this;
+        }
+
+        /**
+         * Appends a block that runs only when classical bit {@code clbit} equals {@code value}
+         * at that point of a shot. The block is recorded by {@code then} on a builder with the
+         * same qubits and clbits; it counts as one instruction.
+         *
+         * @param clbit the classical bit to test
+         * @param value 0 or 1
+         * @param then records the conditioned instructions
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code clbit} is out of range
+         * @throws IllegalArgumentException if {@code value} is not 0 or 1
+         */
+        public Builder ifBit(int clbit, int value, Consumer<Circuit.Builder> then) {
+            Checks.requireClbit(clbit, clbits);
+            Checks.requireBit(value, "the condition value");
+            Objects.requireNonNull(then, "then");
+            Builder body = new Builder(qubits, clbits);
+            then.accept(body);
+            list.add(Instruction.ifBit(clbit, value, body.list));
+            return this;
+        }
+
+        /**
+         * Appends every instruction of another circuit, qubit {@code k} to qubit {@code k} and
+         * clbit {@code k} to clbit {@code k}.
+         *
+         * @param other a circuit with no more qubits and clbits than this one
+         * @return this builder
+         * @throws IllegalArgumentException if {@code other} is larger
+         */
+        public Builder append(Circuit other) {
+            Objects.requireNonNull(other, "other");
+            if (other.qubits > qubits || other.clbits > clbits) {
+                throw new IllegalArgumentException("cannot append a circuit of " + other.qubits
+                        + " qubits and " + other.clbits + " clbits to one of " + qubits
+                        + " qubits and " + clbits + " clbits");
+            }
+            list.addAll(other.instructions);
+            return this;
+        }
+
+        /**
+         * Returns the circuit recorded so far. The builder may go on recording.
+         *
+         * @return an immutable circuit
+         */
+        public Circuit build() {
+            return new Circuit(qubits, clbits, Collections.unmodifiableList(list));
+        }
+    }
+}

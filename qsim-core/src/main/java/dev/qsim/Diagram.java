@@ -1,0 +1,202 @@
+package dev.qsim;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Locale;
+
+/** Draws a circuit as text, one line per qubit, time left to right. */
+final class Diagram {
+    private Diagram() {
+    }
+
+    /** One drawn column: a label per qubit row (null = wire), and the vertical span. */
+    private static final class Column {
+        final String[] labels;
+        int lo = Integer.MAX_VALUE;
+        int hi = -1;
+
+        Column(int qubits) {
+            labels = new String[qubits];
+        }
+
+        void put(int q, String label) {
+            labels[q] = label;
+            lo = Math.min(lo, q);
+            hi = Math.max(hi, q);
+        }
+
+        int width() {
+            int w = 1;
+            for (String s : labels) {
+                if (s != null) {
+                    w = Math.max(w, s.length());
+                }
+            }
+            return w;
+        }
+    }
+
+    static String draw(Circuit c) {
+        int n = c.qubits();
+        List<Column> columns = new ArrayList<>();
+        int[] free = new int[n]; // first column index where each qubit row is free
+        for (Instruction in : c.instructions()) {
+            place(in, "", n, columns, free);
+        }
+        int nameWidth = ("q" + (n - 1)).length();
+        StringBuilder[] rows = new StringBuilder[2 * n - 1];
+        for (int r = 0; r < rows.length; r++) {
+            rows[r] = new StringBuilder();
+            if (r % 2 == 0) {
+                String name = "q" + (r / 2);
+                rows[r].append(" ".repeat(nameWidth - name.length())).append(name).append(": -");
+            } else {
+                rows[r].append(" ".repeat(nameWidth + 3));
+            }
+        }
+        for (Column col : columns) {
+            int w = col.width();
+            for (int q = 0; q < n; q++) {
+                String label = col.labels[q];
+                StringBuilder row = rows[2 * q];
+                if (label == null) {
+                    boolean crossing = q > col.lo && q < col.hi;
+                    label = crossing ? "|" : "-";
+                }
+                int left = (w - label.length()) / 2;
+                row.append("-".repeat(left + 1)).append(label)
+                        .append("-".repeat(w - label.length() - left + 1));
+                if (q < n - 1) {
+                    StringBuilder gap = rows[2 * q + 1];
+                    boolean link = q >= col.lo && q < col.hi;
+                    int mid = (w - 1) / 2;
+                    gap.append(" ".repeat(mid + 1)).append(link ? '|' : ' ')
+                            .append(" ".repeat(w - mid));
+                }
+            }
+        }
+        StringBuilder out = new StringBuilder();
+        for (int r = 0; r < rows.length; r++) {
+            String line = rows[r].toString();
+            if (r % 2 == 0) {
+                line = line + "-";
+            } else {
+                line = line.stripTrailing();
+            }
+            out.append(line);
+            if (r < rows.length - 1) {
+                out.append('\n');
+            }
+        }
+        return out.toString();
+    }
+
+    private static void place(Instruction in, String condition, int n, List<Column> columns,
+            int[] free) {
+        if (in.kind() == Instruction.Kind.IF_BIT) {
+            String cond = "[c" + in.clbit() + "=" + in.value() + "]";
+            for (Instruction b : in.body()) {
+                place(b, cond, n, columns, free);
+            }
+            return;
+        }
+        int[] t = in.targetsRaw();
+        int[] ctl = in.controlsRaw();
+        int lo = Integer.MAX_VALUE;
+        int hi = -1;
+        for (int q : t) {
+            lo = Math.min(lo, q);
+            hi = Math.max(hi, q);
+        }
+        for (int q : ctl) {
+            lo = Math.min(lo, q);
+            hi = Math.max(hi, q);
+        }
+        int at = 0;
+        for (int q = lo; q <= hi; q++) {
+            at = Math.max(at, free[q]);
+        }
+        while (columns.size() <= at) {
+            columns.add(new Column(n));
+        }
+        Column col = columns.get(at);
+        for (int q = lo; q <= hi; q++) {
+            free[q] = at + 1;
+        }
+        for (int q : ctl) {
+            col.put(q, "@");
+        }
+        String[] labels = labels(in);
+        for (int j = 0; j < t.length; j++) {
+            col.put(t[j], labels[j] + condition);
+        }
+    }
+
+    private static String[] labels(Instruction in) {
+        int k = in.targetsRaw().length;
+        String[] out = new String[k];
+        double[] a = in.anglesRaw();
+        switch (in.name()) {
+            case "measure":
+                return new String[] {"M>c" + in.clbit()};
+            case "reset":
+                return new String[] {"|0>"};
+            case "cnot":
+            case "toffoli":
+                return new String[] {"(+)"};
+            case "swap":
+            case "fredkin":
+                return new String[] {"x", "x"};
+            case "cz":
+                return new String[] {"@", "@"};
+            case "cphase":
+                return new String[] {"@", "P(" + angle(a[0]) + ")"};
+            case "sDagger":
+                return new String[] {"S+"};
+            case "tDagger":
+                return new String[] {"T+"};
+            case "sqrtX":
+                return new String[] {"SX"};
+            case "sqrtXDagger":
+                return new String[] {"SX+"};
+            case "phase":
+                return new String[] {"P(" + angle(a[0]) + ")"};
+            case "apply":
+            case "controlled":
+                for (int j = 0; j < k; j++) {
+                    out[j] = k == 1 ? "U" : "U" + j;
+                }
+                return out;
+            default:
+                String base = in.name().toUpperCase(Locale.ROOT);
+                if (a.length > 0) {
+                    StringBuilder sb = new StringBuilder(base).append('(');
+                    for (int i = 0; i < a.length; i++) {
+                        sb.append(i > 0 ? "," : "").append(angle(a[i]));
+                    }
+                    base = sb.append(')').toString();
+                }
+                Arrays.fill(out, base);
+                return out;
+        }
+    }
+
+    /** Formats an angle, as a simple multiple of pi where it is one. */
+    static String angle(double x) {
+        if (x == 0) {
+            return "0";
+        }
+        for (int den = 1; den <= 16; den++) {
+            double num = x * den / Math.PI;
+            long r = Math.round(num);
+            if (r != 0 && Math.abs(num - r) < 1e-12 * Math.max(1, Math.abs(num))) {
+                String s = (r == 1 ? "" : r == -1 ? "-" : Long.toString(r)) + "pi";
+                return den == 1 ? s : s + "/" + den;
+            }
+        }
+        String s = String.format(Locale.ROOT, "%.4f", x);
+        s = s.replaceAll("0+$", "");
+        return s.endsWith(".") ? s + "0" : s;
+    }
+}

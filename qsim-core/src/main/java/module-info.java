@@ -1,0 +1,13 @@
+/**
+ * qsim: a pure-Java quantum circuit simulator to embed in JVM code.
+ *
+ * <p>The public API is the package {@code dev.qsim}. The kernels in {@code dev.qsim.kernel}
+ * are internal and not exported.
+ */
+module dev.qsim {
+    requires transitive org.apache.commons.numbers.complex;
+    requires transitive org.apache.commons.rng.api;
+    requires org.apache.commons.rng.simple;
+
+    exports dev.qsim;
+}
