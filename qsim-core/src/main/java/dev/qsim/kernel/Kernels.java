@@ -52,10 +52,38 @@ public final class Kernels {
     private static void dense1InChunk(double[] psi, int q, double[] m, int firstBlock, int count) {
         final double m00r = m[0], m00i = m[1], m01r = m[2], m01i = m[3];
         final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
-        final int stride = 1 << q;
-        final int s2 = stride << 1;
         final int start = firstBlock << (q + 2);
         final int end = start + (count << (q + 2));
+        if (q == 0) {
+            // Pairs are neighbours: one flat loop the JIT can unroll.
+            for (int x = start; x < end; x += 4) {
+                final double ar = psi[x], ai = psi[x + 1], br = psi[x + 2], bi = psi[x + 3];
+                psi[x] = m00r * ar - m00i * ai + m01r * br - m01i * bi;
+                psi[x + 1] = m00r * ai + m00i * ar + m01r * bi + m01i * br;
+                psi[x + 2] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
+                psi[x + 3] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
+            }
+            return;
+        }
+        if (q == 1) {
+            for (int x = start; x < end; x += 8) {
+                double ar = psi[x], ai = psi[x + 1], br = psi[x + 4], bi = psi[x + 5];
+                psi[x] = m00r * ar - m00i * ai + m01r * br - m01i * bi;
+                psi[x + 1] = m00r * ai + m00i * ar + m01r * bi + m01i * br;
+                psi[x + 4] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
+                psi[x + 5] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
+                ar = psi[x + 2];
+                ai = psi[x + 3];
+                br = psi[x + 6];
+                bi = psi[x + 7];
+                psi[x + 2] = m00r * ar - m00i * ai + m01r * br - m01i * bi;
+                psi[x + 3] = m00r * ai + m00i * ar + m01r * bi + m01i * br;
+                psi[x + 6] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
+                psi[x + 7] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
+            }
+            return;
+        }
+        final int s2 = 2 << q;
         for (int block = start; block < end; block += s2 << 1) {
             final int blockEnd = block + s2;
             for (int x = block; x < blockEnd; x += 2) {
@@ -98,48 +126,111 @@ public final class Kernels {
         }
     }
 
-    /** The shape of a gate's index set: sorted positions, control mask, target offsets. */
+    /**
+     * The shape of a gate's index set. The state is cut into blocks of {@code 2^blockLog}
+     * amplitudes inside one chunk. Gate positions below {@code blockLog} ("low") are handled by a
+     * table of the in-block offsets where they are 0 (and low controls are 1); positions at or
+     * above it ("high") are handled per block by bit deposit. With no low position, a block is
+     * one contiguous run and needs no table.
+     */
     private static final class Layout {
-        final long[] offsets;   // 2^k, bit j of the index -> 1 << targets[j]
-        final int[] positions;  // targets and controls, ascending
-        final long controlMask;
-        final int runLog;       // low free bits handled as a contiguous run
-        final long outer;       // number of runs
+        /** Log2 of the block size used when some gate qubit is low. */
+        static final int TABLE_LOG = 10;
+
+        final int d;            // 2^k target combinations
+        final long[] highOff;   // high part of the offset of combination j
+        final int[] lowOff;     // low part of the offset of combination j
+        final int[] table;      // in-block offsets to visit, or null for a whole run
+        final int count;        // entries visited per block
+        final int blockLog;
+        final int[] highPos;    // ascending positions at or above blockLog
+        final long highCtrl;    // controls at or above blockLog
+        final long outer;       // number of blocks visited
 
         Layout(Amplitudes a, int[] targets, int[] controls) {
             int k = targets.length;
-            offsets = new long[1 << k];
-            for (int j = 0; j < offsets.length; j++) {
+            d = 1 << k;
+            int[] positions = new int[k + controls.length];
+            long ctrl = 0;
+            for (int t = 0; t < k; t++) {
+                positions[t] = targets[t];
+            }
+            for (int c = 0; c < controls.length; c++) {
+                positions[k + c] = controls[c];
+                ctrl |= 1L << controls[c];
+            }
+            java.util.Arrays.sort(positions);
+            int tLog = Math.min(a.chunkLog, TABLE_LOG);
+            blockLog = positions[0] >= tLog ? Math.min(positions[0], a.chunkLog) : tLog;
+            long lowMask = (1L << blockLog) - 1;
+            int lowCount = 0;
+            for (int p : positions) {
+                if (p < blockLog) {
+                    lowCount++;
+                }
+            }
+            highPos = java.util.Arrays.copyOfRange(positions, lowCount, positions.length);
+            highCtrl = ctrl & ~lowMask;
+            highOff = new long[d];
+            lowOff = new int[d];
+            for (int j = 0; j < d; j++) {
                 long o = 0;
                 for (int t = 0; t < k; t++) {
                     if ((j >>> t & 1) != 0) {
                         o |= 1L << targets[t];
                     }
                 }
-                offsets[j] = o;
+                highOff[j] = o & ~lowMask;
+                lowOff[j] = (int) (o & lowMask);
             }
-            positions = new int[k + controls.length];
-            long cm = 0;
-            for (int t = 0; t < k; t++) {
-                positions[t] = targets[t];
+            if (lowCount == 0) {
+                table = null;
+                count = 1 << blockLog;
+            } else {
+                count = 1 << (blockLog - lowCount);
+                table = new int[count];
+                long lowPosMask = 0;
+                for (int i = 0; i < lowCount; i++) {
+                    lowPosMask |= 1L << positions[i];
+                }
+                int lowCtrl = (int) (ctrl & lowMask);
+                int w = 0;
+                for (int e = 0; e < (1 << blockLog); e++) {
+                    if ((e & lowPosMask) == 0) {
+                        table[w++] = e | lowCtrl;
+                    }
+                }
             }
-            for (int c = 0; c < controls.length; c++) {
-                positions[k + c] = controls[c];
-                cm |= 1L << controls[c];
-            }
-            java.util.Arrays.sort(positions);
-            controlMask = cm;
-            runLog = Math.min(positions[0], a.chunkLog);
-            outer = 1L << (a.n - positions.length - runLog);
+            outer = 1L << (a.n - highPos.length - blockLog);
         }
 
+        /** Index of the first amplitude of block {@code o} (low bits zero). */
         long base(long o) {
-            long x = o << runLog;
-            for (int p : positions) {
+            long x = o << blockLog;
+            for (int p : highPos) {
                 x = ((x >>> p) << (p + 1)) | (x & ((1L << p) - 1));
             }
-            return x | controlMask;
+            return x | highCtrl;
         }
+
+        /** Fills the chunk and in-chunk amplitude offset of each combination for block o. */
+        void locate(Amplitudes a, long o, double[][] arr, int[] off) {
+            long base = base(o);
+            for (int j = 0; j < d; j++) {
+                long idx = base | highOff[j];
+                arr[j] = a.chunks[(int) (idx >>> a.chunkLog)];
+                off[j] = (int) (idx & a.chunkMask) + lowOff[j];
+            }
+        }
+
+        /** In-block offset of the r-th visited entry. */
+        int entry(int r) {
+            return table == null ? r : table[r];
+        }
+    }
+
+    private static boolean parallel(Amplitudes a) {
+        return a.n >= Parallel.MIN_PARALLEL_QUBITS;
     }
 
     /**
@@ -157,29 +248,53 @@ public final class Kernels {
             return;
         }
         final Layout l = new Layout(a, targets, controls);
-        final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
-        Parallel.forRange(threads, l.outer, par, (from, to) -> denseRuns(a, l, m, from, to));
+        if (l.d == 2) {
+            Parallel.forRange(threads, l.outer, parallel(a), (from, to) -> dense2x2(a, l, m, from, to));
+        } else {
+            Parallel.forRange(threads, l.outer, parallel(a), (from, to) -> denseBlocks(a, l, m, from, to));
+        }
     }
 
-    private static void denseRuns(Amplitudes a, Layout l, double[] m, long from, long to) {
-        final int d = l.offsets.length;
+    private static void dense2x2(Amplitudes a, Layout l, double[] m, long from, long to) {
+        final double m00r = m[0], m00i = m[1], m01r = m[2], m01i = m[3];
+        final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
+        final double[][] arr = new double[2][];
+        final int[] off = new int[2];
+        final int count = l.count;
+        for (long o = from; o < to; o++) {
+            l.locate(a, o, arr, off);
+            final double[] u = arr[0];
+            final double[] v = arr[1];
+            final int uo = off[0];
+            final int vo = off[1];
+            for (int r = 0; r < count; r++) {
+                final int e = l.entry(r);
+                final int x = (uo + e) << 1;
+                final int y = (vo + e) << 1;
+                final double ar = u[x], ai = u[x + 1], br = v[y], bi = v[y + 1];
+                u[x] = m00r * ar - m00i * ai + m01r * br - m01i * bi;
+                u[x + 1] = m00r * ai + m00i * ar + m01r * bi + m01i * br;
+                v[y] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
+                v[y + 1] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
+            }
+        }
+    }
+
+    private static void denseBlocks(Amplitudes a, Layout l, double[] m, long from, long to) {
+        final int d = l.d;
         final double[][] arr = new double[d][];
         final int[] off = new int[d];
         final double[] vr = new double[d];
         final double[] vi = new double[d];
-        final int run = 1 << l.runLog;
+        final int count = l.count;
         for (long o = from; o < to; o++) {
-            final long base = l.base(o);
-            for (int j = 0; j < d; j++) {
-                final long idx = base | l.offsets[j];
-                arr[j] = a.chunks[(int) (idx >>> a.chunkLog)];
-                off[j] = (int) (idx & a.chunkMask) << 1;
-            }
-            for (int r = 0; r < run; r++) {
-                final int r2 = r << 1;
+            l.locate(a, o, arr, off);
+            for (int r = 0; r < count; r++) {
+                final int e = l.entry(r);
                 for (int j = 0; j < d; j++) {
-                    vr[j] = arr[j][off[j] + r2];
-                    vi[j] = arr[j][off[j] + r2 + 1];
+                    final int x = (off[j] + e) << 1;
+                    vr[j] = arr[j][x];
+                    vi[j] = arr[j][x + 1];
                 }
                 for (int i = 0; i < d; i++) {
                     double sr = 0;
@@ -191,8 +306,9 @@ public final class Kernels {
                         sr += mr * vr[j] - mi * vi[j];
                         si += mr * vi[j] + mi * vr[j];
                     }
-                    arr[i][off[i] + r2] = sr;
-                    arr[i][off[i] + r2 + 1] = si;
+                    final int x = (off[i] + e) << 1;
+                    arr[i][x] = sr;
+                    arr[i][x + 1] = si;
                 }
             }
         }
@@ -211,30 +327,42 @@ public final class Kernels {
     public static void diagonal(Amplitudes a, int[] targets, int[] controls, double[] diag,
             int threads) {
         final Layout l = new Layout(a, targets, controls);
-        final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
-        Parallel.forRange(threads, l.outer, par, (from, to) -> diagonalRuns(a, l, diag, from, to));
+        Parallel.forRange(threads, l.outer, parallel(a), (from, to) -> diagonalBlocks(a, l, diag, from, to));
     }
 
-    private static void diagonalRuns(Amplitudes a, Layout l, double[] diag, long from, long to) {
-        final int d = l.offsets.length;
-        final int run2 = 2 << l.runLog;
+    private static void diagonalBlocks(Amplitudes a, Layout l, double[] diag, long from, long to) {
+        final int d = l.d;
+        final double[][] arr = new double[d][];
+        final int[] off = new int[d];
+        final int count = l.count;
+        final int[] table = l.table;
         for (long o = from; o < to; o++) {
-            final long base = l.base(o);
+            l.locate(a, o, arr, off);
             for (int j = 0; j < d; j++) {
                 final double dr = diag[2 * j];
                 final double di = diag[2 * j + 1];
                 if (dr == 1 && di == 0) {
                     continue;
                 }
-                final long idx = base | l.offsets[j];
-                final double[] psi = a.chunks[(int) (idx >>> a.chunkLog)];
-                final int start = (int) (idx & a.chunkMask) << 1;
-                final int end = start + run2;
-                for (int x = start; x < end; x += 2) {
-                    final double re = psi[x];
-                    final double im = psi[x + 1];
-                    psi[x] = dr * re - di * im;
-                    psi[x + 1] = dr * im + di * re;
+                final double[] psi = arr[j];
+                final int base = off[j];
+                if (table == null) {
+                    final int start = base << 1;
+                    final int end = start + (count << 1);
+                    for (int x = start; x < end; x += 2) {
+                        final double re = psi[x];
+                        final double im = psi[x + 1];
+                        psi[x] = dr * re - di * im;
+                        psi[x + 1] = dr * im + di * re;
+                    }
+                } else {
+                    for (int r = 0; r < count; r++) {
+                        final int x = (base + table[r]) << 1;
+                        final double re = psi[x];
+                        final double im = psi[x + 1];
+                        psi[x] = dr * re - di * im;
+                        psi[x + 1] = dr * im + di * re;
+                    }
                 }
             }
         }
@@ -260,55 +388,80 @@ public final class Kernels {
             ones &= phase[2 * j] == 1 && phase[2 * j + 1] == 0;
         }
         final boolean pure = ones;
-        final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
-        Parallel.forRange(threads, l.outer, par,
-                (from, to) -> monomialRuns(a, l, perm, phase, pure, from, to));
+        if (pure && l.d == 2 && perm[0] == 1) {
+            Parallel.forRange(threads, l.outer, parallel(a), (from, to) -> swapBlocks(a, l, from, to));
+        } else {
+            Parallel.forRange(threads, l.outer, parallel(a),
+                    (from, to) -> monomialBlocks(a, l, perm, phase, pure, from, to));
+        }
     }
 
-    private static void monomialRuns(Amplitudes a, Layout l, int[] perm, double[] phase,
+    /** A plain or controlled X: swap the two halves. */
+    private static void swapBlocks(Amplitudes a, Layout l, long from, long to) {
+        final double[][] arr = new double[2][];
+        final int[] off = new int[2];
+        final int count = l.count;
+        final int[] table = l.table;
+        for (long o = from; o < to; o++) {
+            l.locate(a, o, arr, off);
+            final double[] u = arr[0];
+            final double[] v = arr[1];
+            if (table == null) {
+                swapRuns(u, off[0] << 1, v, off[1] << 1, count);
+                continue;
+            }
+            final int uo = off[0];
+            final int vo = off[1];
+            for (int r = 0; r < count; r++) {
+                final int e = table[r];
+                final int x = (uo + e) << 1;
+                final int y = (vo + e) << 1;
+                final double tr = u[x];
+                final double ti = u[x + 1];
+                u[x] = v[y];
+                u[x + 1] = v[y + 1];
+                v[y] = tr;
+                v[y + 1] = ti;
+            }
+        }
+    }
+
+    private static void monomialBlocks(Amplitudes a, Layout l, int[] perm, double[] phase,
             boolean pure, long from, long to) {
-        final int d = l.offsets.length;
+        final int d = l.d;
         final double[][] arr = new double[d][];
         final int[] off = new int[d];
         final double[] vr = new double[d];
         final double[] vi = new double[d];
-        final int run = 1 << l.runLog;
+        final int count = l.count;
         for (long o = from; o < to; o++) {
-            final long base = l.base(o);
-            for (int j = 0; j < d; j++) {
-                final long idx = base | l.offsets[j];
-                arr[j] = a.chunks[(int) (idx >>> a.chunkLog)];
-                off[j] = (int) (idx & a.chunkMask) << 1;
-            }
-            if (d == 2 && pure && perm[0] == 1) {
-                // A controlled or plain X: swap two runs.
-                swapRuns(arr[0], off[0], arr[1], off[1], run);
-                continue;
-            }
-            for (int r = 0; r < run; r++) {
-                final int r2 = r << 1;
+            l.locate(a, o, arr, off);
+            for (int r = 0; r < count; r++) {
+                final int e = l.entry(r);
                 for (int j = 0; j < d; j++) {
-                    vr[j] = arr[j][off[j] + r2];
-                    vi[j] = arr[j][off[j] + r2 + 1];
+                    final int x = (off[j] + e) << 1;
+                    vr[j] = arr[j][x];
+                    vi[j] = arr[j][x + 1];
                 }
                 for (int j = 0; j < d; j++) {
                     final int t = perm[j];
+                    final int x = (off[t] + e) << 1;
                     if (pure) {
-                        arr[t][off[t] + r2] = vr[j];
-                        arr[t][off[t] + r2 + 1] = vi[j];
+                        arr[t][x] = vr[j];
+                        arr[t][x + 1] = vi[j];
                     } else {
                         final double pr = phase[2 * j];
                         final double pi = phase[2 * j + 1];
-                        arr[t][off[t] + r2] = pr * vr[j] - pi * vi[j];
-                        arr[t][off[t] + r2 + 1] = pr * vi[j] + pi * vr[j];
+                        arr[t][x] = pr * vr[j] - pi * vi[j];
+                        arr[t][x + 1] = pr * vi[j] + pi * vr[j];
                     }
                 }
             }
         }
     }
 
-    private static void swapRuns(double[] u, int uo, double[] v, int vo, int run) {
-        final int n2 = run << 1;
+    private static void swapRuns(double[] u, int uo, double[] v, int vo, int count) {
+        final int n2 = count << 1;
         for (int x = 0; x < n2; x++) {
             final double t = u[uo + x];
             u[uo + x] = v[vo + x];
