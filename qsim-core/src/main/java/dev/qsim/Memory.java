@@ -27,11 +27,24 @@ final class Memory {
                 return;
             }
         }
+        throw tooLarge(bytes, what);
+    }
+
+    /**
+     * Returns the exception for an allocation the heap cannot hold.
+     *
+     * @param bytes the allocation
+     * @param what what is being allocated, for the message
+     * @return the exception to throw
+     */
+    static IllegalStateException tooLarge(long bytes, String what) {
+        Runtime rt = Runtime.getRuntime();
+        long max = rt.maxMemory();
         long used = rt.totalMemory() - rt.freeMemory();
         // Head room of 1/8 plus 256 MiB for everything else the program holds.
         long want = used + bytes + bytes / 8 + (256L << 20);
         long xmxGib = (want + GIB - 1) / GIB;
-        throw new IllegalStateException(what + " needs " + size(bytes) + " (" + bytes
+        return new IllegalStateException(what + " needs " + size(bytes) + " (" + bytes
                 + " bytes) but the maximum heap is " + size(max) + " with " + size(max - used)
                 + " free; raise the heap, e.g. -Xmx" + xmxGib + "g");
     }

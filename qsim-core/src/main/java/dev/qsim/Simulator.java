@@ -104,10 +104,8 @@ public final class Simulator {
             Engine.gate(state.store(), list.get(first), threads);
             first++;
         }
-        Memory.require(Amplitudes.bytes(circuit.qubits()), "a working copy of the "
-                + circuit.qubits() + "-qubit state");
         Amplitudes prefix = state.store();
-        Amplitudes work = prefix.copy();
+        Amplitudes work = state.copy().store();
         boolean[] reg = new boolean[circuit.clbits()];
         Map<String, Long> counts = new HashMap<>();
         char[] text = new char[circuit.clbits()];

@@ -43,8 +43,15 @@ public final class StateVector {
 
     private static Amplitudes allocate(int n) {
         Checks.requireInRange(n, 1, MAX_QUBITS, "qubit count");
-        Memory.require(Amplitudes.bytes(n), "a " + n + "-qubit state");
-        return Amplitudes.allocate(n);
+        String what = "a " + n + "-qubit state";
+        Memory.require(Amplitudes.bytes(n), what);
+        try {
+            return Amplitudes.allocate(n);
+        } catch (OutOfMemoryError e) {
+            // The heap looked large enough but could not place the arrays (fragmentation or
+            // collector overhead): report it like any other refusal.
+            throw Memory.tooLarge(Amplitudes.bytes(n), what);
+        }
     }
 
     /**
@@ -345,8 +352,13 @@ public final class StateVector {
      * @throws IllegalStateException if the heap cannot hold a second state
      */
     public StateVector copy() {
-        Memory.require(Amplitudes.bytes(qubits()), "a copy of the " + qubits() + "-qubit state");
-        return new StateVector(amps.copy()).withThreads(threads);
+        String what = "a copy of the " + qubits() + "-qubit state";
+        Memory.require(Amplitudes.bytes(qubits()), what);
+        try {
+            return new StateVector(amps.copy()).withThreads(threads);
+        } catch (OutOfMemoryError e) {
+            throw Memory.tooLarge(Amplitudes.bytes(qubits()), what);
+        }
     }
 
     /**

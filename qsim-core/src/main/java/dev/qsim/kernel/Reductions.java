@@ -123,14 +123,17 @@ public final class Reductions {
      * @param threads threads to use
      */
     public static void probabilities(Amplitudes a, double[] out, int threads) {
-        final int cl = a.chunkLog;
+        final int bl = blockLog(a);
         final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
-        Parallel.forRange(threads, a.chunks.length, par, (from, to) -> {
-            for (long c = from; c < to; c++) {
-                double[] psi = a.chunks[(int) c];
-                int base = (int) (c << cl);
-                for (int i = 0, x = 0; x < psi.length; i++, x += 2) {
-                    out[base + i] = psi[x] * psi[x] + psi[x + 1] * psi[x + 1];
+        Parallel.forRange(threads, 1L << (a.n - bl), par, (from, to) -> {
+            for (long b = from; b < to; b++) {
+                long first = b << bl;
+                double[] psi = a.chunks[(int) (first >>> a.chunkLog)];
+                int start = (int) (first & a.chunkMask) << 1;
+                int end = start + (2 << bl);
+                int i = (int) first;
+                for (int x = start; x < end; x += 2, i++) {
+                    out[i] = psi[x] * psi[x] + psi[x + 1] * psi[x + 1];
                 }
             }
         });
