@@ -630,13 +630,7 @@ public final class Circuit {
             Objects.requireNonNull(op, "op");
             Objects.requireNonNull(controls, "controls");
             requireGateShape(op, targets, "controlled");
-            int[] all = new int[controls.length + targets.length];
-            System.arraycopy(controls, 0, all, 0, controls.length);
-            System.arraycopy(targets, 0, all, controls.length, targets.length);
-            Checks.requireDistinctQubits(all, qubits, "the controls and targets");
-            list.add(Instruction.gate("controlled", new double[0], op, targets.clone(),
-                    controls.clone()));
-            return this;
+            return controlledGate("controlled", op, controls, targets);
         }
 
         private void requireGateShape(Operator op, int[] qs, String what) {
