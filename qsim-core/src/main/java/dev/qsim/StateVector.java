@@ -7,6 +7,7 @@ import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
 
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.Internals;
 import dev.qsim.kernel.Parallel;
 import dev.qsim.kernel.Reductions;
 
@@ -33,6 +34,31 @@ public final class StateVector {
     public static final double NORM_TOLERANCE = 1e-9;
     /** The most qubits a state vector may have: {@value} (the heap is the real limit). */
     public static final int MAX_QUBITS = 40;
+
+    static {
+        Internals.register(new Internals.Access() {
+            @Override
+            public Amplitudes amplitudes(StateVector state) {
+                return state.amps;
+            }
+
+            @Override
+            public StateVector wrap(Amplitudes amplitudes, int threads) {
+                return new StateVector(amplitudes).withThreads(threads);
+            }
+
+            @Override
+            public void applyGate(Amplitudes amplitudes, Instruction gate, int threads) {
+                Engine.gate(amplitudes, gate, threads);
+            }
+
+            @Override
+            public int measure(Amplitudes amplitudes, int qubit, UniformRandomProvider rng,
+                    int threads) {
+                return Engine.measure(amplitudes, qubit, rng, threads);
+            }
+        });
+    }
 
     private final Amplitudes amps;
     private int threads = Runtime.getRuntime().availableProcessors();

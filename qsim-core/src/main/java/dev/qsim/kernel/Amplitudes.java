@@ -61,6 +61,25 @@ public final class Amplitudes {
         return n;
     }
 
+    /**
+     * Returns the chunk arrays themselves (live). Amplitude {@code i} is in chunk
+     * {@code i >>> chunkLog()} at double offset {@code 2 * (i & ((1 << chunkLog()) - 1))}.
+     *
+     * @return the chunks
+     */
+    public double[][] chunks() {
+        return chunks;
+    }
+
+    /**
+     * Returns log2 of the amplitudes per chunk.
+     *
+     * @return the chunk log
+     */
+    public int chunkLog() {
+        return chunkLog;
+    }
+
     /** @return a deep copy */
     public Amplitudes copy() {
         double[][] c = new double[chunks.length][];
