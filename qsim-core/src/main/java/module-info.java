@@ -8,6 +8,8 @@ module dev.qsim {
     requires transitive org.apache.commons.numbers.complex;
     requires transitive org.apache.commons.rng.api;
     requires org.apache.commons.rng.simple;
+    requires org.apache.commons.statistics.distribution;
+    requires org.apache.commons.statistics.inference;
 
     exports dev.qsim;
 }
