@@ -1,5 +1,6 @@
 package dev.qsim;
 
+import java.util.ArrayList;
 import java.util.List;
 
 import org.apache.commons.rng.UniformRandomProvider;
@@ -15,18 +16,81 @@ final class Engine {
     private Engine() {
     }
 
-    static void gate(Amplitudes a, Instruction in, int threads) {
+    /** Log2 of the amplitudes a cache block holds (256 KiB in double precision). */
+    static final int CACHE_LOG = 14;
+
+    static Kernels.Plan plan(Amplitudes a, Instruction in) {
         switch (in.shape) {
             case Instruction.SHAPE_DIAGONAL:
-                Kernels.diagonal(a, in.targetsRaw(), in.controlsRaw(), in.data, threads);
-                break;
+                return Kernels.diagonalPlan(a, in.targetsRaw(), in.controlsRaw(), in.data);
             case Instruction.SHAPE_MONOMIAL:
-                Kernels.monomial(a, in.targetsRaw(), in.controlsRaw(), in.perm, in.data, threads);
-                break;
+                return Kernels.monomialPlan(a, in.targetsRaw(), in.controlsRaw(), in.perm,
+                        in.data);
             default:
-                Kernels.dense(a, in.targetsRaw(), in.controlsRaw(), in.data, threads);
-                break;
+                return Kernels.densePlan(a, in.targetsRaw(), in.controlsRaw(), in.data);
         }
+    }
+
+    static void gate(Amplitudes a, Instruction in, int threads) {
+        plan(a, in).apply(threads);
+    }
+
+    /**
+     * Applies gates {@code [from, to)} of a list in order. Consecutive gates that all act below
+     * the cache-block size are applied block by block while each block sits in cache (cache
+     * blocking), with the same result as one at a time.
+     */
+    static void gates(Amplitudes a, List<Instruction> list, int from, int to, int threads) {
+        int blockLog = Math.min(CACHE_LOG, a.chunkLog());
+        boolean blocking = a.qubits() > blockLog;
+        int i = from;
+        while (i < to) {
+            Kernels.Plan p = plan(a, list.get(i));
+            if (!blocking || p.unitsPerBlock(blockLog) < 0) {
+                p.apply(threads);
+                i++;
+                continue;
+            }
+            List<Kernels.Plan> group = new ArrayList<>();
+            group.add(p);
+            int j = i + 1;
+            while (j < to) {
+                Kernels.Plan q = plan(a, list.get(j));
+                if (q.unitsPerBlock(blockLog) < 0) {
+                    break;
+                }
+                group.add(q);
+                j++;
+            }
+            if (group.size() == 1) {
+                p.apply(threads);
+            } else {
+                Kernels.applyBlocked(a, group.toArray(new Kernels.Plan[0]), blockLog, threads);
+            }
+            i = j;
+        }
+    }
+
+    /**
+     * Returns the list with each run of consecutive gates fused (see {@link Fusion}); classical
+     * instructions stay where they are. Conditioned blocks are kept as they are.
+     */
+    static List<Instruction> fuse(List<Instruction> list) {
+        List<Instruction> out = new ArrayList<>();
+        int i = 0;
+        while (i < list.size()) {
+            if (list.get(i).isClassical()) {
+                out.add(list.get(i++));
+                continue;
+            }
+            int j = i;
+            while (j < list.size() && !list.get(j).isClassical()) {
+                j++;
+            }
+            out.addAll(Fusion.fuse(list.subList(i, j)));
+            i = j;
+        }
+        return out;
     }
 
     /**
@@ -53,12 +117,18 @@ final class Engine {
     /** Runs instructions from index {@code from} on, for one shot; clbits in {@code reg}. */
     static void run(Amplitudes a, List<Instruction> list, int from, boolean[] reg,
             UniformRandomProvider rng, int threads) {
-        for (int i = from; i < list.size(); i++) {
+        int i = from;
+        while (i < list.size()) {
             Instruction in = list.get(i);
             switch (in.kind()) {
                 case GATE:
-                    gate(a, in, threads);
-                    break;
+                    int j = i + 1;
+                    while (j < list.size() && list.get(j).kind() == Instruction.Kind.GATE) {
+                        j++;
+                    }
+                    gates(a, list, i, j, threads);
+                    i = j;
+                    continue;
                 case MEASURE:
                     reg[in.clbit()] = measure(a, in.targetsRaw()[0], rng, threads) == 1;
                     break;
@@ -71,6 +141,7 @@ final class Engine {
                     }
                     break;
             }
+            i++;
         }
     }
 }

@@ -30,10 +30,12 @@ import dev.qsim.kernel.Parallel;
 public final class Simulator {
     private final long seed;
     private final int threads;
+    private final boolean fusion;
 
-    private Simulator(long seed, int threads) {
+    private Simulator(long seed, int threads, boolean fusion) {
         this.seed = seed;
         this.threads = threads;
+        this.fusion = fusion;
     }
 
     /**
@@ -43,7 +45,7 @@ public final class Simulator {
      * @return the simulator
      */
     public static Simulator seeded(long seed) {
-        return new Simulator(seed, Runtime.getRuntime().availableProcessors());
+        return new Simulator(seed, Runtime.getRuntime().availableProcessors(), true);
     }
 
     /**
@@ -55,7 +57,29 @@ public final class Simulator {
      */
     public Simulator withThreads(int threads) {
         Checks.requireInRange(threads, 1, Parallel.MAX_THREADS, "thread count");
-        return new Simulator(seed, threads);
+        return new Simulator(seed, threads, fusion);
+    }
+
+    /**
+     * Returns a simulator like this one with gate fusion on or off. With fusion (the default),
+     * runs of gates on a few qubits are merged into one dense operator before they are applied,
+     * which streams the state fewer times; results agree with unfused runs to rounding (about
+     * 1e-15 per amplitude), and are still the same for the same seed whatever the thread count.
+     *
+     * @param on whether to fuse gates
+     * @return the new simulator
+     */
+    public Simulator withFusion(boolean on) {
+        return new Simulator(seed, threads, on);
+    }
+
+    /**
+     * Tells whether gate fusion is on.
+     *
+     * @return whether gates are fused
+     */
+    public boolean fusion() {
+        return fusion;
     }
 
     /**
@@ -95,15 +119,16 @@ public final class Simulator {
         Checks.requirePositiveShots(shots);
         StateVector state = StateVector.zero(circuit.qubits()).withThreads(threads);
         UniformRandomProvider rng = rng();
-        List<Instruction> list = circuit.instructions();
-        if (measurementsDeferrable(list)) {
+        List<Instruction> original = circuit.instructions();
+        if (measurementsDeferrable(original)) {
             return sampleAtEnd(circuit, state, shots, rng);
         }
+        List<Instruction> list = fusion ? Engine.fuse(original) : original;
         int first = 0;
         while (first < list.size() && !list.get(first).isClassical()) {
-            Engine.gate(state.store(), list.get(first), threads);
             first++;
         }
+        Engine.gates(state.store(), list, 0, first, threads);
         Amplitudes prefix = state.store();
         Amplitudes work = state.copy().store();
         boolean[] reg = new boolean[circuit.clbits()];
@@ -151,13 +176,17 @@ public final class Simulator {
     private Tally sampleAtEnd(Circuit circuit, StateVector state, int shots,
             UniformRandomProvider rng) {
         List<int[]> measures = new ArrayList<>();
+        List<Instruction> gates = new ArrayList<>();
         for (Instruction in : circuit.instructions()) {
             if (in.kind() == Instruction.Kind.GATE) {
-                Engine.gate(state.store(), in, threads);
+                gates.add(in);
             } else {
                 measures.add(new int[] {in.targetsRaw()[0], in.clbit()});
             }
         }
+        // Measured qubits are not touched afterwards, so all gates may run first.
+        List<Instruction> program = fusion ? Fusion.fuse(gates) : gates;
+        Engine.gates(state.store(), program, 0, program.size(), threads);
         int width = circuit.clbits();
         if (measures.isEmpty()) {
             Map<String, Long> one = new HashMap<>();
@@ -200,8 +229,9 @@ public final class Simulator {
     public StateVector stateAfter(Circuit circuit) {
         Objects.requireNonNull(circuit, "circuit");
         StateVector state = StateVector.zero(circuit.qubits()).withThreads(threads);
-        Engine.run(state.store(), circuit.instructions(), 0, new boolean[circuit.clbits()], rng(),
-                threads);
+        List<Instruction> list = fusion ? Engine.fuse(circuit.instructions())
+                : circuit.instructions();
+        Engine.run(state.store(), list, 0, new boolean[circuit.clbits()], rng(), threads);
         return state;
     }
 
@@ -212,6 +242,7 @@ public final class Simulator {
      */
     @Override
     public String toString() {
-        return "Simulator[seed " + seed + ", " + threads + " threads]";
+        return "Simulator[seed " + seed + ", " + threads + " threads, fusion "
+                + (fusion ? "on" : "off") + "]";
     }
 }

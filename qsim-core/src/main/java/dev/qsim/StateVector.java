@@ -402,9 +402,7 @@ public final class StateVector {
                     + " qubit(s) but the state has " + qubits() + "; they must match");
         }
         circuit.requireGatesOnly("StateVector.apply(Circuit)");
-        for (Instruction in : circuit.instructions()) {
-            Engine.gate(amps, in, threads);
-        }
+        Engine.gates(amps, circuit.instructions(), 0, circuit.size(), threads);
         return this;
     }
 

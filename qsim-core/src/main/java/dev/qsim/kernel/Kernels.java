@@ -18,6 +18,77 @@ public final class Kernels {
     }
 
     /**
+     * A gate prepared for one state: its index layout and kernel chosen once. The work is
+     * {@link #units()} independent units; {@link #run(long, long)} does a range of them, so
+     * ranges may go to different threads. Internal.
+     */
+    public abstract static class Plan {
+        final Amplitudes a;
+
+        Plan(Amplitudes a) {
+            this.a = a;
+        }
+
+        /**
+         * Returns the number of independent work units.
+         *
+         * @return the unit count
+         */
+        public abstract long units();
+
+        /**
+         * Does the units {@code [from, to)}.
+         *
+         * @param from first unit
+         * @param to end unit, exclusive
+         */
+        public abstract void run(long from, long to);
+
+        /**
+         * Returns the number of units in each aligned block of {@code 2^blockLog} amplitudes
+         * when every qubit the gate touches is below {@code blockLog} (units are then ordered
+         * block by block), or -1 when the gate reaches a qubit at or above it.
+         *
+         * @param blockLog log2 of the block size, at most the chunk log
+         * @return units per block, or -1
+         */
+        public abstract long unitsPerBlock(int blockLog);
+
+        /**
+         * Applies the whole gate.
+         *
+         * @param threads threads to use
+         */
+        public void apply(int threads) {
+            Parallel.forRange(threads, units(), parallel(a), this::run);
+        }
+    }
+
+    /**
+     * Applies several gates whose qubits are all below {@code blockLog}, block by block: each
+     * block of {@code 2^blockLog} amplitudes gets every gate in order while it sits in cache, so
+     * the state is streamed once for the group. Same result as applying them one by one.
+     *
+     * @param a amplitudes. Modified.
+     * @param plans plans for {@code a}, each with {@code unitsPerBlock(blockLog) > 0}
+     * @param blockLog log2 of the block size, at most the chunk log
+     * @param threads threads to use
+     */
+    public static void applyBlocked(Amplitudes a, Plan[] plans, int blockLog, int threads) {
+        final long[] per = new long[plans.length];
+        for (int i = 0; i < plans.length; i++) {
+            per[i] = plans[i].unitsPerBlock(blockLog);
+        }
+        Parallel.forRange(threads, 1L << (a.n - blockLog), parallel(a), (from, to) -> {
+            for (long b = from; b < to; b++) {
+                for (int i = 0; i < plans.length; i++) {
+                    plans[i].run(b * per[i], (b + 1) * per[i]);
+                }
+            }
+        });
+    }
+
+    /**
      * Applies a dense 2x2 matrix to qubit {@code q} with no controls.
      *
      * @param a amplitudes. Modified.
@@ -26,13 +97,37 @@ public final class Kernels {
      * @param threads threads to use
      */
     public static void dense1(Amplitudes a, int q, double[] m, int threads) {
-        final long pairs = 1L << (a.n - 1);
-        final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
-        if (q < a.chunkLog) {
-            final long blocks = pairs >>> q;
-            Parallel.forRange(threads, blocks, par, (from, to) -> dense1Low(a, q, m, from, to));
-        } else {
-            Parallel.forRange(threads, pairs, par, (from, to) -> dense1High(a, q, m, from, to));
+        new Dense1Plan(a, q, m).apply(threads);
+    }
+
+    private static final class Dense1Plan extends Plan {
+        final int q;
+        final double[] m;
+
+        Dense1Plan(Amplitudes a, int q, double[] m) {
+            super(a);
+            this.q = q;
+            this.m = m;
+        }
+
+        @Override
+        public long units() {
+            final long pairs = 1L << (a.n - 1);
+            return q < a.chunkLog ? pairs >>> q : pairs;
+        }
+
+        @Override
+        public void run(long from, long to) {
+            if (q < a.chunkLog) {
+                dense1Low(a, q, m, from, to);
+            } else {
+                dense1High(a, q, m, from, to);
+            }
+        }
+
+        @Override
+        public long unitsPerBlock(int blockLog) {
+            return q < blockLog ? 1L << (blockLog - q - 1) : -1;
         }
     }
 
@@ -233,6 +328,75 @@ public final class Kernels {
         return a.n >= Parallel.MIN_PARALLEL_QUBITS;
     }
 
+    /** A plan on a {@link Layout}: one unit is one block of the layout. */
+    private abstract static class LayoutPlan extends Plan {
+        final Layout l;
+        final int maxPosition;
+
+        LayoutPlan(Amplitudes a, int[] targets, int[] controls) {
+            super(a);
+            this.l = new Layout(a, targets, controls);
+            int max = -1;
+            for (int t : targets) {
+                max = Math.max(max, t);
+            }
+            for (int c : controls) {
+                max = Math.max(max, c);
+            }
+            this.maxPosition = max;
+        }
+
+        @Override
+        public long units() {
+            return l.outer;
+        }
+
+        @Override
+        public long unitsPerBlock(int blockLog) {
+            if (maxPosition >= blockLog || l.blockLog + l.highPos.length > blockLog) {
+                return -1;
+            }
+            return 1L << (blockLog - l.highPos.length - l.blockLog);
+        }
+    }
+
+    /**
+     * Prepares a dense {@code 2^k x 2^k} matrix on the given targets, where every control is 1.
+     *
+     * @param a amplitudes
+     * @param targets target qubits, bit j of the matrix index is targets[j]
+     * @param controls control qubits (may be empty)
+     * @param m matrix, length 2 * 4^k. Not modified.
+     * @return the plan
+     */
+    public static Plan densePlan(Amplitudes a, int[] targets, int[] controls, double[] m) {
+        if (targets.length == 1 && controls.length == 0) {
+            return new Dense1Plan(a, targets[0], m);
+        }
+        if (targets.length == 1) {
+            return new LayoutPlan(a, targets, controls) {
+                @Override
+                public void run(long from, long to) {
+                    dense2x2(a, l, m, from, to);
+                }
+            };
+        }
+        if (targets.length == 2) {
+            return new LayoutPlan(a, targets, controls) {
+                @Override
+                public void run(long from, long to) {
+                    dense4x4(a, l, m, from, to);
+                }
+            };
+        }
+        return new LayoutPlan(a, targets, controls) {
+            @Override
+            public void run(long from, long to) {
+                denseBlocks(a, l, m, from, to);
+            }
+        };
+    }
+
     /**
      * Applies a dense {@code 2^k x 2^k} matrix to the given targets, where every control is 1.
      *
@@ -243,16 +407,7 @@ public final class Kernels {
      * @param threads threads to use
      */
     public static void dense(Amplitudes a, int[] targets, int[] controls, double[] m, int threads) {
-        if (targets.length == 1 && controls.length == 0) {
-            dense1(a, targets[0], m, threads);
-            return;
-        }
-        final Layout l = new Layout(a, targets, controls);
-        if (l.d == 2) {
-            Parallel.forRange(threads, l.outer, parallel(a), (from, to) -> dense2x2(a, l, m, from, to));
-        } else {
-            Parallel.forRange(threads, l.outer, parallel(a), (from, to) -> denseBlocks(a, l, m, from, to));
-        }
+        densePlan(a, targets, controls, m).apply(threads);
     }
 
     private static void dense2x2(Amplitudes a, Layout l, double[] m, long from, long to) {
@@ -276,6 +431,48 @@ public final class Kernels {
                 u[x + 1] = m00r * ai + m00i * ar + m01r * bi + m01i * br;
                 v[y] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
                 v[y + 1] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
+            }
+        }
+    }
+
+    private static void dense4x4(Amplitudes a, Layout l, double[] m, long from, long to) {
+        final double a00 = m[0], b00 = m[1], a01 = m[2], b01 = m[3];
+        final double a02 = m[4], b02 = m[5], a03 = m[6], b03 = m[7];
+        final double a10 = m[8], b10 = m[9], a11 = m[10], b11 = m[11];
+        final double a12 = m[12], b12 = m[13], a13 = m[14], b13 = m[15];
+        final double a20 = m[16], b20 = m[17], a21 = m[18], b21 = m[19];
+        final double a22 = m[20], b22 = m[21], a23 = m[22], b23 = m[23];
+        final double a30 = m[24], b30 = m[25], a31 = m[26], b31 = m[27];
+        final double a32 = m[28], b32 = m[29], a33 = m[30], b33 = m[31];
+        final double[][] arr = new double[4][];
+        final int[] off = new int[4];
+        final int count = l.count;
+        for (long o = from; o < to; o++) {
+            l.locate(a, o, arr, off);
+            final double[] p0 = arr[0], p1 = arr[1], p2 = arr[2], p3 = arr[3];
+            final int o0 = off[0], o1 = off[1], o2 = off[2], o3 = off[3];
+            for (int r = 0; r < count; r++) {
+                final int e = l.entry(r);
+                final int x0 = (o0 + e) << 1, x1 = (o1 + e) << 1;
+                final int x2 = (o2 + e) << 1, x3 = (o3 + e) << 1;
+                final double r0 = p0[x0], i0 = p0[x0 + 1], r1 = p1[x1], i1 = p1[x1 + 1];
+                final double r2 = p2[x2], i2 = p2[x2 + 1], r3 = p3[x3], i3 = p3[x3 + 1];
+                p0[x0] = a00 * r0 - b00 * i0 + a01 * r1 - b01 * i1
+                        + a02 * r2 - b02 * i2 + a03 * r3 - b03 * i3;
+                p0[x0 + 1] = a00 * i0 + b00 * r0 + a01 * i1 + b01 * r1
+                        + a02 * i2 + b02 * r2 + a03 * i3 + b03 * r3;
+                p1[x1] = a10 * r0 - b10 * i0 + a11 * r1 - b11 * i1
+                        + a12 * r2 - b12 * i2 + a13 * r3 - b13 * i3;
+                p1[x1 + 1] = a10 * i0 + b10 * r0 + a11 * i1 + b11 * r1
+                        + a12 * i2 + b12 * r2 + a13 * i3 + b13 * r3;
+                p2[x2] = a20 * r0 - b20 * i0 + a21 * r1 - b21 * i1
+                        + a22 * r2 - b22 * i2 + a23 * r3 - b23 * i3;
+                p2[x2 + 1] = a20 * i0 + b20 * r0 + a21 * i1 + b21 * r1
+                        + a22 * i2 + b22 * r2 + a23 * i3 + b23 * r3;
+                p3[x3] = a30 * r0 - b30 * i0 + a31 * r1 - b31 * i1
+                        + a32 * r2 - b32 * i2 + a33 * r3 - b33 * i3;
+                p3[x3 + 1] = a30 * i0 + b30 * r0 + a31 * i1 + b31 * r1
+                        + a32 * i2 + b32 * r2 + a33 * i3 + b33 * r3;
             }
         }
     }
@@ -326,8 +523,25 @@ public final class Kernels {
      */
     public static void diagonal(Amplitudes a, int[] targets, int[] controls, double[] diag,
             int threads) {
-        final Layout l = new Layout(a, targets, controls);
-        Parallel.forRange(threads, l.outer, parallel(a), (from, to) -> diagonalBlocks(a, l, diag, from, to));
+        diagonalPlan(a, targets, controls, diag).apply(threads);
+    }
+
+    /**
+     * Prepares a diagonal gate; see {@link #diagonal}.
+     *
+     * @param a amplitudes
+     * @param targets target qubits
+     * @param controls control qubits (may be empty)
+     * @param diag the diagonal, re/im interleaved, length 2 * 2^k. Not modified.
+     * @return the plan
+     */
+    public static Plan diagonalPlan(Amplitudes a, int[] targets, int[] controls, double[] diag) {
+        return new LayoutPlan(a, targets, controls) {
+            @Override
+            public void run(long from, long to) {
+                diagonalBlocks(a, l, diag, from, to);
+            }
+        };
     }
 
     private static void diagonalBlocks(Amplitudes a, Layout l, double[] diag, long from, long to) {
@@ -382,18 +596,40 @@ public final class Kernels {
      */
     public static void monomial(Amplitudes a, int[] targets, int[] controls, int[] perm,
             double[] phase, int threads) {
-        final Layout l = new Layout(a, targets, controls);
+        monomialPlan(a, targets, controls, perm, phase).apply(threads);
+    }
+
+    /**
+     * Prepares a monomial gate; see {@link #monomial}.
+     *
+     * @param a amplitudes
+     * @param targets target qubits
+     * @param controls control qubits (may be empty)
+     * @param perm destination of each column, length 2^k. Not modified.
+     * @param phase the non-zero entry of each column, re/im interleaved. Not modified.
+     * @return the plan
+     */
+    public static Plan monomialPlan(Amplitudes a, int[] targets, int[] controls, int[] perm,
+            double[] phase) {
         boolean ones = true;
         for (int j = 0; j < perm.length; j++) {
             ones &= phase[2 * j] == 1 && phase[2 * j + 1] == 0;
         }
         final boolean pure = ones;
-        if (pure && l.d == 2 && perm[0] == 1) {
-            Parallel.forRange(threads, l.outer, parallel(a), (from, to) -> swapBlocks(a, l, from, to));
-        } else {
-            Parallel.forRange(threads, l.outer, parallel(a),
-                    (from, to) -> monomialBlocks(a, l, perm, phase, pure, from, to));
+        if (pure && perm.length == 2 && perm[0] == 1) {
+            return new LayoutPlan(a, targets, controls) {
+                @Override
+                public void run(long from, long to) {
+                    swapBlocks(a, l, from, to);
+                }
+            };
         }
+        return new LayoutPlan(a, targets, controls) {
+            @Override
+            public void run(long from, long to) {
+                monomialBlocks(a, l, perm, phase, pure, from, to);
+            }
+        };
     }
 
     /** A plain or controlled X: swap the two halves. */

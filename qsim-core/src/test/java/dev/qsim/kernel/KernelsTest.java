@@ -185,4 +185,52 @@ class KernelsTest {
         // Same bits whatever the thread count: the blocks are fixed.
         assertEquals(Reductions.norm2(a, 1), Reductions.norm2(a, threads), 0.0);
     }
+
+    @ParameterizedTest(name = "n={0} chunkLog={1} blockLog={2} threads={3}")
+    @CsvSource({"12, 12, 10, 1", "12, 6, 6, 2", "15, 15, 12, 2", "16, 8, 8, 3"})
+    void cacheBlockedGroupEqualsOneByOneBitwise(int n, int chunkLog, int blockLog, int threads) {
+        // Blocking changes only the order in which independent amplitude groups are visited, so
+        // the result must be identical to the bit (common practice for loop tiling).
+        long seed = 77L * n + blockLog;
+        SplittableRandom r = new SplittableRandom(seed);
+        double[] in = randomVector(n, r);
+        Amplitudes blocked = load(in, n, chunkLog);
+        Amplitudes plain = load(in, n, chunkLog);
+        Kernels.Plan[] plans = new Kernels.Plan[12];
+        Kernels.Plan[] plainPlans = new Kernels.Plan[plans.length];
+        for (int g = 0; g < plans.length; g++) {
+            int k = 1 + g % 3;
+            int nc = g % 2;
+            int[] qs = pickDistinct(blockLog, k + nc, r);
+            int[] targets = java.util.Arrays.copyOf(qs, k);
+            int[] controls = java.util.Arrays.copyOfRange(qs, k, k + nc);
+            int d = 1 << k;
+            double[] m = new double[2 * d * d];
+            for (int i = 0; i < m.length; i++) {
+                m[i] = r.nextDouble(-1, 1);
+            }
+            double[] diag = java.util.Arrays.copyOf(m, 2 * d);
+            int[] perm = pickDistinct(d, d, r);
+            switch (g % 3) {
+                case 0:
+                    plans[g] = Kernels.densePlan(blocked, targets, controls, m);
+                    plainPlans[g] = Kernels.densePlan(plain, targets, controls, m);
+                    break;
+                case 1:
+                    plans[g] = Kernels.diagonalPlan(blocked, targets, controls, diag);
+                    plainPlans[g] = Kernels.diagonalPlan(plain, targets, controls, diag);
+                    break;
+                default:
+                    plans[g] = Kernels.monomialPlan(blocked, targets, controls, perm, diag);
+                    plainPlans[g] = Kernels.monomialPlan(plain, targets, controls, perm, diag);
+                    break;
+            }
+            assertEquals(true, plans[g].unitsPerBlock(blockLog) > 0, "seed " + seed);
+        }
+        Kernels.applyBlocked(blocked, plans, blockLog, threads);
+        for (Kernels.Plan p : plainPlans) {
+            p.apply(1);
+        }
+        assertArrayEquals(unload(plain), unload(blocked), 0.0, "seed " + seed);
+    }
 }
