@@ -235,8 +235,8 @@ public final class Kernels {
         final int d;            // 2^k target combinations
         final long[] highOff;   // high part of the offset of combination j
         final int[] lowOff;     // low part of the offset of combination j
-        final int[] table;      // in-block offsets to visit, or null for a whole run
-        final int count;        // entries visited per block
+        final int[] starts;     // in-block offsets where runs of visited amplitudes start
+        final int run;          // amplitudes per run (2^lowest position, or the whole block)
         final int blockLog;
         final int[] highPos;    // ascending positions at or above blockLog
         final long highCtrl;    // controls at or above blockLog
@@ -279,20 +279,22 @@ public final class Kernels {
                 lowOff[j] = (int) (o & lowMask);
             }
             if (lowCount == 0) {
-                table = null;
-                count = 1 << blockLog;
+                starts = new int[] {0};
+                run = 1 << blockLog;
             } else {
-                count = 1 << (blockLog - lowCount);
-                table = new int[count];
+                // Runs of 2^p0 amplitudes below the lowest gate qubit p0 are contiguous.
+                int p0 = positions[0];
+                run = 1 << p0;
+                starts = new int[1 << (blockLog - lowCount - p0)];
                 long lowPosMask = 0;
                 for (int i = 0; i < lowCount; i++) {
                     lowPosMask |= 1L << positions[i];
                 }
                 int lowCtrl = (int) (ctrl & lowMask);
                 int w = 0;
-                for (int e = 0; e < (1 << blockLog); e++) {
+                for (int e = 0; e < (1 << blockLog); e += run) {
                     if ((e & lowPosMask) == 0) {
-                        table[w++] = e | lowCtrl;
+                        starts[w++] = e | lowCtrl;
                     }
                 }
             }
@@ -318,10 +320,6 @@ public final class Kernels {
             }
         }
 
-        /** In-block offset of the r-th visited entry. */
-        int entry(int r) {
-            return table == null ? r : table[r];
-        }
     }
 
     private static boolean parallel(Amplitudes a) {
@@ -415,22 +413,25 @@ public final class Kernels {
         final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
         final double[][] arr = new double[2][];
         final int[] off = new int[2];
-        final int count = l.count;
+        final int[] starts = l.starts;
+        final int run = l.run;
         for (long o = from; o < to; o++) {
             l.locate(a, o, arr, off);
             final double[] u = arr[0];
             final double[] v = arr[1];
             final int uo = off[0];
             final int vo = off[1];
-            for (int r = 0; r < count; r++) {
-                final int e = l.entry(r);
-                final int x = (uo + e) << 1;
-                final int y = (vo + e) << 1;
-                final double ar = u[x], ai = u[x + 1], br = v[y], bi = v[y + 1];
-                u[x] = m00r * ar - m00i * ai + m01r * br - m01i * bi;
-                u[x + 1] = m00r * ai + m00i * ar + m01r * bi + m01i * br;
-                v[y] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
-                v[y + 1] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
+            for (int t = 0; t < starts.length; t++) {
+                final int e0 = starts[t];
+                for (int e = e0; e < e0 + run; e++) {
+                    final int x = (uo + e) << 1;
+                    final int y = (vo + e) << 1;
+                    final double ar = u[x], ai = u[x + 1], br = v[y], bi = v[y + 1];
+                    u[x] = m00r * ar - m00i * ai + m01r * br - m01i * bi;
+                    u[x + 1] = m00r * ai + m00i * ar + m01r * bi + m01i * br;
+                    v[y] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
+                    v[y + 1] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
+                }
             }
         }
     }
@@ -446,33 +447,36 @@ public final class Kernels {
         final double a32 = m[28], b32 = m[29], a33 = m[30], b33 = m[31];
         final double[][] arr = new double[4][];
         final int[] off = new int[4];
-        final int count = l.count;
+        final int[] starts = l.starts;
+        final int run = l.run;
         for (long o = from; o < to; o++) {
             l.locate(a, o, arr, off);
             final double[] p0 = arr[0], p1 = arr[1], p2 = arr[2], p3 = arr[3];
             final int o0 = off[0], o1 = off[1], o2 = off[2], o3 = off[3];
-            for (int r = 0; r < count; r++) {
-                final int e = l.entry(r);
-                final int x0 = (o0 + e) << 1, x1 = (o1 + e) << 1;
-                final int x2 = (o2 + e) << 1, x3 = (o3 + e) << 1;
-                final double r0 = p0[x0], i0 = p0[x0 + 1], r1 = p1[x1], i1 = p1[x1 + 1];
-                final double r2 = p2[x2], i2 = p2[x2 + 1], r3 = p3[x3], i3 = p3[x3 + 1];
-                p0[x0] = a00 * r0 - b00 * i0 + a01 * r1 - b01 * i1
-                        + a02 * r2 - b02 * i2 + a03 * r3 - b03 * i3;
-                p0[x0 + 1] = a00 * i0 + b00 * r0 + a01 * i1 + b01 * r1
-                        + a02 * i2 + b02 * r2 + a03 * i3 + b03 * r3;
-                p1[x1] = a10 * r0 - b10 * i0 + a11 * r1 - b11 * i1
-                        + a12 * r2 - b12 * i2 + a13 * r3 - b13 * i3;
-                p1[x1 + 1] = a10 * i0 + b10 * r0 + a11 * i1 + b11 * r1
-                        + a12 * i2 + b12 * r2 + a13 * i3 + b13 * r3;
-                p2[x2] = a20 * r0 - b20 * i0 + a21 * r1 - b21 * i1
-                        + a22 * r2 - b22 * i2 + a23 * r3 - b23 * i3;
-                p2[x2 + 1] = a20 * i0 + b20 * r0 + a21 * i1 + b21 * r1
-                        + a22 * i2 + b22 * r2 + a23 * i3 + b23 * r3;
-                p3[x3] = a30 * r0 - b30 * i0 + a31 * r1 - b31 * i1
-                        + a32 * r2 - b32 * i2 + a33 * r3 - b33 * i3;
-                p3[x3 + 1] = a30 * i0 + b30 * r0 + a31 * i1 + b31 * r1
-                        + a32 * i2 + b32 * r2 + a33 * i3 + b33 * r3;
+            for (int t = 0; t < starts.length; t++) {
+                final int e0 = starts[t];
+                for (int e = e0; e < e0 + run; e++) {
+                    final int x0 = (o0 + e) << 1, x1 = (o1 + e) << 1;
+                    final int x2 = (o2 + e) << 1, x3 = (o3 + e) << 1;
+                    final double r0 = p0[x0], i0 = p0[x0 + 1], r1 = p1[x1], i1 = p1[x1 + 1];
+                    final double r2 = p2[x2], i2 = p2[x2 + 1], r3 = p3[x3], i3 = p3[x3 + 1];
+                    p0[x0] = a00 * r0 - b00 * i0 + a01 * r1 - b01 * i1
+                            + a02 * r2 - b02 * i2 + a03 * r3 - b03 * i3;
+                    p0[x0 + 1] = a00 * i0 + b00 * r0 + a01 * i1 + b01 * r1
+                            + a02 * i2 + b02 * r2 + a03 * i3 + b03 * r3;
+                    p1[x1] = a10 * r0 - b10 * i0 + a11 * r1 - b11 * i1
+                            + a12 * r2 - b12 * i2 + a13 * r3 - b13 * i3;
+                    p1[x1 + 1] = a10 * i0 + b10 * r0 + a11 * i1 + b11 * r1
+                            + a12 * i2 + b12 * r2 + a13 * i3 + b13 * r3;
+                    p2[x2] = a20 * r0 - b20 * i0 + a21 * r1 - b21 * i1
+                            + a22 * r2 - b22 * i2 + a23 * r3 - b23 * i3;
+                    p2[x2 + 1] = a20 * i0 + b20 * r0 + a21 * i1 + b21 * r1
+                            + a22 * i2 + b22 * r2 + a23 * i3 + b23 * r3;
+                    p3[x3] = a30 * r0 - b30 * i0 + a31 * r1 - b31 * i1
+                            + a32 * r2 - b32 * i2 + a33 * r3 - b33 * i3;
+                    p3[x3 + 1] = a30 * i0 + b30 * r0 + a31 * i1 + b31 * r1
+                            + a32 * i2 + b32 * r2 + a33 * i3 + b33 * r3;
+                }
             }
         }
     }
@@ -483,29 +487,32 @@ public final class Kernels {
         final int[] off = new int[d];
         final double[] vr = new double[d];
         final double[] vi = new double[d];
-        final int count = l.count;
+        final int[] starts = l.starts;
+        final int run = l.run;
         for (long o = from; o < to; o++) {
             l.locate(a, o, arr, off);
-            for (int r = 0; r < count; r++) {
-                final int e = l.entry(r);
-                for (int j = 0; j < d; j++) {
-                    final int x = (off[j] + e) << 1;
-                    vr[j] = arr[j][x];
-                    vi[j] = arr[j][x + 1];
-                }
-                for (int i = 0; i < d; i++) {
-                    double sr = 0;
-                    double si = 0;
-                    final int row = 2 * i * d;
+            for (int t = 0; t < starts.length; t++) {
+                final int e0 = starts[t];
+                for (int e = e0; e < e0 + run; e++) {
                     for (int j = 0; j < d; j++) {
-                        final double mr = m[row + 2 * j];
-                        final double mi = m[row + 2 * j + 1];
-                        sr += mr * vr[j] - mi * vi[j];
-                        si += mr * vi[j] + mi * vr[j];
+                        final int x = (off[j] + e) << 1;
+                        vr[j] = arr[j][x];
+                        vi[j] = arr[j][x + 1];
                     }
-                    final int x = (off[i] + e) << 1;
-                    arr[i][x] = sr;
-                    arr[i][x + 1] = si;
+                    for (int i = 0; i < d; i++) {
+                        double sr = 0;
+                        double si = 0;
+                        final int row = 2 * i * d;
+                        for (int j = 0; j < d; j++) {
+                            final double mr = m[row + 2 * j];
+                            final double mi = m[row + 2 * j + 1];
+                            sr += mr * vr[j] - mi * vi[j];
+                            si += mr * vi[j] + mi * vr[j];
+                        }
+                        final int x = (off[i] + e) << 1;
+                        arr[i][x] = sr;
+                        arr[i][x + 1] = si;
+                    }
                 }
             }
         }
@@ -548,8 +555,8 @@ public final class Kernels {
         final int d = l.d;
         final double[][] arr = new double[d][];
         final int[] off = new int[d];
-        final int count = l.count;
-        final int[] table = l.table;
+        final int[] starts = l.starts;
+        final int run2 = l.run << 1;
         for (long o = from; o < to; o++) {
             l.locate(a, o, arr, off);
             for (int j = 0; j < d; j++) {
@@ -560,18 +567,10 @@ public final class Kernels {
                 }
                 final double[] psi = arr[j];
                 final int base = off[j];
-                if (table == null) {
-                    final int start = base << 1;
-                    final int end = start + (count << 1);
+                for (int t = 0; t < starts.length; t++) {
+                    final int start = (base + starts[t]) << 1;
+                    final int end = start + run2;
                     for (int x = start; x < end; x += 2) {
-                        final double re = psi[x];
-                        final double im = psi[x + 1];
-                        psi[x] = dr * re - di * im;
-                        psi[x + 1] = dr * im + di * re;
-                    }
-                } else {
-                    for (int r = 0; r < count; r++) {
-                        final int x = (base + table[r]) << 1;
                         final double re = psi[x];
                         final double im = psi[x + 1];
                         psi[x] = dr * re - di * im;
@@ -636,28 +635,14 @@ public final class Kernels {
     private static void swapBlocks(Amplitudes a, Layout l, long from, long to) {
         final double[][] arr = new double[2][];
         final int[] off = new int[2];
-        final int count = l.count;
-        final int[] table = l.table;
+        final int[] starts = l.starts;
+        final int run = l.run;
         for (long o = from; o < to; o++) {
             l.locate(a, o, arr, off);
             final double[] u = arr[0];
             final double[] v = arr[1];
-            if (table == null) {
-                swapRuns(u, off[0] << 1, v, off[1] << 1, count);
-                continue;
-            }
-            final int uo = off[0];
-            final int vo = off[1];
-            for (int r = 0; r < count; r++) {
-                final int e = table[r];
-                final int x = (uo + e) << 1;
-                final int y = (vo + e) << 1;
-                final double tr = u[x];
-                final double ti = u[x + 1];
-                u[x] = v[y];
-                u[x + 1] = v[y + 1];
-                v[y] = tr;
-                v[y + 1] = ti;
+            for (int t = 0; t < starts.length; t++) {
+                swapRuns(u, (off[0] + starts[t]) << 1, v, (off[1] + starts[t]) << 1, run);
             }
         }
     }
@@ -669,27 +654,30 @@ public final class Kernels {
         final int[] off = new int[d];
         final double[] vr = new double[d];
         final double[] vi = new double[d];
-        final int count = l.count;
+        final int[] starts = l.starts;
+        final int run = l.run;
         for (long o = from; o < to; o++) {
             l.locate(a, o, arr, off);
-            for (int r = 0; r < count; r++) {
-                final int e = l.entry(r);
-                for (int j = 0; j < d; j++) {
-                    final int x = (off[j] + e) << 1;
-                    vr[j] = arr[j][x];
-                    vi[j] = arr[j][x + 1];
-                }
-                for (int j = 0; j < d; j++) {
-                    final int t = perm[j];
-                    final int x = (off[t] + e) << 1;
-                    if (pure) {
-                        arr[t][x] = vr[j];
-                        arr[t][x + 1] = vi[j];
-                    } else {
-                        final double pr = phase[2 * j];
-                        final double pi = phase[2 * j + 1];
-                        arr[t][x] = pr * vr[j] - pi * vi[j];
-                        arr[t][x + 1] = pr * vi[j] + pi * vr[j];
+            for (int t = 0; t < starts.length; t++) {
+                final int e0 = starts[t];
+                for (int e = e0; e < e0 + run; e++) {
+                    for (int j = 0; j < d; j++) {
+                        final int x = (off[j] + e) << 1;
+                        vr[j] = arr[j][x];
+                        vi[j] = arr[j][x + 1];
+                    }
+                    for (int j = 0; j < d; j++) {
+                        final int dst = perm[j];
+                        final int x = (off[dst] + e) << 1;
+                        if (pure) {
+                            arr[dst][x] = vr[j];
+                            arr[dst][x + 1] = vi[j];
+                        } else {
+                            final double pr = phase[2 * j];
+                            final double pi = phase[2 * j + 1];
+                            arr[dst][x] = pr * vr[j] - pi * vi[j];
+                            arr[dst][x + 1] = pr * vi[j] + pi * vr[j];
+                        }
                     }
                 }
             }
