@@ -484,17 +484,32 @@ public final class StateVector {
         return Tally.ofKeys(qs.length, keys);
     }
 
-    /** Draws basis indices for {@code shots} shots, in ascending order. */
+    /**
+     * Draws basis indices for {@code shots} shots, in ascending order. The sorted uniforms are
+     * made directly as normalised partial sums of exponential spacings (L. Devroye,
+     * <i>Non-Uniform Random Variate Generation</i>, Springer 1986, §V.2), so no sort is needed;
+     * then one pass over the probabilities maps them to indices.
+     */
     long[] sampleIndices(int shots, UniformRandomProvider rng) {
         Memory.require(16L * shots, "sampling " + shots + " shots");
-        double total = Reductions.norm2(amps, threads);
-        double[] u = new double[shots];
-        for (int s = 0; s < shots; s++) {
-            u[s] = rng.nextDouble() * total;
+        double[] sums = Reductions.blockSums(amps, threads);
+        double total = 0;
+        for (double x : sums) {
+            total += x;
         }
-        Arrays.sort(u);
+        double[] u = new double[shots];
+        double acc = 0;
+        for (int s = 0; s < shots; s++) {
+            acc += -Math.log1p(-rng.nextDouble());
+            u[s] = acc;
+        }
+        acc += -Math.log1p(-rng.nextDouble());
+        double scale = total / acc;
+        for (int s = 0; s < shots; s++) {
+            u[s] *= scale;
+        }
         long[] idx = new long[shots];
-        Reductions.pickIndices(amps, u, idx);
+        Reductions.pickIndices(amps, sums, u, idx, threads);
         return idx;
     }
 

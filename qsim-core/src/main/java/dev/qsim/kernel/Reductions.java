@@ -165,41 +165,114 @@ public final class Reductions {
     }
 
     /**
-     * Maps sorted uniforms to basis indices in one pass over the probabilities: uniform
-     * {@code u[s]} (in {@code [0, total)}) picks the first index whose cumulative probability
-     * exceeds it. Uniforms beyond the final cumulative sum (rounding) pick the last index with
-     * non-zero probability.
+     * Returns the probability mass of each fixed summation block, {@code Σ|a_i|²} over block
+     * {@code b}, in index order within the block.
      *
      * @param a amplitudes. Not modified.
-     * @param sorted ascending uniforms scaled to the squared norm. Not modified.
-     * @param out picked index per uniform, same length. Modified.
+     * @param threads threads to use
+     * @return one sum per block of {@code 2^min(chunkLog, BLOCK_LOG)} amplitudes
      */
-    public static void pickIndices(Amplitudes a, double[] sorted, long[] out) {
-        final int cl = a.chunkLog;
-        int s = 0;
-        final int shots = sorted.length;
+    public static double[] blockSums(Amplitudes a, int threads) {
+        final int bl = blockLog(a);
+        final int blocks = 1 << (a.n - bl);
+        final double[] partial = new double[blocks];
+        final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
+        Parallel.forRange(threads, blocks, par, (from, to) -> {
+            for (long b = from; b < to; b++) {
+                long first = b << bl;
+                double[] psi = a.chunks[(int) (first >>> a.chunkLog)];
+                int start = (int) (first & a.chunkMask) << 1;
+                int end = start + (2 << bl);
+                double s = 0;
+                for (int x = start; x < end; x += 2) {
+                    s += psi[x] * psi[x] + psi[x + 1] * psi[x + 1];
+                }
+                partial[(int) b] = s;
+            }
+        });
+        return partial;
+    }
+
+    /**
+     * Maps sorted uniforms to basis indices: uniform {@code u[s]} in {@code [0, Σ blockSums)}
+     * picks the first index whose cumulative probability exceeds it (inverse-transform
+     * sampling). The uniforms are first assigned to blocks by the cumulative block sums, then
+     * each block with uniforms is walked once, in parallel; cumulative sums start from the
+     * block's prefix, so the result does not depend on the thread count. A uniform that rounding
+     * leaves past a block's last cumulative sum picks that block's last index of non-zero
+     * probability.
+     *
+     * @param a amplitudes. Not modified.
+     * @param sums the block sums from {@link #blockSums}. Not modified.
+     * @param sorted ascending uniforms. Not modified.
+     * @param out picked index per uniform, same length. Modified.
+     * @param threads threads to use
+     */
+    public static void pickIndices(Amplitudes a, double[] sums, double[] sorted, long[] out,
+            int threads) {
+        final int bl = blockLog(a);
+        final int blocks = sums.length;
+        final double[] prefix = new double[blocks];
+        final int[] firstShot = new int[blocks + 1];
         double cum = 0;
-        long lastNonZero = 0;
-        for (int c = 0; c < a.chunks.length && s < shots; c++) {
-            double[] psi = a.chunks[c];
-            long base = (long) c << cl;
-            for (int i = 0, x = 0; x < psi.length; i++, x += 2) {
-                double p = psi[x] * psi[x] + psi[x + 1] * psi[x + 1];
-                if (p == 0) {
-                    continue;
-                }
-                cum += p;
-                lastNonZero = base + i;
-                while (s < shots && sorted[s] < cum) {
-                    out[s++] = lastNonZero;
-                }
-                if (s == shots) {
-                    break;
-                }
+        int s = 0;
+        int lastUsed = 0;
+        for (int b = 0; b < blocks; b++) {
+            prefix[b] = cum;
+            firstShot[b] = s;
+            cum += sums[b];
+            if (sums[b] > 0) {
+                lastUsed = b;
+            }
+            while (s < sorted.length && sorted[s] < cum) {
+                s++;
             }
         }
-        while (s < shots) {
-            out[s++] = lastNonZero;
+        firstShot[blocks] = s;
+        // Uniforms left over by rounding go to the last block with mass.
+        for (int b = lastUsed + 1; b <= blocks; b++) {
+            firstShot[b] = sorted.length;
         }
+        final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
+        Parallel.forRange(threads, blocks, par, (from, to) -> {
+            for (int b = (int) from; b < to; b++) {
+                int lo = firstShot[b];
+                int hi = firstShot[b + 1];
+                if (lo == hi) {
+                    continue;
+                }
+                long first = (long) b << bl;
+                double[] psi = a.chunks[(int) (first >>> a.chunkLog)];
+                int start = (int) (first & a.chunkMask) << 1;
+                int end = start + (2 << bl);
+                double c = prefix[b];
+                long last = first;
+                int k = lo;
+                long idx = first;
+                for (int x = start; x < end && k < hi; x += 2, idx++) {
+                    double p = psi[x] * psi[x] + psi[x + 1] * psi[x + 1];
+                    if (p == 0) {
+                        continue;
+                    }
+                    c += p;
+                    last = idx;
+                    while (k < hi && sorted[k] < c) {
+                        out[k++] = idx;
+                    }
+                }
+                if (k < hi) {
+                    // Rounding: find the block's last index with mass.
+                    for (int x = end - 2; x >= start; x -= 2) {
+                        if (psi[x] != 0 || psi[x + 1] != 0) {
+                            last = first + ((x - start) >> 1);
+                            break;
+                        }
+                    }
+                    while (k < hi) {
+                        out[k++] = last;
+                    }
+                }
+            }
+        });
     }
 }

@@ -233,4 +233,52 @@ class KernelsTest {
         }
         assertArrayEquals(unload(plain), unload(blocked), 0.0, "seed " + seed);
     }
+
+    @ParameterizedTest(name = "n={0} chunkLog={1} threads={2}")
+    @CsvSource({"10, 10, 1", "10, 4, 2", "15, 6, 2", "15, 15, 3"})
+    void pickIndicesIsInverseTransformSampling(int n, int chunkLog, int threads) {
+        // Inverse-transform sampling: u picks the first index whose cumulative probability
+        // exceeds u (L. Devroye, Non-Uniform Random Variate Generation, 1986, §III.2.1).
+        // Reference: a plain sequential cumulative sum.
+        SplittableRandom r = new SplittableRandom(13L * n + chunkLog);
+        double[] v = randomVector(n, r);
+        for (int i = 0; i < v.length; i += 6) {
+            v[i] = 0;       // some zero-probability amplitudes
+            v[i + 1] = 0;
+        }
+        Amplitudes a = load(v, n, chunkLog);
+        double[] sums = Reductions.blockSums(a, threads);
+        double total = 0;
+        for (double x : sums) {
+            total += x;
+        }
+        double[] u = new double[2000];
+        for (int i = 0; i < u.length; i++) {
+            u[i] = r.nextDouble() * total;
+        }
+        java.util.Arrays.sort(u);
+        long[] out = new long[u.length];
+        Reductions.pickIndices(a, sums, u, out, threads);
+        for (int s = 0; s < u.length; s++) {
+            double cum = 0;
+            long expected = -1;
+            for (int i = 0; i < (1 << n); i++) {
+                cum += v[2 * i] * v[2 * i] + v[2 * i + 1] * v[2 * i + 1];
+                if (u[s] < cum) {
+                    expected = i;
+                    break;
+                }
+            }
+            double lo = 0;
+            for (int i = 0; i < expected; i++) {
+                lo += v[2 * i] * v[2 * i] + v[2 * i + 1] * v[2 * i + 1];
+            }
+            if (Math.abs(u[s] - lo) > 1e-9 && Math.abs(u[s] - cum) > 1e-9) {
+                assertEquals(expected, out[s], "uniform " + s + " = " + u[s]);
+            }
+            double p = v[2 * (int) out[s]] * v[2 * (int) out[s]]
+                    + v[2 * (int) out[s] + 1] * v[2 * (int) out[s] + 1];
+            assertEquals(true, p > 0, "a zero-probability index was picked");
+        }
+    }
 }
