@@ -17,16 +17,33 @@ import java.util.TreeMap;
 public final class Tally {
     private final int width;
     private final long shots;
-    private final SortedMap<String, Long> counts;
+    /** Outcomes as binary values, ascending; null when the width exceeds 63 bits. */
+    private final long[] keys;
+    private final long[] counts;
+    /** Outcomes by bitstring: built on first use when keys are held. */
+    private volatile SortedMap<String, Long> map;
+
+    private Tally(int width, long[] keys, long[] counts) {
+        this.width = width;
+        this.keys = keys;
+        this.counts = counts;
+        long sum = 0;
+        for (long c : counts) {
+            sum += c;
+        }
+        this.shots = sum;
+    }
 
     private Tally(int width, TreeMap<String, Long> counts) {
         this.width = width;
+        this.keys = null;
+        this.counts = null;
         long sum = 0;
         for (long c : counts.values()) {
             sum += c;
         }
         this.shots = sum;
-        this.counts = Collections.unmodifiableSortedMap(counts);
+        this.map = Collections.unmodifiableSortedMap(counts);
     }
 
     /**
@@ -63,27 +80,44 @@ public final class Tally {
             throw new IllegalArgumentException("a tally needs at least one shot but the counts"
                     + " sum to 0");
         }
-        return new Tally(width, copy);
+        return ofStrings(width, copy);
     }
 
     /** Builds a tally from one key per shot (bit j of a key is outcome bit j); sorts keys. */
     static Tally ofKeys(int width, long[] keys) {
         java.util.Arrays.sort(keys);
-        TreeMap<String, Long> map = new TreeMap<>();
-        int i = 0;
-        while (i < keys.length) {
-            int j = i;
-            while (j < keys.length && keys[j] == keys[i]) {
-                j++;
+        int distinct = 0;
+        for (int i = 0; i < keys.length; i++) {
+            if (i == 0 || keys[i] != keys[i - 1]) {
+                distinct++;
             }
-            map.put(bits(keys[i], width), (long) (j - i));
-            i = j;
         }
-        return new Tally(width, map);
+        long[] k = new long[distinct];
+        long[] c = new long[distinct];
+        int w = -1;
+        for (int i = 0; i < keys.length; i++) {
+            if (i == 0 || keys[i] != keys[i - 1]) {
+                k[++w] = keys[i];
+            }
+            c[w]++;
+        }
+        return new Tally(width, k, c);
     }
 
+    /** Builds a tally from validated bitstring counts (all positive). */
     static Tally ofStrings(int width, Map<String, Long> counts) {
-        return new Tally(width, new TreeMap<>(counts));
+        if (width > 63) {
+            return new Tally(width, new TreeMap<>(counts));
+        }
+        TreeMap<String, Long> sorted = new TreeMap<>(counts);
+        long[] k = new long[sorted.size()];
+        long[] c = new long[sorted.size()];
+        int i = 0;
+        for (Map.Entry<String, Long> e : sorted.entrySet()) {
+            k[i] = width == 0 ? 0 : Long.parseLong(e.getKey(), 2);
+            c[i++] = e.getValue();
+        }
+        return new Tally(width, k, c);
     }
 
     static String bits(long value, int width) {
@@ -138,7 +172,15 @@ public final class Tally {
      */
     public long count(String bits) {
         requireBits(bits, width);
-        return counts.getOrDefault(bits, 0L);
+        if (keys != null) {
+            return countOf(width == 0 ? 0 : Long.parseLong(bits, 2));
+        }
+        return map.getOrDefault(bits, 0L);
+    }
+
+    private long countOf(long value) {
+        int i = java.util.Arrays.binarySearch(keys, value);
+        return i >= 0 ? counts[i] : 0;
     }
 
     /**
@@ -154,11 +196,11 @@ public final class Tally {
                     + (width < 63 ? Long.toString((1L << width) - 1) : "2^" + width + " - 1")
                     + "] for width " + width);
         }
-        if (width > 63) {
-            StringBuilder sb = new StringBuilder("0".repeat(width - 63)).append(bits(value, 63));
-            return counts.getOrDefault(sb.toString(), 0L);
+        if (keys == null) {
+            String text = "0".repeat(width - 63) + bits(value, 63);
+            return map.getOrDefault(text, 0L);
         }
-        return counts.getOrDefault(bits(value, width), 0L);
+        return countOf(value);
     }
 
     /**
@@ -179,7 +221,16 @@ public final class Tally {
      * @return an unmodifiable sorted map
      */
     public SortedMap<String, Long> outcomes() {
-        return counts;
+        SortedMap<String, Long> m = map;
+        if (m == null) {
+            TreeMap<String, Long> t = new TreeMap<>();
+            for (int i = 0; i < keys.length; i++) {
+                t.put(bits(keys[i], width), counts[i]);
+            }
+            m = Collections.unmodifiableSortedMap(t);
+            map = m;
+        }
+        return m;
     }
 
     /**
@@ -190,7 +241,13 @@ public final class Tally {
      */
     public String toCsv() {
         StringBuilder sb = new StringBuilder("bits,count\n");
-        for (Map.Entry<String, Long> e : counts.entrySet()) {
+        if (keys != null) {
+            for (int i = 0; i < keys.length; i++) {
+                sb.append(bits(keys[i], width)).append(',').append(counts[i]).append('\n');
+            }
+            return sb.toString();
+        }
+        for (Map.Entry<String, Long> e : map.entrySet()) {
             sb.append(e.getKey()).append(',').append(e.getValue()).append('\n');
         }
         return sb.toString();
@@ -211,7 +268,13 @@ public final class Tally {
             return false;
         }
         Tally t = (Tally) o;
-        return width == t.width && counts.equals(t.counts);
+        if (width != t.width || shots != t.shots) {
+            return false;
+        }
+        if (keys != null) {
+            return java.util.Arrays.equals(keys, t.keys) && java.util.Arrays.equals(counts, t.counts);
+        }
+        return map.equals(t.map);
     }
 
     /**
@@ -221,7 +284,11 @@ public final class Tally {
      */
     @Override
     public int hashCode() {
-        return 31 * width + counts.hashCode();
+        if (keys != null) {
+            return 31 * (31 * width + java.util.Arrays.hashCode(keys))
+                    + java.util.Arrays.hashCode(counts);
+        }
+        return 31 * width + map.hashCode();
     }
 
     /**
@@ -233,14 +300,32 @@ public final class Tally {
     public String toString() {
         StringBuilder sb = new StringBuilder("Tally[").append(shots).append(" shots: ");
         int shown = 0;
-        for (Map.Entry<String, Long> e : counts.entrySet()) {
+        int size = keys != null ? keys.length : map.size();
+        for (Map.Entry<String, Long> e : outcomesHead(17)) {
             if (shown++ == 16) {
-                sb.append(", ... ").append(counts.size() - 16).append(" more");
+                sb.append(", ... ").append(size - 16).append(" more");
                 break;
             }
             sb.append(shown > 1 ? ", " : "").append(e.getKey().isEmpty() ? "(empty)" : e.getKey())
                     .append('=').append(e.getValue());
         }
         return sb.append(']').toString();
+    }
+
+    private java.util.List<Map.Entry<String, Long>> outcomesHead(int limit) {
+        java.util.List<Map.Entry<String, Long>> out = new java.util.ArrayList<>();
+        if (keys != null) {
+            for (int i = 0; i < keys.length && i < limit; i++) {
+                out.add(Map.entry(bits(keys[i], width), counts[i]));
+            }
+            return out;
+        }
+        for (Map.Entry<String, Long> e : map.entrySet()) {
+            if (out.size() == limit) {
+                break;
+            }
+            out.add(e);
+        }
+        return out;
     }
 }

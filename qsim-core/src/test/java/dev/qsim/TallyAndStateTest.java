@@ -68,4 +68,17 @@ class TallyAndStateTest {
         StateVector bell = StateVector.zero(2).apply(Circuit.builder(2).h(0).cnot(0, 1).build());
         assertEquals("0.7071|00> + 0.7071|11>", bell.toString());
     }
+
+    @Test
+    void widthsBeyondALongWork() {
+        // 70 classical bits: outcomes are kept as bitstrings (common practice for wide registers).
+        Circuit c = Circuit.builder(1, 70).x(0).measure(0, 69).build();
+        Tally t = Simulator.seeded(1).run(c, 25);
+        String one = "1" + "0".repeat(69);
+        assertEquals(70, t.width());
+        assertEquals(25, t.count(one));
+        assertEquals(0, t.count(0L));
+        assertEquals("bits,count\n" + one + ",25\n", t.toCsv());
+        assertEquals(t, Tally.of(70, Map.of(one, 25L)));
+    }
 }
