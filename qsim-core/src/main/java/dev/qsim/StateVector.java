@@ -472,6 +472,13 @@ public final class StateVector {
                     + qs.length + " were given");
         }
         long[] idx = sampleIndices(shots, rng);
+        boolean identity = qs.length == qubits();
+        for (int j = 0; j < qs.length && identity; j++) {
+            identity = qs[j] == j;
+        }
+        if (identity) {
+            return Tally.ofKeys(qs.length, idx);
+        }
         long[] keys = new long[shots];
         for (int s = 0; s < shots; s++) {
             long i = idx[s];
