@@ -163,7 +163,7 @@ public final class StateVector {
     }
 
     /**
-     * Sets the number of threads the kernels of this state may use; states under 14 qubits
+     * Sets the number of threads the kernels of this state may use; states under 16 qubits
      * always use one. Results do not depend on it.
      *
      * @param threads at least 1 (at most 256)

@@ -12,7 +12,7 @@ import java.util.concurrent.ExecutionException;
  */
 public final class Parallel {
     /** States below this many qubits always run on the calling thread. */
-    public static final int MIN_PARALLEL_QUBITS = 14;
+    public static final int MIN_PARALLEL_QUBITS = 16;
     /** The most threads one call may use. */
     public static final int MAX_THREADS = 256;
 

@@ -96,8 +96,8 @@ class KernelsTest {
     @ParameterizedTest(name = "n={0} chunkLog={1} k={2} controls={3} threads={4}")
     @CsvSource({
         "6, 6, 1, 0, 1", "6, 2, 1, 0, 1", "6, 0, 1, 0, 1", "6, 3, 2, 0, 1", "6, 3, 3, 1, 1",
-        "7, 2, 1, 2, 1", "8, 4, 2, 1, 1", "15, 6, 1, 0, 2", "15, 6, 2, 1, 2", "15, 15, 1, 0, 2",
-        "15, 4, 3, 0, 3", "16, 16, 2, 2, 2"
+        "7, 2, 1, 2, 1", "8, 4, 2, 1, 1", "16, 6, 1, 0, 2", "16, 6, 2, 1, 2", "16, 15, 1, 0, 2",
+        "16, 4, 3, 0, 3", "16, 16, 2, 2, 2"
     })
     void denseDiagonalAndMonomialMatchReference(int n, int chunkLog, int k, int nc, int threads) {
         long seed = 1000L * n + 100L * chunkLog + 10L * k + nc;
@@ -187,7 +187,7 @@ class KernelsTest {
     }
 
     @ParameterizedTest(name = "n={0} chunkLog={1} blockLog={2} threads={3}")
-    @CsvSource({"12, 12, 10, 1", "12, 6, 6, 2", "15, 15, 12, 2", "16, 8, 8, 3"})
+    @CsvSource({"12, 12, 10, 1", "12, 6, 6, 2", "16, 15, 12, 2", "16, 8, 8, 3"})
     void cacheBlockedGroupEqualsOneByOneBitwise(int n, int chunkLog, int blockLog, int threads) {
         // Blocking changes only the order in which independent amplitude groups are visited, so
         // the result must be identical to the bit (common practice for loop tiling).
@@ -235,7 +235,7 @@ class KernelsTest {
     }
 
     @ParameterizedTest(name = "n={0} chunkLog={1} threads={2}")
-    @CsvSource({"10, 10, 1", "10, 4, 2", "15, 6, 2", "15, 15, 3"})
+    @CsvSource({"10, 10, 1", "10, 4, 2", "16, 6, 2", "16, 15, 3"})
     void pickIndicesIsInverseTransformSampling(int n, int chunkLog, int threads) {
         // Inverse-transform sampling: u picks the first index whose cumulative probability
         // exceeds u (L. Devroye, Non-Uniform Random Variate Generation, 1986, §III.2.1).
