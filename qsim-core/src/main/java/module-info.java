@@ -12,4 +12,5 @@ module dev.qsim {
     requires org.apache.commons.statistics.inference;
 
     exports dev.qsim;
+    exports dev.qsim.observable;
 }

@@ -36,8 +36,14 @@ public final class Amplitudes {
         return allocate(n, Math.min(n, CHUNK_LOG));
     }
 
-    /** Allocates with a given chunk size (tests use small chunks to reach every code path). */
-    static Amplitudes allocate(int n, int chunkLog) {
+    /**
+     * Allocates with a given chunk size; tests use small chunks to reach every code path.
+     *
+     * @param n qubits
+     * @param chunkLog log2 of the amplitudes per chunk, at most n
+     * @return the storage, all zero
+     */
+    public static Amplitudes allocate(int n, int chunkLog) {
         int count = 1 << (n - chunkLog);
         double[][] chunks = new double[count][];
         for (int c = 0; c < count; c++) {
