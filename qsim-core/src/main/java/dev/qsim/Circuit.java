@@ -209,6 +209,16 @@ public final class Circuit {
                 return Instruction.gate(name, new double[] {-a[0]}, Gates.cphase(-a[0]), t, c);
             case "rzz":
                 return Instruction.gate(name, new double[] {-a[0]}, Gates.rzz(-a[0]), t, c);
+            case "h":
+            case "x":
+            case "y":
+            case "z":
+            case "cnot":
+            case "cz":
+            case "swap":
+            case "toffoli":
+            case "fredkin":
+                return in; // self-inverse (Nielsen and Chuang 2010, §4.2-4.3)
             default:
                 Operator op = in.operator();
                 Operator inv = op.dagger();

@@ -227,7 +227,9 @@ public final class Operator {
         for (int i = 0; i < d; i++) {
             for (int j = 0; j < d; j++) {
                 r[2 * (j * d + i)] = m[2 * (i * d + j)];
-                r[2 * (j * d + i) + 1] = -m[2 * (i * d + j) + 1];
+                // 0.0 - x, not -x: a zero stays +0.0, so the adjoint of a real matrix is
+                // bitwise equal to its transpose.
+                r[2 * (j * d + i) + 1] = 0.0 - m[2 * (i * d + j) + 1];
             }
         }
         return new Operator(qubits, r);

@@ -66,6 +66,16 @@ class CircuitTest {
     }
 
     @Test
+    void inverseOfSelfInverseGatesIsBitwiseTheSame() {
+        // H, X, Y, Z, CNOT, CZ, SWAP, Toffoli, Fredkin are their own inverses (N&C 2010, §4.2).
+        Circuit c = Circuit.builder(3).h(0).x(1).y(2).z(0).cnot(0, 1).cz(1, 2).swap(0, 2)
+                .toffoli(0, 1, 2).fredkin(2, 0, 1).build();
+        assertEquals(c.inverse().inverse(), c);
+        assertEquals(Circuit.builder(1).y(0).build(), Circuit.builder(1).y(0).build().inverse());
+        assertEquals(Gates.Y, Gates.Y.dagger(), "adjoint of Y is Y, zeros keep their sign");
+    }
+
+    @Test
     void equalCircuitsAreEqual() {
         Circuit a = Circuit.builder(2).h(0).rz(1, 0.5).measure().build();
         Circuit b = Circuit.builder(2).h(0).rz(1, 0.5).measure().build();

@@ -131,6 +131,99 @@ public final class Kernels {
         }
     }
 
+    /** diag(d0, d1) on one qubit: each half of each block scaled, no partner read. */
+    private static final class Diagonal1Plan extends Plan {
+        final int q;
+        final double[] d;
+
+        Diagonal1Plan(Amplitudes a, int q, double[] d) {
+            super(a);
+            this.q = q;
+            this.d = d;
+        }
+
+        @Override
+        public long units() {
+            final long pairs = 1L << (a.n - 1);
+            return q < a.chunkLog ? pairs >>> q : pairs;
+        }
+
+        @Override
+        public void run(long from, long to) {
+            if (q < a.chunkLog) {
+                final int blocksPerChunkLog = a.chunkLog - q - 1;
+                long b = from;
+                while (b < to) {
+                    final int c = (int) (b >>> blocksPerChunkLog);
+                    final long end = Math.min(to, ((long) c + 1) << blocksPerChunkLog);
+                    final int first = (int) (b - ((long) c << blocksPerChunkLog));
+                    final double[] psi = a.chunks[c];
+                    final int s2 = 2 << q;
+                    final int start = first << (q + 2);
+                    final int stop = start + ((int) (end - b) << (q + 2));
+                    for (int half = 0; half < 2; half++) {
+                        final double dr = d[2 * half];
+                        final double di = d[2 * half + 1];
+                        if (dr == 1 && di == 0) {
+                            continue;
+                        }
+                        if (q == 0) {
+                            for (int x = start + 2 * half; x < stop; x += 4) {
+                                final double re = psi[x];
+                                final double im = psi[x + 1];
+                                psi[x] = dr * re - di * im;
+                                psi[x + 1] = dr * im + di * re;
+                            }
+                            continue;
+                        }
+                        for (int blk = start + half * s2; blk < stop; blk += s2 << 1) {
+                            final int blkEnd = blk + s2;
+                            for (int x = blk; x < blkEnd; x += 2) {
+                                final double re = psi[x];
+                                final double im = psi[x + 1];
+                                psi[x] = dr * re - di * im;
+                                psi[x + 1] = dr * im + di * re;
+                            }
+                        }
+                    }
+                    b = end;
+                }
+            } else {
+                final int cl = a.chunkLog;
+                final int hb = q - cl;
+                long p = from;
+                while (p < to) {
+                    final long pairChunk = p >>> cl;
+                    final long end = Math.min(to, (pairChunk + 1) << cl);
+                    final long lowMask = (1L << hb) - 1;
+                    final int c0 = (int) (((pairChunk >>> hb) << (hb + 1)) | (pairChunk & lowMask));
+                    final int off = (int) (p & a.chunkMask) << 1;
+                    final int stop = off + ((int) (end - p) << 1);
+                    for (int half = 0; half < 2; half++) {
+                        final double dr = d[2 * half];
+                        final double di = d[2 * half + 1];
+                        if (dr == 1 && di == 0) {
+                            continue;
+                        }
+                        final double[] psi = a.chunks[half == 0 ? c0 : c0 | (1 << hb)];
+                        for (int x = off; x < stop; x += 2) {
+                            final double re = psi[x];
+                            final double im = psi[x + 1];
+                            psi[x] = dr * re - di * im;
+                            psi[x + 1] = dr * im + di * re;
+                        }
+                    }
+                    p = end;
+                }
+            }
+        }
+
+        @Override
+        public long unitsPerBlock(int blockLog) {
+            return q < blockLog ? 1L << (blockLog - q - 1) : -1;
+        }
+    }
+
     /** Target inside a chunk: blocks of 2^(q+1) amplitudes, pairs (i, i + 2^q). */
     private static void dense1Low(Amplitudes a, int q, double[] m, long from, long to) {
         final int blocksPerChunkLog = a.chunkLog - q - 1;
@@ -543,6 +636,9 @@ public final class Kernels {
      * @return the plan
      */
     public static Plan diagonalPlan(Amplitudes a, int[] targets, int[] controls, double[] diag) {
+        if (targets.length == 1 && controls.length == 0) {
+            return new Diagonal1Plan(a, targets[0], diag);
+        }
         return new LayoutPlan(a, targets, controls) {
             @Override
             public void run(long from, long to) {
