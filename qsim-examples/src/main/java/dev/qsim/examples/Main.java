@@ -1,5 +1,6 @@
 package dev.qsim.examples;
 
+import dev.qsim.examples.cli.Cli;
 import java.io.PrintStream;
 import java.util.Arrays;
 import java.util.List;
@@ -10,7 +11,9 @@ import java.util.Objects;
  *
  * <p>{@code java -jar qsim-examples.jar} runs the main demo ({@link UniformSuperposition});
  * {@code java -jar qsim-examples.jar NAME [ARGS...]} runs one example by its short name;
- * {@code list} prints the names with a line on each; {@code --help} prints the usage. An unknown
+ * {@code list} prints the names with a line on each; {@code --help} prints the usage;
+ * {@code run}, {@code state}, {@code draw}, {@code compare} and {@code scale} are the
+ * subcommands of the circuit-file tool ({@link Cli}), each with its own {@code --help}. An unknown
  * name or a bad argument prints a message on standard error and ends with exit code
  * {@value #EXIT_USAGE}.
  *
@@ -57,7 +60,13 @@ public final class Main {
                     GroverSearch::fromArgs),
             new Entry("fourier", "",
                     "Fourier transform of a period-4 state: peaks at multiples of 8",
-                    FourierTransform::fromArgs));
+                    FourierTransform::fromArgs),
+            new Entry("hydrogen", "[seed [shots]]",
+                    "variational ground state of H2 (STO-3G, 2 qubits): energy per iteration",
+                    HydrogenGroundState::fromArgs),
+            new Entry("maxcut", "[layers [seed [shots]]]",
+                    "QAOA max cut on a 6-node graph: convergence, best cut vs brute force",
+                    MaxCutQaoa::fromArgs));
 
     private Main() {
     }
@@ -89,6 +98,9 @@ public final class Main {
         Objects.requireNonNull(args, "args");
         Objects.requireNonNull(out, "out");
         Objects.requireNonNull(err, "err");
+        if (args.length > 0 && Cli.COMMANDS.contains(args[0])) {
+            return Cli.run(args, out, err);
+        }
         String name = args.length == 0 ? DEFAULT_EXAMPLE : args[0];
         String[] rest = args.length == 0 ? args : Arrays.copyOfRange(args, 1, args.length);
         switch (name) {
@@ -106,7 +118,7 @@ public final class Main {
         Entry entry = find(name);
         if (entry == null) {
             err.println("qsim-examples: unknown example '" + name + "'; valid names: "
-                    + names() + " (or list, --help)");
+                    + names() + " (or list, --help, or a tool command: " + commands() + ")");
             return EXIT_USAGE;
         }
         try {
@@ -147,6 +159,10 @@ public final class Main {
         return text.toString();
     }
 
+    private static String commands() {
+        return String.join(", ", new java.util.TreeSet<>(Cli.COMMANDS));
+    }
+
     private static int nameWidth() {
         int width = 0;
         for (Entry e : EXAMPLES) {
@@ -167,6 +183,8 @@ public final class Main {
         out.println("Usage: java -jar qsim-examples.jar [NAME [ARGS...]]");
         out.println("       java -jar qsim-examples.jar list");
         out.println("       java -jar qsim-examples.jar --help");
+        out.println("       java -jar qsim-examples.jar COMMAND [OPTIONS] (COMMAND --help for"
+                + " details)");
         out.println();
         out.println("Runs one qsim example and prints its report. With no NAME, runs '"
                 + DEFAULT_EXAMPLE + "'.");
@@ -180,7 +198,15 @@ public final class Main {
                     e.description()));
         }
         out.println();
-        out.println("Exit codes: " + EXIT_OK + " success, " + EXIT_USAGE
-                + " unknown name or bad argument.");
+        out.println("Tool commands, for circuit files in OpenQASM 3 and tally files:");
+        out.println("  run      run a circuit file, print the tally (table, CSV, JSON, SVG)");
+        out.println("  state    print the state vector or probabilities of a small circuit");
+        out.println("  draw     draw a circuit as text or SVG");
+        out.println("  compare  compare a tally file with a circuit's ideal prediction");
+        out.println("  scale    time per gate against qubit count");
+        out.println();
+        out.println("Exit codes: " + EXIT_OK + " success, " + Cli.EXIT_MISMATCH
+                + " comparison failed (compare --require-match), " + EXIT_USAGE
+                + " unknown name, bad argument or bad file.");
     }
 }

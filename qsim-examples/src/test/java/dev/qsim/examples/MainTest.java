@@ -10,7 +10,7 @@ import org.junit.jupiter.params.provider.CsvSource;
 class MainTest {
 
     private static final String[] NAMES = {
-        "uniform", "bell", "ghz", "teleport", "grover", "fourier",
+        "uniform", "bell", "ghz", "teleport", "grover", "fourier", "hydrogen", "maxcut",
     };
 
     private static final class Run {

@@ -1,0 +1,308 @@
+package dev.qsim.text;
+
+import dev.qsim.Circuit;
+import dev.qsim.Gates;
+import dev.qsim.Instruction;
+import dev.qsim.Operator;
+import java.util.List;
+import java.util.Objects;
+import org.apache.commons.numbers.complex.Complex;
+
+/**
+ * Writes a {@link Circuit} as OpenQASM 3 text in the subset that {@link QasmReader} reads
+ * (Cross et al. 2022, ACM Transactions on Quantum Computing 3(3), 12, doi:10.1145/3505636).
+ * Stateless and thread-safe.
+ *
+ * <p>The qubits form one register {@code q}, the classical bits one register {@code c}. Angles
+ * are written with {@link Double#toString(double)} (or as {@code pi}, {@code pi/2},
+ * {@code pi/4}, {@code pi/8} and their negatives when exactly those doubles), so they read back
+ * bitwise equal.
+ *
+ * <p>Round trip: for circuits of the builder's named gates ({@code h x y z s sDagger t tDagger
+ * sqrtX sqrtXDagger rx ry rz phase cnot cz cphase swap toffoli fredkin}), measurements, resets,
+ * conditioned blocks, and {@code controlled} gates whose operator is one of {@link Gates#X},
+ * {@link Gates#Y}, {@link Gates#Z}, {@link Gates#H}, {@link Gates#S}, {@link Gates#S_DAGGER},
+ * {@link Gates#T}, {@link Gates#T_DAGGER}, {@link Gates#SQRT_X} or {@link Gates#SWAP},
+ * {@code QasmReader.read(QasmWriter.write(c)).equals(c)}. (A controlled gate whose operator
+ * equals such a constant only in value, such as the adjoint of {@link Gates#H} with its signed
+ * zeros, is written with the constant's name and so reads back equal in value.) Other instructions are written as
+ * equal operators but read back as different instructions:
+ * <ul>
+ *   <li>{@code rzz(θ)} as a {@code gate rzz} definition ({@code cx; rz(θ); cx}, Nielsen and
+ *       Chuang 2010, Figure 4.19 construction), expanded when read;</li>
+ *   <li>{@code apply} of a 1-qubit operator as the gate of that matrix if it is one of
+ *       {@link Gates}' constants, else {@code U(θ, φ, λ)} followed by {@code gphase(γ)} when the
+ *       global phase is not zero (the Z-Y decomposition, Nielsen and Chuang 2010, Theorem 4.1),
+ *       equal within {@value #TOLERANCE} per entry;</li>
+ *   <li>{@code apply} of {@link Gates#CNOT}, {@link Gates#CZ}, {@link Gates#SWAP},
+ *       {@link Gates#TOFFOLI} or {@link Gates#FREDKIN} as {@code cx cz swap ccx cswap};</li>
+ *   <li>{@code controlled} of another 1-qubit operator as {@code ctrl(k) @ U(θ, φ, λ)} plus
+ *       {@code ctrl(k) @ gphase(γ)} on the controls when needed.</li>
+ * </ul>
+ * Other multi-qubit operators have no name in the subset and are refused.
+ *
+ * @since 0.2
+ */
+public final class QasmWriter {
+    /** The largest entry error allowed when a 1-qubit operator is written as U: {@value}. */
+    public static final double TOLERANCE = 1e-10;
+
+    private static final double EPS = 1e-12;
+
+    private QasmWriter() {
+    }
+
+    /**
+     * Writes a circuit as OpenQASM 3.
+     *
+     * @param circuit the circuit
+     * @return the program text, lines ending in {@code '\n'}
+     * @throws IllegalArgumentException if an instruction applies a multi-qubit operator that has
+     *     no name in the subset; the message names the instruction and its index
+     */
+    public static String write(Circuit circuit) {
+        Objects.requireNonNull(circuit, "circuit");
+        StringBuilder body = new StringBuilder();
+        boolean[] needsRzz = new boolean[1];
+        List<Instruction> list = circuit.instructions();
+        for (int i = 0; i < list.size(); i++) {
+            instruction(list.get(i), i, "", body, needsRzz);
+        }
+        StringBuilder sb = new StringBuilder("OPENQASM 3.0;\ninclude \"stdgates.inc\";\n");
+        if (needsRzz[0]) {
+            sb.append("gate rzz(theta) a, b { cx a, b; rz(theta) b; cx a, b; }\n");
+        }
+        sb.append("qubit[").append(circuit.qubits()).append("] q;\n");
+        if (circuit.clbits() > 0) {
+            sb.append("bit[").append(circuit.clbits()).append("] c;\n");
+        }
+        return sb.append(body).toString();
+    }
+
+    private static void instruction(Instruction in, int index, String indent, StringBuilder sb,
+            boolean[] needsRzz) {
+        int[] t = in.targets();
+        int[] c = in.controls();
+        double[] a = in.angles();
+        switch (in.kind()) {
+            case MEASURE:
+                sb.append(indent).append("c[").append(in.clbit()).append("] = measure q[")
+                        .append(t[0]).append("];\n");
+                return;
+            case RESET:
+                sb.append(indent).append("reset q[").append(t[0]).append("];\n");
+                return;
+            case IF_BIT:
+                sb.append(indent).append("if (c[").append(in.clbit()).append("] == ")
+                        .append(in.value()).append(") {\n");
+                List<Instruction> body = in.body();
+                for (Instruction b : body) {
+                    instruction(b, index, indent + "  ", sb, needsRzz);
+                }
+                sb.append(indent).append("}\n");
+                return;
+            default:
+                break;
+        }
+        sb.append(indent);
+        switch (in.name()) {
+            case "h": case "x": case "y": case "z": case "s": case "t":
+                line(sb, in.name(), "", t);
+                return;
+            case "sDagger":
+                line(sb, "sdg", "", t);
+                return;
+            case "tDagger":
+                line(sb, "tdg", "", t);
+                return;
+            case "sqrtX":
+                line(sb, "sx", "", t);
+                return;
+            case "sqrtXDagger":
+                line(sb, "inv @ sx", "", t);
+                return;
+            case "rx": case "ry": case "rz":
+                line(sb, in.name(), angles(a), t);
+                return;
+            case "phase":
+                line(sb, "p", angles(a), t);
+                return;
+            case "cnot":
+                line(sb, "cx", "", c[0], t[0]);
+                return;
+            case "cz":
+                line(sb, "cz", "", t);
+                return;
+            case "cphase":
+                line(sb, "cp", angles(a), t);
+                return;
+            case "swap":
+                line(sb, "swap", "", t);
+                return;
+            case "rzz":
+                needsRzz[0] = true;
+                line(sb, "rzz", angles(a), t);
+                return;
+            case "toffoli":
+                line(sb, "ccx", "", c[0], c[1], t[0]);
+                return;
+            case "fredkin":
+                line(sb, "cswap", "", c[0], t[0], t[1]);
+                return;
+            default:
+                operator(in, index, indent, sb, t, c);
+        }
+    }
+
+    private static void operator(Instruction in, int index, String indent, StringBuilder sb,
+            int[] t, int[] c) {
+        Operator op = in.operator();
+        int[] all = new int[c.length + t.length];
+        System.arraycopy(c, 0, all, 0, c.length);
+        System.arraycopy(t, 0, all, c.length, t.length);
+        String prefix = c.length == 0 ? "" : c.length == 1 ? "ctrl @ " : "ctrl(" + c.length
+                + ") @ ";
+        String named = oneQubitName(op);
+        if (named == null && sameValues(op, Gates.SWAP)) {
+            named = "swap";
+        }
+        if (named != null) {
+            line(sb, prefix + named, "", all);
+            return;
+        }
+        if (op.qubits() == 1) {
+            double[] u = decompose(op);
+            if (u == null) {
+                throw new IllegalArgumentException("instruction " + index + " '" + in
+                        + "' cannot be written as U(theta, phi, lambda) within " + TOLERANCE);
+            }
+            line(sb, prefix + "U", angles(new double[] {u[0], u[1], u[2]}), all);
+            if (u[3] != 0) {
+                if (c.length == 0) {
+                    sb.append(indent).append("gphase(").append(angle(u[3])).append(");\n");
+                } else {
+                    sb.append(indent);
+                    line(sb, prefix + "gphase", "(" + angle(u[3]) + ")", c);
+                }
+            }
+            return;
+        }
+        if (c.length == 0) {
+            if (sameValues(op, Gates.CNOT)) {
+                line(sb, "cx", "", t);
+                return;
+            }
+            if (sameValues(op, Gates.CZ)) {
+                line(sb, "cz", "", t);
+                return;
+            }
+            if (sameValues(op, Gates.TOFFOLI)) {
+                line(sb, "ccx", "", t);
+                return;
+            }
+            if (sameValues(op, Gates.FREDKIN)) {
+                line(sb, "cswap", "", t);
+                return;
+            }
+        }
+        throw new IllegalArgumentException("instruction " + index + " '" + in + "' applies a "
+                + op.qubits() + "-qubit operator that has no name in OpenQASM 3's standard gates;"
+                + " only 1-qubit operators, swap, cx, cz, ccx and cswap can be written");
+    }
+
+    private static String oneQubitName(Operator op) {
+        if (op.qubits() != 1) {
+            return null;
+        }
+        Operator[] ops = {Gates.X, Gates.Y, Gates.Z, Gates.H, Gates.S, Gates.S_DAGGER, Gates.T,
+            Gates.T_DAGGER, Gates.SQRT_X};
+        String[] names = {"x", "y", "z", "h", "s", "sdg", "t", "tdg", "sx"};
+        for (int i = 0; i < ops.length; i++) {
+            if (sameValues(op, ops[i])) {
+                return names[i];
+            }
+        }
+        return null;
+    }
+
+    /** Entry-wise equality of values, so that -0.0 matches 0.0 (as after a dagger). */
+    private static boolean sameValues(Operator a, Operator b) {
+        if (a.qubits() != b.qubits()) {
+            return false;
+        }
+        int d = a.dimension();
+        for (int r = 0; r < d; r++) {
+            for (int c = 0; c < d; c++) {
+                Complex x = a.get(r, c);
+                Complex y = b.get(r, c);
+                if (x.getReal() != y.getReal() || x.getImaginary() != y.getImaginary()) {
+                    return false;
+                }
+            }
+        }
+        return true;
+    }
+
+    /**
+     * Finds (θ, φ, λ, γ) with {@code op = e^{iγ} u(θ, φ, λ)} within {@link #TOLERANCE}, or null.
+     */
+    static double[] decompose(Operator op) {
+        Complex a = op.get(0, 0);
+        Complex b = op.get(0, 1);
+        Complex c = op.get(1, 0);
+        Complex d = op.get(1, 1);
+        double theta = 2 * Math.atan2(c.abs(), a.abs());
+        double gamma = a.abs() > EPS ? a.arg() : c.arg();
+        Complex unphase = Complex.ofCis(-gamma);
+        Complex c1 = c.multiply(unphase);
+        Complex b1 = b.multiply(unphase);
+        Complex d1 = d.multiply(unphase);
+        double phi = c1.abs() > EPS ? c1.arg() : 0;
+        double lambda = b1.abs() > EPS ? b1.negate().arg() : d1.arg() - phi;
+        if (gamma == 0 || Math.abs(gamma) < 1e-15) {
+            gamma = 0;
+        }
+        Operator u = Gates.u(theta, phi, lambda);
+        Complex g = Complex.ofCis(gamma);
+        for (int r = 0; r < 2; r++) {
+            for (int col = 0; col < 2; col++) {
+                Complex diff = u.get(r, col).multiply(g).subtract(op.get(r, col));
+                if (!(diff.abs() <= TOLERANCE)) {
+                    return null;
+                }
+            }
+        }
+        return new double[] {theta, phi, lambda, gamma};
+    }
+
+    private static void line(StringBuilder sb, String name, String params, int... qubits) {
+        sb.append(name).append(params);
+        for (int i = 0; i < qubits.length; i++) {
+            sb.append(i == 0 ? " q[" : ", q[").append(qubits[i]).append(']');
+        }
+        sb.append(";\n");
+    }
+
+    private static String angles(double[] a) {
+        StringBuilder sb = new StringBuilder("(");
+        for (int i = 0; i < a.length; i++) {
+            sb.append(i == 0 ? "" : ", ").append(angle(a[i]));
+        }
+        return sb.append(')').toString();
+    }
+
+    /** An angle that reads back bitwise equal. */
+    static String angle(double x) {
+        String[] names = {"pi", "pi/2", "pi/4", "pi/8"};
+        double[] values = {Math.PI, Math.PI / 2, Math.PI / 4, Math.PI / 8};
+        for (int i = 0; i < names.length; i++) {
+            if (x == values[i]) {
+                return names[i];
+            }
+            if (x == -values[i]) {
+                return "-" + names[i];
+            }
+        }
+        return Double.toString(x);
+    }
+}
