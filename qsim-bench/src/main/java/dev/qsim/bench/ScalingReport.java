@@ -1,43 +1,66 @@
 package dev.qsim.bench;
 
-import dev.qsim.Operator;
+import dev.qsim.Circuit;
+import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import java.io.IOException;
+import java.io.OutputStream;
 import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
 import java.util.Set;
+import java.util.TreeSet;
 
 /**
- * Prints, as CSV on standard output, the time of one single-qubit gate against qubit count:
- * a plain {@code main}, no JMH, for a quick look at how the cost grows with the state size.
+ * Prints, as CSV, the time of each gate kernel against qubit count, next to a memory-bandwidth
+ * probe measured in the same run and the same JVM: a plain {@code main}, no JMH.
  *
- * <p>For each {@code n} from {@code --min} to {@code --max} it builds a seeded product state of
- * {@code n} qubits (every amplitude nonzero), warms up by applying the gate in batches of
- * doubling size until one batch takes a third of the measuring time, then times enough
- * applications in one batch for at least {@code --millis} milliseconds (300 by default). The
- * smallest size is first measured once more and discarded, so the just-in-time compiler has
- * settled before the first reported row. The
- * target is {@code n / 2} by default; {@code --target all} cycles through every qubit in turn,
- * so the time is the average over targets. Run with {@code --help} for every option.
+ * <p>For each {@code n} from {@code --min} to {@code --max} it
  *
- * <p>Columns: {@code n}; {@code ns_per_gate}, wall time of one application; {@code
- * ns_per_amplitude}, that divided by 2^n; {@code gb_per_s}, bytes moved divided by time, where a
- * gate moves {@code 2 * 16 * 2^n} bytes (each double-precision complex amplitude read once and
- * written once) and a GB is 10^9 bytes. Progress and comment lines (starting {@code #}) go to
- * standard error, so standard output is plain CSV.
+ * <ol>
+ *   <li>times McCalpin's copy and triad kernels ({@link BandwidthProbe}) over {@code double}
+ *       arrays of {@code 2^(n+1)} elements, as many bytes as the state, on the same number of
+ *       threads as the gate kernels;</li>
+ *   <li>builds a seeded product state of {@code n} qubits (every amplitude nonzero) and times
+ *       each selected kernel kind ({@code dense}, {@code diagonal}, {@code permutation},
+ *       {@code controlled}; see {@link Workloads#kernelCircuit}) at each selected target
+ *       ({@code low} = qubit 0, {@code mid} = {@code n / 2}, {@code high} = {@code n - 1}, or
+ *       {@code all}: every qubit in turn, so the time is the mean over targets);</li>
+ *   <li>where selected (by default {@code n >= 20}), times the 20-layer circuit of
+ *       {@link Workloads#layeredCircuit} with {@code Simulator.stateAfter} with gate fusion on
+ *       and off.</li>
+ * </ol>
  *
- * <p>Exit status: 0 on success, 1 for bad arguments, 2 if the heap cannot hold the largest
- * state (the message says which {@code -Xmx} would do).
+ * <p>Every measurement warms up with batches of doubling size until one batch lasts a third of
+ * {@code --millis}, then times one batch long enough to last at least {@code --millis} (repeated
+ * up to three times if it still came out short). Before the first reported row every
+ * measurement is run once at the smallest size and discarded, so the just-in-time compiler has
+ * settled. Run with {@code --help} for every option.
+ *
+ * <p>Columns: {@code n}; {@code kernel}; {@code target}; {@code threads}; {@code ns_per_gate},
+ * wall time of one gate (for circuit rows the time of one run divided by its gate count);
+ * {@code ns_per_amplitude}, that divided by 2^n; {@code gb_per_s}, {@code 2 * 16 * 2^n} bytes
+ * (every double-precision complex amplitude read once and written once) divided by the time,
+ * GB = 10^9 bytes; {@code copy_gb_per_s} and {@code triad_gb_per_s}, the probe at the same
+ * {@code n}; {@code fraction_of_copy} = {@code gb_per_s / copy_gb_per_s}. Progress and comment
+ * lines (starting {@code #}) go to standard error, so the CSV stays clean.
+ *
+ * <p>Single-precision amplitudes do not exist in qsim-core yet, so every row is double precision.
+ *
+ * <p>Exit status: 0 on success, 1 for bad arguments or an output file that cannot be written,
+ * 2 if the heap cannot hold the largest state and the probe (the message says which {@code -Xmx}
+ * would do).
  */
 public final class ScalingReport {
     /** The CSV header, exactly. */
-    static final String HEADER = "n,ns_per_gate,ns_per_amplitude,gb_per_s";
+    static final String HEADER = "n,kernel,target,threads,ns_per_gate,ns_per_amplitude,gb_per_s,"
+            + "copy_gb_per_s,triad_gb_per_s,fraction_of_copy";
 
     /** Bytes of one double-precision complex amplitude. */
     static final long BYTES_PER_AMPLITUDE = 16;
@@ -45,11 +68,23 @@ public final class ScalingReport {
     /** Largest qubit count accepted by {@code --min} and {@code --max}. */
     static final int MAX_QUBITS = 40;
 
-    /** Largest thread count accepted by {@code --threads}. */
-    static final int MAX_THREADS = 1024;
+    /** Largest thread count accepted by {@code --threads} (the core's own limit). */
+    static final int MAX_THREADS = 256;
 
-    /** Largest value of {@code --millis}: ten minutes per qubit count. */
+    /** Largest value of {@code --millis}: ten minutes per measurement. */
     static final long MAX_MILLIS = 600_000;
+
+    /** Smallest qubit count of the default fusion comparison. */
+    static final int CIRCUIT_FROM = 20;
+
+    /**
+     * The probe arrays are never shortened below this many doubles (128 MiB each, three times
+     * that in all) to fit the heap: McCalpin asks for arrays well beyond the last-level cache.
+     */
+    static final long MIN_PROBE_LENGTH = 1L << 24;
+
+    /** Longest probe array: 2^30 doubles (8 GiB), within Java's array limit. */
+    static final long MAX_PROBE_LENGTH = 1L << 30;
 
     /** Repetitions are chosen for this many times the target time, so one batch is enough. */
     static final double MARGIN = 1.25;
@@ -60,42 +95,111 @@ public final class ScalingReport {
     /** The measured batch is repeated at most this many times if it came out too short. */
     private static final int MAX_RETRIES = 3;
 
+    /** Width of the progress bar, in characters. */
+    private static final int BAR = 28;
+
     private static final long GIB = 1L << 30;
     private static final long MIB = 1L << 20;
 
+    private static final List<String> OPTIONS = List.of("--min", "--max", "--threads",
+            "--kernels", "--targets", "--millis", "--circuit", "--circuit-qubits", "--csv",
+            "--svg", "--help");
+
+    private static final List<String> TARGETS = List.of("low", "mid", "high", "all");
+
+    /** Written once per run with a sum of results, so no measured work is dead code. */
+    private static volatile double blackhole;
+
     /** The usage text printed by {@code --help} and after bad arguments. */
     static final String USAGE = String.join("\n",
-            "usage: java -Xmx4g -cp qsim-bench.jar dev.qsim.bench.ScalingReport [options]",
-            "Times one single-qubit gate on states of min..max qubits.",
-            "CSV (" + HEADER + ") on standard output; progress on standard error.",
-            "  --min N          smallest qubit count (default 10; 1.." + MAX_QUBITS + ")",
-            "  --max N          largest qubit count (default 26; 1.." + MAX_QUBITS + ")",
-            "  --threads T      kernel threads (default: available processors; 1.."
-                    + MAX_THREADS + ")",
-            "  --gate NAME      " + String.join(", ", Workloads.GATE_NAMES)
-                    + " (default dense: a generic complex 2x2 unitary)",
-            "  --target WHERE   low (qubit 0), mid (n/2, default), high (n-1),"
-                    + " all (each qubit in turn)",
-            "  --millis M       least measured time per qubit count, in ms (default 300; 1.."
+            "usage: java -Xmx8g -cp qsim-bench.jar dev.qsim.bench.ScalingReport [options]",
+            "Times each gate kernel on states of min..max qubits next to a memory-bandwidth probe",
+            "(copy and triad) measured in the same run.",
+            "CSV (" + HEADER + ")",
+            "on standard output or --csv FILE; progress on standard error.",
+            "  --min N              smallest qubit count (default 10; 1.." + MAX_QUBITS + ")",
+            "  --max N              largest qubit count (default 26; 1.." + MAX_QUBITS + ")",
+            "  --threads T          threads of the kernels and the probe (default: available"
+                    + " processors; 1.." + MAX_THREADS + ")",
+            "  --kernels K,K,...    of " + String.join(", ", Workloads.KERNEL_NAMES)
+                    + " (default all)",
+            "  --targets W,W,...    of low (qubit 0), mid (n/2), high (n-1), all (each qubit in"
+                    + " turn) (default low,mid,high)",
+            "  --millis M           least measured time per measurement, in ms (default 300; 1.."
                     + MAX_MILLIS + ")",
-            "  --help           print this and exit",
-            "Values may also be given as --name=value.");
+            "  --circuit on|off     time a " + Workloads.CIRCUIT_LAYERS + "-layer circuit with"
+                    + " fusion on and off (default on, at n >= " + CIRCUIT_FROM + ")",
+            "  --circuit-qubits N,N,... the qubit counts of that comparison, within --min..--max",
+            "  --csv FILE           write the CSV to FILE instead of standard output",
+            "  --svg FILE           also draw time per gate against n, with the bandwidth floor",
+            "  --help               print this and exit",
+            "Values may also be given as --name=value.",
+            "Exit status: 0 done, 1 bad options or unwritable file, 2 not enough heap.");
 
     private ScalingReport() {
     }
 
-    /** The settings of one run, after validation. */
-    record Options(int min, int max, int threads, String gate, String target, long millis,
-            boolean help) {
+    /**
+     * The settings of one run, after validation.
+     *
+     * @param circuitQubits the sizes of the fusion comparison, ascending, each in [min, max]
+     *     (empty when it is off)
+     * @param csv the CSV file, or {@code null} for standard output
+     * @param svg the SVG file, or {@code null} for none
+     */
+    record Options(int min, int max, int threads, List<String> kernels, List<String> targets,
+            long millis, List<Integer> circuitQubits, Path csv, Path svg, boolean help) {
     }
 
     /**
-     * Runs the report with the given arguments and exits with its status.
+     * One CSV row: a kernel (or a circuit run) at one size and target, with the probe's copy and
+     * triad bandwidths at the same size.
+     */
+    record Row(int n, String kernel, String target, int threads, double nanosPerGate,
+            double copyGbps, double triadGbps) {
+
+        /** Bandwidth of the gate in GB/s: {@code 2 * 16 * 2^n} bytes per gate time. */
+        double gbps() {
+            return gigabytesPerSecond(n, nanosPerGate);
+        }
+
+        /** Formats the row in the order of {@link #HEADER}. */
+        String csv() {
+            final double gbps = gbps();
+            return String.format(Locale.ROOT, "%d,%s,%s,%d,%.1f,%.5f,%.3f,%.3f,%.3f,%.3f", n,
+                    kernel, target, threads, nanosPerGate, nanosPerGate / (double) (1L << n),
+                    gbps, copyGbps, triadGbps, gbps / copyGbps);
+        }
+    }
+
+    /** Times {@code reps} repetitions of some work; returns nanoseconds. */
+    @FunctionalInterface
+    interface Batch {
+        /**
+         * Runs the work {@code reps} times.
+         *
+         * @param reps at least 1
+         * @return the elapsed nanoseconds
+         */
+        long time(long reps);
+    }
+
+    /** The result of {@link #measure}: repetitions of the measured batch and its nanoseconds. */
+    record Timing(long reps, long nanos) {
+        /** Nanoseconds per repetition. */
+        double perRep() {
+            return (double) nanos / reps;
+        }
+    }
+
+    /**
+     * Runs the report with the given arguments and exits with its status. A progress bar is
+     * drawn on standard error when the JVM has a console.
      *
      * @param args the options; {@code --help} lists them
      */
     public static void main(String[] args) {
-        final int status = run(args, System.out, System.err);
+        final int status = run(args, System.out, System.err, System.console() != null);
         System.out.flush();
         if (status != 0) {
             System.exit(status);
@@ -103,11 +207,22 @@ public final class ScalingReport {
     }
 
     /**
-     * Runs the report: CSV to {@code out}, progress and errors to {@code err}.
+     * Runs the report without a progress bar: CSV to {@code out} (or the {@code --csv} file),
+     * progress and errors to {@code err}.
      *
-     * @return the exit status: 0 success, 1 bad arguments, 2 not enough heap
+     * @return the exit status: 0 success, 1 bad arguments or unwritable file, 2 not enough heap
      */
     static int run(String[] args, PrintStream out, PrintStream err) {
+        return run(args, out, err, false);
+    }
+
+    /**
+     * Runs the report: CSV to {@code out} (or the {@code --csv} file), progress and errors to
+     * {@code err}; with {@code bar} a single progress line is redrawn with carriage returns.
+     *
+     * @return the exit status: 0 success, 1 bad arguments or unwritable file, 2 not enough heap
+     */
+    static int run(String[] args, PrintStream out, PrintStream err, boolean bar) {
         final Options options;
         try {
             options = parse(args, Runtime.getRuntime().availableProcessors());
@@ -126,30 +241,259 @@ public final class ScalingReport {
             err.println("error: " + heap.get());
             return 2;
         }
-        final Operator op = Workloads.gate(options.gate());
-        err.println("# qsim scaling report: gate " + options.gate() + ", target "
-                + options.target() + ", threads " + options.threads() + ", at least "
-                + options.millis() + " ms per qubit count");
-        err.println("# java " + System.getProperty("java.version") + " ("
-                + System.getProperty("java.vm.name") + "), cpu " + cpuModel() + ", "
-                + Runtime.getRuntime().availableProcessors() + " processors, max heap "
-                + formatBytes(maxHeap));
-        err.println("# bytes moved per gate = 2 * 16 * 2^n (read and write of each"
-                + " double-precision complex amplitude); GB = 1e9 bytes");
-        out.println(HEADER);
-        try {
-            // One discarded pass at the smallest size, so the first row is as warm as the rest.
-            measure(options.min(), op, options, err, "# warm-up (not reported) ");
-            for (int n = options.min(); n <= options.max(); n++) {
-                final double nanosPerGate = measure(n, op, options, err, "# ");
-                out.println(row(n, nanosPerGate));
-                out.flush();
+        final Optional<String> unwritable = unwritable(options.svg(), "--svg");
+        if (unwritable.isPresent()) {
+            err.println("error: " + unwritable.get());
+            return 1;
+        }
+        final PrintStream csv;
+        if (options.csv() == null) {
+            csv = out;
+        } else {
+            try {
+                final OutputStream file = Files.newOutputStream(options.csv());
+                csv = new PrintStream(file, false, StandardCharsets.UTF_8);
+            } catch (IOException | SecurityException e) {
+                err.println("error: cannot write --csv file '" + options.csv() + "': " + e);
+                return 1;
             }
+        }
+        try {
+            return report(options, maxHeap, csv, err, bar);
+        } finally {
+            if (csv != out) {
+                csv.close();
+            }
+        }
+    }
+
+    private static int report(Options options, long maxHeap, PrintStream csv, PrintStream err,
+            boolean bar) {
+        final long probeLength = probeLength(options.max(), maxHeap);
+        final String environment = "java " + System.getProperty("java.version") + " ("
+                + System.getProperty("java.vm.name") + "), cpu " + cpuModel();
+        err.println("# qsim scaling report: kernels " + String.join(",", options.kernels())
+                + ", targets " + String.join(",", options.targets()) + ", threads "
+                + options.threads() + ", at least " + options.millis() + " ms per measurement,"
+                + " fusion comparison at n = " + (options.circuitQubits().isEmpty() ? "none"
+                : options.circuitQubits().toString()));
+        err.println("# " + environment + ", " + Runtime.getRuntime().availableProcessors()
+                + " processors, max heap " + formatBytes(maxHeap));
+        err.println("# bytes moved per gate = 2 * 16 * 2^n (read and write of each"
+                + " double-precision complex amplitude); GB = 1e9 bytes; double precision only");
+        err.println("# probe (McCalpin 1995): copy b[i] = a[i] moves 2 * 8 * len bytes, triad"
+                + " a[i] = b[i] + s * c[i] moves 3 * 8 * len, len = 2^(n+1) doubles");
+        if (probeLength < Math.min(2L << options.max(), MAX_PROBE_LENGTH)) {
+            err.println("# note: the heap holds probe arrays of " + probeLength + " doubles ("
+                    + formatBytes(8 * probeLength) + " each) at most, so from n = "
+                    + Long.numberOfTrailingZeros(probeLength) + " the probe runs at that length,"
+                    + " still far beyond the caches");
+        } else if (probeLength < (2L << options.max())) {
+            err.println("# note: probe arrays stop at " + probeLength + " doubles (Java's array"
+                    + " limit), so from n = " + Long.numberOfTrailingZeros(probeLength)
+                    + " the probe runs at that length");
+        }
+        final int total = steps(options);
+        final List<Row> rows = new ArrayList<>();
+        final BandwidthProbe probe;
+        try {
+            probe = new BandwidthProbe((int) probeLength, options.threads());
+        } catch (OutOfMemoryError e) {
+            err.println("error: the heap cannot place three probe arrays of " + formatBytes(8
+                    * probeLength) + "; rerun with a larger -Xmx or lower --max");
+            return 2;
+        }
+        try (probe) {
+            final Progress progress = new Progress(err, bar, total);
+            final Runner runner = new Runner(options, probe, progress);
+            // One discarded pass at the smallest size, so the first row is as warm as the rest.
+            runner.size(options.min(), true);
+            csv.println(HEADER);
+            csv.flush();
+            for (int n = options.min(); n <= options.max(); n++) {
+                for (Row r : runner.size(n, false)) {
+                    csv.println(r.csv());
+                    rows.add(r);
+                }
+                csv.flush();
+            }
+            progress.finish();
+            blackhole = runner.sink;
         } catch (IllegalStateException e) {
+            err.println();
             err.println("error: " + e.getMessage());
             return 2;
         }
+        if (csv.checkError()) {
+            err.println("error: writing the CSV to " + (options.csv() == null ? "standard output"
+                    : "'" + options.csv() + "'") + " failed");
+            return 1;
+        }
+        if (options.svg() != null) {
+            final String title = "qsim: time per gate against qubit count";
+            final String subtitle = environment + ", " + options.threads() + " thread(s), double"
+                    + " precision";
+            try {
+                Files.writeString(options.svg(), ScalingPlot.svg(rows, title, subtitle),
+                        StandardCharsets.UTF_8);
+            } catch (IOException | SecurityException e) {
+                err.println("error: cannot write --svg file '" + options.svg() + "': " + e);
+                return 1;
+            }
+            err.println("# plot written to " + options.svg());
+        }
         return 0;
+    }
+
+    /** The number of reported measurements: probe, kernels and circuit runs. */
+    static int steps(Options options) {
+        final int sizes = options.max() - options.min() + 1;
+        return sizes * (2 + options.kernels().size() * options.targets().size())
+                + 2 * options.circuitQubits().size();
+    }
+
+    /** Measures one size; holds what all sizes share. */
+    private static final class Runner {
+        private final Options options;
+        private final BandwidthProbe probe;
+        private final Progress progress;
+        private final long targetNanos;
+        /** Sum of values read from results, printed at the end so no work is dead. */
+        double sink;
+
+        Runner(Options options, BandwidthProbe probe, Progress progress) {
+            this.options = options;
+            this.probe = probe;
+            this.progress = progress;
+            this.targetNanos = options.millis() * 1_000_000L;
+        }
+
+        /**
+         * Measures everything at {@code n}; with {@code warmUp}, only the first target of each
+         * kernel, reported as not counted, and returns no rows.
+         */
+        List<Row> size(int n, boolean warmUp) {
+            final String prefix = warmUp ? "# warm-up (not reported) " : "# ";
+            final int len = (int) Math.min(2L << n, probe.capacity());
+            progress.start("n=" + n + " probe copy");
+            final Timing copy = measure(r -> probe.timeCopy(len, r), targetNanos);
+            final double copyGbps = BandwidthProbe.copyBytes(len) / copy.perRep();
+            progress.done(String.format(Locale.ROOT, "%sn=%d probe copy: %d doubles, %d"
+                    + " repetitions in %.3f s, %.3f GB/s", prefix, n, len, copy.reps(),
+                    copy.nanos() / 1e9, copyGbps), !warmUp);
+            progress.start("n=" + n + " probe triad");
+            final Timing triad = measure(r -> probe.timeTriad(len, r), targetNanos);
+            final double triadGbps = BandwidthProbe.triadBytes(len) / triad.perRep();
+            progress.done(String.format(Locale.ROOT, "%sn=%d probe triad: %d doubles, %d"
+                    + " repetitions in %.3f s, %.3f GB/s", prefix, n, len, triad.reps(),
+                    triad.nanos() / 1e9, triadGbps), !warmUp);
+            sink += probe.sample(len - 1);
+
+            final List<Row> rows = new ArrayList<>();
+            StateVector state = Workloads.productState(n, Workloads.STATE_SEED)
+                    .withThreads(options.threads());
+            for (String kernel : options.kernels()) {
+                for (String target : options.targets()) {
+                    final Circuit[] gates = gates(kernel, target, n);
+                    final StateVector s = state;
+                    progress.start("n=" + n + " " + kernel + " " + target);
+                    final Timing t = measure(r -> timeGates(s, gates, r), targetNanos);
+                    final Row row = new Row(n, kernel, target, options.threads(), t.perRep(),
+                            copyGbps, triadGbps);
+                    progress.done(String.format(Locale.ROOT, "%sn=%d %s %s: %d repetitions in"
+                            + " %.3f s, %.1f ns per gate, %.3f GB/s, %.2f of copy", prefix, n,
+                            kernel, target, t.reps(), t.nanos() / 1e9, t.perRep(), row.gbps(),
+                            row.gbps() / copyGbps), !warmUp);
+                    rows.add(row);
+                    if (warmUp) {
+                        break;
+                    }
+                }
+            }
+            sink += state.probability(0);
+            state = null; // the circuit runs allocate their own states
+            final boolean circuit = warmUp ? !options.circuitQubits().isEmpty()
+                    : options.circuitQubits().contains(n);
+            if (circuit) {
+                final Circuit c = Workloads.layeredCircuit(n, Workloads.CIRCUIT_LAYERS,
+                        Workloads.CIRCUIT_SEED);
+                final double[] perGate = new double[2];
+                for (int f = 0; f < 2; f++) {
+                    final boolean fused = f == 0;
+                    final String kernel = fused ? "circuit-fused" : "circuit-unfused";
+                    final Simulator sim = Simulator.seeded(Workloads.CIRCUIT_SEED)
+                            .withThreads(options.threads()).withFusion(fused);
+                    progress.start("n=" + n + " " + kernel);
+                    final Timing t = measure(r -> timeCircuit(sim, c, r), targetNanos);
+                    perGate[f] = t.perRep() / c.size();
+                    final Row row = new Row(n, kernel, "all", options.threads(), perGate[f],
+                            copyGbps, triadGbps);
+                    progress.done(String.format(Locale.ROOT, "%sn=%d %s: %d gates, %d runs in"
+                            + " %.3f s, %.1f ns per gate", prefix, n, kernel, c.size(),
+                            t.reps(), t.nanos() / 1e9, perGate[f]), !warmUp);
+                    rows.add(row);
+                }
+                progress.note(String.format(Locale.ROOT, "%sn=%d fusion speed-up: %.2fx"
+                        + " (unfused %.1f ns per gate, fused %.1f)", prefix, n,
+                        perGate[1] / perGate[0], perGate[1], perGate[0]));
+            }
+            return warmUp ? List.of() : rows;
+        }
+
+        private Circuit[] gates(String kernel, String target, int n) {
+            if (!target.equals("all")) {
+                return new Circuit[] {Workloads.kernelCircuit(kernel, n,
+                        Workloads.target(target, n))};
+            }
+            final Circuit[] gates = new Circuit[n];
+            for (int q = 0; q < n; q++) {
+                gates[q] = Workloads.kernelCircuit(kernel, n, q);
+            }
+            return gates;
+        }
+
+        private long timeCircuit(Simulator sim, Circuit c, long reps) {
+            double s = 0;
+            final long start = System.nanoTime();
+            for (long r = 0; r < reps; r++) {
+                s += sim.stateAfter(c).probability(0);
+            }
+            final long elapsed = System.nanoTime() - start;
+            sink += s;
+            return elapsed;
+        }
+    }
+
+    /** Applies the one-gate circuits {@code reps} times in turn; returns nanoseconds. */
+    private static long timeGates(StateVector state, Circuit[] gates, long reps) {
+        final int count = gates.length;
+        int next = 0;
+        final long start = System.nanoTime();
+        for (long r = 0; r < reps; r++) {
+            state.apply(gates[next]);
+            next = next + 1 == count ? 0 : next + 1;
+        }
+        return System.nanoTime() - start;
+    }
+
+    /**
+     * Warms up with doubling batches until one lasts a third of {@code targetNanos}, then times
+     * a batch meant to last {@code MARGIN * targetNanos}, retried up to three times if short.
+     */
+    static Timing measure(Batch batch, long targetNanos) {
+        long reps = 1;
+        long elapsed = batch.time(reps);
+        while (elapsed < targetNanos / 3 && reps < MAX_REPETITIONS) {
+            reps *= 2;
+            elapsed = batch.time(reps);
+        }
+        reps = chooseRepetitions(reps, elapsed, targetNanos);
+        elapsed = batch.time(reps);
+        for (int retry = 0; retry < MAX_RETRIES && elapsed < targetNanos; retry++) {
+            reps = chooseRepetitions(reps, elapsed, targetNanos);
+            elapsed = batch.time(reps);
+        }
+        return new Timing(reps, Math.max(1, elapsed));
     }
 
     /**
@@ -162,10 +506,15 @@ public final class ScalingReport {
     static Options parse(String[] args, int defaultThreads) {
         int min = 10;
         int max = 26;
-        int threads = defaultThreads;
-        String gate = "dense";
-        String target = "mid";
+        int threads = Math.min(defaultThreads, MAX_THREADS);
+        List<String> kernels = Workloads.KERNEL_NAMES;
+        List<String> targets = List.of("low", "mid", "high");
         long millis = 300;
+        Boolean circuit = null;
+        List<Integer> circuitQubits = null;
+        String circuitQubitsText = null;
+        Path csv = null;
+        Path svg = null;
         boolean help = false;
         final Set<String> seen = new HashSet<>();
         for (int i = 0; i < args.length; i++) {
@@ -176,11 +525,9 @@ public final class ScalingReport {
                 value = name.substring(eq + 1);
                 name = name.substring(0, eq);
             }
-            if (!List.of("--min", "--max", "--threads", "--gate", "--target", "--millis",
-                    "--help").contains(name)) {
-                throw new IllegalArgumentException("unknown option '" + args[i]
-                        + "'; allowed: --min, --max, --threads, --gate, --target, --millis,"
-                        + " --help");
+            if (!OPTIONS.contains(name)) {
+                throw new IllegalArgumentException("unknown option '" + args[i] + "'; allowed: "
+                        + String.join(", ", OPTIONS));
             }
             if (!seen.add(name)) {
                 throw new IllegalArgumentException("option " + name + " is given twice");
@@ -201,32 +548,48 @@ public final class ScalingReport {
             }
             switch (name) {
                 case "--min":
-                    min = parseWhole(name, value, 1, MAX_QUBITS);
+                    min = (int) parseWhole(name, value, 1, MAX_QUBITS);
                     break;
                 case "--max":
-                    max = parseWhole(name, value, 1, MAX_QUBITS);
+                    max = (int) parseWhole(name, value, 1, MAX_QUBITS);
                     break;
                 case "--threads":
-                    threads = parseWhole(name, value, 1, MAX_THREADS);
+                    threads = (int) parseWhole(name, value, 1, MAX_THREADS);
                     break;
                 case "--millis":
                     millis = parseWhole(name, value, 1, MAX_MILLIS);
                     break;
-                case "--gate":
-                    if (!Workloads.GATE_NAMES.contains(value)) {
-                        throw new IllegalArgumentException("--gate '" + value
-                                + "' is not known; allowed: "
-                                + String.join(", ", Workloads.GATE_NAMES));
-                    }
-                    gate = value;
+                case "--kernels":
+                    kernels = value.equals("all") ? Workloads.KERNEL_NAMES
+                            : parseNames(name, value, Workloads.KERNEL_NAMES);
                     break;
-                default: // --target
-                    if (!value.equals("all") && !Workloads.TARGET_NAMES.contains(value)) {
-                        throw new IllegalArgumentException("--target '" + value
-                                + "' is not known; allowed: "
-                                + String.join(", ", Workloads.TARGET_NAMES) + ", all");
+                case "--targets":
+                    targets = parseNames(name, value, TARGETS);
+                    break;
+                case "--circuit":
+                    if (!value.equals("on") && !value.equals("off")) {
+                        throw new IllegalArgumentException("--circuit must be on or off but was '"
+                                + value + "'");
                     }
-                    target = value;
+                    circuit = value.equals("on");
+                    break;
+                case "--circuit-qubits":
+                    circuitQubitsText = value;
+                    circuitQubits = new ArrayList<>();
+                    for (String part : value.split(",", -1)) {
+                        final int q = (int) parseWhole(name, part, 1, MAX_QUBITS);
+                        if (circuitQubits.contains(q)) {
+                            throw new IllegalArgumentException(name + " lists " + q + " twice in '"
+                                    + value + "'");
+                        }
+                        circuitQubits.add(q);
+                    }
+                    break;
+                case "--csv":
+                    csv = parsePath(name, value);
+                    break;
+                default: // --svg
+                    svg = parsePath(name, value);
                     break;
             }
         }
@@ -234,10 +597,38 @@ public final class ScalingReport {
             throw new IllegalArgumentException("--min " + min + " is greater than --max " + max
                     + "; the range must not be empty");
         }
-        return new Options(min, max, threads, gate, target, millis, help);
+        if (min < 2 && kernels.contains("controlled")) {
+            throw new IllegalArgumentException("--min " + min + " is too small for the"
+                    + " controlled kernel, a CNOT on two qubits; use --min 2 or more, or leave"
+                    + " controlled out of --kernels");
+        }
+        if (csv != null && csv.equals(svg)) {
+            throw new IllegalArgumentException("--csv and --svg name the same file '" + csv
+                    + "'");
+        }
+        final TreeSet<Integer> sizes = new TreeSet<>();
+        if (circuitQubits != null) {
+            if (Boolean.FALSE.equals(circuit)) {
+                throw new IllegalArgumentException("--circuit-qubits " + circuitQubitsText
+                        + " contradicts --circuit off");
+            }
+            for (int q : circuitQubits) {
+                if (q < min || q > max) {
+                    throw new IllegalArgumentException("--circuit-qubits " + q + " is outside"
+                            + " --min.." + "--max = [" + min + ", " + max + "]");
+                }
+                sizes.add(q);
+            }
+        } else if (!Boolean.FALSE.equals(circuit)) {
+            for (int n = Math.max(min, CIRCUIT_FROM); n <= max; n++) {
+                sizes.add(n);
+            }
+        }
+        return new Options(min, max, threads, kernels, targets, millis, List.copyOf(sizes), csv,
+                svg, help);
     }
 
-    private static int parseWhole(String name, String value, long low, long high) {
+    private static long parseWhole(String name, String value, long low, long high) {
         final long parsed;
         try {
             parsed = Long.parseLong(value.trim());
@@ -249,7 +640,53 @@ public final class ScalingReport {
             throw new IllegalArgumentException(name + " must be in [" + low + ", " + high
                     + "] but was " + parsed);
         }
-        return (int) parsed;
+        return parsed;
+    }
+
+    private static List<String> parseNames(String name, String value, List<String> allowed) {
+        final List<String> names = new ArrayList<>();
+        for (String part : value.split(",", -1)) {
+            final String p = part.trim();
+            if (!allowed.contains(p)) {
+                throw new IllegalArgumentException(name + " '" + p + "' is not known; allowed: "
+                        + String.join(", ", allowed) + " (comma separated)");
+            }
+            if (names.contains(p)) {
+                throw new IllegalArgumentException(name + " lists '" + p + "' twice in '" + value
+                        + "'");
+            }
+            names.add(p);
+        }
+        return List.copyOf(names);
+    }
+
+    private static Path parsePath(String name, String value) {
+        if (value.isBlank()) {
+            throw new IllegalArgumentException(name + " needs a file name but was empty");
+        }
+        try {
+            return Path.of(value);
+        } catch (java.nio.file.InvalidPathException e) {
+            throw new IllegalArgumentException(name + " '" + value + "' is not a valid file name: "
+                    + e.getMessage(), e);
+        }
+    }
+
+    /** Checks before measuring that a file can be written later: its folder exists. */
+    private static Optional<String> unwritable(Path file, String option) {
+        if (file == null) {
+            return Optional.empty();
+        }
+        if (Files.isDirectory(file)) {
+            return Optional.of("cannot write " + option + " file '" + file + "': it is a"
+                    + " directory");
+        }
+        final Path parent = file.toAbsolutePath().getParent();
+        if (parent != null && !Files.isDirectory(parent)) {
+            return Optional.of("cannot write " + option + " file '" + file + "': directory '"
+                    + parent + "' does not exist");
+        }
+        return Optional.empty();
     }
 
     /**
@@ -270,9 +707,11 @@ public final class ScalingReport {
     }
 
     /**
-     * Bytes one dense single-qubit gate moves on {@code n} qubits: every amplitude is read once
-     * and written once, {@code 2 * 16 * 2^n} (common practice for the bandwidth of a streaming
-     * kernel: bytes read plus bytes written).
+     * Bytes one single-qubit gate moves on {@code n} qubits: every amplitude is read once and
+     * written once, {@code 2 * 16 * 2^n} (common practice for the bandwidth of a streaming
+     * kernel: bytes read plus bytes written). The same count is used for every kernel kind, so
+     * {@code gb_per_s} is an effective rate: a kernel that touches less than the whole state
+     * (a controlled gate) can exceed the copy bandwidth.
      */
     static long bytesMoved(int n) {
         return 2 * stateBytes(n);
@@ -286,29 +725,51 @@ public final class ScalingReport {
         return bytesMoved(n) / nanosPerGate;
     }
 
-    /** Formats one CSV row: {@code n,ns_per_gate,ns_per_amplitude,gb_per_s}. */
-    static String row(int n, double nanosPerGate) {
-        final double nanosPerAmplitude = nanosPerGate / (double) (1L << n);
-        return String.format(Locale.ROOT, "%d,%.1f,%.5f,%.3f", n, nanosPerGate,
-                nanosPerAmplitude, gigabytesPerSecond(n, nanosPerGate));
+    /**
+     * Heap the report needs at {@code --max maxQubits} with probe arrays of {@code probeLength}
+     * doubles: twice the largest state (it is built from a half-size state; a circuit run's new
+     * state may meet the previous one not yet collected) plus three probe arrays.
+     */
+    static long heapNeeded(int maxQubits, long probeLength) {
+        return 2 * stateBytes(maxQubits) + 3 * Double.BYTES * probeLength;
     }
 
     /**
-     * Checks the heap can hold the largest state while it is built (the state plus the half-size
-     * state it is built from, rounded up to twice the state).
+     * Returns the length of the probe arrays: {@code 2^(max+1)} doubles (the state's bytes), at
+     * most {@link #MAX_PROBE_LENGTH}; if the heap cannot hold that next to the state, the
+     * longest power of two that fits, but not below {@code min(2^(max+1), MIN_PROBE_LENGTH)};
+     * or -1 if even that does not fit.
+     */
+    static long probeLength(int maxQubits, long maxHeapBytes) {
+        final long full = Math.min(2L << maxQubits, MAX_PROBE_LENGTH);
+        final long least = Math.min(full, MIN_PROBE_LENGTH);
+        long len = full;
+        while (len > least && heapNeeded(maxQubits, len) > maxHeapBytes) {
+            len >>= 1;
+        }
+        return heapNeeded(maxQubits, len) <= maxHeapBytes ? len : -1;
+    }
+
+    /**
+     * Checks the heap can hold the largest state while it is built and the probe arrays (shorter
+     * ones if need be, see {@link #probeLength}).
      *
      * @return empty if it can, otherwise a message with the bytes needed, the heap maximum and
      *     the {@code -Xmx} that would do
      */
     static Optional<String> heapProblem(int maxQubits, long maxHeapBytes) {
-        final long needed = 2 * stateBytes(maxQubits);
-        if (needed <= maxHeapBytes) {
+        if (probeLength(maxQubits, maxHeapBytes) > 0) {
             return Optional.empty();
         }
+        final long full = Math.min(2L << maxQubits, MAX_PROBE_LENGTH);
+        final long least = Math.min(full, MIN_PROBE_LENGTH);
+        final long needed = heapNeeded(maxQubits, full);
         final long suggestGib = (needed + GIB - 1) / GIB + 1;
         return Optional.of("a " + maxQubits + "-qubit state needs " + formatBytes(stateBytes(
-                maxQubits)) + " (" + formatBytes(needed) + " while it is built) but the maximum"
-                + " heap is " + formatBytes(maxHeapBytes) + "; rerun with java -Xmx" + suggestGib
+                maxQubits)) + " (" + formatBytes(2 * stateBytes(maxQubits)) + " while it is"
+                + " built) and the bandwidth probe 3 x " + formatBytes(8 * full) + " (3 x "
+                + formatBytes(8 * least) + " at least), but the maximum heap is "
+                + formatBytes(maxHeapBytes) + "; rerun with java -Xmx" + suggestGib
                 + "g, or lower --max");
     }
 
@@ -320,54 +781,8 @@ public final class ScalingReport {
         return String.format(Locale.ROOT, "%.1f GiB", (double) bytes / GIB);
     }
 
-    /** Warms up and measures one qubit count; returns nanoseconds per gate. */
-    private static double measure(int n, Operator op, Options options, PrintStream err,
-            String prefix) {
-        final int[][] targets;
-        if (options.target().equals("all")) {
-            targets = new int[n][];
-            for (int q = 0; q < n; q++) {
-                targets[q] = new int[] {q};
-            }
-        } else {
-            targets = new int[][] {{Workloads.target(options.target(), n)}};
-        }
-        final StateVector state = Workloads.productState(n, Workloads.STATE_SEED)
-                .withThreads(options.threads());
-        final long targetNanos = options.millis() * 1_000_000L;
-
-        // Warm-up: doubling batches until one lasts a third of the target; the last is the pilot.
-        long reps = 1;
-        long elapsed = timeBatch(state, op, targets, reps);
-        while (elapsed < targetNanos / 3 && reps < MAX_REPETITIONS) {
-            reps *= 2;
-            elapsed = timeBatch(state, op, targets, reps);
-        }
-        reps = chooseRepetitions(reps, elapsed, targetNanos);
-        elapsed = timeBatch(state, op, targets, reps);
-        for (int retry = 0; retry < MAX_RETRIES && elapsed < targetNanos; retry++) {
-            reps = chooseRepetitions(reps, elapsed, targetNanos);
-            elapsed = timeBatch(state, op, targets, reps);
-        }
-        err.println(String.format(Locale.ROOT, "%sn=%d: %d repetitions in %.3f s", prefix, n,
-                reps, elapsed / 1e9));
-        return (double) elapsed / reps;
-    }
-
-    /** Applies the gate {@code reps} times, cycling through the targets; returns nanoseconds. */
-    private static long timeBatch(StateVector state, Operator op, int[][] targets, long reps) {
-        final int count = targets.length;
-        int next = 0;
-        final long start = System.nanoTime();
-        for (long r = 0; r < reps; r++) {
-            state.apply(op, targets[next]);
-            next = next + 1 == count ? 0 : next + 1;
-        }
-        return System.nanoTime() - start;
-    }
-
     /** The CPU model from /proc/cpuinfo, or "unknown". */
-    private static String cpuModel() {
+    static String cpuModel() {
         try {
             for (String line : Files.readAllLines(Path.of("/proc/cpuinfo"),
                     StandardCharsets.UTF_8)) {
@@ -380,5 +795,69 @@ public final class ScalingReport {
             return "unknown";
         }
         return "unknown";
+    }
+
+    /**
+     * Progress on standard error: one {@code #} line per measurement, and with a console a
+     * single bar redrawn in place with carriage returns.
+     */
+    private static final class Progress {
+        private final PrintStream err;
+        private final boolean bar;
+        private final int total;
+        private final long start = System.nanoTime();
+        private int done;
+        private int drawn;
+
+        Progress(PrintStream err, boolean bar, int total) {
+            this.err = err;
+            this.bar = bar;
+            this.total = total;
+        }
+
+        /** Shows what is being measured now. */
+        void start(String what) {
+            if (!bar) {
+                return;
+            }
+            final int filled = total == 0 ? BAR : done * BAR / total;
+            final String text = "[" + "#".repeat(filled) + "-".repeat(BAR - filled) + "] "
+                    + done + "/" + total + " " + elapsed() + "  " + what;
+            err.print("\r" + text + " ".repeat(Math.max(0, drawn - text.length())));
+            err.flush();
+            drawn = text.length();
+        }
+
+        /** Prints a measurement's line; {@code counts} when it is one of the reported steps. */
+        void done(String line, boolean counts) {
+            if (counts) {
+                done++;
+            }
+            note(line + " (elapsed " + elapsed() + ")");
+        }
+
+        /** Prints a comment line above the bar. */
+        void note(String line) {
+            clear();
+            err.println(line);
+            err.flush();
+        }
+
+        /** Removes the bar. */
+        void finish() {
+            clear();
+        }
+
+        private void clear() {
+            if (bar && drawn > 0) {
+                err.print("\r" + " ".repeat(drawn) + "\r");
+                drawn = 0;
+            }
+        }
+
+        private String elapsed() {
+            final long s = (System.nanoTime() - start) / 1_000_000_000L;
+            return String.format(Locale.ROOT, "%d:%02d:%02d", s / 3600, s / 60 % 60, s % 60);
+        }
     }
 }

@@ -1,5 +1,6 @@
 package dev.qsim.bench;
 
+import dev.qsim.Circuit;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
 import dev.qsim.StateVector;
@@ -8,8 +9,9 @@ import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 
 /**
- * The gates, target qubits and states shared by {@link SingleQubitGateBenchmark} and
- * {@link ScalingReport}, so both time the same work.
+ * The gates, target qubits, states and circuits shared by {@link SingleQubitGateBenchmark},
+ * {@link KernelBenchmark}, {@link FusionBenchmark} and {@link ScalingReport}, so all of them time
+ * the same work.
  */
 final class Workloads {
     /** Gate names accepted by {@link #gate(String)}, in the order shown in messages. */
@@ -18,8 +20,18 @@ final class Workloads {
     /** Target names accepted by {@link #target(String, int)}, in the order shown in messages. */
     static final List<String> TARGET_NAMES = List.of("low", "mid", "high");
 
+    /** Kernel kinds accepted by {@link #kernelGate(String)}, in the order shown in messages. */
+    static final List<String> KERNEL_NAMES = List.of("dense", "diagonal", "permutation",
+            "controlled");
+
     /** Seed of the random single-qubit states whose tensor product is the benchmark state. */
     static final long STATE_SEED = 20_240_611L;
+
+    /** Seed of the gate kinds and angles of {@link #layeredCircuit(int, int, long)}. */
+    static final long CIRCUIT_SEED = 20_261_201L;
+
+    /** Layers of the circuit that compares fused and unfused runs. */
+    static final int CIRCUIT_LAYERS = 20;
 
     private Workloads() {
     }
@@ -76,6 +88,114 @@ final class Workloads {
                 throw new IllegalArgumentException("target '" + name + "' is not known; allowed: "
                         + String.join(", ", TARGET_NAMES));
         }
+    }
+
+    /**
+     * Returns the one-gate circuit that times a kernel kind on {@code n} qubits at target qubit
+     * {@code target}:
+     *
+     * <ul>
+     *   <li>{@code dense}: the generic unitary {@code gate("dense")} (dense 2x2 kernel);</li>
+     *   <li>{@code diagonal}: {@code rz(0.7)}, both diagonal entries complex and not 1, so the
+     *       diagonal kernel cannot skip half the state;</li>
+     *   <li>{@code permutation}: X (amplitudes swapped, no arithmetic);</li>
+     *   <li>{@code controlled}: CNOT with control {@link #controlFor(int, int)} and this target,
+     *       recorded with {@code Circuit.Builder.cnot}, so the engine applies X on the target
+     *       only where the control is 1 (the controlled kernel).</li>
+     * </ul>
+     *
+     * @throws IllegalArgumentException if the name is not one of {@link #KERNEL_NAMES}, or it is
+     *     {@code controlled} and {@code n < 2}
+     * @throws IndexOutOfBoundsException if {@code target} is not a qubit of {@code n}
+     */
+    static Circuit kernelCircuit(String name, int n, int target) {
+        final Circuit.Builder b = Circuit.builder(n);
+        if (name.equals("controlled")) {
+            if (n < 2) {
+                throw new IllegalArgumentException("the controlled kernel needs at least 2"
+                        + " qubits but the state has " + n);
+            }
+            return b.cnot(controlFor(target, n), target).build();
+        }
+        return b.apply(kernelGate(name), target).build();
+    }
+
+    /**
+     * Returns the single-qubit operator of a kernel kind other than {@code controlled} (whose
+     * operator on the target is X): {@code dense} is {@code gate("dense")}, {@code diagonal} is
+     * {@code rz(0.7)}, {@code permutation} is X.
+     *
+     * @throws IllegalArgumentException if the name is not one of {@link #KERNEL_NAMES}
+     */
+    static Operator kernelGate(String name) {
+        switch (name) {
+            case "dense":
+                return gate("dense");
+            case "diagonal":
+                return Gates.rz(0.7);
+            case "permutation":
+            case "controlled":
+                return Gates.X;
+            default:
+                throw new IllegalArgumentException("kernel '" + name + "' is not known; allowed: "
+                        + String.join(", ", KERNEL_NAMES));
+        }
+    }
+
+    /**
+     * Returns the control qubit paired with a target for the {@code controlled} kernel: the
+     * next qubit up, or the one below when the target is the highest qubit.
+     *
+     * @throws IllegalArgumentException if {@code n < 2} or the target is not in [0, n)
+     */
+    static int controlFor(int target, int n) {
+        if (n < 2 || target < 0 || target >= n) {
+            throw new IllegalArgumentException("target " + target + " needs a control qubit in a "
+                    + n + "-qubit state; allowed: n >= 2 and target in [0, " + (n - 1) + "]");
+        }
+        return target + 1 < n ? target + 1 : target - 1;
+    }
+
+    /**
+     * Returns the circuit that compares fused and unfused runs: {@code layers} layers, each a
+     * random single-qubit rotation on every qubit (rx, ry or rz, kind and angle in [0, 2 pi)
+     * drawn from a generator seeded with {@code seed}), followed by a ladder of two-qubit gates
+     * on neighbours {@code (q, q + 1)}, {@code q = 0 .. n - 2}: CZ in even layers (0, 2, ...),
+     * CNOT (control q, target q + 1) in odd ones. It has {@code layers * (2n - 1)} gates.
+     *
+     * @throws IllegalArgumentException if {@code n < 1} or {@code layers < 1}
+     */
+    static Circuit layeredCircuit(int n, int layers, long seed) {
+        if (n < 1 || layers < 1) {
+            throw new IllegalArgumentException("the layered circuit needs n >= 1 and layers >= 1"
+                    + " but got n = " + n + ", layers = " + layers);
+        }
+        final UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(seed);
+        final Circuit.Builder b = Circuit.builder(n);
+        for (int layer = 0; layer < layers; layer++) {
+            for (int q = 0; q < n; q++) {
+                final double angle = 2.0 * Math.PI * rng.nextDouble();
+                switch (rng.nextInt(3)) {
+                    case 0:
+                        b.rx(q, angle);
+                        break;
+                    case 1:
+                        b.ry(q, angle);
+                        break;
+                    default:
+                        b.rz(q, angle);
+                        break;
+                }
+            }
+            for (int q = 0; q + 1 < n; q++) {
+                if (layer % 2 == 0) {
+                    b.cz(q, q + 1);
+                } else {
+                    b.cnot(q, q + 1);
+                }
+            }
+        }
+        return b.build();
     }
 
     /**

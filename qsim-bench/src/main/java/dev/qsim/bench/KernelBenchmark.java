@@ -1,0 +1,93 @@
+package dev.qsim.bench;
+
+import dev.qsim.Circuit;
+import dev.qsim.StateVector;
+import java.util.concurrent.TimeUnit;
+import org.openjdk.jmh.annotations.Benchmark;
+import org.openjdk.jmh.annotations.BenchmarkMode;
+import org.openjdk.jmh.annotations.Fork;
+import org.openjdk.jmh.annotations.Measurement;
+import org.openjdk.jmh.annotations.Mode;
+import org.openjdk.jmh.annotations.OutputTimeUnit;
+import org.openjdk.jmh.annotations.Param;
+import org.openjdk.jmh.annotations.Scope;
+import org.openjdk.jmh.annotations.Setup;
+import org.openjdk.jmh.annotations.State;
+import org.openjdk.jmh.annotations.Warmup;
+
+/**
+ * Time of one gate of each kernel kind applied in place to a state of {@code n} qubits: the
+ * kinds of {@link Workloads#kernelCircuit} ({@code dense}, {@code diagonal}, {@code
+ * permutation}, {@code controlled}), target qubit {@code low} (0) or {@code high} (n - 1), 1 or 2
+ * kernel threads, {@code n} = 20, 22, 24 (16, 64 and 256 MiB, beyond most last-level caches).
+ *
+ * <p>Each invocation applies a prebuilt one-gate circuit with {@code StateVector.apply(Circuit)},
+ * which keeps the state normalised, and returns the state. Double precision only: qsim-core has
+ * no single-precision amplitudes yet.
+ */
+@BenchmarkMode(Mode.AverageTime)
+@OutputTimeUnit(TimeUnit.MICROSECONDS)
+@Warmup(iterations = 3, time = 1)
+@Measurement(iterations = 5, time = 1)
+@Fork(value = 1, jvmArgsAppend = "-Xmx2g")
+public class KernelBenchmark {
+
+    /** Creates the benchmark; JMH calls this. */
+    public KernelBenchmark() {
+        // The workload holds the data.
+    }
+
+    /** The state and gate of one parameter combination; fields are not final. */
+    @State(Scope.Benchmark)
+    public static class Workload {
+        /** Qubit count: state of 2^n amplitudes, 16 bytes each. */
+        @Param({"20", "22", "24"})
+        int n;
+
+        /** Kernel kind: dense, diagonal, permutation or controlled. */
+        @Param({"dense", "diagonal", "permutation", "controlled"})
+        String kernel;
+
+        /** Target qubit: low (0) or high (n - 1). */
+        @Param({"low", "high"})
+        String target;
+
+        /** Threads the state's kernels may use. */
+        @Param({"1", "2"})
+        int threads;
+
+        /** The state the gate is applied to; changed in place by every invocation. */
+        StateVector state;
+
+        /** The one-gate circuit. */
+        Circuit gate;
+
+        /** Creates the workload; JMH calls this and then sets the parameters. */
+        public Workload() {
+            // Parameters are injected by JMH before setUp().
+        }
+
+        /**
+         * Builds the seeded state of {@code n} qubits and the gate.
+         *
+         * @throws IllegalArgumentException if a parameter is not one of the allowed values
+         * @throws IllegalStateException if the heap cannot hold the state
+         */
+        @Setup
+        public void setUp() {
+            gate = Workloads.kernelCircuit(kernel, n, Workloads.target(target, n));
+            state = Workloads.productState(n, Workloads.STATE_SEED).withThreads(threads);
+        }
+    }
+
+    /**
+     * Applies the gate once.
+     *
+     * @param w the workload
+     * @return the state, changed in place
+     */
+    @Benchmark
+    public StateVector applyGate(Workload w) {
+        return w.state.apply(w.gate);
+    }
+}

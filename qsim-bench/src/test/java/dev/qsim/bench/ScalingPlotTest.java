@@ -1,0 +1,133 @@
+package dev.qsim.bench;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.ByteArrayInputStream;
+import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import javax.xml.parsers.DocumentBuilderFactory;
+import org.junit.jupiter.api.Test;
+import org.w3c.dom.Document;
+import org.w3c.dom.Element;
+import org.w3c.dom.NodeList;
+
+/**
+ * Tests of the SVG plot. The rows are made up to exercise the drawing (not measurements): the
+ * checks are on structure and on the plot's own arithmetic.
+ */
+class ScalingPlotTest {
+
+    private static ScalingReport.Row row(int n, String kernel, String target, double nanos,
+            double copy) {
+        return new ScalingReport.Row(n, kernel, target, 2, nanos, copy, copy * 0.9);
+    }
+
+    private static List<ScalingReport.Row> rows() {
+        List<ScalingReport.Row> rows = new ArrayList<>();
+        for (int n = 10; n <= 14; n++) {
+            double base = 4.0 * (1 << n);
+            double copy = n < 12 ? 40.0 : 12.0;
+            rows.add(row(n, "dense", "low", base, copy));
+            rows.add(row(n, "dense", "mid", base * 1.5, copy));
+            rows.add(row(n, "dense", "high", base * 2, copy));
+            rows.add(row(n, "diagonal", "low", base / 2, copy));
+            rows.add(row(n, "diagonal", "high", base, copy));
+        }
+        rows.add(row(14, "circuit-fused", "all", 1000.0, 12.0));
+        return rows;
+    }
+
+    @Test
+    void oneSeriesPerKernelMidOrMean() {
+        Map<String, TreeMap<Integer, Double>> series = ScalingPlot.series(rows());
+        assertEquals(List.of("dense", "diagonal", "circuit-fused"),
+            new ArrayList<>(series.keySet()));
+        // dense has a mid row: its value. diagonal has none: the mean of low and high,
+        // (2048 + 4096) / 2 = 3072 at n = 10 (exact).
+        assertEquals(1.5 * 4 * 1024, series.get("dense").get(10), 0.0);
+        assertEquals(3072.0, series.get("diagonal").get(10), 0.0);
+        assertEquals(Map.of(14, 1000.0), series.get("circuit-fused"));
+    }
+
+    @Test
+    void floorIsTheCopyTimeOfTheGateBytes() {
+        // 32 * 2^10 bytes at 40 GB/s (= 40 bytes/ns) is 819.2 ns; 32 * 2^14 at 12 is
+        // 43690.666... ns (exact arithmetic).
+        TreeMap<Integer, Double> floor = ScalingPlot.floor(rows());
+        assertEquals(819.2, floor.get(10), 1e-9);
+        assertEquals(32.0 * 16384 / 12.0, floor.get(14), 1e-9);
+        assertEquals(5, floor.size());
+    }
+
+    @Test
+    void svgIsWellFormedWithOnePolylinePerKernelAndTheFloor() throws Exception {
+        String svg = ScalingPlot.svg(rows(), "time & <size>", "java \"17\", cpu 'x'");
+        Document doc = parse(svg);
+        Element root = doc.getDocumentElement();
+        assertEquals("svg", root.getLocalName());
+        assertEquals("http://www.w3.org/2000/svg", root.getNamespaceURI());
+        List<String> kernels = new ArrayList<>();
+        int floors = 0;
+        NodeList polylines = doc.getElementsByTagName("polyline");
+        for (int i = 0; i < polylines.getLength(); i++) {
+            Element p = (Element) polylines.item(i);
+            if (p.getAttribute("class").equals("series")) {
+                kernels.add(p.getAttribute("data-kernel"));
+            } else {
+                assertEquals("floor", p.getAttribute("class"));
+                assertTrue(p.hasAttribute("stroke-dasharray"));
+                assertEquals(5, p.getAttribute("points").split(" ").length);
+                floors++;
+            }
+        }
+        assertEquals(List.of("dense", "diagonal", "circuit-fused"), kernels);
+        assertEquals(1, floors);
+        // The title survives escaping; the legend names every kernel and the floor.
+        String text = root.getTextContent();
+        assertTrue(text.contains("time & <size>"), text);
+        assertTrue(text.contains("java \"17\", cpu 'x'"), text);
+        for (String k : kernels) {
+            assertTrue(text.contains(k), text);
+        }
+        assertTrue(text.contains("copy-bandwidth floor"), text);
+        // Decade ticks: the plotted values run from 819.2 ns (the floor at n = 10) to 98304 ns
+        // (dense mid at n = 14), so the axis spans the decades 100 ns .. 100 us.
+        assertTrue(text.contains("100 ns") && text.contains("1 \u00b5s")
+            && text.contains("10 \u00b5s") && text.contains("100 \u00b5s"), text);
+    }
+
+    @Test
+    void oneSizeStillDraws() throws Exception {
+        List<ScalingReport.Row> one = List.of(row(5, "dense", "mid", 100.0, 10.0));
+        Document doc = parse(ScalingPlot.svg(one, "t", "s"));
+        assertEquals(2, doc.getElementsByTagName("polyline").getLength());
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+            () -> ScalingPlot.svg(List.of(), "t", "s"));
+        assertEquals("there are no rows to plot", e.getMessage());
+    }
+
+    @Test
+    void decadeLabelsAndEscaping() {
+        assertEquals("1 ns", ScalingPlot.decadeLabel(0));
+        assertEquals("100 ns", ScalingPlot.decadeLabel(2));
+        assertEquals("1 \u00b5s", ScalingPlot.decadeLabel(3));
+        assertEquals("10 ms", ScalingPlot.decadeLabel(7));
+        assertEquals("1 s", ScalingPlot.decadeLabel(9));
+        assertEquals("100 s", ScalingPlot.decadeLabel(11));
+        assertEquals("1e-1 ns", ScalingPlot.decadeLabel(-1));
+        assertEquals("a&amp;b&lt;c&gt;&quot;&apos;", ScalingPlot.escape("a&b<c>\"'"));
+    }
+
+    private static Document parse(String svg) throws Exception {
+        DocumentBuilderFactory f = DocumentBuilderFactory.newInstance();
+        f.setNamespaceAware(true);
+        f.setFeature("http://apache.org/xml/features/disallow-doctype-decl", true);
+        return f.newDocumentBuilder().parse(new ByteArrayInputStream(
+            svg.getBytes(StandardCharsets.UTF_8)));
+    }
+}
