@@ -131,6 +131,72 @@ public final class Kernels {
         }
     }
 
+    /** X on one qubit, no controls: swaps the halves of each block without arithmetic. */
+    private static final class Flip1Plan extends Plan {
+        final int q;
+
+        Flip1Plan(Amplitudes a, int q) {
+            super(a);
+            this.q = q;
+        }
+
+        @Override
+        public long units() {
+            final long pairs = 1L << (a.n - 1);
+            return q < a.chunkLog ? pairs >>> q : pairs;
+        }
+
+        @Override
+        public void run(long from, long to) {
+            if (q < a.chunkLog) {
+                final int blocksPerChunkLog = a.chunkLog - q - 1;
+                long b = from;
+                while (b < to) {
+                    final int c = (int) (b >>> blocksPerChunkLog);
+                    final long end = Math.min(to, ((long) c + 1) << blocksPerChunkLog);
+                    final int first = (int) (b - ((long) c << blocksPerChunkLog));
+                    final double[] psi = a.chunks[c];
+                    final int s2 = 2 << q;
+                    final int start = first << (q + 2);
+                    final int stop = start + ((int) (end - b) << (q + 2));
+                    if (q == 0) {
+                        for (int x = start; x < stop; x += 4) {
+                            final double r = psi[x];
+                            final double i = psi[x + 1];
+                            psi[x] = psi[x + 2];
+                            psi[x + 1] = psi[x + 3];
+                            psi[x + 2] = r;
+                            psi[x + 3] = i;
+                        }
+                    } else {
+                        for (int blk = start; blk < stop; blk += s2 << 1) {
+                            swapRuns(psi, blk, psi, blk + s2, 1 << q);
+                        }
+                    }
+                    b = end;
+                }
+            } else {
+                final int cl = a.chunkLog;
+                final int hb = q - cl;
+                long p = from;
+                while (p < to) {
+                    final long pairChunk = p >>> cl;
+                    final long end = Math.min(to, (pairChunk + 1) << cl);
+                    final long lowMask = (1L << hb) - 1;
+                    final int c0 = (int) (((pairChunk >>> hb) << (hb + 1)) | (pairChunk & lowMask));
+                    final int off = (int) (p & a.chunkMask) << 1;
+                    swapRuns(a.chunks[c0], off, a.chunks[c0 | (1 << hb)], off, (int) (end - p));
+                    p = end;
+                }
+            }
+        }
+
+        @Override
+        public long unitsPerBlock(int blockLog) {
+            return q < blockLog ? 1L << (blockLog - q - 1) : -1;
+        }
+    }
+
     /** diag(d0, d1) on one qubit: each half of each block scaled, no partner read. */
     private static final class Diagonal1Plan extends Plan {
         final int q;
@@ -161,29 +227,25 @@ public final class Kernels {
                     final int s2 = 2 << q;
                     final int start = first << (q + 2);
                     final int stop = start + ((int) (end - b) << (q + 2));
-                    for (int half = 0; half < 2; half++) {
-                        final double dr = d[2 * half];
-                        final double di = d[2 * half + 1];
-                        if (dr == 1 && di == 0) {
-                            continue;
+                    final double d0r = d[0], d0i = d[1], d1r = d[2], d1i = d[3];
+                    final boolean skip0 = d0r == 1 && d0i == 0;
+                    if (q == 0) {
+                        // Neighbours: one pass, both halves in the same iteration.
+                        for (int x = start; x < stop; x += 4) {
+                            final double ar = psi[x], ai = psi[x + 1];
+                            final double br = psi[x + 2], bi = psi[x + 3];
+                            psi[x] = d0r * ar - d0i * ai;
+                            psi[x + 1] = d0r * ai + d0i * ar;
+                            psi[x + 2] = d1r * br - d1i * bi;
+                            psi[x + 3] = d1r * bi + d1i * br;
                         }
-                        if (q == 0) {
-                            for (int x = start + 2 * half; x < stop; x += 4) {
-                                final double re = psi[x];
-                                final double im = psi[x + 1];
-                                psi[x] = dr * re - di * im;
-                                psi[x + 1] = dr * im + di * re;
+                    } else {
+                        // Block by block, each half once: the range is streamed once.
+                        for (int blk = start; blk < stop; blk += s2 << 1) {
+                            if (!skip0) {
+                                scale(psi, blk, blk + s2, d0r, d0i);
                             }
-                            continue;
-                        }
-                        for (int blk = start + half * s2; blk < stop; blk += s2 << 1) {
-                            final int blkEnd = blk + s2;
-                            for (int x = blk; x < blkEnd; x += 2) {
-                                final double re = psi[x];
-                                final double im = psi[x + 1];
-                                psi[x] = dr * re - di * im;
-                                psi[x + 1] = dr * im + di * re;
-                            }
+                            scale(psi, blk + s2, blk + (s2 << 1), d1r, d1i);
                         }
                     }
                     b = end;
@@ -711,6 +773,9 @@ public final class Kernels {
             ones &= phase[2 * j] == 1 && phase[2 * j + 1] == 0;
         }
         final boolean pure = ones;
+        if (pure && perm.length == 2 && perm[0] == 1 && controls.length == 0) {
+            return new Flip1Plan(a, targets[0]);
+        }
         if (pure && perm.length == 2 && perm[0] == 1) {
             return new LayoutPlan(a, targets, controls) {
                 @Override
@@ -777,6 +842,15 @@ public final class Kernels {
                     }
                 }
             }
+        }
+    }
+
+    private static void scale(double[] psi, int from, int to, double dr, double di) {
+        for (int x = from; x < to; x += 2) {
+            final double re = psi[x];
+            final double im = psi[x + 1];
+            psi[x] = dr * re - di * im;
+            psi[x + 1] = dr * im + di * re;
         }
     }
 
