@@ -11,9 +11,11 @@ import org.apache.commons.rng.simple.RandomSource;
 
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Parallel;
+import dev.qsim.stabilizer.CliffordRunner;
 
 /**
- * Runs circuits on the state-vector engine: an immutable configuration (seed, threads).
+ * Runs circuits and tallies their shots: an immutable configuration (seed, threads, fusion,
+ * engine).
  * Each call starts from the seed, so equal calls give equal results, whatever the thread count.
  * Thread-safe.
  *
@@ -25,17 +27,56 @@ import dev.qsim.kernel.Parallel;
  * "Scrambled linear pseudorandom number generators", ACM TOMS 47 (2021),
  * doi:10.1145/3460772), seeded with the simulator's seed.
  *
+ * <p>Engines: {@link #run} uses the state-vector engine, or for circuits of Clifford gates,
+ * measurements, resets and conditions the stabilizer engine
+ * ({@link dev.qsim.stabilizer.CliffordRunner}), as {@link #withMethod(Method)} sets;
+ * {@link #methodFor(Circuit)} tells which one runs a given circuit. The two engines draw their
+ * random numbers differently, so one seed gives equally distributed but different tallies on
+ * the two.
+ *
  * @since 0.1
  */
 public final class Simulator {
+    /**
+     * Which engine runs a circuit.
+     *
+     * @since 0.1
+     */
+    public enum Method {
+        /**
+         * The stabilizer engine for a Clifford circuit (see
+         * {@link dev.qsim.stabilizer.CliffordRunner#isClifford(Circuit)}) of at least
+         * {@link Simulator#STABILIZER_FROM_QUBITS} qubits, otherwise the state-vector engine.
+         */
+        AUTOMATIC,
+        /** Always the state-vector engine. */
+        STATE_VECTOR,
+        /**
+         * Always the stabilizer engine; a circuit with a non-Clifford gate is refused with an
+         * {@link IllegalArgumentException} naming the gate and its position.
+         */
+        STABILIZER
+    }
+
+    /**
+     * The qubit count from which {@link Method#AUTOMATIC} runs a Clifford circuit on the
+     * stabilizer engine. A state-vector gate touches 2^n amplitudes; a tableau gate touches
+     * about n/32 words per qubit and a measurement O(n²/64) words (Aaronson and Gottesman 2004,
+     * Phys. Rev. A 70, 052328), so from 16 qubits on the tableau is the cheaper for any mix of
+     * gates and measurements, and every circuit too large for a state vector is above this.
+     */
+    public static final int STABILIZER_FROM_QUBITS = 16;
+
     private final long seed;
     private final int threads;
     private final boolean fusion;
+    private final Method method;
 
-    private Simulator(long seed, int threads, boolean fusion) {
+    private Simulator(long seed, int threads, boolean fusion, Method method) {
         this.seed = seed;
         this.threads = threads;
         this.fusion = fusion;
+        this.method = method;
     }
 
     /**
@@ -45,7 +86,8 @@ public final class Simulator {
      * @return the simulator
      */
     public static Simulator seeded(long seed) {
-        return new Simulator(seed, Runtime.getRuntime().availableProcessors(), true);
+        return new Simulator(seed, Runtime.getRuntime().availableProcessors(), true,
+                Method.AUTOMATIC);
     }
 
     /**
@@ -57,7 +99,7 @@ public final class Simulator {
      */
     public Simulator withThreads(int threads) {
         Checks.requireInRange(threads, 1, Parallel.MAX_THREADS, "thread count");
-        return new Simulator(seed, threads, fusion);
+        return new Simulator(seed, threads, fusion, method);
     }
 
     /**
@@ -70,7 +112,46 @@ public final class Simulator {
      * @return the new simulator
      */
     public Simulator withFusion(boolean on) {
-        return new Simulator(seed, threads, on);
+        return new Simulator(seed, threads, on, method);
+    }
+
+    /**
+     * Returns a simulator like this one that chooses engines as {@code method} says.
+     *
+     * @param method the engine choice
+     * @return the new simulator
+     * @since 0.1
+     */
+    public Simulator withMethod(Method method) {
+        Objects.requireNonNull(method, "method");
+        return new Simulator(seed, threads, fusion, method);
+    }
+
+    /**
+     * Returns the configured engine choice ({@link Method#AUTOMATIC} unless set).
+     *
+     * @return the method
+     * @since 0.1
+     */
+    public Method method() {
+        return method;
+    }
+
+    /**
+     * Returns the engine that {@link #run} uses for a circuit: {@link Method#STATE_VECTOR} or
+     * {@link Method#STABILIZER}, never {@link Method#AUTOMATIC}.
+     *
+     * @param circuit the circuit
+     * @return the engine that runs it
+     * @since 0.1
+     */
+    public Method methodFor(Circuit circuit) {
+        Objects.requireNonNull(circuit, "circuit");
+        if (method != Method.AUTOMATIC) {
+            return method;
+        }
+        return circuit.qubits() >= STABILIZER_FROM_QUBITS && CliffordRunner.isClifford(circuit)
+                ? Method.STABILIZER : Method.STATE_VECTOR;
     }
 
     /**
@@ -111,12 +192,17 @@ public final class Simulator {
      * @param circuit the circuit
      * @param shots the number of shots, at least 1
      * @return a tally of width {@code circuit.clbits()}
-     * @throws IllegalArgumentException if {@code shots < 1}
+     * @throws IllegalArgumentException if {@code shots < 1}, or the stabilizer engine is forced
+     *     and the circuit has a non-Clifford gate
      * @throws IllegalStateException if the heap cannot hold the state
+     * @see #methodFor(Circuit)
      */
     public Tally run(Circuit circuit, int shots) {
         Objects.requireNonNull(circuit, "circuit");
         Checks.requirePositiveShots(shots);
+        if (methodFor(circuit) == Method.STABILIZER) {
+            return CliffordRunner.run(circuit, shots, seed);
+        }
         StateVector state = StateVector.zero(circuit.qubits()).withThreads(threads);
         UniformRandomProvider rng = rng();
         List<Instruction> original = circuit.instructions();
@@ -220,14 +306,22 @@ public final class Simulator {
 
     /**
      * Returns the state after one seeded shot of the circuit: measurements collapse the state
-     * with outcomes drawn from the seed, resets and conditions act as in {@link #run}.
+     * with outcomes drawn from the seed, resets and conditions act as in {@link #run}. Runs on
+     * the state-vector engine unless the stabilizer engine is forced
+     * ({@link Method#STABILIZER}); then the final stabilizer state is converted (at most
+     * {@value dev.qsim.stabilizer.GeneratorTable#MAX_DENSE_QUBITS} qubits).
      *
      * @param circuit the circuit
      * @return the final state of that shot
+     * @throws IllegalArgumentException if the stabilizer engine is forced and the circuit is
+     *     not Clifford or has too many qubits to convert
      * @throws IllegalStateException if the heap cannot hold the state
      */
     public StateVector stateAfter(Circuit circuit) {
         Objects.requireNonNull(circuit, "circuit");
+        if (method == Method.STABILIZER) {
+            return CliffordRunner.stateAfter(circuit, seed).toStateVector().withThreads(threads);
+        }
         StateVector state = StateVector.zero(circuit.qubits()).withThreads(threads);
         List<Instruction> list = fusion ? Engine.fuse(circuit.instructions())
                 : circuit.instructions();
@@ -243,6 +337,6 @@ public final class Simulator {
     @Override
     public String toString() {
         return "Simulator[seed " + seed + ", " + threads + " threads, fusion "
-                + (fusion ? "on" : "off") + "]";
+                + (fusion ? "on" : "off") + ", method " + method + "]";
     }
 }

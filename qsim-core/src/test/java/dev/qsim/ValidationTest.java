@@ -124,7 +124,12 @@ class ValidationTest {
                 "36-qubit state", "1099511627776 bytes", "maximum heap", "-Xmx");
         assertTrue(e.getMessage().contains("1024.0 GiB"), e.getMessage());
         fails(IllegalStateException.class,
-                () -> Simulator.seeded(1).run(Circuit.builder(36).h(0).build(), 10), "-Xmx");
+                () -> Simulator.seeded(1).run(Circuit.builder(36).t(0).build(), 10), "-Xmx");
+        // A Clifford circuit that large runs on the stabilizer engine unless the state vector
+        // is forced.
+        fails(IllegalStateException.class, () -> Simulator.seeded(1)
+                .withMethod(Simulator.Method.STATE_VECTOR)
+                .run(Circuit.builder(36).h(0).build(), 10), "-Xmx");
     }
 
     @Test

@@ -66,7 +66,10 @@ public final class Main {
                     HydrogenGroundState::fromArgs),
             new Entry("maxcut", "[layers [seed [shots]]]",
                     "QAOA max cut on a 6-node graph: convergence, best cut vs brute force",
-                    MaxCutQaoa::fromArgs));
+                    MaxCutQaoa::fromArgs),
+            new Entry("memory", "[seed [shots]]",
+                    "repetition-code memory on an 801-qubit line: syndrome statistics (stabilizer)",
+                    RepetitionMemory::fromArgs));
 
     private Main() {
     }

@@ -11,6 +11,7 @@ class MainTest {
 
     private static final String[] NAMES = {
         "uniform", "bell", "ghz", "teleport", "grover", "fourier", "hydrogen", "maxcut",
+        "memory",
     };
 
     private static final class Run {

@@ -1,0 +1,50 @@
+package dev.qsim.stabilizer;
+
+/** Argument checks of this package. Each message names the value and what is allowed. */
+final class StabilizerChecks {
+    private StabilizerChecks() {
+    }
+
+    static void requireQubitCount(int n, int max) {
+        if (n < 1 || n > max) {
+            throw new IllegalArgumentException("qubit count must be in [1, " + max + "] but was "
+                    + n);
+        }
+    }
+
+    static void requireQubit(int qubit, int qubits) {
+        if (qubit < 0 || qubit >= qubits) {
+            throw new IndexOutOfBoundsException("qubit " + qubit + " is out of range [0, "
+                    + (qubits - 1) + "] for a " + qubits + "-qubit register");
+        }
+    }
+
+    static void requireDistinct(int a, int b, int qubits, String gate) {
+        requireQubit(a, qubits);
+        requireQubit(b, qubits);
+        if (a == b) {
+            throw new IllegalArgumentException("qubit " + a + " appears twice in the qubits of "
+                    + gate + "; each qubit may appear once");
+        }
+    }
+
+    static void requirePositiveShots(int shots) {
+        if (shots < 1) {
+            throw new IllegalArgumentException("shots must be at least 1 but was " + shots);
+        }
+    }
+
+    /** Fails with IllegalStateException unless the heap can still place {@code bytes}. */
+    static void requireHeap(long bytes, String what) {
+        Runtime rt = Runtime.getRuntime();
+        long max = rt.maxMemory();
+        long free = max - (rt.totalMemory() - rt.freeMemory());
+        if (bytes > free) {
+            long mib = 1L << 20;
+            throw new IllegalStateException(what + " needs " + (bytes + mib - 1) / mib
+                    + " MiB but only " + free / mib + " MiB of the maximum heap of " + max / mib
+                    + " MiB are free; raise -Xmx to at least "
+                    + ((max - free + bytes) / mib + 1) + "m");
+        }
+    }
+}
