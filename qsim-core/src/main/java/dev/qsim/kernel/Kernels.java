@@ -89,6 +89,30 @@ public final class Kernels {
     }
 
     /**
+     * Log2 of the pairs in one work unit of a single-qubit gate on a high target inside a
+     * chunk: a block's half is cut into pieces of this size, so even the highest target splits
+     * over threads.
+     */
+    static final int PIECE_LOG = 12;
+
+    /** Work units of a single-qubit gate: blocks, or pieces of blocks for high targets. */
+    static long singleUnits(Amplitudes a, int q) {
+        final long pairs = 1L << (a.n - 1);
+        return q < a.chunkLog ? pairs >>> Math.min(q, PIECE_LOG) : pairs;
+    }
+
+    /** First amplitude index of piece {@code u} of a single-qubit gate with q > PIECE_LOG. */
+    static long pieceBase(int q, long u) {
+        final long b = u >>> (q - PIECE_LOG);
+        final long piece = u & ((1L << (q - PIECE_LOG)) - 1);
+        return (b << (q + 1)) + (piece << PIECE_LOG);
+    }
+
+    static long singleUnitsPerBlock(int q, int blockLog) {
+        return q < blockLog ? 1L << (blockLog - 1 - Math.min(q, PIECE_LOG)) : -1;
+    }
+
+    /**
      * Applies a dense 2x2 matrix to qubit {@code q} with no controls.
      *
      * @param a amplitudes. Modified.
@@ -112,22 +136,28 @@ public final class Kernels {
 
         @Override
         public long units() {
-            final long pairs = 1L << (a.n - 1);
-            return q < a.chunkLog ? pairs >>> q : pairs;
+            return singleUnits(a, q);
         }
 
         @Override
         public void run(long from, long to) {
-            if (q < a.chunkLog) {
+            if (q >= a.chunkLog) {
+                dense1High(a, q, m, from, to);
+            } else if (q <= PIECE_LOG) {
                 dense1Low(a, q, m, from, to);
             } else {
-                dense1High(a, q, m, from, to);
+                for (long u = from; u < to; u++) {
+                    final long base = pieceBase(q, u);
+                    final double[] psi = a.chunks[(int) (base >>> a.chunkLog)];
+                    final int x = (int) (base & a.chunkMask) << 1;
+                    dense1Pair(psi, x, psi, x + (2 << q), 1 << PIECE_LOG, m);
+                }
             }
         }
 
         @Override
         public long unitsPerBlock(int blockLog) {
-            return q < blockLog ? 1L << (blockLog - q - 1) : -1;
+            return singleUnitsPerBlock(q, blockLog);
         }
     }
 
@@ -142,12 +172,20 @@ public final class Kernels {
 
         @Override
         public long units() {
-            final long pairs = 1L << (a.n - 1);
-            return q < a.chunkLog ? pairs >>> q : pairs;
+            return singleUnits(a, q);
         }
 
         @Override
         public void run(long from, long to) {
+            if (q < a.chunkLog && q > PIECE_LOG) {
+                for (long u = from; u < to; u++) {
+                    final long base = pieceBase(q, u);
+                    final double[] psi = a.chunks[(int) (base >>> a.chunkLog)];
+                    final int x = (int) (base & a.chunkMask) << 1;
+                    swapRuns(psi, x, psi, x + (2 << q), 1 << PIECE_LOG);
+                }
+                return;
+            }
             if (q < a.chunkLog) {
                 final int blocksPerChunkLog = a.chunkLog - q - 1;
                 long b = from;
@@ -193,7 +231,7 @@ public final class Kernels {
 
         @Override
         public long unitsPerBlock(int blockLog) {
-            return q < blockLog ? 1L << (blockLog - q - 1) : -1;
+            return singleUnitsPerBlock(q, blockLog);
         }
     }
 
@@ -210,12 +248,25 @@ public final class Kernels {
 
         @Override
         public long units() {
-            final long pairs = 1L << (a.n - 1);
-            return q < a.chunkLog ? pairs >>> q : pairs;
+            return singleUnits(a, q);
         }
 
         @Override
         public void run(long from, long to) {
+            if (q < a.chunkLog && q > PIECE_LOG) {
+                final boolean skip0 = d[0] == 1 && d[1] == 0;
+                for (long u = from; u < to; u++) {
+                    final long base = pieceBase(q, u);
+                    final double[] psi = a.chunks[(int) (base >>> a.chunkLog)];
+                    final int x = (int) (base & a.chunkMask) << 1;
+                    final int len = 2 << PIECE_LOG;
+                    if (!skip0) {
+                        scale(psi, x, x + len, d[0], d[1]);
+                    }
+                    scale(psi, x + (2 << q), x + (2 << q) + len, d[2], d[3]);
+                }
+                return;
+            }
             if (q < a.chunkLog) {
                 final int blocksPerChunkLog = a.chunkLog - q - 1;
                 long b = from;
@@ -282,7 +333,7 @@ public final class Kernels {
 
         @Override
         public long unitsPerBlock(int blockLog) {
-            return q < blockLog ? 1L << (blockLog - q - 1) : -1;
+            return singleUnitsPerBlock(q, blockLog);
         }
     }
 
@@ -359,20 +410,24 @@ public final class Kernels {
             final int c0 = (int) (((pairChunk >>> hb) << (hb + 1)) | (pairChunk & lowMask));
             final int c1 = c0 | (1 << hb);
             final int off = (int) (p & a.chunkMask);
-            dense1Pair(a.chunks[c0], a.chunks[c1], m, off << 1, (off + (int) (end - p)) << 1);
+            dense1Pair(a.chunks[c0], off << 1, a.chunks[c1], off << 1, (int) (end - p), m);
             p = end;
         }
     }
 
-    private static void dense1Pair(double[] u, double[] v, double[] m, int from, int to) {
+    private static void dense1Pair(double[] u, int uo, double[] v, int vo, int count,
+            double[] m) {
         final double m00r = m[0], m00i = m[1], m01r = m[2], m01i = m[3];
         final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
-        for (int x = from; x < to; x += 2) {
-            final double ar = u[x], ai = u[x + 1], br = v[x], bi = v[x + 1];
+        final int n2 = count << 1;
+        for (int k = 0; k < n2; k += 2) {
+            final int x = uo + k;
+            final int y = vo + k;
+            final double ar = u[x], ai = u[x + 1], br = v[y], bi = v[y + 1];
             u[x] = m00r * ar - m00i * ai + m01r * br - m01i * bi;
             u[x + 1] = m00r * ai + m00i * ar + m01r * bi + m01i * br;
-            v[x] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
-            v[x + 1] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
+            v[y] = m10r * ar - m10i * ai + m11r * br - m11i * bi;
+            v[y + 1] = m10r * ai + m10i * ar + m11r * bi + m11i * br;
         }
     }
 
@@ -411,7 +466,11 @@ public final class Kernels {
             }
             java.util.Arrays.sort(positions);
             int tLog = Math.min(a.chunkLog, TABLE_LOG);
-            blockLog = positions[0] >= tLog ? Math.min(positions[0], a.chunkLog) : tLog;
+            // Run mode keeps at least 2^6 blocks where it can, so the work splits over threads.
+            blockLog = positions[0] >= tLog
+                    ? Math.min(Math.min(positions[0], a.chunkLog),
+                            Math.max(tLog, a.n - positions.length - 6))
+                    : tLog;
             long lowMask = (1L << blockLog) - 1;
             int lowCount = 0;
             for (int p : positions) {

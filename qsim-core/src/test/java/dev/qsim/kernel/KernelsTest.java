@@ -281,4 +281,33 @@ class KernelsTest {
             assertEquals(true, p > 0, "a zero-probability index was picked");
         }
     }
+
+    @ParameterizedTest(name = "n={0} chunkLog={1} threads={2}")
+    @CsvSource({"16, 16, 2", "16, 14, 3", "15, 15, 1"})
+    void singleQubitPlansMatchTheReferenceOnEveryTarget(int n, int chunkLog, int threads) {
+        // Every target, so the whole-block, piece (high target inside a chunk) and chunk-pair
+        // paths of the dense, diagonal and flip kernels all run; reference as above.
+        SplittableRandom r = new SplittableRandom(31L * n + chunkLog);
+        double[] in = randomVector(n, r);
+        double[] m = new double[8];
+        for (int i = 0; i < 8; i++) {
+            m[i] = r.nextDouble(-1, 1);
+        }
+        double[] diag = {m[0], m[1], m[6], m[7]};
+        double[] dm = {m[0], m[1], 0, 0, 0, 0, m[6], m[7]};
+        double[] xm = {0, 0, 1, 0, 1, 0, 0, 0};
+        int[] none = new int[0];
+        for (int q = 0; q < n; q++) {
+            int[] t = {q};
+            Amplitudes a = load(in, n, chunkLog);
+            Kernels.dense(a, t, none, m, threads);
+            assertArrayEquals(reference(in, n, t, none, m), unload(a), TOL, "dense q" + q);
+            a = load(in, n, chunkLog);
+            Kernels.diagonal(a, t, none, diag, threads);
+            assertArrayEquals(reference(in, n, t, none, dm), unload(a), TOL, "diagonal q" + q);
+            a = load(in, n, chunkLog);
+            Kernels.monomial(a, t, none, new int[] {1, 0}, new double[] {1, 0, 1, 0}, threads);
+            assertArrayEquals(reference(in, n, t, none, xm), unload(a), 0.0, "flip q" + q);
+        }
+    }
 }
