@@ -24,7 +24,11 @@ public final class Reductions {
      * @return the squared norm
      */
     public static double norm2(Amplitudes a, int threads) {
-        return probabilityWhere(a, -1, threads);
+        double total = 0;
+        for (double p : blockSums(a, threads)) {
+            total += p;
+        }
+        return total;
     }
 
     /**
