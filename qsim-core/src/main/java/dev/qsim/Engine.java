@@ -43,32 +43,27 @@ final class Engine {
     static void gates(Amplitudes a, List<Instruction> list, int from, int to, int threads) {
         int blockLog = Math.min(CACHE_LOG, a.chunkLog());
         boolean blocking = a.qubits() > blockLog;
-        int i = from;
-        while (i < to) {
+        List<Kernels.Plan> group = new ArrayList<>();
+        for (int i = from; i < to; i++) {
             Kernels.Plan p = plan(a, list.get(i));
-            if (!blocking || p.unitsPerBlock(blockLog) < 0) {
-                p.apply(threads);
-                i++;
+            if (blocking && p.unitsPerBlock(blockLog) >= 0) {
+                group.add(p);
                 continue;
             }
-            List<Kernels.Plan> group = new ArrayList<>();
-            group.add(p);
-            int j = i + 1;
-            while (j < to) {
-                Kernels.Plan q = plan(a, list.get(j));
-                if (q.unitsPerBlock(blockLog) < 0) {
-                    break;
-                }
-                group.add(q);
-                j++;
-            }
-            if (group.size() == 1) {
-                p.apply(threads);
-            } else {
-                Kernels.applyBlocked(a, group.toArray(new Kernels.Plan[0]), blockLog, threads);
-            }
-            i = j;
+            flush(a, group, blockLog, threads);
+            p.apply(threads);
         }
+        flush(a, group, blockLog, threads);
+    }
+
+    /** Applies a group of cache-blockable plans (one alone needs no blocking), then clears it. */
+    private static void flush(Amplitudes a, List<Kernels.Plan> group, int blockLog, int threads) {
+        if (group.size() == 1) {
+            group.get(0).apply(threads);
+        } else if (group.size() > 1) {
+            Kernels.applyBlocked(a, group.toArray(new Kernels.Plan[0]), blockLog, threads);
+        }
+        group.clear();
     }
 
     /**
