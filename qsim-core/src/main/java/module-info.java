@@ -12,6 +12,7 @@ module dev.qsim {
     requires org.apache.commons.statistics.inference;
 
     exports dev.qsim;
+    exports dev.qsim.noise;
     exports dev.qsim.stabilizer;
     exports dev.qsim.text;
     exports dev.qsim.stats;

@@ -69,7 +69,10 @@ public final class Main {
                     MaxCutQaoa::fromArgs),
             new Entry("memory", "[seed [shots]]",
                     "repetition-code memory on an 801-qubit line: syndrome statistics (stabilizer)",
-                    RepetitionMemory::fromArgs));
+                    RepetitionMemory::fromArgs),
+            new Entry("noisy-ghz", "[seed [shots]]",
+                    "GHZ on an invented noisy 6-qubit chip: ideal, density-matrix, trajectories",
+                    NoisyGhz::fromArgs));
 
     private Main() {
     }

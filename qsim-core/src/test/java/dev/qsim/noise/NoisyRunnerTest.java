@@ -1,0 +1,240 @@
+package dev.qsim.noise;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNull;
+import static org.junit.jupiter.api.Assertions.assertSame;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import org.apache.commons.numbers.complex.Complex;
+import org.apache.commons.rng.UniformRandomProvider;
+import org.apache.commons.rng.simple.RandomSource;
+import org.junit.jupiter.api.Test;
+
+import dev.qsim.Circuit;
+import dev.qsim.Gates;
+import dev.qsim.Instruction;
+import dev.qsim.Operator;
+import dev.qsim.StateVector;
+import dev.qsim.Tally;
+
+class NoisyRunnerTest {
+    private static final double TOL = 1e-12;
+
+    private static Circuit measuredRandom(int n, int gates, long seed) {
+        UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(seed);
+        return NoiseFixtures.randomGates(Circuit.builder(n), n, gates, rng).measure().build();
+    }
+
+    /**
+     * Checks a tally against exact probabilities: every outcome with p >= 5/N and every
+     * one-bit marginal within 4 binomial standard errors, and no outcome of probability 0
+     * (binomial standard error sqrt(p(1-p)/N): common practice).
+     */
+    private static void assertAgrees(double[] p, Tally t, String what) {
+        long shots = t.shots();
+        int width = t.width();
+        for (int i = 0; i < p.length; i++) {
+            double f = t.count(i) / (double) shots;
+            if (p[i] < 1e-15) {
+                assertEquals(0, t.count(i), what + ": outcome " + i + " has probability 0");
+            } else if (p[i] >= 5.0 / shots) {
+                double se = Math.sqrt(Math.max(0, p[i] * (1 - p[i])) / shots);
+                assertEquals(p[i], f, 4 * se, what + ": outcome " + i);
+            }
+        }
+        for (int b = 0; b < width; b++) {
+            double pb = 0;
+            long cb = 0;
+            for (int i = 0; i < p.length; i++) {
+                if ((i >>> b & 1) == 1) {
+                    pb += p[i];
+                    cb += t.count(i);
+                }
+            }
+            double se = Math.sqrt(Math.max(0, pb * (1 - pb)) / shots);
+            assertEquals(pb, cb / (double) shots, 4 * se + 1e-12, what + ": bit " + b);
+        }
+    }
+
+    @Test
+    void withoutNoiseBothEnginesAgreeWithTheStateVector() {
+        // No channel and no readout error: the noisy engines must reproduce the ideal Born
+        // probabilities of the state-vector engine (Nielsen and Chuang 2010, §2.2.3).
+        for (long seed = 21; seed <= 23; seed++) {
+            int n = 4 + (int) (seed % 3);
+            Circuit c = measuredRandom(n, 40, seed);
+            double[] ideal = StateVector.zero(n).apply(withoutMeasurements(c)).probabilities();
+            NoisyRunner runner = NoisyRunner.seeded(seed);
+            double[] exact = runner.probabilities(c, NoiseModel.none());
+            for (int i = 0; i < ideal.length; i++) {
+                assertEquals(ideal[i], exact[i], TOL, "seed " + seed);
+            }
+            Tally t = runner.runTrajectories(c, NoiseModel.none(), 3000);
+            assertAgrees(ideal, t, "trajectories without noise, seed " + seed);
+            // Identity channels are no noise either.
+            NoiseModel off = NoiseModel.builder().afterOneQubitGates(Channel.identity(1))
+                    .afterTwoQubitGates(Channel.identity(2)).build();
+            assertEquals(runner.runTrajectories(c, NoiseModel.none(), 500),
+                    runner.runTrajectories(c, off, 500), "seed " + seed);
+        }
+    }
+
+    private static Circuit withoutMeasurements(Circuit c) {
+        Circuit.Builder b = Circuit.builder(c.qubits());
+        for (Instruction in : c.instructions()) {
+            if (in.kind() == Instruction.Kind.GATE) {
+                b.controlled(in.operator(), in.controls(), in.targets());
+            }
+        }
+        return b.build();
+    }
+
+    @Test
+    void trajectoriesAgreeWithTheDensityMatrix() {
+        // Averaged over trajectories, the Monte Carlo wave-function method reproduces the
+        // density-matrix evolution (Dalibard, Castin and Mølmer 1992, Phys. Rev. Lett. 68, 580).
+        long[] seeds = {31, 32, 33};
+        int[] sizes = {6, 7, 8};
+        for (int k = 0; k < seeds.length; k++) {
+            Circuit c = measuredRandom(sizes[k], 35, seeds[k]);
+            NoisyRunner runner = NoisyRunner.seeded(seeds[k]).withThreads(2);
+            NoiseModel model = NoiseFixtures.richModel();
+            double[] exact = runner.probabilities(c, model);
+            double sum = 0;
+            for (double x : exact) {
+                sum += x;
+            }
+            assertEquals(1, sum, TOL, "seed " + seeds[k]);
+            assertAgrees(exact, runner.runTrajectories(c, model, 3000),
+                    "trajectories, seed " + seeds[k]);
+            assertAgrees(exact, runner.run(c, model, 3000), "density-matrix tally, seed "
+                    + seeds[k]);
+        }
+    }
+
+    @Test
+    void resultsDependOnTheSeedOnlyNotOnThreads() {
+        // Reproducibility whatever the thread count (common practice for seeded simulators).
+        Circuit c = measuredRandom(5, 30, 41);
+        NoiseModel model = NoiseFixtures.richModel();
+        Tally one = NoisyRunner.seeded(41).withThreads(1).runTrajectories(c, model, 400);
+        Tally two = NoisyRunner.seeded(41).withThreads(2).runTrajectories(c, model, 400);
+        Tally three = NoisyRunner.seeded(41).withThreads(3).runTrajectories(c, model, 400);
+        assertEquals(one, two);
+        assertEquals(one, three);
+        assertEquals(NoisyRunner.seeded(41).run(c, model, 300),
+                NoisyRunner.seeded(41).withThreads(1).run(c, model, 300));
+    }
+
+    @Test
+    void readoutErrorIsTheConfusionMatrix() {
+        // X on qubit 0 and H on qubit 1 give the ideal distribution P(c1 c0) = 1/2 on "01" and
+        // "11". Each bit then passes through [[1-e0, e1], [e0, 1-e1]] independently (the
+        // confusion-matrix model; Nation et al. 2021, PRX Quantum 2, 040326): exact products.
+        double a0 = 0.02;
+        double b0 = 0.07;
+        double a1 = 0.11;
+        double b1 = 0.04;
+        NoiseModel model = NoiseModel.builder().readoutError(0, a0, b0).readoutError(1, a1, b1)
+                .build();
+        Circuit c = Circuit.builder(2).x(0).h(1).measure(0, 0).measure(1, 1).build();
+        double[] p = NoisyRunner.seeded(1).probabilities(c, model);
+        double c0is1 = 1 - b0;
+        double c1is1 = 0.5 * a1 + 0.5 * (1 - b1);
+        assertEquals((1 - c0is1) * (1 - c1is1), p[0], 1e-15);
+        assertEquals(c0is1 * (1 - c1is1), p[1], 1e-15);
+        assertEquals((1 - c0is1) * c1is1, p[2], 1e-15);
+        assertEquals(c0is1 * c1is1, p[3], 1e-15);
+        // The trajectory engine flips measured bits with the same probabilities.
+        assertAgrees(p, NoisyRunner.seeded(2).runTrajectories(c, model, 4000), "readout");
+        // A bit that is never written reads 0, and clbits follow the measure targets.
+        Circuit wide = Circuit.builder(2, 3).x(0).measure(0, 2).build();
+        double[] q = NoisyRunner.seeded(1).probabilities(wide, model);
+        assertEquals(1 - b0, q[4], 1e-15);
+        assertEquals(b0, q[0], 1e-15);
+    }
+
+    @Test
+    void resetsAndMidCircuitMeasurements() {
+        // Reset returns a qubit to |0> (common practice): X then reset measures 0 for sure.
+        Circuit reset = Circuit.builder(2).x(0).h(1).reset(0).reset(1).measure().build();
+        double[] p = NoisyRunner.seeded(3).probabilities(reset, NoiseModel.none());
+        assertEquals(1, p[0], TOL);
+        assertEquals(Tally.of(2, java.util.Map.of("00", 50L)),
+                NoisyRunner.seeded(3).runTrajectories(reset, NoiseModel.none(), 50));
+        // Trajectories run conditioned blocks: copy a random bit by measurement and feedback.
+        Circuit copy = Circuit.builder(2).h(0).measure(0, 0)
+                .ifBit(0, 1, b -> b.x(1)).measure(1, 1).build();
+        Tally t = NoisyRunner.seeded(4).runTrajectories(copy, NoiseModel.none(), 400);
+        assertEquals(400, t.count("00") + t.count("11"));
+        // The density-matrix engine refuses them, naming what it cannot do.
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> NoisyRunner.seeded(4).probabilities(copy, NoiseModel.none()));
+        assertTrue(e.getMessage().contains("clbit 0"), e.getMessage());
+        Circuit after = Circuit.builder(1).measure(0, 0).x(0).build();
+        e = assertThrows(IllegalArgumentException.class,
+                () -> NoisyRunner.seeded(4).densityMatrix(after, NoiseModel.none()));
+        assertTrue(e.getMessage().contains("qubit 0 after it was measured"), e.getMessage());
+    }
+
+    @Test
+    void branchProbabilitiesUseCoherences() {
+        // Dephasing in the X basis, Kraus operators |+><+| and |-><-|, on ry(a)|0> picks |->
+        // with probability (1 - sin a)/2 (projective measurement, Born rule: Nielsen and Chuang
+        // 2010, §2.2.5); H then maps |+> to |0> and |-> to |1>. Weights that ignored the
+        // coherences would give 1/2. Checked within 4 binomial standard errors, for the
+        // one-qubit path and the two-qubit path (tensor with the identity).
+        Complex h = Complex.ofCartesian(0.5, 0);
+        Complex mh = h.negate();
+        Channel xDephase = Channel.of(Operator.of(new Complex[][] {{h, h}, {h, h}}),
+                Operator.of(new Complex[][] {{h, mh}, {mh, h}}));
+        double a = Math.PI / 3;
+        double want = (1 - Math.sin(a)) / 2;
+        int shots = 2000;
+        double se = Math.sqrt(want * (1 - want) / shots);
+        NoiseModel one = NoiseModel.builder().afterGate("apply", xDephase).build();
+        Circuit c = Circuit.builder(3).ry(1, a).x(0).apply(Gates.I, 1).h(1).measure().build();
+        Tally t = NoisyRunner.seeded(6).runTrajectories(c, one, shots);
+        assertEquals(shots, t.count("001") + t.count("011"), t.toString());
+        assertEquals(want, t.count("011") / (double) shots, 4 * se, "seed 6");
+        NoiseModel two = NoiseModel.builder()
+                .afterGateOn("apply", Channel.identity(1).tensor(xDephase), 1, 2).build();
+        // X on qubit 2 must always read 1: a badly normalised branch would lose it.
+        Circuit d = Circuit.builder(3).ry(1, a).apply(Operator.identity(2), 1, 2).h(1).x(2)
+                .measure().build();
+        Tally u = NoisyRunner.seeded(7).runTrajectories(d, two, shots);
+        assertEquals(shots, u.count("100") + u.count("110"), u.toString());
+        assertEquals(want, u.count("110") / (double) shots, 4 * se, "seed 7");
+    }
+
+    @Test
+    void rulesResolveFromSpecificToGeneral() {
+        // The documented order of NoiseModel (our own specification).
+        Channel named = Channel.bitFlip(0.1);
+        Channel namedOn = Channel.bitFlip(0.2);
+        Channel countOn = Channel.bitFlip(0.3);
+        Channel count = Channel.bitFlip(0.4);
+        NoiseModel m = NoiseModel.builder().afterGate("h", named).afterGateOn("h", namedOn, 1)
+                .afterOneQubitGatesOn(2, countOn).afterOneQubitGates(count).build();
+        Circuit c = Circuit.builder(3).h(1).h(0).x(2).x(0).cnot(0, 1).build();
+        assertSame(namedOn, m.channelAfter(c.instructions().get(0)));
+        assertSame(named, m.channelAfter(c.instructions().get(1)));
+        assertSame(countOn, m.channelAfter(c.instructions().get(2)));
+        assertSame(count, m.channelAfter(c.instructions().get(3)));
+        assertNull(m.channelAfter(c.instructions().get(4)));
+        // A named rule whose channel does not fit its gate fails when used.
+        NoiseModel wrong = NoiseModel.builder().afterGate("h", Channel.twoQubitDepolarizing(0.1))
+                .build();
+        Circuit h = Circuit.builder(2).h(0).measure().build();
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> NoisyRunner.seeded(1).probabilities(h, wrong));
+        assertTrue(e.getMessage().contains("2-qubit channel for gate 'h'"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class,
+                () -> NoiseModel.builder().readoutError(0, 1.2, 0));
+        assertTrue(e.getMessage().contains("1.2"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class,
+                () -> NoisyRunner.seeded(1).runTrajectories(h, wrong, 0));
+        assertTrue(e.getMessage().contains("0"), e.getMessage());
+    }
+}
