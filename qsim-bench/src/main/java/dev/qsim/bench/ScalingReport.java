@@ -2,7 +2,13 @@ package dev.qsim.bench;
 
 import dev.qsim.Circuit;
 import dev.qsim.Simulator;
+import dev.qsim.Gates;
+import dev.qsim.Operator;
 import dev.qsim.StateVector;
+import dev.qsim.noise.Channel;
+import dev.qsim.noise.DensityMatrix;
+import dev.qsim.noise.NoiseModel;
+import dev.qsim.noise.NoisyRunner;
 import java.io.IOException;
 import java.io.OutputStream;
 import java.io.PrintStream;
@@ -65,6 +71,15 @@ public final class ScalingReport {
     /** Bytes of one double-precision complex amplitude. */
     static final long BYTES_PER_AMPLITUDE = 16;
 
+    /** Smallest density matrix timed by {@code --noise on}. */
+    static final int NOISE_DM_MIN = 6;
+
+    /** Largest density matrix timed by {@code --noise on} (4 GiB). */
+    static final int NOISE_DM_MAX = 14;
+
+    /** Smallest register whose trajectories {@code --noise on} times. */
+    static final int NOISE_TRAJECTORY_MIN = 20;
+
     /** Largest qubit count accepted by {@code --min} and {@code --max}. */
     static final int MAX_QUBITS = 40;
 
@@ -103,7 +118,7 @@ public final class ScalingReport {
 
     private static final List<String> OPTIONS = List.of("--min", "--max", "--threads",
             "--kernels", "--targets", "--millis", "--circuit", "--circuit-qubits", "--csv",
-            "--svg", "--help");
+            "--svg", "--noise", "--help");
 
     private static final List<String> TARGETS = List.of("low", "mid", "high", "all");
 
@@ -130,6 +145,10 @@ public final class ScalingReport {
             "  --circuit on|off     time a " + Workloads.CIRCUIT_LAYERS + "-layer circuit with"
                     + " fusion on and off (default on, at n >= " + CIRCUIT_FROM + ")",
             "  --circuit-qubits N,N,... the qubit counts of that comparison, within --min..--max",
+            "  --noise on|off       also time the noise engines (default off): a gate plus a"
+                    + " depolarizing channel on a density matrix of " + NOISE_DM_MIN + ".."
+                    + NOISE_DM_MAX + " qubits (up to --max), and one trajectory of a noisy GHZ"
+                    + " chain at " + NOISE_TRAJECTORY_MIN + "..--max qubits",
             "  --csv FILE           write the CSV to FILE instead of standard output",
             "  --svg FILE           also draw time per gate against n, with the bandwidth floor",
             "  --help               print this and exit",
@@ -148,7 +167,8 @@ public final class ScalingReport {
      * @param svg the SVG file, or {@code null} for none
      */
     record Options(int min, int max, int threads, List<String> kernels, List<String> targets,
-            long millis, List<Integer> circuitQubits, Path csv, Path svg, boolean help) {
+            long millis, List<Integer> circuitQubits, Path csv, Path svg, boolean help,
+            boolean noise) {
     }
 
     /**
@@ -156,19 +176,29 @@ public final class ScalingReport {
      * triad bandwidths at the same size.
      */
     record Row(int n, String kernel, String target, int threads, double nanosPerGate,
-            double copyGbps, double triadGbps) {
+            double copyGbps, double triadGbps, int vectorQubits, int passes) {
 
-        /** Bandwidth of the gate in GB/s: {@code 2 * 16 * 2^n} bytes per gate time. */
+        /** A row of a state-vector gate: one pass over 2^n amplitudes. */
+        Row(int n, String kernel, String target, int threads, double nanosPerGate,
+                double copyGbps, double triadGbps) {
+            this(n, kernel, target, threads, nanosPerGate, copyGbps, triadGbps, n, 1);
+        }
+
+        /**
+         * Bandwidth in GB/s: {@code passes * 2 * 16 * 2^vectorQubits} bytes per measured time
+         * (a density matrix of n qubits is streamed as a vector of 2n qubits).
+         */
         double gbps() {
-            return gigabytesPerSecond(n, nanosPerGate);
+            return passes * gigabytesPerSecond(vectorQubits, nanosPerGate);
         }
 
         /** Formats the row in the order of {@link #HEADER}. */
         String csv() {
             final double gbps = gbps();
             return String.format(Locale.ROOT, "%d,%s,%s,%d,%.1f,%.5f,%.3f,%.3f,%.3f,%.3f", n,
-                    kernel, target, threads, nanosPerGate, nanosPerGate / (double) (1L << n),
-                    gbps, copyGbps, triadGbps, gbps / copyGbps);
+                    kernel, target, threads, nanosPerGate,
+                    nanosPerGate / (double) (1L << vectorQubits), gbps, copyGbps, triadGbps,
+                    gbps / copyGbps);
         }
     }
 
@@ -317,6 +347,13 @@ public final class ScalingReport {
                 }
                 csv.flush();
             }
+            if (options.noise()) {
+                for (Row r : runner.noise()) {
+                    csv.println(r.csv());
+                    rows.add(r);
+                }
+                csv.flush();
+            }
             progress.finish();
             blackhole = runner.sink;
         } catch (IllegalStateException e) {
@@ -349,7 +386,17 @@ public final class ScalingReport {
     static int steps(Options options) {
         final int sizes = options.max() - options.min() + 1;
         return sizes * (2 + options.kernels().size() * options.targets().size())
-                + 2 * options.circuitQubits().size();
+                + 2 * options.circuitQubits().size() + noiseSizes(options);
+    }
+
+    /** The number of noise-engine measurements of {@code --noise on}. */
+    static int noiseSizes(Options options) {
+        if (!options.noise()) {
+            return 0;
+        }
+        int dm = Math.max(0, Math.min(NOISE_DM_MAX, options.max()) - NOISE_DM_MIN + 1);
+        int tr = Math.max(0, options.max() - Math.max(NOISE_TRAJECTORY_MIN, options.min()) + 1);
+        return dm + tr;
     }
 
     /** Measures one size; holds what all sizes share. */
@@ -440,6 +487,73 @@ public final class ScalingReport {
             return warmUp ? List.of() : rows;
         }
 
+        /**
+         * Times the noise engines: one gate plus a depolarizing channel on a density matrix
+         * (streamed as a 2n-qubit vector, two passes), and one Monte Carlo trajectory of a GHZ
+         * chain with depolarizing noise after every gate (ns_per_gate is then the time of the
+         * whole trajectory, gb_per_s counts one pass per gate).
+         */
+        List<Row> noise() {
+            final List<Row> rows = new ArrayList<>();
+            final Channel depolarizing = Channel.depolarizing(0.01);
+            for (int n = NOISE_DM_MIN; n <= Math.min(NOISE_DM_MAX, options.max()); n++) {
+                final int vector = 2 * n;
+                final int len = (int) Math.min(2L << vector, probe.capacity());
+                final double copyGbps = BandwidthProbe.copyBytes(len)
+                        / measure(r -> probe.timeCopy(len, r), targetNanos).perRep();
+                final double triadGbps = BandwidthProbe.triadBytes(len)
+                        / measure(r -> probe.timeTriad(len, r), targetNanos).perRep();
+                final DensityMatrix rho = DensityMatrix.zero(n).withThreads(options.threads());
+                final int q = n / 2;
+                final Operator gate = Gates.rz(0.7);
+                progress.start("n=" + n + " density-matrix");
+                final Timing t = measure(reps -> {
+                    final long start = System.nanoTime();
+                    for (long r = 0; r < reps; r++) {
+                        rho.apply(gate, q).apply(depolarizing, q);
+                    }
+                    return System.nanoTime() - start;
+                }, targetNanos);
+                sink += rho.purity();
+                final Row row = new Row(n, "density-matrix", "mid", options.threads(), t.perRep(),
+                        copyGbps, triadGbps, vector, 2);
+                progress.done(String.format(Locale.ROOT, "# n=%d density-matrix: gate and"
+                        + " channel %.1f ns (%d repetitions), %.3f GB/s", n, t.perRep(),
+                        t.reps(), row.gbps()), true);
+                rows.add(row);
+            }
+            for (int n = Math.max(NOISE_TRAJECTORY_MIN, options.min()); n <= options.max(); n++) {
+                final Circuit.Builder b = Circuit.builder(n).h(0);
+                for (int k = 0; k + 1 < n; k++) {
+                    b.cnot(k, k + 1);
+                }
+                final Circuit ghz = b.measure().build();
+                final NoiseModel model = NoiseModel.builder()
+                        .afterOneQubitGates(Channel.depolarizing(0.001))
+                        .afterTwoQubitGates(Channel.twoQubitDepolarizing(0.01)).build();
+                final NoisyRunner runner = NoisyRunner.seeded(Workloads.STATE_SEED)
+                        .withThreads(options.threads());
+                final int len = (int) Math.min(2L << n, probe.capacity());
+                final double copyGbps = BandwidthProbe.copyBytes(len)
+                        / measure(r -> probe.timeCopy(len, r), targetNanos).perRep();
+                final double triadGbps = BandwidthProbe.triadBytes(len)
+                        / measure(r -> probe.timeTriad(len, r), targetNanos).perRep();
+                progress.start("n=" + n + " trajectory");
+                final Timing t = measure(reps -> {
+                    final long start = System.nanoTime();
+                    sink += runner.runTrajectories(ghz, model, (int) reps).shots();
+                    return System.nanoTime() - start;
+                }, targetNanos);
+                final Row row = new Row(n, "trajectory", "ghz", options.threads(), t.perRep(),
+                        copyGbps, triadGbps, n, n);
+                progress.done(String.format(Locale.ROOT, "# n=%d trajectory: %.3f s per"
+                        + " trajectory of a %d-gate noisy GHZ chain (%d trajectories)", n,
+                        t.perRep() / 1e9, n, t.reps()), true);
+                rows.add(row);
+            }
+            return rows;
+        }
+
         private Circuit[] gates(String kernel, String target, int n) {
             if (!target.equals("all")) {
                 return new Circuit[] {Workloads.kernelCircuit(kernel, n,
@@ -511,6 +625,7 @@ public final class ScalingReport {
         List<String> targets = List.of("low", "mid", "high");
         long millis = 300;
         Boolean circuit = null;
+        boolean noise = false;
         List<Integer> circuitQubits = null;
         String circuitQubitsText = null;
         Path csv = null;
@@ -573,6 +688,13 @@ public final class ScalingReport {
                     }
                     circuit = value.equals("on");
                     break;
+                case "--noise":
+                    if (!value.equals("on") && !value.equals("off")) {
+                        throw new IllegalArgumentException("--noise must be on or off but was '"
+                                + value + "'");
+                    }
+                    noise = value.equals("on");
+                    break;
                 case "--circuit-qubits":
                     circuitQubitsText = value;
                     circuitQubits = new ArrayList<>();
@@ -625,7 +747,7 @@ public final class ScalingReport {
             }
         }
         return new Options(min, max, threads, kernels, targets, millis, List.copyOf(sizes), csv,
-                svg, help);
+                svg, help, noise);
     }
 
     private static long parseWhole(String name, String value, long low, long high) {

@@ -36,7 +36,7 @@ class ScalingReportTest {
     void defaultsWhenNoOptions() {
         ScalingReport.Options o = ScalingReport.parse(new String[0], 3);
         assertEquals(new ScalingReport.Options(10, 26, 3, KERNELS, THREE, 300,
-            List.of(20, 21, 22, 23, 24, 25, 26), null, null, false), o);
+            List.of(20, 21, 22, 23, 24, 25, 26), null, null, false, false), o);
         // The fusion comparison starts at n = 20 by default, so a small range has none.
         assertEquals(List.of(), ScalingReport.parse(new String[] {"--max", "19"}, 1)
             .circuitQubits());
@@ -46,10 +46,11 @@ class ScalingReportTest {
     void everyOptionInBothForms() {
         ScalingReport.Options o = ScalingReport.parse(new String[] {"--min", "4", "--max=7",
             "--threads", "2", "--kernels=diagonal,dense", "--targets", "all,low", "--millis",
-            "15", "--circuit", "on", "--circuit-qubits=7,5", "--csv", "a.csv", "--svg=b.svg"}, 1);
+            "15", "--circuit", "on", "--circuit-qubits=7,5", "--csv", "a.csv", "--svg=b.svg",
+            "--noise", "on"}, 1);
         assertEquals(new ScalingReport.Options(4, 7, 2, List.of("diagonal", "dense"),
-            List.of("all", "low"), 15, List.of(5, 7), Path.of("a.csv"), Path.of("b.svg"), false),
-            o);
+            List.of("all", "low"), 15, List.of(5, 7), Path.of("a.csv"), Path.of("b.svg"), false,
+            true), o);
         assertTrue(ScalingReport.parse(new String[] {"--help"}, 1).help());
         assertEquals(List.of(), ScalingReport.parse(new String[] {"--max", "22", "--circuit",
             "off"}, 1).circuitQubits());
@@ -369,5 +370,29 @@ class ScalingReportTest {
              PrintStream e = new PrintStream(err, true, StandardCharsets.UTF_8)) {
             return ScalingReport.run(args, o, e);
         }
+    }
+
+    @Test
+    void noiseRowsForTheDensityMatrixEngine() {
+        // --noise on adds one density-matrix row per size from 6 up to --max (trajectories
+        // start at 20 qubits, so none here). Bytes of a density-matrix step: gate and channel
+        // each stream the 2n-qubit vector, 2 * 2 * 16 * 4^n (common practice).
+        java.io.ByteArrayOutputStream out = new java.io.ByteArrayOutputStream();
+        java.io.ByteArrayOutputStream err = new java.io.ByteArrayOutputStream();
+        int code = ScalingReport.run(new String[] {"--min", "4", "--max", "7", "--millis", "5",
+            "--kernels", "dense", "--targets", "mid", "--circuit", "off", "--noise", "on"},
+            new java.io.PrintStream(out, true), new java.io.PrintStream(err, true), false);
+        assertEquals(0, code, err.toString());
+        List<String> dm = out.toString().lines().filter(l -> l.contains(",density-matrix,"))
+            .collect(java.util.stream.Collectors.toList());
+        assertEquals(2, dm.size(), out.toString());
+        assertTrue(dm.get(0).startsWith("6,density-matrix,mid,"), dm.get(0));
+        assertTrue(dm.get(1).startsWith("7,density-matrix,mid,"), dm.get(1));
+        ScalingReport.Row row = new ScalingReport.Row(6, "density-matrix", "mid", 1, 1e6, 1, 1,
+            12, 2);
+        assertEquals(2 * 2 * 16 * 4096 / 1e6, row.gbps(), 1e-12);
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+            () -> ScalingReport.parse(new String[] {"--noise", "maybe"}, 1));
+        assertTrue(e.getMessage().contains("'maybe'"), e.getMessage());
     }
 }
