@@ -114,6 +114,18 @@ public final class Circuit {
     }
 
     /**
+     * Tells whether every measurement could be moved to the end without changing what the
+     * circuit does: no reset, no condition, and no gate on a qubit after that qubit was measured
+     * (the deferred-measurement principle, Nielsen and Chuang 2010, §4.4). Such a circuit's
+     * shots can all be drawn from one final state.
+     *
+     * @return whether the measurements come last
+     */
+    public boolean measuresAtEnd() {
+        return Simulator.measurementsDeferrable(instructions);
+    }
+
+    /**
      * Returns the depth: the number of layers when each instruction is placed in the first layer
      * after every earlier instruction that shares a qubit or classical bit with it. A conditioned
      * block is one instruction touching its clbit and everything its body touches.

@@ -2,6 +2,9 @@ package dev.qsim.examples.cli;
 
 import dev.qsim.Circuit;
 import dev.qsim.Simulator;
+import dev.qsim.noise.Channel;
+import dev.qsim.noise.NoiseModel;
+import dev.qsim.noise.NoisyRunner;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.stats.IdealPrediction;
@@ -173,6 +176,10 @@ public final class Cli implements Callable<Integer> {
                         + " --seed 7",
                 "  java -jar qsim-examples.jar run circuit.qasm --format json > tally.json",
                 "  java -jar qsim-examples.jar run circuit.qasm --svg histogram.svg",
+                "  java -jar qsim-examples.jar run qsim-examples/demo/ghz5.qasm --depolarizing"
+                        + " 0.01 --readout-error 0.02",
+                "%nWith noise, circuits of up to 10 qubits that measure only at the end run on"
+                        + " a density matrix, others by trajectories, one per shot.",
                 "%nThe same seed gives the same tally. With --svg, bars of the ideal"
                         + " probabilities stand beside the measured frequencies when the circuit"
                         + " measures only at the end."})
@@ -196,6 +203,14 @@ public final class Cli implements Callable<Integer> {
         @Option(names = "--threads", defaultValue = "1",
                 description = "threads of the simulation (default ${DEFAULT-VALUE})")
         int threads;
+        @Option(names = "--depolarizing", defaultValue = "0", paramLabel = "P",
+                description = "noise: a depolarizing channel of probability P after every one-"
+                        + "and two-qubit gate (default ${DEFAULT-VALUE}: none)")
+        double depolarizing;
+        @Option(names = "--readout-error", defaultValue = "0", paramLabel = "P",
+                description = "noise: each measured bit reads wrong with probability P"
+                        + " (default ${DEFAULT-VALUE}: none)")
+        double readoutError;
 
         @Override
         public Integer call() throws IOException {
@@ -212,7 +227,11 @@ public final class Cli implements Callable<Integer> {
             Progress progress = Progress.start(spec.commandLine().getErr(), "running " + shots
                     + " shots");
             try {
-                tally = Simulator.seeded(seed).withThreads(threads).run(c, shots);
+                if (depolarizing != 0 || readoutError != 0) {
+                    tally = noisyRun(c, depolarizing, readoutError, seed, threads, shots);
+                } else {
+                    tally = Simulator.seeded(seed).withThreads(threads).run(c, shots);
+                }
             } finally {
                 progress.close();
             }
@@ -230,6 +249,27 @@ public final class Cli implements Callable<Integer> {
             return EXIT_OK;
         }
     }
+
+    /**
+     * Runs with the noise options: on a density matrix when the circuit is small and measures
+     * only at the end, otherwise by Monte Carlo trajectories, one per shot.
+     */
+    private static Tally noisyRun(Circuit c, double depolarizing, double readoutError, long seed,
+            int threads, int shots) {
+        NoiseModel model = NoiseModel.builder()
+                .afterOneQubitGates(Channel.depolarizing(depolarizing))
+                .afterTwoQubitGates(Channel.twoQubitDepolarizing(depolarizing))
+                .readoutError(readoutError, readoutError)
+                .build();
+        NoisyRunner runner = NoisyRunner.seeded(seed).withThreads(threads);
+        if (c.qubits() <= DENSITY_MATRIX_QUBITS && c.measuresAtEnd()) {
+            return runner.run(c, model, shots);
+        }
+        return runner.runTrajectories(c, model, shots);
+    }
+
+    /** The largest circuit the noisy run simulates on a density matrix (16 * 4^n bytes). */
+    static final int DENSITY_MATRIX_QUBITS = 10;
 
     /** {@code state}: amplitudes or probabilities. */
     @Command(name = "state", mixinStandardHelpOptions = true,

@@ -71,6 +71,28 @@ class CliTest {
     }
 
     @Test
+    void runWithNoiseOptions() throws IOException {
+        Path file = dir.resolve("flip.qasm");
+        Files.writeString(file, "OPENQASM 3;\ninclude \"stdgates.inc\";\nqubit[2] q;\n"
+                + "bit[2] c;\nx q[0];\nc = measure q;\n");
+        // Readout error 1 misreads every bit: |01> ("01") always reads "10" (definition of the
+        // readout confusion matrix, common practice); on a density matrix and on trajectories.
+        Run flipped = new Run("run", file.toString(), "--shots", "300", "--readout-error", "1",
+                "--format", "csv");
+        assertEquals(0, flipped.code, flipped::toString);
+        assertEquals(300, TallyFiles.read(flipped.out).count("10"), flipped::toString);
+        // Depolarizing noise spreads the Bell outcomes beyond 00 and 11 (N&C 2010, sec. 8.3.4).
+        Run noisy = new Run("run", DEMO + "bell.qasm", "--shots", "4000", "--depolarizing",
+                "0.2", "--format", "csv");
+        assertEquals(0, noisy.code, noisy::toString);
+        Tally t = TallyFiles.read(noisy.out);
+        assertTrue(t.count("01") + t.count("10") > 0, noisy::toString);
+        Run bad = new Run("run", DEMO + "bell.qasm", "--depolarizing", "1.5");
+        assertEquals(2, bad.code, bad::toString);
+        assertTrue(bad.err.contains("1.5"), bad::toString);
+    }
+
+    @Test
     void runWritesAHistogramWithThePrediction() throws IOException {
         Path svg = dir.resolve("h.svg");
         Run r = new Run("run", DEMO + "ghz5.qasm", "--shots", "400", "--svg", svg.toString());
