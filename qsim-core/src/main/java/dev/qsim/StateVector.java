@@ -7,6 +7,7 @@ import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
 
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.Heap;
 import dev.qsim.kernel.Internals;
 import dev.qsim.kernel.Parallel;
 import dev.qsim.kernel.Reductions;
@@ -70,13 +71,13 @@ public final class StateVector {
     private static Amplitudes allocate(int n) {
         Checks.requireInRange(n, 1, MAX_QUBITS, "qubit count");
         String what = "a " + n + "-qubit state";
-        Memory.require(Amplitudes.bytes(n), what);
+        Heap.require(Amplitudes.bytes(n), what);
         try {
             return Amplitudes.allocate(n);
         } catch (OutOfMemoryError e) {
             // The heap looked large enough but could not place the arrays (fragmentation or
             // collector overhead): report it like any other refusal.
-            throw Memory.tooLarge(Amplitudes.bytes(n), what);
+            throw Heap.tooLarge(Amplitudes.bytes(n), what);
         }
     }
 
@@ -242,7 +243,7 @@ public final class StateVector {
             throw new IllegalArgumentException("amplitudes() returns at most 24 qubits' worth of"
                     + " objects but the state has " + n + " qubits; use amplitude(long)");
         }
-        Memory.require(48L << n, "the amplitude array");
+        Heap.require(48L << n, "the amplitude array");
         Complex[] out = new Complex[1 << n];
         for (int i = 0; i < out.length; i++) {
             out[i] = Complex.ofCartesian(amps.re(i), amps.im(i));
@@ -263,7 +264,7 @@ public final class StateVector {
             throw new IllegalArgumentException("probabilities() handles at most 30 qubits but"
                     + " the state has " + n + "; use marginal(int...) on fewer qubits");
         }
-        Memory.require(8L << n, "the probability array");
+        Heap.require(8L << n, "the probability array");
         double[] out = new double[1 << n];
         Reductions.probabilities(amps, out, threads);
         return out;
@@ -289,7 +290,7 @@ public final class StateVector {
             throw new IllegalArgumentException("a marginal over at most 30 qubits is allowed but "
                     + qubits.length + " were given");
         }
-        Memory.require(8L << qubits.length, "the marginal array");
+        Heap.require(8L << qubits.length, "the marginal array");
         double[] out = new double[1 << qubits.length];
         Reductions.marginal(amps, qubits.clone(), out);
         return out;
@@ -379,11 +380,11 @@ public final class StateVector {
      */
     public StateVector copy() {
         String what = "a copy of the " + qubits() + "-qubit state";
-        Memory.require(Amplitudes.bytes(qubits()), what);
+        Heap.require(Amplitudes.bytes(qubits()), what);
         try {
             return new StateVector(amps.copy()).withThreads(threads);
         } catch (OutOfMemoryError e) {
-            throw Memory.tooLarge(Amplitudes.bytes(qubits()), what);
+            throw Heap.tooLarge(Amplitudes.bytes(qubits()), what);
         }
     }
 
@@ -498,7 +499,7 @@ public final class StateVector {
      * then one pass over the probabilities maps them to indices.
      */
     long[] sampleIndices(int shots, UniformRandomProvider rng) {
-        Memory.require(16L * shots, "sampling " + shots + " shots");
+        Heap.require(16L * shots, "sampling " + shots + " shots");
         double[] sums = Reductions.blockSums(amps, threads);
         double total = 0;
         for (double x : sums) {

@@ -11,6 +11,7 @@ import dev.qsim.Operator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.Heap;
 import dev.qsim.kernel.Internals;
 import dev.qsim.kernel.Kernels;
 import dev.qsim.kernel.Reductions;
@@ -103,7 +104,7 @@ public final class DensityMatrix {
     private static DensityMatrix allocate(int n) {
         requireCount(n);
         long bytes = Amplitudes.bytes(2 * n);
-        Require.heap(bytes, "a " + n + "-qubit density matrix");
+        Heap.require(bytes, "a " + n + "-qubit density matrix");
         return new DensityMatrix(n, Amplitudes.allocate(2 * n),
                 Math.max(1, Math.min(256, Runtime.getRuntime().availableProcessors())));
     }
@@ -153,7 +154,7 @@ public final class DensityMatrix {
      * @throws IllegalStateException if the heap cannot hold it
      */
     public DensityMatrix copy() {
-        Require.heap(Amplitudes.bytes(2 * n), "a copy of a " + n + "-qubit density matrix");
+        Heap.require(Amplitudes.bytes(2 * n), "a copy of a " + n + "-qubit density matrix");
         return new DensityMatrix(n, amps.copy(), threads);
     }
 

@@ -2,7 +2,6 @@ package dev.qsim.noise;
 
 /** Argument checks of this package; messages give the quantity, the value and what is allowed. */
 final class Require {
-    private static final long GIB = 1L << 30;
 
     private Require() {
     }
@@ -60,47 +59,5 @@ final class Require {
             throw new IllegalArgumentException("thread count " + threads
                     + " is out of range [1, 256]");
         }
-    }
-
-    /**
-     * Throws if {@code bytes} do not fit in {@code available} bytes of heap.
-     *
-     * @param bytes the allocation
-     * @param available the free heap
-     * @param max the maximum heap
-     * @param what what is allocated
-     */
-    static void heap(long bytes, long available, long max, String what) {
-        if (bytes <= available) {
-            return;
-        }
-        long want = (max - available) + bytes + bytes / 8 + (256L << 20);
-        long xmxGib = (want + GIB - 1) / GIB;
-        throw new IllegalStateException(what + " needs " + bytes + " bytes ("
-                + size(bytes) + ") but the maximum heap is " + max + " bytes (" + size(max)
-                + ") with " + available + " bytes free; raise the heap, e.g. -Xmx" + xmxGib + "g");
-    }
-
-    /**
-     * Checks the heap of this JVM, after one garbage collection if needed.
-     *
-     * @param bytes the allocation
-     * @param what what is allocated
-     */
-    static void heap(long bytes, String what) {
-        Runtime rt = Runtime.getRuntime();
-        long available = rt.maxMemory() - (rt.totalMemory() - rt.freeMemory());
-        if (bytes > available && bytes < rt.maxMemory()) {
-            System.gc();
-            available = rt.maxMemory() - (rt.totalMemory() - rt.freeMemory());
-        }
-        heap(bytes, available, rt.maxMemory(), what);
-    }
-
-    private static String size(long bytes) {
-        if (bytes >= GIB) {
-            return String.format(java.util.Locale.ROOT, "%.1f GiB", bytes / (double) GIB);
-        }
-        return String.format(java.util.Locale.ROOT, "%.1f MiB", bytes / (double) (1L << 20));
     }
 }

@@ -9,6 +9,7 @@ import org.apache.commons.rng.UniformRandomProvider;
 
 import dev.qsim.StateVector;
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.Heap;
 import dev.qsim.kernel.Internals;
 
 /**
@@ -109,7 +110,7 @@ public final class GeneratorTable {
      */
     public static GeneratorTable zero(int n) {
         StabilizerChecks.requireQubitCount(n, MAX_QUBITS);
-        StabilizerChecks.requireHeap(bytes(n), "a " + n + "-qubit stabilizer table");
+        Heap.require(bytes(n), "a " + n + "-qubit stabilizer table");
         GeneratorTable t = new GeneratorTable(n);
         for (int i = 0; i < n; i++) {
             int w = i >>> 6;
@@ -127,7 +128,7 @@ public final class GeneratorTable {
      * @throws IllegalStateException if the heap cannot hold it
      */
     public GeneratorTable copy() {
-        StabilizerChecks.requireHeap(bytes(n), "a copy of a " + n + "-qubit stabilizer table");
+        Heap.require(bytes(n), "a copy of a " + n + "-qubit stabilizer table");
         return new GeneratorTable(this);
     }
 

@@ -33,18 +33,4 @@ final class StabilizerChecks {
             throw new IllegalArgumentException("shots must be at least 1 but was " + shots);
         }
     }
-
-    /** Fails with IllegalStateException unless the heap can still place {@code bytes}. */
-    static void requireHeap(long bytes, String what) {
-        Runtime rt = Runtime.getRuntime();
-        long max = rt.maxMemory();
-        long free = max - (rt.totalMemory() - rt.freeMemory());
-        if (bytes > free) {
-            long mib = 1L << 20;
-            throw new IllegalStateException(what + " needs " + (bytes + mib - 1) / mib
-                    + " MiB but only " + free / mib + " MiB of the maximum heap of " + max / mib
-                    + " MiB are free; raise -Xmx to at least "
-                    + ((max - free + bytes) / mib + 1) + "m");
-        }
-    }
 }

@@ -7,6 +7,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
+import dev.qsim.kernel.Heap;
 import org.junit.jupiter.api.Test;
 
 import dev.qsim.Circuit;
@@ -143,7 +144,9 @@ class DensityMatrixTest {
         // 16 * 4^n bytes: common practice for complex doubles.
         assertEquals(16L << 28, DensityMatrix.bytes(14));
         IllegalStateException e = assertThrows(IllegalStateException.class,
-                () -> Require.heap(16L << 28, 1L << 30, 2L << 30, "a 14-qubit density matrix"));
+                () -> {
+                    throw Heap.tooLarge(16L << 28, 1L << 30, 2L << 30, "a 14-qubit density matrix");
+                });
         assertTrue(e.getMessage().contains("4294967296 bytes")
                 && e.getMessage().contains("-Xmx"), e.getMessage());
         // The test JVM runs with -Xmx2g (parent pom), so 15 qubits (16 GiB) cannot fit.
