@@ -10,20 +10,28 @@ final class Diagram {
     private Diagram() {
     }
 
-    /** One drawn column: a label per qubit row (null = wire), and the vertical span. */
+    /**
+     * One drawn column: a label per qubit row (null = wire), and for each gap between rows
+     * whether an instruction's vertical line crosses it.
+     */
     private static final class Column {
         final String[] labels;
-        int lo = Integer.MAX_VALUE;
-        int hi = -1;
+        final boolean[] link;
 
         Column(int qubits) {
             labels = new String[qubits];
+            link = new boolean[qubits];
         }
 
         void put(int q, String label) {
             labels[q] = label;
-            lo = Math.min(lo, q);
-            hi = Math.max(hi, q);
+        }
+
+        /** Draws the vertical line of one instruction spanning rows lo..hi. */
+        void span(int lo, int hi) {
+            for (int q = lo; q < hi; q++) {
+                link[q] = true;
+            }
         }
 
         int width() {
@@ -61,7 +69,7 @@ final class Diagram {
                 String label = col.labels[q];
                 StringBuilder row = rows[2 * q];
                 if (label == null) {
-                    boolean crossing = q > col.lo && q < col.hi;
+                    boolean crossing = q > 0 && col.link[q - 1] && col.link[q];
                     label = crossing ? "|" : "-";
                 }
                 int left = (w - label.length()) / 2;
@@ -69,7 +77,7 @@ final class Diagram {
                         .append("-".repeat(w - label.length() - left + 1));
                 if (q < n - 1) {
                     StringBuilder gap = rows[2 * q + 1];
-                    boolean link = q >= col.lo && q < col.hi;
+                    boolean link = col.link[q];
                     int mid = (w - 1) / 2;
                     gap.append(" ".repeat(mid + 1)).append(link ? '|' : ' ')
                             .append(" ".repeat(w - mid));
@@ -124,6 +132,7 @@ final class Diagram {
         for (int q = lo; q <= hi; q++) {
             free[q] = at + 1;
         }
+        col.span(lo, hi);
         for (int q : ctl) {
             col.put(q, "@");
         }

@@ -100,6 +100,12 @@ class CircuitTest {
         assertTrue(lines.get(2).contains("RZ(pi/4)"), d);
         assertTrue(lines.get(2).contains("|"), "the CNOT line crosses qubit 1: " + d);
         assertTrue(lines.get(4).contains("(+)") && lines.get(4).contains("M>c2"), d);
+        // Two one-qubit measurements in one column draw no line between them.
+        String m = Circuit.builder(2).h(0).cnot(0, 1).measure().build().diagram();
+        List<String> ml = m.lines().collect(java.util.stream.Collectors.toList());
+        int at = ml.get(0).indexOf("M>c0");
+        assertTrue(at > 0 && ml.get(1).length() <= at + 1 || ml.get(1).charAt(at + 1) == ' ', m);
+        assertEquals(1, ml.get(1).chars().filter(ch -> ch == '|').count(), m);
         assertEquals("3pi/4", Diagram.angle(3 * Math.PI / 4));
         assertEquals("-pi/2", Diagram.angle(-Math.PI / 2));
         assertEquals("0.3", Diagram.angle(0.3));
