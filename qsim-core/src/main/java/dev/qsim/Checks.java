@@ -2,16 +2,15 @@ package dev.qsim;
 
 import java.util.Objects;
 
+import dev.qsim.kernel.Args;
+
 /** Argument checks shared by the public API. Each message names the value and what is allowed. */
 final class Checks {
     private Checks() {
     }
 
     static void requireQubit(int qubit, int qubits) {
-        if (qubit < 0 || qubit >= qubits) {
-            throw new IndexOutOfBoundsException("qubit " + qubit + " is out of range [0, "
-                    + (qubits - 1) + "] for a " + qubits + "-qubit register");
-        }
+        Args.requireQubit(qubit, qubits);
     }
 
     static void requireClbit(int clbit, int clbits) {
@@ -25,17 +24,7 @@ final class Checks {
 
     /** Checks each qubit is in range and no qubit appears twice. */
     static void requireDistinctQubits(int[] qubits, int register, String what) {
-        Objects.requireNonNull(qubits, what);
-        for (int i = 0; i < qubits.length; i++) {
-            requireQubit(qubits[i], register);
-            for (int j = 0; j < i; j++) {
-                if (qubits[i] == qubits[j]) {
-                    throw new IllegalArgumentException("qubit " + qubits[i] + " appears twice in "
-                            + what + " " + java.util.Arrays.toString(qubits)
-                            + "; each qubit may appear once");
-                }
-            }
-        }
+        Args.requireDistinctQubits(qubits, register, what);
     }
 
     static double requireFinite(double x, String name) {
@@ -46,9 +35,7 @@ final class Checks {
     }
 
     static void requirePositiveShots(int shots) {
-        if (shots < 1) {
-            throw new IllegalArgumentException("shots must be at least 1 but was " + shots);
-        }
+        Args.requirePositiveShots(shots);
     }
 
     static void requireBit(int value, String name) {

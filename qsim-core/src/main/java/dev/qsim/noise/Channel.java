@@ -62,22 +62,14 @@ public final class Channel {
                 }
             }
             raw[k] = m;
+            // K†K, with Operator's own adjoint and product.
+            Operator kk = op.dagger().times(op);
             double[] w = new double[2 * dd];
             for (int r = 0; r < d; r++) {
                 for (int c = 0; c < d; c++) {
-                    double re = 0;
-                    double im = 0;
-                    for (int j = 0; j < d; j++) {
-                        // conj(K[j][r]) * K[j][c]
-                        double ar = m[2 * (j * d + r)];
-                        double ai = -m[2 * (j * d + r) + 1];
-                        double br = m[2 * (j * d + c)];
-                        double bi = m[2 * (j * d + c) + 1];
-                        re += ar * br - ai * bi;
-                        im += ar * bi + ai * br;
-                    }
-                    w[2 * (r * d + c)] = re;
-                    w[2 * (r * d + c) + 1] = im;
+                    Complex z = kk.get(r, c);
+                    w[2 * (r * d + c)] = z.getReal();
+                    w[2 * (r * d + c) + 1] = z.getImaginary();
                 }
             }
             weights[k] = w;

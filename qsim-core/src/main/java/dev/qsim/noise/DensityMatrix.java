@@ -10,6 +10,7 @@ import dev.qsim.Instruction;
 import dev.qsim.Operator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
+import dev.qsim.kernel.Args;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Heap;
 import dev.qsim.kernel.Internals;
@@ -124,7 +125,7 @@ public final class DensityMatrix {
      * @throws IllegalArgumentException if {@code threads} is out of range
      */
     public DensityMatrix withThreads(int threads) {
-        Require.threads(threads);
+        Args.requireThreads(threads);
         this.threads = threads;
         return this;
     }
@@ -175,7 +176,7 @@ public final class DensityMatrix {
             throw new IllegalArgumentException("operator acts on " + op.qubits()
                     + " qubit(s) but " + qubits.length + " qubit index(es) were given");
         }
-        Require.distinctQubits(qubits, n, "the qubits of the operator");
+        Args.requireDistinctQubits(qubits, n, "the qubits of the operator");
         unitary(op, qubits.clone(), NONE);
         return this;
     }
@@ -197,7 +198,7 @@ public final class DensityMatrix {
             throw new IllegalArgumentException("channel acts on " + channel.qubits()
                     + " qubit(s) but " + qubits.length + " qubit index(es) were given");
         }
-        Require.distinctQubits(qubits, n, "the qubits of the channel");
+        Args.requireDistinctQubits(qubits, n, "the qubits of the channel");
         channel(channel, qubits);
         return this;
     }
@@ -395,7 +396,7 @@ public final class DensityMatrix {
         if (qubits.length == 0) {
             throw new IllegalArgumentException("keep at least one qubit");
         }
-        Require.distinctQubits(qubits, n, "the kept qubits");
+        Args.requireDistinctQubits(qubits, n, "the kept qubits");
         int m = qubits.length;
         long keptMask = 0;
         for (int q : qubits) {
@@ -482,7 +483,7 @@ public final class DensityMatrix {
      * @throws IndexOutOfBoundsException if a qubit is out of range
      */
     public Tally sample(int shots, UniformRandomProvider rng, int... qubits) {
-        Require.positiveShots(shots);
+        Args.requirePositiveShots(shots);
         Objects.requireNonNull(rng, "rng");
         Objects.requireNonNull(qubits, "qubits");
         int[] qs = qubits;
@@ -492,7 +493,7 @@ public final class DensityMatrix {
                 qs[q] = q;
             }
         }
-        Require.distinctQubits(qs, n, "the sampled qubits");
+        Args.requireDistinctQubits(qs, n, "the sampled qubits");
         double[] p = probabilities();
         double[] marginal = new double[1 << qs.length];
         for (int i = 0; i < p.length; i++) {

@@ -16,6 +16,7 @@ import dev.qsim.Instruction;
 import dev.qsim.Operator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
+import dev.qsim.kernel.Args;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Internals;
 import dev.qsim.kernel.Kernels;
@@ -83,7 +84,7 @@ public final class NoisyRunner {
      * @throws IllegalArgumentException if {@code threads} is out of range
      */
     public NoisyRunner withThreads(int threads) {
-        Require.threads(threads);
+        Args.requireThreads(threads);
         return new NoisyRunner(seed, threads);
     }
 
@@ -211,7 +212,7 @@ public final class NoisyRunner {
      * @throws IllegalStateException if the heap cannot hold the density matrix
      */
     public Tally run(Circuit circuit, NoiseModel model, int shots) {
-        Require.positiveShots(shots);
+        Args.requirePositiveShots(shots);
         double[] p = probabilities(circuit, model);
         return Sampling.tally(p, circuit.clbits(), shots, RandomSource.XO_RO_SHI_RO_128_PP.create(seed));
     }
@@ -232,7 +233,7 @@ public final class NoisyRunner {
     public Tally runTrajectories(Circuit circuit, NoiseModel model, int trajectories) {
         Objects.requireNonNull(circuit, "circuit");
         Objects.requireNonNull(model, "model");
-        Require.positiveShots(trajectories);
+        Args.requirePositiveShots(trajectories);
         int width = circuit.clbits();
         if (width > 63) {
             throw new IllegalArgumentException("the circuit has " + width

@@ -1,6 +1,7 @@
 package dev.qsim.stabilizer;
 
 import java.util.ArrayList;
+import dev.qsim.kernel.Args;
 import java.util.Arrays;
 import java.util.HashMap;
 import java.util.List;
@@ -201,7 +202,7 @@ public final class CliffordRunner {
      */
     public static Tally run(Circuit circuit, int shots, long seed) {
         requireClifford(circuit);
-        StabilizerChecks.requirePositiveShots(shots);
+        Args.requirePositiveShots(shots);
         UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(seed);
         List<Instruction> list = circuit.instructions();
         boolean conditioned = false;

@@ -8,6 +8,7 @@ import java.util.Objects;
 import org.apache.commons.rng.UniformRandomProvider;
 
 import dev.qsim.StateVector;
+import dev.qsim.kernel.Args;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Heap;
 import dev.qsim.kernel.Internals;
@@ -162,7 +163,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable h(int q) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         hRaw(q);
         return this;
     }
@@ -175,7 +176,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable s(int q) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         sRaw(q);
         return this;
     }
@@ -188,7 +189,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable sDagger(int q) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         sDaggerRaw(q);
         return this;
     }
@@ -201,7 +202,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable sqrtX(int q) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         hRaw(q);
         sRaw(q);
         hRaw(q);
@@ -216,7 +217,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable x(int q) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         xRaw(q);
         return this;
     }
@@ -229,7 +230,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable y(int q) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         yRaw(q);
         return this;
     }
@@ -242,7 +243,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable z(int q) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         zRaw(q);
         return this;
     }
@@ -423,7 +424,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public int measure(int q, UniformRandomProvider rng) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         Objects.requireNonNull(rng, "rng");
         return measureRaw(q, rng);
     }
@@ -437,7 +438,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable reset(int q, UniformRandomProvider rng) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         Objects.requireNonNull(rng, "rng");
         if (measureRaw(q, rng) == 1) {
             xRaw(q);
@@ -454,7 +455,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public boolean isDeterministic(int q) {
-        StabilizerChecks.requireQubit(q, n);
+        Args.requireQubit(q, n);
         return pivot(q) < 0;
     }
 

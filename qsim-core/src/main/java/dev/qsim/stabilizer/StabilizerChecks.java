@@ -1,5 +1,7 @@
 package dev.qsim.stabilizer;
 
+import dev.qsim.kernel.Args;
+
 /** Argument checks of this package. Each message names the value and what is allowed. */
 final class StabilizerChecks {
     private StabilizerChecks() {
@@ -12,25 +14,13 @@ final class StabilizerChecks {
         }
     }
 
-    static void requireQubit(int qubit, int qubits) {
-        if (qubit < 0 || qubit >= qubits) {
-            throw new IndexOutOfBoundsException("qubit " + qubit + " is out of range [0, "
-                    + (qubits - 1) + "] for a " + qubits + "-qubit register");
-        }
-    }
-
     static void requireDistinct(int a, int b, int qubits, String gate) {
-        requireQubit(a, qubits);
-        requireQubit(b, qubits);
+        Args.requireQubit(a, qubits);
+        Args.requireQubit(b, qubits);
         if (a == b) {
             throw new IllegalArgumentException("qubit " + a + " appears twice in the qubits of "
                     + gate + "; each qubit may appear once");
         }
     }
 
-    static void requirePositiveShots(int shots) {
-        if (shots < 1) {
-            throw new IllegalArgumentException("shots must be at least 1 but was " + shots);
-        }
-    }
 }
