@@ -95,6 +95,55 @@ class TallyComparisonTest {
         assertTrue(c.passes(0.05));
     }
 
+    /**
+     * A 5-bit tally of 1,000 shots over 24 possible outcomes (8 outcomes impossible) whose
+     * chi-square statistic is {@code target}: 23 outcomes observed 42 times, one 34 times;
+     * expected counts equal observed except outcomes 0 and 1, moved by {@code -d} and
+     * {@code +d} so that {@code d^2 (1/(42 - d) + 1/(42 + d)) = target}, i.e.
+     * {@code d = sqrt(target 42^2 / (84 + target))}.
+     */
+    private static TallyComparison withChiSquare(double target) {
+        long[] observed = new long[32];
+        double[] p = new double[32];
+        for (int i = 0; i < 24; i++) {
+            observed[i] = i == 23 ? 34 : 42;
+            p[i] = observed[i] / 1000.0;
+        }
+        double d = Math.sqrt(target * 42 * 42 / (84 + target));
+        p[0] = (42 - d) / 1000;
+        p[1] = (42 + d) / 1000;
+        return TallyComparison.of(tally(5, observed), p);
+    }
+
+    @Test
+    void chiSquareAgreesWithTheNistSematechWorkedExample() {
+        // NIST/SEMATECH e-Handbook of Statistical Methods (2012), section 1.3.5.15,
+        // "Chi-Square Goodness-of-Fit Test", sample output for 1,000 normal numbers tested
+        // against the normal distribution (values from memory; the critical values were checked
+        // here against Commons Statistics 1.1 and agree to all printed digits):
+        // 24 non-empty cells, 0 parameters, statistic 17.52155, 23 degrees of freedom,
+        // chi-squared CDF 0.217101; cut-offs 32.00690 (10 %), 35.17246 (5 %), 41.63840 (1 %);
+        // H0 accepted at all three levels. The handbook's 1,000 numbers are not reproduced:
+        // the tally below has the same statistic, cell count and degrees of freedom, and the
+        // comparison must reach the handbook's CDF and decisions.
+        TallyComparison c = withChiSquare(17.52155);
+        assertEquals(17.52155, c.chiSquare(), 1e-9);
+        assertEquals(24, c.groups());
+        assertEquals(23, c.degreesOfFreedom());
+        assertEquals(0.217101, 1 - c.chiSquarePValue(), 1.5e-6);
+        assertTrue(c.chiSquarePValue() >= 0.10);
+        // Each printed cut-off separates acceptance from rejection at its level.
+        double[] cutoffs = {32.00690, 35.17246, 41.63840};
+        double[] levels = {0.10, 0.05, 0.01};
+        for (int k = 0; k < 3; k++) {
+            TallyComparison below = withChiSquare(cutoffs[k] - 1e-3);
+            TallyComparison above = withChiSquare(cutoffs[k] + 1e-3);
+            assertEquals(23, above.degreesOfFreedom());
+            assertTrue(below.chiSquarePValue() > levels[k], "below the " + levels[k] + " cut-off");
+            assertTrue(above.chiSquarePValue() < levels[k], "above the " + levels[k] + " cut-off");
+        }
+    }
+
     @Test
     void sparseOutcomesArePooledUntilEveryGroupExpectsAtLeastFive() {
         // n = 100. Expected counts 60, 30, 4, 3, 2, 1: the four below 5 pool to 10 >= 5
