@@ -6,8 +6,10 @@ import java.util.List;
 import org.apache.commons.rng.UniformRandomProvider;
 
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.GateOp;
 import dev.qsim.kernel.Kernels;
 import dev.qsim.kernel.Reductions;
+import dev.qsim.kernel.Windows;
 
 /** Runs instructions on amplitudes: picks the kernel, measures, resets, tests conditions. */
 final class Engine {
@@ -31,8 +33,35 @@ final class Engine {
         }
     }
 
+    /** The kernel description of a gate instruction. */
+    static GateOp op(Instruction in) {
+        switch (in.shape) {
+            case Instruction.SHAPE_DIAGONAL:
+                return new GateOp(GateOp.DIAGONAL, in.targetsRaw(), in.controlsRaw(), in.data,
+                        null);
+            case Instruction.SHAPE_MONOMIAL:
+                return new GateOp(GateOp.MONOMIAL, in.targetsRaw(), in.controlsRaw(), in.data,
+                        in.perm);
+            default:
+                return new GateOp(GateOp.DENSE, in.targetsRaw(), in.controlsRaw(), in.data, null);
+        }
+    }
+
     static void gate(Amplitudes a, Instruction in, int threads) {
-        plan(a, in).apply(threads);
+        if (a.isSingle()) {
+            Windows.apply(a, List.of(op(in)), threads);
+        } else {
+            plan(a, in).apply(threads);
+        }
+    }
+
+    /** Applies one kernel description, in either precision. */
+    private static void apply(Amplitudes a, GateOp op, int threads) {
+        if (a.isSingle()) {
+            Windows.apply(a, List.of(op), threads);
+        } else {
+            op.plan(a).apply(threads);
+        }
     }
 
     /**
@@ -41,6 +70,14 @@ final class Engine {
      * blocking), with the same result as one at a time.
      */
     static void gates(Amplitudes a, List<Instruction> list, int from, int to, int threads) {
+        if (a.isSingle()) {
+            List<GateOp> ops = new ArrayList<>(to - from);
+            for (int i = from; i < to; i++) {
+                ops.add(op(list.get(i)));
+            }
+            Windows.apply(a, ops, threads);
+            return;
+        }
         int blockLog = Math.min(CACHE_LOG, a.chunkLog());
         boolean blocking = a.qubits() > blockLog;
         List<Kernels.Plan> group = new ArrayList<>();
@@ -98,14 +135,14 @@ final class Engine {
         double p = outcome == 1 ? p1 : 1 - p1;
         double s = 1 / Math.sqrt(p);
         double[] diag = outcome == 1 ? new double[] {0, 0, s, 0} : new double[] {s, 0, 0, 0};
-        Kernels.diagonal(a, new int[] {q}, NONE, diag, threads);
+        apply(a, new GateOp(GateOp.DIAGONAL, new int[] {q}, NONE, diag, null), threads);
         return outcome;
     }
 
     static void reset(Amplitudes a, int q, UniformRandomProvider rng, int threads) {
         if (measure(a, q, rng, threads) == 1) {
-            Kernels.monomial(a, new int[] {q}, NONE, new int[] {1, 0}, new double[] {1, 0, 1, 0},
-                    threads);
+            apply(a, new GateOp(GateOp.MONOMIAL, new int[] {q}, NONE, new double[] {1, 0, 1, 0},
+                    new int[] {1, 0}), threads);
         }
     }
 

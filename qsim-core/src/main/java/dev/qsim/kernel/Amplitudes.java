@@ -3,8 +3,12 @@ package dev.qsim.kernel;
 /**
  * The amplitudes of an n-qubit state in primitive arrays: chunks of {@code 2^chunkLog}
  * amplitudes, real and imaginary parts interleaved, so a state may exceed Java's largest array.
- * Amplitude {@code i} lives in chunk {@code i >>> chunkLog} at double offset
- * {@code 2 * (i & chunkMask)}. Mutable; not thread-safe. Internal.
+ * Amplitude {@code i} lives in chunk {@code i >>> chunkLog} at offset {@code 2 * (i & chunkMask)}.
+ * Double precision ({@link #chunks()}) or single precision ({@link #singles()}, {@code float},
+ * half the memory); exactly one of the two is present. The gate kernels of {@link Kernels} work
+ * on double storage only; single storage is worked on through {@link Windows}, which widens a
+ * window to double, applies the kernels there and rounds back. Mutable; not thread-safe.
+ * Internal.
  */
 public final class Amplitudes {
     /**
@@ -20,12 +24,14 @@ public final class Amplitudes {
     final int chunkLog;
     final long chunkMask;
     final double[][] chunks;
+    final float[][] singles;
 
-    private Amplitudes(int n, int chunkLog, double[][] chunks) {
+    private Amplitudes(int n, int chunkLog, double[][] chunks, float[][] singles) {
         this.n = n;
         this.chunkLog = chunkLog;
         this.chunkMask = (1L << chunkLog) - 1;
         this.chunks = chunks;
+        this.singles = singles;
     }
 
     /**
@@ -51,11 +57,37 @@ public final class Amplitudes {
         for (int c = 0; c < count; c++) {
             chunks[c] = new double[2 << chunkLog];
         }
-        return new Amplitudes(n, chunkLog, chunks);
+        return new Amplitudes(n, chunkLog, chunks, null);
     }
 
     /**
-     * Returns the bytes an n-qubit state occupies.
+     * Allocates a zero vector in single precision on n qubits.
+     *
+     * @param n qubits, {@code 1 <= n <= 40}
+     * @return the storage
+     */
+    public static Amplitudes allocateSingle(int n) {
+        return allocateSingle(n, Math.min(n, CHUNK_LOG));
+    }
+
+    /**
+     * Allocates in single precision with a given chunk size; tests use small chunks.
+     *
+     * @param n qubits
+     * @param chunkLog log2 of the amplitudes per chunk, at most n
+     * @return the storage, all zero
+     */
+    public static Amplitudes allocateSingle(int n, int chunkLog) {
+        int count = 1 << (n - chunkLog);
+        float[][] chunks = new float[count][];
+        for (int c = 0; c < count; c++) {
+            chunks[c] = new float[2 << chunkLog];
+        }
+        return new Amplitudes(n, chunkLog, null, chunks);
+    }
+
+    /**
+     * Returns the bytes an n-qubit state occupies in double precision.
      *
      * @param n qubits
      * @return 16 * 2^n
@@ -64,13 +96,40 @@ public final class Amplitudes {
         return 16L << n;
     }
 
+    /**
+     * Returns the bytes an n-qubit state occupies.
+     *
+     * @param n qubits
+     * @param single whether in single precision
+     * @return 8 * 2^n for single, 16 * 2^n for double precision
+     */
+    public static long bytes(int n, boolean single) {
+        return single ? 8L << n : 16L << n;
+    }
+
+    /** @return whether the amplitudes are stored as {@code float} */
+    public boolean isSingle() {
+        return singles != null;
+    }
+
+    /**
+     * Returns the single-precision chunk arrays themselves (live), laid out as
+     * {@link #chunks()}; null for double storage.
+     *
+     * @return the chunks, or null
+     */
+    public float[][] singles() {
+        return singles;
+    }
+
     /** @return the number of qubits */
     public int qubits() {
         return n;
     }
 
     /**
-     * Returns the chunk arrays themselves (live). Amplitude {@code i} is in chunk
+     * Returns the double-precision chunk arrays themselves (live); null for single storage.
+     * Amplitude {@code i} is in chunk
      * {@code i >>> chunkLog()} at double offset {@code 2 * (i & ((1 << chunkLog()) - 1))}.
      *
      * @return the chunks
@@ -88,23 +147,104 @@ public final class Amplitudes {
         return chunkLog;
     }
 
-    /** @return a deep copy */
+    /** @return a deep copy, in the same precision */
     public Amplitudes copy() {
+        if (singles != null) {
+            float[][] c = new float[singles.length][];
+            for (int i = 0; i < c.length; i++) {
+                c[i] = singles[i].clone();
+            }
+            return new Amplitudes(n, chunkLog, null, c);
+        }
         double[][] c = new double[chunks.length][];
         for (int i = 0; i < c.length; i++) {
             c[i] = chunks[i].clone();
         }
-        return new Amplitudes(n, chunkLog, c);
+        return new Amplitudes(n, chunkLog, c, null);
     }
 
     /**
-     * Copies the amplitudes of another state of the same size into this one.
+     * Returns a copy in the other or the same precision: widening is exact, narrowing rounds
+     * each part to the nearest {@code float}.
      *
-     * @param other the source, same qubit count
+     * @param single whether the copy is in single precision
+     * @return the copy, with the default chunk size
+     */
+    public Amplitudes convert(boolean single) {
+        if (single == isSingle() && chunkLog == Math.min(n, CHUNK_LOG)) {
+            return copy();
+        }
+        Amplitudes out = single ? allocateSingle(n) : allocate(n);
+        int bl = Math.min(chunkLog, out.chunkLog);
+        double[] buf = new double[2 << bl];
+        for (long first = 0; first < (1L << n); first += 1L << bl) {
+            read(first, bl, buf, 0);
+            out.write(first, bl, buf, 0);
+        }
+        return out;
+    }
+
+    /**
+     * Copies the amplitudes of another state of the same size, precision and chunk size into
+     * this one.
+     *
+     * @param other the source
      */
     public void copyFrom(Amplitudes other) {
+        if (singles != null) {
+            for (int i = 0; i < singles.length; i++) {
+                System.arraycopy(other.singles[i], 0, singles[i], 0, singles[i].length);
+            }
+            return;
+        }
         for (int i = 0; i < chunks.length; i++) {
             System.arraycopy(other.chunks[i], 0, chunks[i], 0, chunks[i].length);
+        }
+    }
+
+    /**
+     * Reads the {@code 2^log} amplitudes from index {@code first} (a multiple of
+     * {@code 2^log}, {@code log <= chunkLog}) into {@code out} as doubles, interleaved.
+     *
+     * @param first first index
+     * @param log log2 of the count
+     * @param out the destination. Modified.
+     * @param at the first double of {@code out} to write; {@code 2^(log+1)} are written
+     */
+    public void read(long first, int log, double[] out, int at) {
+        int c = (int) (first >>> chunkLog);
+        int o = (int) (first & chunkMask) << 1;
+        int len = 2 << log;
+        if (singles == null) {
+            System.arraycopy(chunks[c], o, out, at, len);
+            return;
+        }
+        float[] f = singles[c];
+        for (int x = 0; x < len; x++) {
+            out[at + x] = f[o + x];
+        }
+    }
+
+    /**
+     * Writes {@code 2^log} amplitudes from {@code in} at index {@code first} (a multiple of
+     * {@code 2^log}, {@code log <= chunkLog}), rounding to {@code float} in single precision.
+     *
+     * @param first first index
+     * @param log log2 of the count
+     * @param in the source. Not modified.
+     * @param at the first double of {@code in} to read; {@code 2^(log+1)} are read
+     */
+    public void write(long first, int log, double[] in, int at) {
+        int c = (int) (first >>> chunkLog);
+        int o = (int) (first & chunkMask) << 1;
+        int len = 2 << log;
+        if (singles == null) {
+            System.arraycopy(in, at, chunks[c], o, len);
+            return;
+        }
+        float[] f = singles[c];
+        for (int x = 0; x < len; x++) {
+            f[o + x] = (float) in[at + x];
         }
     }
 
@@ -113,7 +253,11 @@ public final class Amplitudes {
      * @return the real part of amplitude {@code index}
      */
     public double re(long index) {
-        return chunks[(int) (index >>> chunkLog)][(int) (index & chunkMask) << 1];
+        int o = (int) (index & chunkMask) << 1;
+        if (singles != null) {
+            return singles[(int) (index >>> chunkLog)][o];
+        }
+        return chunks[(int) (index >>> chunkLog)][o];
     }
 
     /**
@@ -121,25 +265,41 @@ public final class Amplitudes {
      * @return the imaginary part of amplitude {@code index}
      */
     public double im(long index) {
-        return chunks[(int) (index >>> chunkLog)][((int) (index & chunkMask) << 1) + 1];
+        int o = ((int) (index & chunkMask) << 1) + 1;
+        if (singles != null) {
+            return singles[(int) (index >>> chunkLog)][o];
+        }
+        return chunks[(int) (index >>> chunkLog)][o];
     }
 
     /**
-     * Sets one amplitude.
+     * Sets one amplitude (rounded to {@code float} in single precision).
      *
      * @param index basis index
      * @param re real part
      * @param im imaginary part
      */
     public void set(long index, double re, double im) {
-        double[] a = chunks[(int) (index >>> chunkLog)];
         int o = (int) (index & chunkMask) << 1;
+        if (singles != null) {
+            float[] f = singles[(int) (index >>> chunkLog)];
+            f[o] = (float) re;
+            f[o + 1] = (float) im;
+            return;
+        }
+        double[] a = chunks[(int) (index >>> chunkLog)];
         a[o] = re;
         a[o + 1] = im;
     }
 
     /** Sets every amplitude to zero. */
     public void clear() {
+        if (singles != null) {
+            for (float[] c : singles) {
+                java.util.Arrays.fill(c, 0f);
+            }
+            return;
+        }
         for (double[] c : chunks) {
             java.util.Arrays.fill(c, 0.0);
         }

@@ -14,10 +14,12 @@ public final class Internals {
     /** What {@code dev.qsim} lends to the rest of the module. */
     public interface Access {
         /**
-         * Returns the storage of a state (live, not a copy).
+         * Returns the amplitudes of a state in double precision: the live storage of a
+         * double-precision state, or a widened copy of a single-precision one (so writes to
+         * it reach the state only in the first case).
          *
          * @param state the state
-         * @return its amplitudes
+         * @return its amplitudes, double storage
          */
         Amplitudes amplitudes(StateVector state);
 

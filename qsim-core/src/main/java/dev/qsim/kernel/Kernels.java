@@ -26,6 +26,10 @@ public final class Kernels {
         final Amplitudes a;
 
         Plan(Amplitudes a) {
+            if (a.chunks == null) {
+                throw new IllegalStateException("the kernels work on double storage; single"
+                        + " precision goes through Windows");
+            }
             this.a = a;
         }
 

@@ -3,7 +3,9 @@ package dev.qsim.kernel;
 /**
  * Sums over a state, read-only. Each sum is taken over fixed blocks of
  * {@code 2^}{@value #BLOCK_LOG} amplitudes, in index order within a block, and the block sums are
- * then added in block order: the result does not depend on the thread count. Internal.
+ * then added in block order: the result does not depend on the thread count. A block of a
+ * single-precision state is first widened to double (exactly), so the sums are taken in double
+ * in both precisions. Internal.
  */
 public final class Reductions {
     /** Log2 of the amplitudes per summation block. */
@@ -14,6 +16,25 @@ public final class Reductions {
 
     private static int blockLog(Amplitudes a) {
         return Math.min(a.chunkLog, BLOCK_LOG);
+    }
+
+    /** A scratch for one block of a single-precision state, or null for double storage. */
+    private static double[] buffer(Amplitudes a, int bl) {
+        return a.singles == null ? null : new double[2 << bl];
+    }
+
+    /** The array holding block {@code first}: its chunk, or {@code buf} filled with it. */
+    private static double[] view(Amplitudes a, long first, int bl, double[] buf) {
+        if (buf == null) {
+            return a.chunks[(int) (first >>> a.chunkLog)];
+        }
+        a.read(first, bl, buf, 0);
+        return buf;
+    }
+
+    /** The offset of block {@code first} in the array {@link #view} returned. */
+    private static int offset(Amplitudes a, long first, double[] buf) {
+        return buf == null ? (int) (first & a.chunkMask) << 1 : 0;
     }
 
     /**
@@ -46,13 +67,14 @@ public final class Reductions {
         final double[] partial = new double[blocks];
         final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
         Parallel.forRange(threads, blocks, par, (from, to) -> {
+            double[] buf = buffer(a, bl);
             for (long b = from; b < to; b++) {
                 long first = b << bl;
                 if (q >= bl && ((first >>> q) & 1) == 0) {
                     continue;
                 }
-                double[] psi = a.chunks[(int) (first >>> a.chunkLog)];
-                int start = (int) (first & a.chunkMask) << 1;
+                double[] psi = view(a, first, bl, buf);
+                int start = offset(a, first, buf);
                 int end = start + (2 << bl);
                 double s = 0;
                 if (q < 0 || q >= bl) {
@@ -87,6 +109,9 @@ public final class Reductions {
      * @return {re, im}
      */
     public static double[] inner(Amplitudes a, Amplitudes b, int threads) {
+        if (a.singles != null || b.singles != null || a.chunkLog != b.chunkLog) {
+            return innerWidened(a, b, threads);
+        }
         final int bl = blockLog(a);
         final int blocks = 1 << (a.n - bl);
         final double[] pr = new double[blocks];
@@ -119,6 +144,38 @@ public final class Reductions {
         return new double[] {re, im};
     }
 
+    /** {@link #inner} through double blocks: any precisions and chunk sizes. */
+    private static double[] innerWidened(Amplitudes a, Amplitudes b, int threads) {
+        final int bl = Math.min(blockLog(a), blockLog(b));
+        final int blocks = 1 << (a.n - bl);
+        final double[] pr = new double[blocks];
+        final double[] pi = new double[blocks];
+        final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
+        Parallel.forRange(threads, blocks, par, (from, to) -> {
+            double[] u = new double[2 << bl];
+            double[] v = new double[2 << bl];
+            for (long blk = from; blk < to; blk++) {
+                a.read(blk << bl, bl, u, 0);
+                b.read(blk << bl, bl, v, 0);
+                double sr = 0;
+                double si = 0;
+                for (int x = 0; x < u.length; x += 2) {
+                    sr += u[x] * v[x] + u[x + 1] * v[x + 1];
+                    si += u[x] * v[x + 1] - u[x + 1] * v[x];
+                }
+                pr[(int) blk] = sr;
+                pi[(int) blk] = si;
+            }
+        });
+        double re = 0;
+        double im = 0;
+        for (int i = 0; i < blocks; i++) {
+            re += pr[i];
+            im += pi[i];
+        }
+        return new double[] {re, im};
+    }
+
     /**
      * Writes {@code |a_i|²} for every basis state.
      *
@@ -130,10 +187,11 @@ public final class Reductions {
         final int bl = blockLog(a);
         final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
         Parallel.forRange(threads, 1L << (a.n - bl), par, (from, to) -> {
+            double[] buf = buffer(a, bl);
             for (long b = from; b < to; b++) {
                 long first = b << bl;
-                double[] psi = a.chunks[(int) (first >>> a.chunkLog)];
-                int start = (int) (first & a.chunkMask) << 1;
+                double[] psi = view(a, first, bl, buf);
+                int start = offset(a, first, buf);
                 int end = start + (2 << bl);
                 int i = (int) first;
                 for (int x = start; x < end; x += 2, i++) {
@@ -153,12 +211,14 @@ public final class Reductions {
      */
     public static void marginal(Amplitudes a, int[] qubits, double[] out) {
         final int k = qubits.length;
-        final int cl = a.chunkLog;
-        for (int c = 0; c < a.chunks.length; c++) {
-            double[] psi = a.chunks[c];
-            long base = (long) c << cl;
-            for (int i = 0, x = 0; x < psi.length; i++, x += 2) {
-                long idx = base + i;
+        final int bl = blockLog(a);
+        double[] buf = buffer(a, bl);
+        for (long first = 0; first < (1L << a.n); first += 1L << bl) {
+            double[] psi = view(a, first, bl, buf);
+            int start = offset(a, first, buf);
+            int end = start + (2 << bl);
+            long idx = first;
+            for (int x = start; x < end; x += 2, idx++) {
                 int key = 0;
                 for (int j = 0; j < k; j++) {
                     key |= (int) ((idx >>> qubits[j]) & 1) << j;
@@ -182,10 +242,11 @@ public final class Reductions {
         final double[] partial = new double[blocks];
         final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
         Parallel.forRange(threads, blocks, par, (from, to) -> {
+            double[] buf = buffer(a, bl);
             for (long b = from; b < to; b++) {
                 long first = b << bl;
-                double[] psi = a.chunks[(int) (first >>> a.chunkLog)];
-                int start = (int) (first & a.chunkMask) << 1;
+                double[] psi = view(a, first, bl, buf);
+                int start = offset(a, first, buf);
                 int end = start + (2 << bl);
                 double s = 0;
                 for (int x = start; x < end; x += 2) {
@@ -239,6 +300,7 @@ public final class Reductions {
         }
         final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
         Parallel.forRange(threads, blocks, par, (from, to) -> {
+            double[] buf = buffer(a, bl);
             for (int b = (int) from; b < to; b++) {
                 int lo = firstShot[b];
                 int hi = firstShot[b + 1];
@@ -246,8 +308,8 @@ public final class Reductions {
                     continue;
                 }
                 long first = (long) b << bl;
-                double[] psi = a.chunks[(int) (first >>> a.chunkLog)];
-                int start = (int) (first & a.chunkMask) << 1;
+                double[] psi = view(a, first, bl, buf);
+                int start = offset(a, first, buf);
                 int end = start + (2 << bl);
                 double c = prefix[b];
                 long last = first;

@@ -11,6 +11,7 @@ import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 
 import dev.qsim.Circuit;
+import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.kernel.Amplitudes;
@@ -212,7 +213,7 @@ public final class Expectation {
         if (groups.isEmpty()) {
             return new Estimate(constant, 0, 0, shots);
         }
-        StateVector work = state.copy();
+        StateVector work = state.toPrecision(Precision.DOUBLE);
         Amplitudes source = Internals.access().amplitudes(state);
         Amplitudes target = Internals.access().amplitudes(work);
         double value = constant;

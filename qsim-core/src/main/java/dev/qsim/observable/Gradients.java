@@ -5,6 +5,7 @@ import java.util.Objects;
 
 import dev.qsim.Circuit;
 import dev.qsim.Instruction;
+import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Internals;
@@ -80,7 +81,7 @@ public final class Gradients {
         List<TunableCircuit.Step> steps = circuit.steps();
         int count = forward.size();
 
-        StateVector phiState = initial.copy();
+        StateVector phiState = initial.toPrecision(Precision.DOUBLE);
         Amplitudes phi = access.amplitudes(phiState);
         for (Instruction in : forward) {
             access.applyGate(phi, in, threads);
@@ -193,7 +194,7 @@ public final class Gradients {
         check(circuit, values, h, initial);
         List<TunableCircuit.Step> steps = circuit.steps();
         double[] grad = new double[circuit.parameters().size()];
-        StateVector work = initial.copy();
+        StateVector work = initial.toPrecision(Precision.DOUBLE);
         Amplitudes source = Internals.access().amplitudes(initial);
         Amplitudes target = Internals.access().amplitudes(work);
         for (int k = 0; k < steps.size(); k++) {

@@ -1,0 +1,75 @@
+package dev.qsim.kernel;
+
+/**
+ * One gate as the kernels see it: its shape (dense, diagonal or monomial), target and control
+ * qubits, and matrix data; turned into a {@link Kernels.Plan} for a given storage. Immutable by
+ * convention (arrays are shared, never modified). Internal.
+ */
+public final class GateOp {
+    /** Shape: a dense {@code 2^k x 2^k} matrix. */
+    public static final int DENSE = 0;
+    /** Shape: a diagonal matrix. */
+    public static final int DIAGONAL = 1;
+    /** Shape: a monomial matrix (one non-zero per column). */
+    public static final int MONOMIAL = 2;
+
+    final int shape;
+    final int[] targets;
+    final int[] controls;
+    final double[] data;
+    final int[] perm;
+    final long targetMask;
+
+    /**
+     * Describes a gate; see {@link Kernels#densePlan}, {@link Kernels#diagonalPlan} and
+     * {@link Kernels#monomialPlan} for the data of each shape.
+     *
+     * @param shape {@link #DENSE}, {@link #DIAGONAL} or {@link #MONOMIAL}
+     * @param targets target qubits. Not copied.
+     * @param controls control qubits, possibly empty. Not copied.
+     * @param data matrix, diagonal or phases, re/im interleaved. Not copied.
+     * @param perm the permutation of a monomial gate, else null. Not copied.
+     */
+    public GateOp(int shape, int[] targets, int[] controls, double[] data, int[] perm) {
+        this.shape = shape;
+        this.targets = targets;
+        this.controls = controls;
+        this.data = data;
+        this.perm = perm;
+        long m = 0;
+        for (int t : targets) {
+            m |= 1L << t;
+        }
+        this.targetMask = m;
+    }
+
+    /**
+     * Prepares the gate for a storage, with given qubit numbers (the gate's own, or its
+     * qubits renumbered inside a window).
+     *
+     * @param a double-precision storage
+     * @param t target qubits in {@code a}
+     * @param c control qubits in {@code a}
+     * @return the plan
+     */
+    Kernels.Plan plan(Amplitudes a, int[] t, int[] c) {
+        switch (shape) {
+            case DIAGONAL:
+                return Kernels.diagonalPlan(a, t, c, data);
+            case MONOMIAL:
+                return Kernels.monomialPlan(a, t, c, perm, data);
+            default:
+                return Kernels.densePlan(a, t, c, data);
+        }
+    }
+
+    /**
+     * Prepares the gate for a double-precision storage with its own qubit numbers.
+     *
+     * @param a the storage
+     * @return the plan
+     */
+    public Kernels.Plan plan(Amplitudes a) {
+        return plan(a, targets, controls);
+    }
+}

@@ -1,0 +1,182 @@
+package dev.qsim.kernel;
+
+import java.util.List;
+
+/**
+ * Applies runs of gates window by window. A window is a set of {@code 2^w} amplitudes closed
+ * under every gate of a run: the indices that share all bits outside the window's bits, which
+ * are the low bits {@code [0, l)} and the gates' target qubits above them. A window is read into
+ * a double-precision scratch state (in contiguous runs of {@code 2^l} amplitudes), every gate of
+ * the run is applied there by the ordinary {@link Kernels} with its qubits renumbered, and the
+ * window is written back. So the state is streamed once for the whole run, and a
+ * single-precision state is computed in double and rounded once per run.
+ *
+ * <p>A control qubit outside the window is fixed within it: the gate is applied to the windows
+ * where that control is 1 and skipped elsewhere. Windows are disjoint, so they are shared among
+ * threads without changing the result: every window gets the same operations in the same order
+ * whatever the thread count.
+ *
+ * <p>Method: gathering a qubit subset into a small dense buffer so that several gates act on it
+ * while it is in cache is the "cache blocking" of H. De Raedt et al., "Massively parallel
+ * quantum computer simulator, eleven years later", Comput. Phys. Commun. 237 (2019) 47, §3,
+ * and of qHiPSTER (Smelyanskiy et al., arXiv:1601.07195, 2016, §3.2). Internal.
+ */
+public final class Windows {
+    /** Log2 of the amplitudes of a full window: 2^14, a 256 KiB double scratch that fits L2. */
+    public static final int WINDOW_LOG = 14;
+    /**
+     * Log2 of the shortest contiguous run a window is read in when gates are grouped: 2^6
+     * amplitudes, 512 bytes in single precision. A gate that would make runs shorter starts a
+     * new group (a first gate is always accepted).
+     */
+    static final int MIN_RUN_LOG = 6;
+
+    private static final ThreadLocal<Amplitudes[]> SCRATCH =
+            ThreadLocal.withInitial(() -> new Amplitudes[WINDOW_LOG + 1]);
+
+    private Windows() {
+    }
+
+    private static Amplitudes scratch(int log) {
+        Amplitudes[] cache = SCRATCH.get();
+        if (cache[log] == null) {
+            cache[log] = Amplitudes.allocate(log, log);
+        }
+        return cache[log];
+    }
+
+    /**
+     * Applies gates in order, grouping consecutive gates whose targets fit in one window.
+     *
+     * @param a the storage, double or single precision. Modified.
+     * @param ops the gates, each with at most {@value #WINDOW_LOG} targets
+     * @param threads threads to use
+     */
+    public static void apply(Amplitudes a, List<GateOp> ops, int threads) {
+        final int w = Math.min(a.n, WINDOW_LOG);
+        final int maxLow = Math.min(w, a.chunkLog);
+        int i = 0;
+        while (i < ops.size()) {
+            long mask = ops.get(i).targetMask;
+            int l = lowBits(mask, w, maxLow, 0);
+            int j = i + 1;
+            while (j < ops.size()) {
+                long wider = mask | ops.get(j).targetMask;
+                int l2 = lowBits(wider, w, maxLow, Math.min(MIN_RUN_LOG, l));
+                if (l2 < 0) {
+                    break;
+                }
+                mask = wider;
+                l = l2;
+                j++;
+            }
+            applyGroup(a, ops.subList(i, j), mask, l, threads);
+            i = j;
+        }
+    }
+
+    /**
+     * Returns the largest {@code l} in {@code [minLow, maxLow]} such that the low bits
+     * {@code [0, l)} and the targets at or above {@code l} number at most {@code w}, or -1.
+     */
+    static int lowBits(long mask, int w, int maxLow, int minLow) {
+        for (int l = maxLow; l >= minLow; l--) {
+            if (l + Long.bitCount(mask >>> l) <= w) {
+                return l;
+            }
+        }
+        return -1;
+    }
+
+    private static void applyGroup(Amplitudes a, List<GateOp> ops, long mask, int l,
+            int threads) {
+        final int n = a.n;
+        final int h = Long.bitCount(mask >>> l);
+        final int wl = l + h;
+        final int[] high = new int[h];
+        final int[] free = new int[n - wl];
+        final int[] map = new int[n];
+        for (int q = 0, hi = 0, fi = 0; q < n; q++) {
+            if (q < l) {
+                map[q] = q;
+            } else if (((mask >>> q) & 1) != 0) {
+                map[q] = l + hi;
+                high[hi++] = q;
+            } else {
+                map[q] = -1;
+                free[fi++] = q;
+            }
+        }
+        final int k = ops.size();
+        final int[][] targets = new int[k][];
+        final int[][] controls = new int[k][];
+        final long[] outer = new long[k];
+        for (int x = 0; x < k; x++) {
+            GateOp op = ops.get(x);
+            targets[x] = new int[op.targets.length];
+            for (int j = 0; j < op.targets.length; j++) {
+                targets[x][j] = map[op.targets[j]];
+            }
+            int inner = 0;
+            for (int c : op.controls) {
+                if (map[c] >= 0) {
+                    inner++;
+                } else {
+                    outer[x] |= 1L << c;
+                }
+            }
+            controls[x] = new int[inner];
+            inner = 0;
+            for (int c : op.controls) {
+                if (map[c] >= 0) {
+                    controls[x][inner++] = map[c];
+                }
+            }
+        }
+        final long[] runStart = new long[1 << h];
+        for (int r = 0; r < runStart.length; r++) {
+            runStart[r] = deposit(r, high);
+        }
+        final boolean par = n >= Parallel.MIN_PARALLEL_QUBITS;
+        Parallel.forRange(threads, 1L << (n - wl), par, (from, to) -> {
+            Amplitudes s = scratch(wl);
+            double[] buf = s.chunks[0];
+            Kernels.Plan[] plans = new Kernels.Plan[k];
+            long[] units = new long[k];
+            for (int x = 0; x < k; x++) {
+                plans[x] = ops.get(x).plan(s, targets[x], controls[x]);
+                units[x] = plans[x].units();
+            }
+            for (long win = from; win < to; win++) {
+                long base = deposit(win, free);
+                boolean any = false;
+                for (int x = 0; x < k && !any; x++) {
+                    any = (base & outer[x]) == outer[x];
+                }
+                if (!any) {
+                    continue;
+                }
+                for (int r = 0; r < runStart.length; r++) {
+                    a.read(base | runStart[r], l, buf, r << (l + 1));
+                }
+                for (int x = 0; x < k; x++) {
+                    if ((base & outer[x]) == outer[x]) {
+                        plans[x].run(0, units[x]);
+                    }
+                }
+                for (int r = 0; r < runStart.length; r++) {
+                    a.write(base | runStart[r], l, buf, r << (l + 1));
+                }
+            }
+        });
+    }
+
+    /** Spreads the bits of {@code value} over the given positions (bit j to positions[j]). */
+    private static long deposit(long value, int[] positions) {
+        long out = 0;
+        for (int j = 0; j < positions.length; j++) {
+            out |= ((value >>> j) & 1L) << positions[j];
+        }
+        return out;
+    }
+}
