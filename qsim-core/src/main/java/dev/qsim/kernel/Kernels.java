@@ -836,6 +836,9 @@ public final class Kernels {
             ones &= phase[2 * j] == 1 && phase[2 * j + 1] == 0;
         }
         final boolean pure = ones;
+        if (pure && a.chunks.length > 1 && lowest(targets, controls) >= a.chunkLog) {
+            return new ChunkPermutationPlan(a, targets, controls, perm);
+        }
         if (pure && perm.length == 2 && perm[0] == 1 && controls.length == 0) {
             return new Flip1Plan(a, targets[0]);
         }
@@ -853,6 +856,113 @@ public final class Kernels {
                 monomialBlocks(a, l, perm, phase, pure, from, to);
             }
         };
+    }
+
+    private static int lowest(int[] targets, int[] controls) {
+        int low = Integer.MAX_VALUE;
+        for (int t : targets) {
+            low = Math.min(low, t);
+        }
+        for (int c : controls) {
+            low = Math.min(low, c);
+        }
+        return low;
+    }
+
+    /**
+     * Tells whether a gate is a permutation without phases whose qubits all select whole
+     * chunks of {@code a}, so that {@link #permuteChunks} can apply it.
+     *
+     * @param a the storage, either precision
+     * @param op the gate
+     * @return whether moving chunk references applies the gate
+     */
+    static boolean movesChunks(Amplitudes a, GateOp op) {
+        if (op.shape != GateOp.MONOMIAL || (1L << (a.n - a.chunkLog)) < 2
+                || lowest(op.targets, op.controls) < a.chunkLog) {
+            return false;
+        }
+        for (int j = 0; j < op.data.length; j += 2) {
+            if (op.data[j] != 1 || op.data[j + 1] != 0) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /**
+     * Applies a permutation gate whose qubits are all at or above the chunk log by moving chunk
+     * references: the chunk of column {@code j} of the target bits goes to row {@code perm[j]}
+     * where every control is 1.
+     *
+     * @param chunks the chunk table ({@code double[][]} or {@code float[][]}). Modified.
+     * @param cl the chunk log
+     * @param targets target qubits, all at least {@code cl}
+     * @param controls control qubits, all at least {@code cl}
+     * @param perm destination of each column
+     */
+    static void permuteChunks(Object[] chunks, int cl, int[] targets, int[] controls,
+            int[] perm) {
+        final Object[] old = chunks.clone();
+        long controlMask = 0;
+        for (int c : controls) {
+            controlMask |= 1L << (c - cl);
+        }
+        long targetMask = 0;
+        for (int t : targets) {
+            targetMask |= 1L << (t - cl);
+        }
+        for (int c = 0; c < old.length; c++) {
+            if ((c & controlMask) != controlMask) {
+                continue;
+            }
+            int column = 0;
+            for (int j = 0; j < targets.length; j++) {
+                column |= ((c >>> (targets[j] - cl)) & 1) << j;
+            }
+            int row = perm[column];
+            long dest = c & ~targetMask;
+            for (int j = 0; j < targets.length; j++) {
+                dest |= (long) ((row >>> j) & 1) << (targets[j] - cl);
+            }
+            chunks[(int) dest] = old[c];
+        }
+    }
+
+    /**
+     * A permutation gate (no phases) whose targets and controls all select whole chunks: it
+     * moves chunks, not amplitudes, by permuting the chunk references. X, CNOT, SWAP or Toffoli
+     * on qubits at or above the chunk log then cost one pass over the chunk table instead of
+     * one over the state; the amplitudes are the same to the bit. One unit of work.
+     */
+    private static final class ChunkPermutationPlan extends Plan {
+        final int[] targets;
+        final int[] controls;
+        final int[] perm;
+
+        ChunkPermutationPlan(Amplitudes a, int[] targets, int[] controls, int[] perm) {
+            super(a);
+            this.targets = targets;
+            this.controls = controls;
+            this.perm = perm;
+        }
+
+        @Override
+        public long units() {
+            return 1;
+        }
+
+        @Override
+        public void run(long from, long to) {
+            if (from < to) {
+                permuteChunks(a.chunks, a.chunkLog, targets, controls, perm);
+            }
+        }
+
+        @Override
+        public long unitsPerBlock(int blockLog) {
+            return -1;
+        }
     }
 
     /** A plain or controlled X: swap the two halves. */

@@ -11,7 +11,8 @@ import java.util.List;
  * window is written back. So the state is streamed once for the whole run, and a
  * single-precision state is computed in double and rounded once per run.
  *
- * <p>A control qubit outside the window is fixed within it: the gate is applied to the windows
+ * <p>A permutation without phases on qubits that select whole chunks moves chunk references
+ * instead ({@link Kernels#permuteChunks}). A control qubit outside the window is fixed within it: the gate is applied to the windows
  * where that control is 1 and skipped elsewhere. Windows are disjoint, so they are shared among
  * threads without changing the result: every window gets the same operations in the same order
  * whatever the thread count.
@@ -57,10 +58,18 @@ public final class Windows {
         final int maxLow = Math.min(w, a.chunkLog);
         int i = 0;
         while (i < ops.size()) {
-            long mask = ops.get(i).targetMask;
+            GateOp first = ops.get(i);
+            if (Kernels.movesChunks(a, first)) {
+                Object[] table = a.singles != null ? a.singles : a.chunks;
+                Kernels.permuteChunks(table, a.chunkLog, first.targets, first.controls,
+                        first.perm);
+                i++;
+                continue;
+            }
+            long mask = first.targetMask;
             int l = lowBits(mask, w, maxLow, 0);
             int j = i + 1;
-            while (j < ops.size()) {
+            while (j < ops.size() && !Kernels.movesChunks(a, ops.get(j))) {
                 long wider = mask | ops.get(j).targetMask;
                 int l2 = lowBits(wider, w, maxLow, Math.min(MIN_RUN_LOG, l));
                 if (l2 < 0) {
