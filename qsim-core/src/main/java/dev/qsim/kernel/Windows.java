@@ -79,7 +79,13 @@ public final class Windows {
                 l = l2;
                 j++;
             }
-            applyGroup(a, ops.subList(i, j), mask, l, threads);
+            double[] m2 = j == i + 1 && a.singles != null ? SingleKernels.matrix2(first) : null;
+            if (m2 != null) {
+                // A lone single-qubit gate: one direct pass beats copying windows in and out.
+                SingleKernels.dense1(a, first.targets[0], m2, threads);
+            } else {
+                applyGroup(a, ops.subList(i, j), mask, l, threads);
+            }
             i = j;
         }
     }

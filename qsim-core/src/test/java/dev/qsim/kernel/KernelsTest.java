@@ -152,6 +152,38 @@ class KernelsTest {
     }
 
     /**
+     * A lone single-qubit gate on single-precision storage goes through {@link SingleKernels}
+     * (one pass, no window): against the reference on the rounded input, every target, chunk
+     * sizes down to one amplitude. Each output part is one rounding of the exact result, so it
+     * is within 2^-24 relative of it (IEEE 754-2019 §4.3.1; Higham 2002, §2.1): 1e-6 absolute
+     * on parts below 2.
+     */
+    @ParameterizedTest(name = "n={0} chunkLog={1} threads={2}")
+    @CsvSource({"6, 6, 1", "6, 1, 1", "6, 0, 1", "15, 4, 2", "16, 16, 2", "16, 13, 2"})
+    void singleQubitGatesOnFloatStorageMatchReference(int n, int chunkLog, int threads) {
+        long seed = 9000L + 10L * n + chunkLog;
+        SplittableRandom r = new SplittableRandom(seed);
+        for (int q = 0; q < n; q++) {
+            double[] m = new double[8];
+            for (int i = 0; i < 8; i++) {
+                m[i] = r.nextDouble(-0.7, 0.7);
+            }
+            double[] in = randomVector(n, r);
+            Amplitudes s = Amplitudes.allocateSingle(n, chunkLog);
+            double[] rounded = new double[in.length];
+            for (int i = 0; i < (1 << n); i++) {
+                s.set(i, in[2 * i], in[2 * i + 1]);
+                rounded[2 * i] = (float) in[2 * i];
+                rounded[2 * i + 1] = (float) in[2 * i + 1];
+            }
+            GateOp op = new GateOp(GateOp.DENSE, new int[] {q}, new int[0], m, null);
+            Windows.apply(s, java.util.List.of(op), threads);
+            assertArrayEquals(reference(rounded, n, new int[] {q}, new int[0], m), unload(s),
+                    1e-6, "seed " + seed + " target " + q);
+        }
+    }
+
+    /**
      * Permutations on qubits that select whole chunks move chunk references instead of
      * amplitudes (double storage through the plan, single storage through {@link Windows}); the
      * result must equal the definition, controls included.

@@ -1,0 +1,132 @@
+package dev.qsim.kernel;
+
+/**
+ * A single-qubit gate applied directly to single-precision storage: each pair of amplitudes is
+ * read as {@code float}, multiplied by the 2x2 matrix in double and rounded back, in one pass
+ * (no window copy). {@link Windows} uses it for a gate that stands alone; runs of gates go
+ * through windows. Unchecked; internal. Method as in {@link Kernels}: pairwise updates with
+ * strided indexing (Smelyanskiy et al., arXiv:1601.07195, 2016, §3).
+ */
+final class SingleKernels {
+    /** Log2 of the pairs of one work unit for targets above it, as {@link Kernels#PIECE_LOG}. */
+    private static final int PIECE_LOG = Kernels.PIECE_LOG;
+
+    private SingleKernels() {
+    }
+
+    /**
+     * Applies {@code m} (row-major, re/im interleaved, length 8) to qubit {@code q}.
+     *
+     * @param a single-precision storage. Modified.
+     * @param q the target
+     * @param m the matrix. Not modified.
+     * @param threads threads to use
+     */
+    static void dense1(Amplitudes a, int q, double[] m, int threads) {
+        final long units = (1L << (a.n - 1)) >>> Math.min(q, PIECE_LOG);
+        Parallel.forRange(threads, units, a.n >= Parallel.MIN_PARALLEL_QUBITS,
+                (from, to) -> run(a, q, m, from, to));
+    }
+
+    /** Units {@code [from, to)}: whole blocks of 2^(q+1) amplitudes, or 2^12-pair pieces. */
+    private static void run(Amplitudes a, int q, double[] m, long from, long to) {
+        final int cl = a.chunkLog;
+        if (q == 0 && cl > 0) {
+            // Neighbouring pairs: one flat loop per chunk.
+            long u = from;
+            while (u < to) {
+                final long i0 = u << 1;
+                final int c = (int) (i0 >>> cl);
+                final long end = Math.min(to, ((long) c + 1) << (cl - 1));
+                flat(a.singles[c], (int) (i0 & a.chunkMask) << 1, (int) (end - u), m);
+                u = end;
+            }
+            return;
+        }
+        if (q <= PIECE_LOG) {
+            for (long u = from; u < to; u++) {
+                final long i0 = u << (q + 1);
+                span(a, i0, i0 + (1L << q), 1 << q, m);
+            }
+            return;
+        }
+        for (long u = from; u < to; u++) {
+            final long i0 = Kernels.pieceBase(q, u);
+            span(a, i0, i0 + (1L << q), 1 << PIECE_LOG, m);
+        }
+    }
+
+    /** Pairs (i0 + k, i1 + k) for k below count, cut where either side crosses a chunk. */
+    private static void span(Amplitudes a, long i0, long i1, int count, double[] m) {
+        final int cl = a.chunkLog;
+        final long size = 1L << cl;
+        int k = 0;
+        while (k < count) {
+            final long j0 = i0 + k;
+            final long j1 = i1 + k;
+            final int room = (int) Math.min(count - k,
+                    Math.min(size - (j0 & a.chunkMask), size - (j1 & a.chunkMask)));
+            pairs(a.singles[(int) (j0 >>> cl)], (int) (j0 & a.chunkMask) << 1,
+                    a.singles[(int) (j1 >>> cl)], (int) (j1 & a.chunkMask) << 1, room, m);
+            k += room;
+        }
+    }
+
+    /** {@code count} neighbouring pairs from float offset {@code x0}. */
+    private static void flat(float[] psi, int x0, int count, double[] m) {
+        final double m00r = m[0], m00i = m[1], m01r = m[2], m01i = m[3];
+        final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
+        final int end = x0 + (count << 2);
+        for (int x = x0; x < end; x += 4) {
+            final double ar = psi[x], ai = psi[x + 1], br = psi[x + 2], bi = psi[x + 3];
+            psi[x] = (float) (m00r * ar - m00i * ai + m01r * br - m01i * bi);
+            psi[x + 1] = (float) (m00r * ai + m00i * ar + m01r * bi + m01i * br);
+            psi[x + 2] = (float) (m10r * ar - m10i * ai + m11r * br - m11i * bi);
+            psi[x + 3] = (float) (m10r * ai + m10i * ar + m11r * bi + m11i * br);
+        }
+    }
+
+    /** {@code count} pairs (u[uo + 2k], v[vo + 2k]). */
+    private static void pairs(float[] u, int uo, float[] v, int vo, int count, double[] m) {
+        final double m00r = m[0], m00i = m[1], m01r = m[2], m01i = m[3];
+        final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
+        final int n2 = count << 1;
+        for (int k = 0; k < n2; k += 2) {
+            final int x = uo + k;
+            final int y = vo + k;
+            final double ar = u[x], ai = u[x + 1], br = v[y], bi = v[y + 1];
+            u[x] = (float) (m00r * ar - m00i * ai + m01r * br - m01i * bi);
+            u[x + 1] = (float) (m00r * ai + m00i * ar + m01r * bi + m01i * br);
+            v[y] = (float) (m10r * ar - m10i * ai + m11r * br - m11i * bi);
+            v[y + 1] = (float) (m10r * ai + m10i * ar + m11r * bi + m11i * br);
+        }
+    }
+
+    /**
+     * Returns the 2x2 matrix of a lone uncontrolled single-qubit gate, or null when the gate is
+     * not one.
+     *
+     * @param op the gate
+     * @return the matrix (row-major, re/im interleaved), or null
+     */
+    static double[] matrix2(GateOp op) {
+        if (op.targets.length != 1 || op.controls.length != 0) {
+            return null;
+        }
+        switch (op.shape) {
+            case GateOp.DENSE:
+                return op.data;
+            case GateOp.DIAGONAL:
+                return new double[] {op.data[0], op.data[1], 0, 0, 0, 0, op.data[2], op.data[3]};
+            default:
+                double[] m = new double[8];
+                // Column j goes to row perm[j] with phase data[j].
+                for (int j = 0; j < 2; j++) {
+                    int row = op.perm[j];
+                    m[2 * (row * 2 + j)] = op.data[2 * j];
+                    m[2 * (row * 2 + j) + 1] = op.data[2 * j + 1];
+                }
+                return m;
+        }
+    }
+}
