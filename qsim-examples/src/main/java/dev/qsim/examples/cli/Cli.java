@@ -1,6 +1,7 @@
 package dev.qsim.examples.cli;
 
 import dev.qsim.Circuit;
+import dev.qsim.Precision;
 import dev.qsim.Simulator;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.NoiseModel;
@@ -211,9 +212,27 @@ public final class Cli implements Callable<Integer> {
                 description = "noise: each measured bit reads wrong with probability P"
                         + " (default ${DEFAULT-VALUE}: none)")
         double readoutError;
+        @Option(names = "--precision", defaultValue = "double",
+                description = "double or single: how amplitudes are stored; single halves the"
+                        + " memory (31 qubits in 16 GiB) at about seven digits (default"
+                        + " ${DEFAULT-VALUE}; noiseless runs only)")
+        String precision;
 
         @Override
         public Integer call() throws IOException {
+            final Precision storage;
+            if (precision.equals("double")) {
+                storage = Precision.DOUBLE;
+            } else if (precision.equals("single")) {
+                storage = Precision.SINGLE;
+            } else {
+                throw new IllegalArgumentException("--precision must be double or single but was '"
+                        + precision + "'");
+            }
+            if (storage == Precision.SINGLE && (depolarizing != 0 || readoutError != 0)) {
+                throw new IllegalArgumentException("--precision single applies to noiseless runs;"
+                        + " noisy runs (--depolarizing, --readout-error) are in double precision");
+            }
             if (shots < 1 || shots > MAX_SHOTS) {
                 throw new IllegalArgumentException("--shots must be from 1 to " + MAX_SHOTS
                         + " but was " + shots);
@@ -230,7 +249,8 @@ public final class Cli implements Callable<Integer> {
                 if (depolarizing != 0 || readoutError != 0) {
                     tally = noisyRun(c, depolarizing, readoutError, seed, threads, shots);
                 } else {
-                    tally = Simulator.seeded(seed).withThreads(threads).run(c, shots);
+                    tally = Simulator.seeded(seed).withThreads(threads).withPrecision(storage)
+                            .run(c, shots);
                 }
             } finally {
                 progress.close();

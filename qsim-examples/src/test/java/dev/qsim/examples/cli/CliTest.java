@@ -93,6 +93,28 @@ class CliTest {
     }
 
     @Test
+    void runInSinglePrecision() throws IOException {
+        // A Bell pair reads only 00 or 11 (Nielsen and Chuang 2010, sec. 1.3.6), whatever the
+        // storage; the tally equals the library's for the same seed and precision.
+        Run single = new Run("run", DEMO + "bell.qasm", "--shots", "400", "--seed", "3",
+                "--precision", "single", "--format", "csv");
+        assertEquals(0, single.code, single::toString);
+        Tally t = TallyFiles.read(single.out);
+        assertEquals(400, t.count("00") + t.count("11"), single::toString);
+        Circuit bell = QasmReader.read(Path.of(DEMO + "bell.qasm"));
+        assertEquals(Simulator.seeded(3).withPrecision(dev.qsim.Precision.SINGLE).run(bell, 400),
+                t);
+        Run bad = new Run("run", DEMO + "bell.qasm", "--precision", "half");
+        assertEquals(2, bad.code, bad::toString);
+        assertTrue(bad.err.contains("'half'") && bad.err.contains("double or single"),
+                bad::toString);
+        Run noisy = new Run("run", DEMO + "bell.qasm", "--precision", "single",
+                "--depolarizing", "0.1");
+        assertEquals(2, noisy.code, noisy::toString);
+        assertTrue(noisy.err.contains("noiseless"), noisy::toString);
+    }
+
+    @Test
     void runWritesAHistogramWithThePrediction() throws IOException {
         Path svg = dir.resolve("h.svg");
         Run r = new Run("run", DEMO + "ghz5.qasm", "--shots", "400", "--svg", svg.toString());
