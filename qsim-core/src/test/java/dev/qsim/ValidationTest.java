@@ -133,6 +133,32 @@ class ValidationTest {
     }
 
     @Test
+    void singlePrecisionStatesAreRefusedOnTheirOwnSize() {
+        // 36 qubits in single precision need 8 bytes an amplitude: 512 GiB (common practice:
+        // a float is 4 bytes, IEEE 754-2019 binary32).
+        IllegalStateException e = fails(IllegalStateException.class,
+                () -> StateVector.zero(36, Precision.SINGLE), "36-qubit state in single precision",
+                "549755813888 bytes", "-Xmx");
+        assertTrue(e.getMessage().contains("512.0 GiB"), e.getMessage());
+        fails(IllegalStateException.class, () -> Simulator.seeded(1)
+                .withPrecision(Precision.SINGLE).run(Circuit.builder(36).t(0).build(), 10),
+                "-Xmx");
+        fails(IndexOutOfBoundsException.class, () -> StateVector.basis(3, 8, Precision.SINGLE),
+                "8", "[0, 7]");
+        fails(IllegalArgumentException.class, () -> StateVector.zero(41, Precision.SINGLE),
+                "41");
+        fails(NullPointerException.class, () -> StateVector.zero(2).toPrecision(null),
+                "precision");
+        // A refused conversion leaves the state as it was.
+        StateVector s = StateVector.zero(2, Precision.SINGLE).apply(Circuit.builder(2).h(1)
+                .build());
+        String before = s.toString();
+        fails(NullPointerException.class, () -> s.toPrecision(null), "precision");
+        assertEquals(before, s.toString());
+        assertEquals(Precision.SINGLE, s.precision());
+    }
+
+    @Test
     void simulatorAndTallyRefuseBadInput() {
         Circuit c = Circuit.builder(2).h(0).measure().build();
         fails(IllegalArgumentException.class, () -> Simulator.seeded(1).run(c, 0), "shots");
