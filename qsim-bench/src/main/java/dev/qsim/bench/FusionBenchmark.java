@@ -19,9 +19,9 @@ import org.openjdk.jmh.annotations.Warmup;
 /**
  * Time of one run of the 20-layer circuit of {@link Workloads#layeredCircuit} (random rx, ry,
  * rz on every qubit, then a CZ or CNOT ladder) with {@code Simulator.stateAfter}, gate fusion on
- * or off, 1 or 2 threads, {@code n} = 20, 22, 24. Each run starts from a newly allocated
- * {@code |0...0>}, as every {@code stateAfter} call does. Double precision only: qsim-core has
- * no single-precision amplitudes yet.
+ * or off, 1 or 2 threads, amplitudes stored in {@code double} or {@code single} precision
+ * ({@code Simulator.withPrecision}), {@code n} = 20, 22, 24. Each run starts from a newly
+ * allocated {@code |0...0>} in that precision, as every {@code stateAfter} call does.
  */
 @BenchmarkMode(Mode.AverageTime)
 @OutputTimeUnit(TimeUnit.MILLISECONDS)
@@ -50,10 +50,14 @@ public class FusionBenchmark {
         @Param({"1", "2"})
         int threads;
 
+        /** Storage of the amplitudes: double (16 bytes each) or single (8 bytes each). */
+        @Param({"double", "single"})
+        String precision;
+
         /** The circuit. */
         Circuit circuit;
 
-        /** The simulator with the chosen fusion and threads. */
+        /** The simulator with the chosen fusion, threads and precision. */
         Simulator simulator;
 
         /** Creates the workload; JMH calls this and then sets the parameters. */
@@ -64,14 +68,15 @@ public class FusionBenchmark {
         /**
          * Builds the circuit and the simulator.
          *
-         * @throws IllegalArgumentException if a parameter is out of range
+         * @throws IllegalArgumentException if a parameter is out of range or the precision is
+         *     neither {@code double} nor {@code single}
          */
         @Setup
         public void setUp() {
             circuit = Workloads.layeredCircuit(n, Workloads.CIRCUIT_LAYERS,
                     Workloads.CIRCUIT_SEED);
             simulator = Simulator.seeded(Workloads.CIRCUIT_SEED).withThreads(threads)
-                    .withFusion(fusion);
+                    .withFusion(fusion).withPrecision(Workloads.precision(precision));
         }
     }
 

@@ -1,6 +1,7 @@
 package dev.qsim.bench;
 
 import dev.qsim.Circuit;
+import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import java.util.concurrent.TimeUnit;
 import org.openjdk.jmh.annotations.Benchmark;
@@ -19,11 +20,15 @@ import org.openjdk.jmh.annotations.Warmup;
  * Time of one gate of each kernel kind applied in place to a state of {@code n} qubits: the
  * kinds of {@link Workloads#kernelCircuit} ({@code dense}, {@code diagonal}, {@code
  * permutation}, {@code controlled}), target qubit {@code low} (0) or {@code high} (n - 1), 1 or 2
- * kernel threads, {@code n} = 20, 22, 24 (16, 64 and 256 MiB, beyond most last-level caches).
+ * kernel threads, amplitudes stored in {@code double} or {@code single} precision
+ * ({@link Precision}), {@code n} = 20, 22, 24 (16, 64 and 256 MiB in double precision, half that
+ * in single; beyond most last-level caches).
  *
  * <p>Each invocation applies a prebuilt one-gate circuit with {@code StateVector.apply(Circuit)},
- * which keeps the state normalised, and returns the state. Double precision only: qsim-core has
- * no single-precision amplitudes yet.
+ * which keeps the state normalised, and returns the state. The state is the seeded product state
+ * of {@link Workloads#productState(int, long, Precision)}, stored in the chosen precision; a
+ * single-precision gate is widened to double window by window, applied and rounded back by the
+ * core, so the pair of rows shows what halving the bytes per amplitude buys.
  */
 @BenchmarkMode(Mode.AverageTime)
 @OutputTimeUnit(TimeUnit.MICROSECONDS)
@@ -40,7 +45,7 @@ public class KernelBenchmark {
     /** The state and gate of one parameter combination; fields are not final. */
     @State(Scope.Benchmark)
     public static class Workload {
-        /** Qubit count: state of 2^n amplitudes, 16 bytes each. */
+        /** Qubit count: state of 2^n amplitudes, 16 bytes each (8 in single precision). */
         @Param({"20", "22", "24"})
         int n;
 
@@ -56,6 +61,10 @@ public class KernelBenchmark {
         @Param({"1", "2"})
         int threads;
 
+        /** Storage of the amplitudes: double (16 bytes each) or single (8 bytes each). */
+        @Param({"double", "single"})
+        String precision;
+
         /** The state the gate is applied to; changed in place by every invocation. */
         StateVector state;
 
@@ -68,15 +77,16 @@ public class KernelBenchmark {
         }
 
         /**
-         * Builds the seeded state of {@code n} qubits and the gate.
+         * Builds the seeded state of {@code n} qubits in the chosen precision, and the gate.
          *
          * @throws IllegalArgumentException if a parameter is not one of the allowed values
          * @throws IllegalStateException if the heap cannot hold the state
          */
         @Setup
         public void setUp() {
+            final Precision p = Workloads.precision(precision);
             gate = Workloads.kernelCircuit(kernel, n, Workloads.target(target, n));
-            state = Workloads.productState(n, Workloads.STATE_SEED).withThreads(threads);
+            state = Workloads.productState(n, Workloads.STATE_SEED, p).withThreads(threads);
         }
     }
 

@@ -1,6 +1,8 @@
 package dev.qsim.bench;
 
+import dev.qsim.Precision;
 import java.util.ArrayList;
+import java.util.EnumMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
@@ -9,13 +11,18 @@ import java.util.TreeMap;
 
 /**
  * Draws the scaling report as a self-contained SVG 1.1 document: time per gate (ns, logarithmic
- * y axis with a tick per decade) against qubit count, one polyline per kernel, and the bandwidth
- * floor as a dashed line. Hand-written markup, no dependencies.
+ * y axis with a tick per decade) against qubit count, one polyline per kernel and precision, and
+ * the bandwidth floor as a dashed line. Hand-written markup, no dependencies.
  *
  * <p>A kernel's point at {@code n} is its row for target {@code mid} if there is one, else the
- * arithmetic mean of {@code ns_per_gate} over the targets measured at that {@code n}. The floor
- * at {@code n} is the time to move {@code 2 * 16 * 2^n} bytes at the copy bandwidth measured at
- * that {@code n}: {@code 32 * 2^n / copy_gb_per_s} nanoseconds (GB/s is bytes per ns).
+ * arithmetic mean of {@code ns_per_gate} over the targets measured at that {@code n}. Rows in
+ * single precision make their own series, labelled {@code "dense (single)"} and so on, drawn
+ * in the colour of the kernel's double-precision series but dashed, with hollow markers. The
+ * floor at {@code n} is the time to move {@code 2 * 16 * 2^n} bytes at the copy bandwidth
+ * measured at that {@code n}: {@code 32 * 2^n / copy_gb_per_s} nanoseconds (GB/s is bytes per
+ * ns); when there are single-precision rows, a dotted second floor does the same for
+ * {@code 2 * 8 * 2^n} bytes. Only state-vector gate rows (one pass over {@code 2^n}
+ * amplitudes) set the floor; the noise rows' probe is measured at other sizes.
  */
 final class ScalingPlot {
     static final int WIDTH = 960;
@@ -31,6 +38,9 @@ final class ScalingPlot {
     };
 
     private static final String[] MARKERS = {"circle", "square", "diamond", "triangle"};
+
+    /** Dash pattern of a single-precision series. */
+    private static final String SINGLE_DASHES = "6 4";
 
     private ScalingPlot() {
     }
@@ -48,14 +58,28 @@ final class ScalingPlot {
             throw new IllegalArgumentException("there are no rows to plot");
         }
         final Map<String, TreeMap<Integer, Double>> series = series(rows);
-        final TreeMap<Integer, Double> floor = floor(rows);
+        // The kernel and precision of each series, and a colour and marker per kernel, so a
+        // kernel's single-precision series looks like its double one but dashed.
+        final Map<String, ScalingReport.Row> first = new LinkedHashMap<>();
+        final Map<String, Integer> style = new LinkedHashMap<>();
+        for (ScalingReport.Row r : rows) {
+            first.putIfAbsent(label(r), r);
+            style.putIfAbsent(r.kernel(), style.size());
+        }
+        final Map<Precision, TreeMap<Integer, Double>> floors = new EnumMap<>(Precision.class);
+        for (Precision p : Precision.values()) {
+            final TreeMap<Integer, Double> f = floor(rows, p);
+            if (!f.isEmpty()) {
+                floors.put(p, f);
+            }
+        }
 
         int minN = Integer.MAX_VALUE;
         int maxN = Integer.MIN_VALUE;
         double minY = Double.POSITIVE_INFINITY;
         double maxY = 0;
         final List<TreeMap<Integer, Double>> all = new ArrayList<>(series.values());
-        all.add(floor);
+        all.addAll(floors.values());
         for (TreeMap<Integer, Double> s : all) {
             for (Map.Entry<Integer, Double> e : s.entrySet()) {
                 minN = Math.min(minN, e.getKey());
@@ -124,32 +148,43 @@ final class ScalingPlot {
             sb.append(String.format(Locale.ROOT, "<text x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">"
                     + "%d</text>%n", x, BOTTOM + 22, n));
         }
+        final String bytes = floors.containsKey(Precision.SINGLE)
+                ? floors.containsKey(Precision.DOUBLE) ? "16 bytes each, 8 in single precision"
+                : "8 bytes each in single precision" : "16 bytes each";
         sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" text-anchor=\"middle\""
-                + " font-size=\"14\">qubits n (state of 2^n amplitudes, 16 bytes each)</text>%n",
-                (LEFT + RIGHT) / 2, BOTTOM + 50));
+                + " font-size=\"14\">qubits n (state of 2^n amplitudes, %s)</text>%n",
+                (LEFT + RIGHT) / 2, BOTTOM + 50, bytes));
         sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" text-anchor=\"middle\""
                 + " font-size=\"14\" transform=\"rotate(-90 %d %d)\">time per gate"
                 + " (log scale)</text>%n", 26, (TOP + BOTTOM) / 2, 26, (TOP + BOTTOM) / 2));
         sb.append("</g>\n");
 
-        // The floor, then one polyline with markers per kernel.
-        sb.append("<polyline class=\"floor\" fill=\"none\" stroke=\"#222222\" stroke-width=\"1.6\""
-                + " stroke-dasharray=\"7 5\" points=\"").append(points(floor, axes))
-                .append("\"/>\n");
-        int k = 0;
+        // The floors, then one polyline with markers per kernel and precision.
+        for (Map.Entry<Precision, TreeMap<Integer, Double>> e : floors.entrySet()) {
+            sb.append("<polyline class=\"floor\" data-precision=\"")
+                    .append(Workloads.precisionName(e.getKey())).append("\" fill=\"none\""
+                    + " stroke=\"#222222\" stroke-width=\"1.6\" stroke-dasharray=\"")
+                    .append(floorDashes(e.getKey())).append("\" points=\"")
+                    .append(points(e.getValue(), axes)).append("\"/>\n");
+        }
         for (Map.Entry<String, TreeMap<Integer, Double>> e : series.entrySet()) {
+            final ScalingReport.Row r = first.get(e.getKey());
+            final int k = style.get(r.kernel());
             final String colour = COLOURS[k % COLOURS.length];
-            sb.append("<g class=\"kernel\" fill=\"").append(colour).append("\" stroke=\"")
-                    .append(colour).append("\">\n");
-            sb.append("<polyline class=\"series\" data-kernel=\"").append(escape(e.getKey()))
-                    .append("\" fill=\"none\" stroke-width=\"2.2\" stroke-linejoin=\"round\""
-                    + " points=\"").append(points(e.getValue(), axes)).append("\"/>\n");
+            final boolean single = r.precision() == Precision.SINGLE;
+            sb.append("<g class=\"kernel\" fill=\"").append(single ? "#ffffff" : colour)
+                    .append("\" stroke=\"").append(colour).append("\">\n");
+            sb.append("<polyline class=\"series\" data-kernel=\"").append(escape(r.kernel()))
+                    .append("\" data-precision=\"").append(Workloads.precisionName(
+                    r.precision())).append("\" fill=\"none\" stroke-width=\"2.2\"")
+                    .append(single ? " stroke-dasharray=\"" + SINGLE_DASHES + "\"" : "")
+                    .append(" stroke-linejoin=\"round\" points=\"")
+                    .append(points(e.getValue(), axes)).append("\"/>\n");
             for (Map.Entry<Integer, Double> p : e.getValue().entrySet()) {
                 marker(sb, MARKERS[k % MARKERS.length], axes.x(p.getKey()),
                         axes.y(p.getValue()));
             }
             sb.append("</g>\n");
-            k++;
         }
 
         // Legend to the right of the plot.
@@ -158,46 +193,62 @@ final class ScalingPlot {
         int ly = TOP + 8;
         sb.append(String.format(Locale.ROOT, "<rect x=\"%d\" y=\"%d\" width=\"%d\" height=\"%d\""
                 + " fill=\"#fafafa\" stroke=\"#cccccc\"/>%n", lx - 10, ly - 12, WIDTH - lx - 6,
-                28 * (series.size() + 1) + 8));
-        k = 0;
+                28 * (series.size() + floors.size()) + 8));
         for (String name : series.keySet()) {
+            final ScalingReport.Row r = first.get(name);
+            final int k = style.get(r.kernel());
             final String colour = COLOURS[k % COLOURS.length];
-            line(sb, lx, ly + 6, lx + 30, ly + 6, colour, 2.2);
-            sb.append("<g fill=\"").append(colour).append("\" stroke=\"").append(colour)
-                    .append("\">");
+            final boolean single = r.precision() == Precision.SINGLE;
+            sb.append(String.format(Locale.ROOT, "<line x1=\"%d\" y1=\"%d\" x2=\"%d\""
+                    + " y2=\"%d\" stroke=\"%s\" stroke-width=\"2.2\"%s/>%n", lx, ly + 6,
+                    lx + 30, ly + 6, colour, single ? " stroke-dasharray=\"" + SINGLE_DASHES
+                    + "\"" : ""));
+            sb.append("<g fill=\"").append(single ? "#ffffff" : colour).append("\" stroke=\"")
+                    .append(colour).append("\">");
             marker(sb, MARKERS[k % MARKERS.length], lx + 15, ly + 6);
             sb.append("</g>\n");
             sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\">%s</text>%n", lx + 40,
                     ly + 10, escape(name)));
             ly += 28;
-            k++;
         }
-        sb.append(String.format(Locale.ROOT, "<line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\""
-                + " stroke=\"#222222\" stroke-width=\"1.6\" stroke-dasharray=\"7 5\"/>%n", lx,
-                ly + 6, lx + 30, ly + 6));
-        sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\">copy-bandwidth floor"
-                + "</text>%n", lx + 40, ly + 10));
+        for (Precision p : floors.keySet()) {
+            sb.append(String.format(Locale.ROOT, "<line x1=\"%d\" y1=\"%d\" x2=\"%d\""
+                    + " y2=\"%d\" stroke=\"#222222\" stroke-width=\"1.6\""
+                    + " stroke-dasharray=\"%s\"/>%n", lx, ly + 6, lx + 30, ly + 6,
+                    floorDashes(p)));
+            // The single floor's label is shorter so it stays inside the legend box.
+            sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\">%s</text>%n", lx + 40,
+                    ly + 10, p == Precision.SINGLE ? "bandwidth floor (single)"
+                    : "copy-bandwidth floor"));
+            ly += 28;
+        }
         sb.append("</g>\n");
+        final String floorBytes = floors.containsKey(Precision.SINGLE)
+                ? floors.containsKey(Precision.DOUBLE) ? "32 \u00b7 2^n bytes (16 \u00b7 2^n in"
+                + " single precision)" : "16 \u00b7 2^n bytes" : "32 \u00b7 2^n bytes";
         sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" font-size=\"11\""
-                + " fill=\"#666666\">floor: 32 \u00b7 2^n bytes at the copy GB/s measured at"
-                + " each n; points: target mid, else the mean over targets</text>%n", LEFT,
-                HEIGHT - 12));
+                + " fill=\"#666666\">floor: %s at the copy GB/s measured at each n; points:"
+                + " target mid, else the mean over targets</text>%n", LEFT, HEIGHT - 12,
+                floorBytes));
         sb.append("</svg>\n");
         return sb.toString();
     }
 
-    /** One point per n and kernel: the mid-target row, else the mean over targets. */
+    /**
+     * One point per n, kernel and precision: the mid-target row, else the mean over targets.
+     * Keyed by {@link #label}, in the order the series first appear in the rows.
+     */
     static Map<String, TreeMap<Integer, Double>> series(List<ScalingReport.Row> rows) {
         final Map<String, TreeMap<Integer, double[]>> sums = new LinkedHashMap<>();
         final Map<String, TreeMap<Integer, Double>> mids = new LinkedHashMap<>();
         for (ScalingReport.Row r : rows) {
-            final double[] s = sums.computeIfAbsent(r.kernel(), x -> new TreeMap<>())
+            final String label = label(r);
+            final double[] s = sums.computeIfAbsent(label, x -> new TreeMap<>())
                     .computeIfAbsent(r.n(), x -> new double[2]);
             s[0] += r.nanosPerGate();
             s[1] += 1;
             if (r.target().equals("mid")) {
-                mids.computeIfAbsent(r.kernel(), x -> new TreeMap<>()).put(r.n(),
-                        r.nanosPerGate());
+                mids.computeIfAbsent(label, x -> new TreeMap<>()).put(r.n(), r.nanosPerGate());
             }
         }
         final Map<String, TreeMap<Integer, Double>> out = new LinkedHashMap<>();
@@ -213,13 +264,32 @@ final class ScalingPlot {
         return out;
     }
 
-    /** The floor at each n: {@code 32 * 2^n / copy_gb_per_s} ns. */
-    static TreeMap<Integer, Double> floor(List<ScalingReport.Row> rows) {
+    /**
+     * The name of a row's series: the kernel in double precision, the kernel followed by
+     * {@code " (single)"} in single precision.
+     */
+    static String label(ScalingReport.Row r) {
+        return r.precision() == Precision.SINGLE ? r.kernel() + " (single)" : r.kernel();
+    }
+
+    /**
+     * The floor of one precision at each n where a state-vector gate row of that precision was
+     * measured: {@code 2 * B * 2^n / copy_gb_per_s} ns, {@code B} the bytes of one amplitude
+     * (16 in double precision, 8 in single). Empty if there are no such rows.
+     */
+    static TreeMap<Integer, Double> floor(List<ScalingReport.Row> rows, Precision precision) {
         final TreeMap<Integer, Double> floor = new TreeMap<>();
         for (ScalingReport.Row r : rows) {
-            floor.put(r.n(), ScalingReport.bytesMoved(r.n()) / r.copyGbps());
+            if (r.precision() == precision && r.vectorQubits() == r.n() && r.passes() == 1) {
+                floor.put(r.n(), ScalingReport.bytesMoved(r.n(), precision) / r.copyGbps());
+            }
         }
         return floor;
+    }
+
+    /** The dash pattern of a floor: dashed in double precision, dotted in single. */
+    private static String floorDashes(Precision precision) {
+        return precision == Precision.SINGLE ? "2 4" : "7 5";
     }
 
     /** Labels 10^d nanoseconds in the nearest unit: 1 ns, 10 ns, 100 ns, 1 µs, ... */

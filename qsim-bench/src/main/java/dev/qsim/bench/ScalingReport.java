@@ -4,6 +4,7 @@ import dev.qsim.Circuit;
 import dev.qsim.Simulator;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
+import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.DensityMatrix;
@@ -49,15 +50,20 @@ import java.util.TreeSet;
  * measurement is run once at the smallest size and discarded, so the just-in-time compiler has
  * settled. Run with {@code --help} for every option.
  *
+ * <p>With {@code --precision single} the kernels and the circuit run on states stored in single
+ * precision ({@link Precision#SINGLE}, 8 bytes per amplitude); with {@code --precision both}
+ * every kernel and circuit row is measured in double and then in single precision, in the same
+ * run and JVM, next to the same probe. The default is double precision only.
+ *
  * <p>Columns: {@code n}; {@code kernel}; {@code target}; {@code threads}; {@code ns_per_gate},
  * wall time of one gate (for circuit rows the time of one run divided by its gate count);
- * {@code ns_per_amplitude}, that divided by 2^n; {@code gb_per_s}, {@code 2 * 16 * 2^n} bytes
- * (every double-precision complex amplitude read once and written once) divided by the time,
+ * {@code ns_per_amplitude}, that divided by 2^n; {@code gb_per_s}, {@code 2 * B * 2^n} bytes
+ * (every complex amplitude of {@code B} bytes read once and written once: {@code B} = 16 in
+ * double precision, 8 in single, {@link Precision#bytesPerAmplitude()}) divided by the time,
  * GB = 10^9 bytes; {@code copy_gb_per_s} and {@code triad_gb_per_s}, the probe at the same
- * {@code n}; {@code fraction_of_copy} = {@code gb_per_s / copy_gb_per_s}. Progress and comment
- * lines (starting {@code #}) go to standard error, so the CSV stays clean.
- *
- * <p>Single-precision amplitudes do not exist in qsim-core yet, so every row is double precision.
+ * {@code n}; {@code fraction_of_copy} = {@code gb_per_s / copy_gb_per_s}; {@code precision},
+ * {@code double} or {@code single}. Progress and comment lines (starting {@code #}) go to
+ * standard error, so the CSV stays clean.
  *
  * <p>Exit status: 0 on success, 1 for bad arguments or an output file that cannot be written,
  * 2 if the heap cannot hold the largest state and the probe (the message says which {@code -Xmx}
@@ -66,10 +72,7 @@ import java.util.TreeSet;
 public final class ScalingReport {
     /** The CSV header, exactly. */
     static final String HEADER = "n,kernel,target,threads,ns_per_gate,ns_per_amplitude,gb_per_s,"
-            + "copy_gb_per_s,triad_gb_per_s,fraction_of_copy";
-
-    /** Bytes of one double-precision complex amplitude. */
-    static final long BYTES_PER_AMPLITUDE = 16;
+            + "copy_gb_per_s,triad_gb_per_s,fraction_of_copy,precision";
 
     /** Smallest density matrix timed by {@code --noise on}. */
     static final int NOISE_DM_MIN = 6;
@@ -101,6 +104,15 @@ public final class ScalingReport {
     /** Longest probe array: 2^30 doubles (8 GiB), within Java's array limit. */
     static final long MAX_PROBE_LENGTH = 1L << 30;
 
+    /**
+     * Heap kept free beside the largest state and an eighth of it (256 MiB, the margin the core
+     * adds to the {@code -Xmx} it suggests): for the small objects of a run (circuits, fused
+     * matrices, scratch windows) and for the gaps the collector leaves between the large arrays
+     * of the state and the probe. The eighth covers what the collector loses placing a state's
+     * large chunks in its regions.
+     */
+    static final long HEAP_ROOM = 256L << 20;
+
     /** Repetitions are chosen for this many times the target time, so one batch is enough. */
     static final double MARGIN = 1.25;
 
@@ -118,7 +130,7 @@ public final class ScalingReport {
 
     private static final List<String> OPTIONS = List.of("--min", "--max", "--threads",
             "--kernels", "--targets", "--millis", "--circuit", "--circuit-qubits", "--csv",
-            "--svg", "--noise", "--help");
+            "--svg", "--noise", "--precision", "--help");
 
     private static final List<String> TARGETS = List.of("low", "mid", "high", "all");
 
@@ -149,6 +161,10 @@ public final class ScalingReport {
                     + " depolarizing channel on a density matrix of " + NOISE_DM_MIN + ".."
                     + NOISE_DM_MAX + " qubits (up to --max), and one trajectory of a noisy GHZ"
                     + " chain at " + NOISE_TRAJECTORY_MIN + "..--max qubits",
+            "  --precision P        double, single or both (default double): amplitudes of 16"
+                    + " or 8 bytes;",
+            "                       both measures every kernel and circuit row in each"
+                    + " (noise rows: double only)",
             "  --csv FILE           write the CSV to FILE instead of standard output",
             "  --svg FILE           also draw time per gate against n, with the bandwidth floor",
             "  --help               print this and exit",
@@ -165,40 +181,65 @@ public final class ScalingReport {
      *     (empty when it is off)
      * @param csv the CSV file, or {@code null} for standard output
      * @param svg the SVG file, or {@code null} for none
+     * @param precisions the precisions to measure in: double, single, or double then single
      */
     record Options(int min, int max, int threads, List<String> kernels, List<String> targets,
             long millis, List<Integer> circuitQubits, Path csv, Path svg, boolean help,
-            boolean noise) {
+            boolean noise, List<Precision> precisions) {
+
+        /** Bytes of one amplitude in the widest precision measured: the largest state's. */
+        int widestBytesPerAmplitude() {
+            int widest = 0;
+            for (Precision p : precisions) {
+                widest = Math.max(widest, p.bytesPerAmplitude());
+            }
+            return widest;
+        }
     }
 
     /**
-     * One CSV row: a kernel (or a circuit run) at one size and target, with the probe's copy and
-     * triad bandwidths at the same size.
+     * One CSV row: a kernel (or a circuit run) at one size and target in one precision, with the
+     * probe's copy and triad bandwidths at the same size.
      */
     record Row(int n, String kernel, String target, int threads, double nanosPerGate,
-            double copyGbps, double triadGbps, int vectorQubits, int passes) {
+            double copyGbps, double triadGbps, int vectorQubits, int passes,
+            Precision precision) {
 
-        /** A row of a state-vector gate: one pass over 2^n amplitudes. */
+        /** A row of a double-precision state-vector gate: one pass over 2^n amplitudes. */
         Row(int n, String kernel, String target, int threads, double nanosPerGate,
                 double copyGbps, double triadGbps) {
-            this(n, kernel, target, threads, nanosPerGate, copyGbps, triadGbps, n, 1);
+            this(n, kernel, target, threads, nanosPerGate, copyGbps, triadGbps, Precision.DOUBLE);
+        }
+
+        /** A row of a state-vector gate in the given precision: one pass over 2^n amplitudes. */
+        Row(int n, String kernel, String target, int threads, double nanosPerGate,
+                double copyGbps, double triadGbps, Precision precision) {
+            this(n, kernel, target, threads, nanosPerGate, copyGbps, triadGbps, n, 1, precision);
+        }
+
+        /** A double-precision row over a vector of {@code vectorQubits}, {@code passes} times. */
+        Row(int n, String kernel, String target, int threads, double nanosPerGate,
+                double copyGbps, double triadGbps, int vectorQubits, int passes) {
+            this(n, kernel, target, threads, nanosPerGate, copyGbps, triadGbps, vectorQubits,
+                    passes, Precision.DOUBLE);
         }
 
         /**
-         * Bandwidth in GB/s: {@code passes * 2 * 16 * 2^vectorQubits} bytes per measured time
-         * (a density matrix of n qubits is streamed as a vector of 2n qubits).
+         * Bandwidth in GB/s: {@code passes * 2 * B * 2^vectorQubits} bytes per measured time,
+         * {@code B} the bytes of one amplitude in this row's precision (a density matrix of n
+         * qubits is streamed as a vector of 2n qubits).
          */
         double gbps() {
-            return passes * gigabytesPerSecond(vectorQubits, nanosPerGate);
+            return passes * gigabytesPerSecond(vectorQubits, precision, nanosPerGate);
         }
 
         /** Formats the row in the order of {@link #HEADER}. */
         String csv() {
             final double gbps = gbps();
-            return String.format(Locale.ROOT, "%d,%s,%s,%d,%.1f,%.5f,%.3f,%.3f,%.3f,%.3f", n,
+            return String.format(Locale.ROOT, "%d,%s,%s,%d,%.1f,%.5f,%.3f,%.3f,%.3f,%.3f,%s", n,
                     kernel, target, threads, nanosPerGate,
                     nanosPerGate / (double) (1L << vectorQubits), gbps, copyGbps, triadGbps,
-                    gbps / copyGbps);
+                    gbps / copyGbps, Workloads.precisionName(precision));
         }
     }
 
@@ -266,7 +307,8 @@ public final class ScalingReport {
             return 0;
         }
         final long maxHeap = Runtime.getRuntime().maxMemory();
-        final Optional<String> heap = heapProblem(options.max(), maxHeap);
+        final Optional<String> heap = heapProblem(options.max(), maxHeap,
+                options.widestBytesPerAmplitude());
         if (heap.isPresent()) {
             err.println("error: " + heap.get());
             return 2;
@@ -299,18 +341,20 @@ public final class ScalingReport {
 
     private static int report(Options options, long maxHeap, PrintStream csv, PrintStream err,
             boolean bar) {
-        final long probeLength = probeLength(options.max(), maxHeap);
+        final long probeLength = probeLength(options.max(), maxHeap,
+                options.widestBytesPerAmplitude());
         final String environment = "java " + System.getProperty("java.version") + " ("
                 + System.getProperty("java.vm.name") + "), cpu " + cpuModel();
         err.println("# qsim scaling report: kernels " + String.join(",", options.kernels())
-                + ", targets " + String.join(",", options.targets()) + ", threads "
+                + ", targets " + String.join(",", options.targets()) + ", precision "
+                + precisionNames(options.precisions()) + ", threads "
                 + options.threads() + ", at least " + options.millis() + " ms per measurement,"
                 + " fusion comparison at n = " + (options.circuitQubits().isEmpty() ? "none"
                 : options.circuitQubits().toString()));
         err.println("# " + environment + ", " + Runtime.getRuntime().availableProcessors()
                 + " processors, max heap " + formatBytes(maxHeap));
-        err.println("# bytes moved per gate = 2 * 16 * 2^n (read and write of each"
-                + " double-precision complex amplitude); GB = 1e9 bytes; double precision only");
+        err.println("# bytes moved per gate = 2 * B * 2^n (read and write of each complex"
+                + " amplitude of B bytes: 16 in double precision, 8 in single); GB = 1e9 bytes");
         err.println("# probe (McCalpin 1995): copy b[i] = a[i] moves 2 * 8 * len bytes, triad"
                 + " a[i] = b[i] + s * c[i] moves 3 * 8 * len, len = 2^(n+1) doubles");
         if (probeLength < Math.min(2L << options.max(), MAX_PROBE_LENGTH)) {
@@ -368,8 +412,9 @@ public final class ScalingReport {
         }
         if (options.svg() != null) {
             final String title = "qsim: time per gate against qubit count";
-            final String subtitle = environment + ", " + options.threads() + " thread(s), double"
-                    + " precision";
+            final String subtitle = environment + ", " + options.threads() + " thread(s), "
+                    + (options.precisions().size() > 1 ? "double and single"
+                    : Workloads.precisionName(options.precisions().get(0))) + " precision";
             try {
                 Files.writeString(options.svg(), ScalingPlot.svg(rows, title, subtitle),
                         StandardCharsets.UTF_8);
@@ -385,8 +430,18 @@ public final class ScalingReport {
     /** The number of reported measurements: probe, kernels and circuit runs. */
     static int steps(Options options) {
         final int sizes = options.max() - options.min() + 1;
-        return sizes * (2 + options.kernels().size() * options.targets().size())
-                + 2 * options.circuitQubits().size() + noiseSizes(options);
+        final int precisions = options.precisions().size();
+        return sizes * (2 + precisions * options.kernels().size() * options.targets().size())
+                + 2 * precisions * options.circuitQubits().size() + noiseSizes(options);
+    }
+
+    /** The precisions' names, comma separated: {@code double}, {@code single} or both. */
+    static String precisionNames(List<Precision> precisions) {
+        final List<String> names = new ArrayList<>();
+        for (Precision p : precisions) {
+            names.add(Workloads.precisionName(p));
+        }
+        return String.join(",", names);
     }
 
     /** The number of noise-engine measurements of {@code --noise on}. */
@@ -437,20 +492,40 @@ public final class ScalingReport {
             sink += probe.sample(len - 1);
 
             final List<Row> rows = new ArrayList<>();
-            StateVector state = Workloads.productState(n, Workloads.STATE_SEED)
+            final boolean circuit = warmUp ? !options.circuitQubits().isEmpty()
+                    : options.circuitQubits().contains(n);
+            for (Precision precision : options.precisions()) {
+                // Each call's state is unreachable once it returns, so only one state of this
+                // size is live at a time (see heapNeeded).
+                rows.addAll(kernels(n, precision, copyGbps, triadGbps, prefix, warmUp));
+                if (circuit) {
+                    rows.addAll(circuits(n, precision, copyGbps, triadGbps, prefix, warmUp));
+                }
+            }
+            return warmUp ? List.of() : rows;
+        }
+
+        /**
+         * Times every selected kernel at every selected target (only the first target with
+         * {@code warmUp}) on the seeded product state of {@code n} qubits in one precision.
+         */
+        private List<Row> kernels(int n, Precision precision, double copyGbps, double triadGbps,
+                String prefix, boolean warmUp) {
+            final String label = Workloads.precisionName(precision);
+            final List<Row> rows = new ArrayList<>();
+            final StateVector state = Workloads.productState(n, Workloads.STATE_SEED, precision)
                     .withThreads(options.threads());
             for (String kernel : options.kernels()) {
                 for (String target : options.targets()) {
                     final Circuit[] gates = gates(kernel, target, n);
-                    final StateVector s = state;
-                    progress.start("n=" + n + " " + kernel + " " + target);
-                    final Timing t = measure(r -> timeGates(s, gates, r), targetNanos);
+                    progress.start("n=" + n + " " + kernel + " " + target + " " + label);
+                    final Timing t = measure(r -> timeGates(state, gates, r), targetNanos);
                     final Row row = new Row(n, kernel, target, options.threads(), t.perRep(),
-                            copyGbps, triadGbps);
-                    progress.done(String.format(Locale.ROOT, "%sn=%d %s %s: %d repetitions in"
-                            + " %.3f s, %.1f ns per gate, %.3f GB/s, %.2f of copy", prefix, n,
-                            kernel, target, t.reps(), t.nanos() / 1e9, t.perRep(), row.gbps(),
-                            row.gbps() / copyGbps), !warmUp);
+                            copyGbps, triadGbps, precision);
+                    progress.done(String.format(Locale.ROOT, "%sn=%d %s %s (%s): %d repetitions"
+                            + " in %.3f s, %.1f ns per gate, %.3f GB/s, %.2f of copy", prefix, n,
+                            kernel, target, label, t.reps(), t.nanos() / 1e9, t.perRep(),
+                            row.gbps(), row.gbps() / copyGbps), !warmUp);
                     rows.add(row);
                     if (warmUp) {
                         break;
@@ -458,33 +533,40 @@ public final class ScalingReport {
                 }
             }
             sink += state.probability(0);
-            state = null; // the circuit runs allocate their own states
-            final boolean circuit = warmUp ? !options.circuitQubits().isEmpty()
-                    : options.circuitQubits().contains(n);
-            if (circuit) {
-                final Circuit c = Workloads.layeredCircuit(n, Workloads.CIRCUIT_LAYERS,
-                        Workloads.CIRCUIT_SEED);
-                final double[] perGate = new double[2];
-                for (int f = 0; f < 2; f++) {
-                    final boolean fused = f == 0;
-                    final String kernel = fused ? "circuit-fused" : "circuit-unfused";
-                    final Simulator sim = Simulator.seeded(Workloads.CIRCUIT_SEED)
-                            .withThreads(options.threads()).withFusion(fused);
-                    progress.start("n=" + n + " " + kernel);
-                    final Timing t = measure(r -> timeCircuit(sim, c, r), targetNanos);
-                    perGate[f] = t.perRep() / c.size();
-                    final Row row = new Row(n, kernel, "all", options.threads(), perGate[f],
-                            copyGbps, triadGbps);
-                    progress.done(String.format(Locale.ROOT, "%sn=%d %s: %d gates, %d runs in"
-                            + " %.3f s, %.1f ns per gate", prefix, n, kernel, c.size(),
-                            t.reps(), t.nanos() / 1e9, perGate[f]), !warmUp);
-                    rows.add(row);
-                }
-                progress.note(String.format(Locale.ROOT, "%sn=%d fusion speed-up: %.2fx"
-                        + " (unfused %.1f ns per gate, fused %.1f)", prefix, n,
-                        perGate[1] / perGate[0], perGate[1], perGate[0]));
+            return rows;
+        }
+
+        /**
+         * Times the layered circuit on {@code n} qubits with fusion on and then off, each run
+         * from a new {@code |0...0>} in one precision.
+         */
+        private List<Row> circuits(int n, Precision precision, double copyGbps,
+                double triadGbps, String prefix, boolean warmUp) {
+            final String label = Workloads.precisionName(precision);
+            final List<Row> rows = new ArrayList<>();
+            final Circuit c = Workloads.layeredCircuit(n, Workloads.CIRCUIT_LAYERS,
+                    Workloads.CIRCUIT_SEED);
+            final double[] perGate = new double[2];
+            for (int f = 0; f < 2; f++) {
+                final boolean fused = f == 0;
+                final String kernel = fused ? "circuit-fused" : "circuit-unfused";
+                final Simulator sim = Simulator.seeded(Workloads.CIRCUIT_SEED)
+                        .withThreads(options.threads()).withFusion(fused)
+                        .withPrecision(precision);
+                progress.start("n=" + n + " " + kernel + " " + label);
+                final Timing t = measure(r -> timeCircuit(sim, c, r), targetNanos);
+                perGate[f] = t.perRep() / c.size();
+                final Row row = new Row(n, kernel, "all", options.threads(), perGate[f],
+                        copyGbps, triadGbps, precision);
+                progress.done(String.format(Locale.ROOT, "%sn=%d %s (%s): %d gates, %d runs in"
+                        + " %.3f s, %.1f ns per gate", prefix, n, kernel, label, c.size(),
+                        t.reps(), t.nanos() / 1e9, perGate[f]), !warmUp);
+                rows.add(row);
             }
-            return warmUp ? List.of() : rows;
+            progress.note(String.format(Locale.ROOT, "%sn=%d fusion speed-up (%s): %.2fx"
+                    + " (unfused %.1f ns per gate, fused %.1f)", prefix, n, label,
+                    perGate[1] / perGate[0], perGate[1], perGate[0]));
+            return rows;
         }
 
         /**
@@ -626,6 +708,7 @@ public final class ScalingReport {
         long millis = 300;
         Boolean circuit = null;
         boolean noise = false;
+        List<Precision> precisions = List.of(Precision.DOUBLE);
         List<Integer> circuitQubits = null;
         String circuitQubitsText = null;
         Path csv = null;
@@ -695,6 +778,9 @@ public final class ScalingReport {
                     }
                     noise = value.equals("on");
                     break;
+                case "--precision":
+                    precisions = parsePrecisions(value);
+                    break;
                 case "--circuit-qubits":
                     circuitQubitsText = value;
                     circuitQubits = new ArrayList<>();
@@ -747,7 +833,27 @@ public final class ScalingReport {
             }
         }
         return new Options(min, max, threads, kernels, targets, millis, List.copyOf(sizes), csv,
-                svg, help, noise);
+                svg, help, noise, precisions);
+    }
+
+    /**
+     * Reads {@code --precision}: {@code double}, {@code single}, or {@code both} (double, then
+     * single).
+     *
+     * @throws IllegalArgumentException for any other value
+     */
+    static List<Precision> parsePrecisions(String value) {
+        switch (value) {
+            case "double":
+                return List.of(Precision.DOUBLE);
+            case "single":
+                return List.of(Precision.SINGLE);
+            case "both":
+                return List.of(Precision.DOUBLE, Precision.SINGLE);
+            default:
+                throw new IllegalArgumentException("--precision must be double, single or both"
+                        + " but was '" + value + "'");
+        }
     }
 
     private static long parseWhole(String name, String value, long low, long high) {
@@ -823,76 +929,115 @@ public final class ScalingReport {
         return (long) Math.max(1, Math.min(MAX_REPETITIONS, reps));
     }
 
-    /** Bytes of an {@code n}-qubit state: {@code 16 * 2^n}. */
+    /** Bytes of a double-precision {@code n}-qubit state: {@code 16 * 2^n}. */
     static long stateBytes(int n) {
-        return BYTES_PER_AMPLITUDE << n;
+        return stateBytes(n, Precision.DOUBLE.bytesPerAmplitude());
     }
 
     /**
-     * Bytes one single-qubit gate moves on {@code n} qubits: every amplitude is read once and
-     * written once, {@code 2 * 16 * 2^n} (common practice for the bandwidth of a streaming
-     * kernel: bytes read plus bytes written). The same count is used for every kernel kind, so
-     * {@code gb_per_s} is an effective rate: a kernel that touches less than the whole state
-     * (a controlled gate) can exceed the copy bandwidth.
+     * Bytes of an {@code n}-qubit state of {@code bytesPerAmplitude} bytes per amplitude (16 in
+     * double precision, 8 in single): {@code bytesPerAmplitude * 2^n}.
      */
+    static long stateBytes(int n, int bytesPerAmplitude) {
+        return (long) bytesPerAmplitude << n;
+    }
+
+    /** Bytes one gate moves on a double-precision {@code n}-qubit state: {@code 2 * 16 * 2^n}. */
     static long bytesMoved(int n) {
-        return 2 * stateBytes(n);
+        return bytesMoved(n, Precision.DOUBLE);
     }
 
     /**
-     * Returns the bandwidth in GB/s (10^9 bytes per second) of a gate on {@code n} qubits that
-     * took {@code nanosPerGate}: bytes moved per nanosecond, which is the same number.
+     * Bytes one single-qubit gate moves on {@code n} qubits stored in the given precision: every
+     * amplitude is read once and written once, {@code 2 * B * 2^n} with {@code B} =
+     * {@link Precision#bytesPerAmplitude()} (16 in double precision, 8 in single), common
+     * practice for the bandwidth of a streaming kernel: bytes read plus bytes written. The same
+     * count is used for every kernel kind, so {@code gb_per_s} is an effective rate: a kernel
+     * that touches less than the whole state (a controlled gate) can exceed the copy bandwidth.
+     * The double-precision scratch window a single-precision gate is worked on in stays in the
+     * cache and is not counted.
+     */
+    static long bytesMoved(int n, Precision precision) {
+        return 2 * stateBytes(n, precision.bytesPerAmplitude());
+    }
+
+    /**
+     * Returns the bandwidth in GB/s (10^9 bytes per second) of a gate on a double-precision
+     * state of {@code n} qubits that took {@code nanosPerGate}.
      */
     static double gigabytesPerSecond(int n, double nanosPerGate) {
-        return bytesMoved(n) / nanosPerGate;
+        return gigabytesPerSecond(n, Precision.DOUBLE, nanosPerGate);
     }
 
     /**
-     * Heap the report needs at {@code --max maxQubits} with probe arrays of {@code probeLength}
-     * doubles: twice the largest state (it is built from a half-size state; a circuit run's new
-     * state may meet the previous one not yet collected) plus three probe arrays.
+     * Returns the bandwidth in GB/s (10^9 bytes per second) of a gate on {@code n} qubits stored
+     * in the given precision that took {@code nanosPerGate}: bytes moved per nanosecond, which is
+     * the same number.
      */
-    static long heapNeeded(int maxQubits, long probeLength) {
-        return 2 * stateBytes(maxQubits) + 3 * Double.BYTES * probeLength;
+    static double gigabytesPerSecond(int n, Precision precision, double nanosPerGate) {
+        return bytesMoved(n, precision) / nanosPerGate;
     }
 
     /**
-     * Returns the length of the probe arrays: {@code 2^(max+1)} doubles (the state's bytes), at
-     * most {@link #MAX_PROBE_LENGTH}; if the heap cannot hold that next to the state, the
-     * longest power of two that fits, but not below {@code min(2^(max+1), MIN_PROBE_LENGTH)};
-     * or -1 if even that does not fit.
+     * Heap the report needs at {@code --max maxQubits} with amplitudes of
+     * {@code bytesPerAmplitude} bytes and probe arrays of {@code probeLength} doubles: the
+     * largest state, an eighth of it plus {@link #HEAP_ROOM} of room, and three probe arrays.
+     * One state at a time is enough: the state is built with one large allocation
+     * ({@link Workloads#productState(int, long, Precision)}), each size's states are dropped
+     * before the next are made, and the core runs the collector before it refuses a new state,
+     * so a circuit run's new state takes the place of the previous, unreachable one.
      */
-    static long probeLength(int maxQubits, long maxHeapBytes) {
+    static long heapNeeded(int maxQubits, long probeLength, int bytesPerAmplitude) {
+        final long state = stateBytes(maxQubits, bytesPerAmplitude);
+        return state + state / 8 + HEAP_ROOM + 3 * Double.BYTES * probeLength;
+    }
+
+    /**
+     * Returns the length of the probe arrays: {@code 2^(max+1)} doubles (the bytes of the
+     * double-precision state), at most {@link #MAX_PROBE_LENGTH}; if the heap cannot hold that
+     * next to the state of {@code bytesPerAmplitude} bytes per amplitude, the longest power of two
+     * that fits, but not below {@code min(2^(max+1), MIN_PROBE_LENGTH)}; or -1 if even that does
+     * not fit.
+     */
+    static long probeLength(int maxQubits, long maxHeapBytes, int bytesPerAmplitude) {
         final long full = Math.min(2L << maxQubits, MAX_PROBE_LENGTH);
         final long least = Math.min(full, MIN_PROBE_LENGTH);
         long len = full;
-        while (len > least && heapNeeded(maxQubits, len) > maxHeapBytes) {
+        while (len > least && heapNeeded(maxQubits, len, bytesPerAmplitude) > maxHeapBytes) {
             len >>= 1;
         }
-        return heapNeeded(maxQubits, len) <= maxHeapBytes ? len : -1;
+        return heapNeeded(maxQubits, len, bytesPerAmplitude) <= maxHeapBytes ? len : -1;
     }
 
     /**
-     * Checks the heap can hold the largest state while it is built and the probe arrays (shorter
+     * Checks the heap can hold the largest state, of {@code bytesPerAmplitude} bytes per
+     * amplitude (16 in double precision, 8 in single), with room, and the probe arrays (shorter
      * ones if need be, see {@link #probeLength}).
      *
      * @return empty if it can, otherwise a message with the bytes needed, the heap maximum and
      *     the {@code -Xmx} that would do
      */
-    static Optional<String> heapProblem(int maxQubits, long maxHeapBytes) {
-        if (probeLength(maxQubits, maxHeapBytes) > 0) {
+    static Optional<String> heapProblem(int maxQubits, long maxHeapBytes, int bytesPerAmplitude) {
+        if (probeLength(maxQubits, maxHeapBytes, bytesPerAmplitude) > 0) {
             return Optional.empty();
         }
         final long full = Math.min(2L << maxQubits, MAX_PROBE_LENGTH);
         final long least = Math.min(full, MIN_PROBE_LENGTH);
-        final long needed = heapNeeded(maxQubits, full);
+        final long state = stateBytes(maxQubits, bytesPerAmplitude);
+        final long needed = heapNeeded(maxQubits, full, bytesPerAmplitude);
         final long suggestGib = (needed + GIB - 1) / GIB + 1;
-        return Optional.of("a " + maxQubits + "-qubit state needs " + formatBytes(stateBytes(
-                maxQubits)) + " (" + formatBytes(2 * stateBytes(maxQubits)) + " while it is"
-                + " built) and the bandwidth probe 3 x " + formatBytes(8 * full) + " (3 x "
-                + formatBytes(8 * least) + " at least), but the maximum heap is "
-                + formatBytes(maxHeapBytes) + "; rerun with java -Xmx" + suggestGib
-                + "g, or lower --max");
+        final int single = Precision.SINGLE.bytesPerAmplitude();
+        final String precision = bytesPerAmplitude == single ? "single" : "double";
+        final String alternative = bytesPerAmplitude > single
+                && probeLength(maxQubits, maxHeapBytes, single) > 0
+                ? ", lower --max, or measure in single precision only (--precision single fits)"
+                : ", or lower --max";
+        return Optional.of("a " + maxQubits + "-qubit state in " + precision + " precision"
+                + " needs " + formatBytes(state) + " (" + formatBytes(state + state / 8
+                + HEAP_ROOM) + " with room for the collector) and the bandwidth probe 3 x "
+                + formatBytes(8 * full) + " (3 x " + formatBytes(8 * least) + " at least), but"
+                + " the maximum heap is " + formatBytes(maxHeapBytes) + "; rerun with java -Xmx"
+                + suggestGib + "g" + alternative);
     }
 
     /** Formats a byte count in MiB below 1 GiB, else in GiB, one decimal. */

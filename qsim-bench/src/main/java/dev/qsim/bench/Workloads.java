@@ -3,8 +3,10 @@ package dev.qsim.bench;
 import dev.qsim.Circuit;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
+import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import java.util.List;
+import java.util.Objects;
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 
@@ -23,6 +25,9 @@ final class Workloads {
     /** Kernel kinds accepted by {@link #kernelGate(String)}, in the order shown in messages. */
     static final List<String> KERNEL_NAMES = List.of("dense", "diagonal", "permutation",
             "controlled");
+
+    /** Precision names accepted by {@link #precision(String)}, in the order shown in messages. */
+    static final List<String> PRECISION_NAMES = List.of("double", "single");
 
     /** Seed of the random single-qubit states whose tensor product is the benchmark state. */
     static final long STATE_SEED = 20_240_611L;
@@ -88,6 +93,29 @@ final class Workloads {
                 throw new IllegalArgumentException("target '" + name + "' is not known; allowed: "
                         + String.join(", ", TARGET_NAMES));
         }
+    }
+
+    /**
+     * Returns the storage precision of the given name: {@code double} is
+     * {@link Precision#DOUBLE}, {@code single} is {@link Precision#SINGLE}.
+     *
+     * @throws IllegalArgumentException if the name is not one of {@link #PRECISION_NAMES}
+     */
+    static Precision precision(String name) {
+        switch (name) {
+            case "double":
+                return Precision.DOUBLE;
+            case "single":
+                return Precision.SINGLE;
+            default:
+                throw new IllegalArgumentException("precision '" + name + "' is not known;"
+                        + " allowed: " + String.join(", ", PRECISION_NAMES));
+        }
+    }
+
+    /** Returns the name of a precision as {@link #precision(String)} reads it. */
+    static String precisionName(Precision precision) {
+        return precision == Precision.SINGLE ? "single" : "double";
     }
 
     /**
@@ -199,19 +227,63 @@ final class Workloads {
     }
 
     /**
-     * Returns a normalised {@code n}-qubit product state whose amplitudes are all nonzero and
-     * complex: qubit {@code k} is {@code rz(b_k) ry(a_k)|0>} with angles drawn from a generator
-     * seeded with {@code seed}, angles {@code a_k} in [0.5, 2.5] so no amplitude is tiny.
-     * Built by tensor products, so it costs O(2^n) rather than n passes over the state.
+     * Returns a normalised {@code n}-qubit product state in double precision; the same as
+     * {@link #productState(int, long, Precision) productState(n, seed, Precision.DOUBLE)}.
      *
+     * @throws IllegalArgumentException if {@code n} is not in [1, 40]
      * @throws IllegalStateException from the core if the heap cannot hold the state
      */
     static StateVector productState(int n, long seed) {
+        return productState(n, seed, Precision.DOUBLE);
+    }
+
+    /**
+     * Returns a normalised {@code n}-qubit product state whose amplitudes are all nonzero and
+     * complex, stored in the given precision: qubit {@code k} is {@code rz(b_k) ry(a_k)|0>} with
+     * angles drawn from a generator seeded with {@code seed} (qubit 0 first), angles {@code a_k}
+     * in [0.5, 2.5] so no amplitude is tiny.
+     *
+     * <p>The low {@code ceil(n/2)} qubits and the high {@code floor(n/2)} qubits are each built
+     * by tensor products in double precision (at most 2^20 amplitudes up to 40 qubits), and one
+     * last tensor product of the two makes the state. So the full-size state is the only large
+     * allocation: the heap needs the state's bytes plus a little, never a second full or
+     * half-size state. In single precision the low half is rounded to {@code float} first, so
+     * the product is stored in single precision (each part of a single-precision amplitude is
+     * the {@code float} nearest to a product of two rounded factors).
+     *
+     * @throws IllegalArgumentException if {@code n} is not in [1, 40]
+     * @throws NullPointerException if {@code precision} is null
+     * @throws IllegalStateException from the core if the heap cannot hold the state
+     */
+    static StateVector productState(int n, long seed, Precision precision) {
+        Objects.requireNonNull(precision, "precision");
+        if (n < 1 || n > StateVector.MAX_QUBITS) {
+            throw new IllegalArgumentException("qubit count must be in [1, "
+                    + StateVector.MAX_QUBITS + "] but was " + n);
+        }
         final UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(seed);
-        StateVector state = oneQubit(rng);
-        for (int k = 1; k < n; k++) {
-            // The new factor takes the high qubit k; the state built so far keeps qubits 0..k-1.
-            state = oneQubit(rng).tensor(state);
+        final StateVector[] factors = new StateVector[n];
+        for (int k = 0; k < n; k++) {
+            factors[k] = oneQubit(rng);
+        }
+        final int low = (n + 1) / 2;
+        StateVector lowPart = product(factors, 0, low);
+        if (precision == Precision.SINGLE) {
+            lowPart = lowPart.toPrecision(Precision.SINGLE);
+        }
+        if (low == n) {
+            return lowPart;
+        }
+        // The high factor takes qubits low..n-1; the low part keeps qubits 0..low-1.
+        return product(factors, low, n).tensor(lowPart);
+    }
+
+    /** The tensor product of {@code factors[from..to)}, factor {@code from} on the lowest qubit. */
+    private static StateVector product(StateVector[] factors, int from, int to) {
+        StateVector state = factors[from];
+        for (int k = from + 1; k < to; k++) {
+            // The new factor takes the next qubit up; the product so far keeps the lower ones.
+            state = factors[k].tensor(state);
         }
         return state;
     }

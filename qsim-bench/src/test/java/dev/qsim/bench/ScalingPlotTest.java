@@ -4,6 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import dev.qsim.Precision;
 import java.io.ByteArrayInputStream;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
@@ -58,10 +59,68 @@ class ScalingPlotTest {
     void floorIsTheCopyTimeOfTheGateBytes() {
         // 32 * 2^10 bytes at 40 GB/s (= 40 bytes/ns) is 819.2 ns; 32 * 2^14 at 12 is
         // 43690.666... ns (exact arithmetic).
-        TreeMap<Integer, Double> floor = ScalingPlot.floor(rows());
+        TreeMap<Integer, Double> floor = ScalingPlot.floor(rows(), Precision.DOUBLE);
         assertEquals(819.2, floor.get(10), 1e-9);
         assertEquals(32.0 * 16384 / 12.0, floor.get(14), 1e-9);
         assertEquals(5, floor.size());
+        // No single-precision rows, no single-precision floor.
+        assertTrue(ScalingPlot.floor(rows(), Precision.SINGLE).isEmpty());
+    }
+
+    @Test
+    void singlePrecisionRowsMakeTheirOwnDashedSeriesAndFloor() throws Exception {
+        List<ScalingReport.Row> rows = new ArrayList<>(rows());
+        for (int n = 12; n <= 14; n++) {
+            rows.add(new ScalingReport.Row(n, "dense", "mid", 2, 3.0 * (1 << n), 12.0, 10.8,
+                Precision.SINGLE));
+        }
+        // A density-matrix row (a 2n-qubit vector, two passes) sets no floor point.
+        rows.add(new ScalingReport.Row(9, "density-matrix", "mid", 2, 1e6, 30.0, 27.0, 18, 2));
+        Map<String, TreeMap<Integer, Double>> series = ScalingPlot.series(rows);
+        assertEquals(List.of("dense", "diagonal", "circuit-fused", "dense (single)",
+            "density-matrix"), new ArrayList<>(series.keySet()));
+        assertEquals(3.0 * 4096, series.get("dense (single)").get(12), 0.0);
+        // The double series is untouched by the single rows: 1.5 * 4 * 2^12.
+        assertEquals(1.5 * 4 * 4096, series.get("dense").get(12), 0.0);
+        // Single floor: 2 * 8 * 2^12 bytes at 12 GB/s = 65536 / 12 ns, half the double floor
+        // (8-byte amplitudes: two 4-byte floats, IEEE 754-2019 sec. 3.6; exact arithmetic).
+        TreeMap<Integer, Double> single = ScalingPlot.floor(rows, Precision.SINGLE);
+        assertEquals(List.of(12, 13, 14), new ArrayList<>(single.keySet()));
+        assertEquals(16.0 * 4096 / 12.0, single.get(12), 1e-9);
+        assertEquals(ScalingPlot.floor(rows, Precision.DOUBLE).get(14) / 2, single.get(14),
+            1e-9);
+        assertEquals(List.of(10, 11, 12, 13, 14),
+            new ArrayList<>(ScalingPlot.floor(rows, Precision.DOUBLE).keySet()));
+
+        Document doc = parse(ScalingPlot.svg(rows, "t", "s"));
+        NodeList polylines = doc.getElementsByTagName("polyline");
+        String denseDoubleColour = null;
+        String denseSingleColour = null;
+        List<String> floors = new ArrayList<>();
+        for (int i = 0; i < polylines.getLength(); i++) {
+            Element p = (Element) polylines.item(i);
+            Element group = (Element) p.getParentNode();
+            if (p.getAttribute("class").equals("floor")) {
+                floors.add(p.getAttribute("data-precision") + " "
+                    + p.getAttribute("stroke-dasharray"));
+            } else if (p.getAttribute("data-kernel").equals("dense")) {
+                boolean dashed = p.getAttribute("data-precision").equals("single");
+                assertEquals(dashed, p.hasAttribute("stroke-dasharray"));
+                if (dashed) {
+                    denseSingleColour = group.getAttribute("stroke");
+                    // Hollow markers: white fill.
+                    assertEquals("#ffffff", group.getAttribute("fill"));
+                } else {
+                    denseDoubleColour = group.getAttribute("stroke");
+                }
+            }
+        }
+        assertEquals(List.of("double 7 5", "single 2 4"), floors);
+        assertEquals(denseDoubleColour, denseSingleColour);
+        String text = doc.getDocumentElement().getTextContent();
+        assertTrue(text.contains("dense (single)"), text);
+        assertTrue(text.contains("bandwidth floor (single)"), text);
+        assertTrue(text.contains("16 bytes each, 8 in single precision"), text);
     }
 
     @Test

@@ -6,6 +6,7 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import dev.qsim.Precision;
 import java.io.ByteArrayOutputStream;
 import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
@@ -36,7 +37,8 @@ class ScalingReportTest {
     void defaultsWhenNoOptions() {
         ScalingReport.Options o = ScalingReport.parse(new String[0], 3);
         assertEquals(new ScalingReport.Options(10, 26, 3, KERNELS, THREE, 300,
-            List.of(20, 21, 22, 23, 24, 25, 26), null, null, false, false), o);
+            List.of(20, 21, 22, 23, 24, 25, 26), null, null, false, false,
+            List.of(Precision.DOUBLE)), o);
         // The fusion comparison starts at n = 20 by default, so a small range has none.
         assertEquals(List.of(), ScalingReport.parse(new String[] {"--max", "19"}, 1)
             .circuitQubits());
@@ -47,10 +49,10 @@ class ScalingReportTest {
         ScalingReport.Options o = ScalingReport.parse(new String[] {"--min", "4", "--max=7",
             "--threads", "2", "--kernels=diagonal,dense", "--targets", "all,low", "--millis",
             "15", "--circuit", "on", "--circuit-qubits=7,5", "--csv", "a.csv", "--svg=b.svg",
-            "--noise", "on"}, 1);
+            "--noise", "on", "--precision=both"}, 1);
         assertEquals(new ScalingReport.Options(4, 7, 2, List.of("diagonal", "dense"),
             List.of("all", "low"), 15, List.of(5, 7), Path.of("a.csv"), Path.of("b.svg"), false,
-            true), o);
+            true, List.of(Precision.DOUBLE, Precision.SINGLE)), o);
         assertTrue(ScalingReport.parse(new String[] {"--help"}, 1).help());
         assertEquals(List.of(), ScalingReport.parse(new String[] {"--max", "22", "--circuit",
             "off"}, 1).circuitQubits());
@@ -89,6 +91,13 @@ class ScalingReportTest {
         "--csv x --svg x           | --csv and --svg name the same file 'x'",
         "--min 4 --min 5           | option --min is given twice",
         "--help=yes                | option --help takes no value but got 'yes'",
+        "--precision float         | --precision must be double, single or both but was 'float'",
+        "--precision Single        | --precision must be double, single or both but was 'Single'",
+        "--precision=              | --precision must be double, single or both but was ''",
+        "--precision double,single | --precision must be double, single or both but was"
+            + " 'double,single'",
+        "--precision               | option --precision needs a value",
+        "--precision single --precision both | option --precision is given twice",
     })
     void badOptionsAreNamed(String args, String expected) {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
@@ -134,48 +143,99 @@ class ScalingReportTest {
         // The probe over 2^(n+1) doubles copies exactly the bytes a gate moves (McCalpin 1995:
         // copy counts 2 * 8 bytes per element).
         assertEquals(ScalingReport.bytesMoved(20), BandwidthProbe.copyBytes(2L << 20));
+        // Single precision: a float is 4 bytes and a double 8 (IEEE 754-2019, sec. 3.6, binary32
+        // and binary64), so a complex amplitude is 8 bytes instead of 16 and a gate moves
+        // 2 * 8 * 2^20 = 16777216 bytes, half the double count (common practice, as above).
+        assertEquals(16_777_216L, ScalingReport.bytesMoved(20, Precision.SINGLE));
+        assertEquals(ScalingReport.bytesMoved(20), ScalingReport.bytesMoved(20, Precision.DOUBLE));
+        assertEquals(8L << 31, ScalingReport.stateBytes(31, Precision.SINGLE.bytesPerAmplitude()));
+        assertEquals(16.777216, ScalingReport.gigabytesPerSecond(20, Precision.SINGLE,
+            1_000_000.0), 0.0);
     }
 
     @Test
     void rowFormat() {
         // 1e6 ns / 2^20 = 0.95367431640625 ns per amplitude; 33.554432 GB/s (see above);
         // 33.554432 / 40 = 0.8388608 of copy.
-        assertEquals("20,dense,mid,2,1000000.0,0.95367,33.554,40.000,30.000,0.839",
+        assertEquals("20,dense,mid,2,1000000.0,0.95367,33.554,40.000,30.000,0.839,double",
             new ScalingReport.Row(20, "dense", "mid", 2, 1_000_000.0, 40.0, 30.0).csv());
         // 512 B / 80 ns = 6.4 GB/s; 6.4 / 3.2 = 2.
-        assertEquals("4,circuit-fused,all,1,80.0,5.00000,6.400,3.200,1.000,2.000",
+        assertEquals("4,circuit-fused,all,1,80.0,5.00000,6.400,3.200,1.000,2.000,double",
             new ScalingReport.Row(4, "circuit-fused", "all", 1, 80.0, 3.2, 1.0).csv());
+        // Single precision, 8 bytes per amplitude (IEEE 754-2019, sec. 3.6: two 4-byte floats):
+        // 2 * 8 * 2^20 B / 1e6 ns = 16.777216 GB/s, half the double figure above; 16.777216 / 40
+        // = 0.4194304 of copy. Time per gate and per amplitude are as measured.
+        assertEquals("20,dense,mid,2,1000000.0,0.95367,16.777,40.000,30.000,0.419,single",
+            new ScalingReport.Row(20, "dense", "mid", 2, 1_000_000.0, 40.0, 30.0,
+                Precision.SINGLE).csv());
     }
 
     @Test
     void probeLengthFitsTheHeap() {
         long gib = 1L << 30;
-        // Exact arithmetic on heapNeeded = 2 * 16 * 2^max + 3 * 8 * len.
-        assertEquals(2 * (16L << 26) + 3 * 8 * (1L << 27), ScalingReport.heapNeeded(26, 1L << 27));
-        // n = 24: 512 MiB + 3 * 256 MiB fit in 4 GiB, full length 2^25.
-        assertEquals(1L << 25, ScalingReport.probeLength(24, 4 * gib));
-        // n = 26 in 4 GiB: 2 GiB + 3 GiB is too much; 2 GiB + 1.5 GiB fits.
-        assertEquals(1L << 26, ScalingReport.probeLength(26, 4 * gib));
-        // In 2.5 GiB: 2 + 0.75 does not fit, 2 + 0.375 does, and 2^24 is the floor.
-        assertEquals(1L << 24, ScalingReport.probeLength(26, 5 * gib / 2));
-        assertEquals(-1, ScalingReport.probeLength(26, 2 * gib));
-        // Small states are never shortened: 2^11 doubles at n = 10.
-        assertEquals(1L << 11, ScalingReport.probeLength(10, 1L << 20));
-        assertEquals(-1, ScalingReport.probeLength(10, 50_000));
+        long mib = 1L << 20;
+        // Exact arithmetic on heapNeeded = B * 2^max * 9 / 8 + 256 MiB + 3 * 8 * len:
+        // 1024 + 128 + 256 + 3072 MiB.
+        assertEquals(4480 * mib, ScalingReport.heapNeeded(26, 1L << 27, 16));
+        // n = 24: 256 + 32 + 256 + 3 * 256 MiB fit in 4 GiB, full length 2^25.
+        assertEquals(1L << 25, ScalingReport.probeLength(24, 4 * gib, 16));
+        // n = 26 in 4 GiB: 1408 + 3072 MiB is too much; 1408 + 1536 fits.
+        assertEquals(1L << 26, ScalingReport.probeLength(26, 4 * gib, 16));
+        // In 2 GiB: 1408 + 768 does not fit, 1408 + 384 does, and 2^24 is the floor.
+        assertEquals(1L << 24, ScalingReport.probeLength(26, 2 * gib, 16));
+        assertEquals(1L << 24, ScalingReport.probeLength(26, 1792 * mib, 16));
+        assertEquals(-1, ScalingReport.probeLength(26, 1791 * mib, 16));
+        // Single precision needs half the state (8 bytes per amplitude, IEEE 754-2019 sec. 3.6:
+        // two 4-byte floats): 512 + 64 + 256 + 384 MiB.
+        assertEquals(1216 * mib, ScalingReport.heapNeeded(26, 1L << 24, 8));
+        assertEquals(1L << 24, ScalingReport.probeLength(26, 1216 * mib, 8));
+        assertEquals(-1, ScalingReport.probeLength(26, 1215 * mib, 8));
+        // Small states are never shortened: 2^11 doubles at n = 10; the 256 MiB of room do not
+        // fit in a 256 MiB heap next to the state.
+        assertEquals(1L << 11, ScalingReport.probeLength(10, 512 * mib, 16));
+        assertEquals(-1, ScalingReport.probeLength(10, 256 * mib, 16));
     }
 
     @Test
     void heapCheck() {
-        assertEquals(Optional.empty(), ScalingReport.heapProblem(24, 4L << 30));
-        // 16 * 2^26 B = 1 GiB, twice while built; probe 3 x 1 GiB; 5 GiB + 1 GiB of room.
-        String message = ScalingReport.heapProblem(26, 2L << 30).orElseThrow();
+        assertEquals(Optional.empty(), ScalingReport.heapProblem(24, 4L << 30, 16));
+        // 16 * 2^26 B = 1 GiB; with an eighth and 256 MiB, 1408 MiB; probe 3 x 1 GiB; 4480 MiB
+        // round up to 5 GiB, plus 1 GiB of room. In 1.5 GiB even the shortest probe (384 MiB)
+        // does not fit beside 1408 MiB, but single precision (1216 MiB, see above) does.
+        String message = ScalingReport.heapProblem(26, 3L << 29, 16).orElseThrow();
         assertAll(
-            () -> assertTrue(message.contains("a 26-qubit state needs 1.0 GiB"), message),
-            () -> assertTrue(message.contains("2.0 GiB while it is built"), message),
+            () -> assertTrue(message.contains("a 26-qubit state in double precision needs 1.0"
+                + " GiB"), message),
+            () -> assertTrue(message.contains("1.4 GiB with room for the collector"), message),
             () -> assertTrue(message.contains("the bandwidth probe 3 x 1.0 GiB (3 x 128.0 MiB"
                 + " at least)"), message),
-            () -> assertTrue(message.contains("maximum heap is 2.0 GiB"), message),
-            () -> assertTrue(message.contains("-Xmx6g"), message));
+            () -> assertTrue(message.contains("maximum heap is 1.5 GiB"), message),
+            () -> assertTrue(message.contains("-Xmx6g"), message),
+            () -> assertTrue(message.contains("--precision single fits"), message));
+        // In 1 GiB single precision does not fit either, and is not offered.
+        String small = ScalingReport.heapProblem(26, 1L << 30, 16).orElseThrow();
+        assertTrue(small.endsWith("-Xmx6g, or lower --max"), small);
+    }
+
+    @Test
+    void singlePrecisionReaches31QubitsIn20GiB() {
+        long heap = 20L << 30;
+        // 31 qubits: 2^31 amplitudes of 8 bytes are 16 GiB in single precision, of 16 bytes
+        // 32 GiB in double (IEEE 754-2019, sec. 3.6: binary32 is 4 bytes, binary64 8).
+        // Single: 16384 + 2048 + 256 = 18688 MiB leaves 1792 MiB, room for 3 x 512 MiB probes.
+        assertEquals(1L << 26, ScalingReport.probeLength(31, heap, 8));
+        assertEquals(Optional.empty(), ScalingReport.heapProblem(31, heap, 8));
+        String message = ScalingReport.heapProblem(31, heap, 16).orElseThrow();
+        assertTrue(message.startsWith("a 31-qubit state in double precision needs 32.0 GiB"),
+            message);
+        assertTrue(message.contains("--precision single fits"), message);
+        // The check takes the widest precision measured: both needs the double state.
+        assertEquals(8, ScalingReport.parse(new String[] {"--max", "31", "--precision",
+            "single"}, 1).widestBytesPerAmplitude());
+        assertEquals(16, ScalingReport.parse(new String[] {"--max", "31", "--precision",
+            "both"}, 1).widestBytesPerAmplitude());
+        assertEquals(16, ScalingReport.parse(new String[] {"--max", "31"}, 1)
+            .widestBytesPerAmplitude());
     }
 
     @Test
@@ -203,19 +263,30 @@ class ScalingReportTest {
         assertTrue(errText.contains("# warm-up (not reported) n=4 probe copy: 32 doubles"),
             errText);
         assertTrue(errText.contains("# n=6 probe triad: 128 doubles"), errText);
-        assertTrue(errText.contains("# n=5 controlled high: "), errText);
-        assertTrue(Pattern.compile("# n=6 fusion speed-up: \\d+\\.\\d\\dx").matcher(errText)
-            .find(), errText);
+        assertTrue(errText.contains("# n=5 controlled high (double): "), errText);
+        assertTrue(Pattern.compile("# n=6 fusion speed-up \\(double\\): \\d+\\.\\d\\dx")
+            .matcher(errText).find(), errText);
+        assertTrue(errText.contains("precision double, threads 1"), errText);
         assertTrue(errText.contains("(elapsed 0:00:"), errText);
         for (String line : errText.split("\\R")) {
             assertTrue(line.startsWith("#"), line);
         }
     }
 
-    /** Checks a row's cells and that its derived columns agree up to the printed digits. */
+    /** Checks a double-precision row; see the next method. */
     private static void checkRow(String line, int n, String kernel, String target) {
+        checkRow(line, n, kernel, target, "double");
+    }
+
+    /**
+     * Checks a row's cells and that its derived columns agree up to the printed digits; GB/s
+     * counts 2 * 16 bytes per amplitude in double precision and 2 * 8 in single.
+     */
+    private static void checkRow(String line, int n, String kernel, String target,
+            String precision) {
         String[] cells = line.split(",");
-        assertEquals(10, cells.length, line);
+        assertEquals(11, cells.length, line);
+        assertEquals(precision, cells[10], line);
         assertEquals(List.of(Integer.toString(n), kernel, target, "1"),
             List.of(cells[0], cells[1], cells[2], cells[3]), line);
         for (int c = 4; c < 10; c++) {
@@ -227,7 +298,7 @@ class ScalingReportTest {
         double amplitudes = 1 << n;
         assertEquals(nsPerGate / amplitudes, Double.parseDouble(cells[5]),
             0.5e-5 + 0.05 / amplitudes + 1e-12, line);
-        double gbPerS = 32.0 * amplitudes / nsPerGate;
+        double gbPerS = (precision.equals("single") ? 16.0 : 32.0) * amplitudes / nsPerGate;
         double gbError = 0.5e-3 + gbPerS * 0.05 / (nsPerGate - 0.05) + 1e-12;
         assertEquals(gbPerS, Double.parseDouble(cells[6]), gbError, line);
         double copy = Double.parseDouble(cells[7]);
@@ -237,6 +308,106 @@ class ScalingReportTest {
         double fraction = Double.parseDouble(cells[6]) / copy;
         assertEquals(fraction, Double.parseDouble(cells[9]),
             0.5e-3 + 0.5e-3 / copy + fraction * 0.5e-3 / (copy - 0.5e-3) + 1e-9, line);
+    }
+
+    @Test
+    void bothPrecisionsInOneRun(@TempDir Path dir) throws Exception {
+        Path csv = dir.resolve("both.csv");
+        Path svg = dir.resolve("both.svg");
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int status = run(out, err, "--min", "10", "--max", "11", "--precision", "both",
+            "--millis", "20", "--threads", "1", "--circuit-qubits", "11", "--csv",
+            csv.toString(), "--svg", svg.toString());
+        String errText = err.toString(StandardCharsets.UTF_8);
+        assertEquals(0, status, errText);
+        List<String> lines = Files.readAllLines(csv, StandardCharsets.UTF_8);
+        assertEquals(ScalingReport.HEADER, lines.get(0));
+        // Per size: 4 kernels x 3 targets in double, the same in single; at n = 11 the fused
+        // and unfused circuit in double and in single.
+        assertEquals(1 + 2 * 24 + 4, lines.size(), lines.toString());
+        int row = 1;
+        for (int n = 10; n <= 11; n++) {
+            for (String precision : List.of("double", "single")) {
+                for (String kernel : KERNELS) {
+                    for (String target : THREE) {
+                        checkRow(lines.get(row++), n, kernel, target, precision);
+                    }
+                }
+                if (n == 11) {
+                    checkRow(lines.get(row++), n, "circuit-fused", "all", precision);
+                    checkRow(lines.get(row++), n, "circuit-unfused", "all", precision);
+                }
+            }
+        }
+        assertEquals(lines.size(), row);
+        // Byte accounting read back from the CSV: gb_per_s * ns_per_gate / 2^n / 2 is the bytes
+        // of one amplitude. A float is 4 bytes and a double 8 (IEEE 754-2019, sec. 3.6), so a
+        // complex amplitude is 8 bytes in single precision and 16 in double (common practice).
+        // Tolerance: the relative rounding of the printed gb_per_s (3 decimals) and ns_per_gate
+        // (1 decimal).
+        for (String line : lines.subList(1, lines.size())) {
+            String[] cells = line.split(",");
+            double gb = Double.parseDouble(cells[6]);
+            double ns = Double.parseDouble(cells[4]);
+            double bytes = gb * ns / (1 << Integer.parseInt(cells[0])) / 2;
+            double expected = cells[10].equals("single") ? 8 : 16;
+            assertEquals(expected, bytes, expected * (0.5e-3 / gb + 0.05 / ns) * 1.01, line);
+        }
+        assertTrue(errText.contains("# n=10 dense mid (single): "), errText);
+        assertTrue(errText.contains("# n=11 circuit-unfused (single): 420 gates"), errText);
+        assertTrue(Pattern.compile("# n=11 fusion speed-up \\(single\\): \\d+\\.\\d\\dx")
+            .matcher(errText).find(), errText);
+        assertTrue(errText.contains("precision double,single"), errText);
+
+        Document doc = parse(svg);
+        List<String> series = new ArrayList<>();
+        List<String> floors = new ArrayList<>();
+        NodeList polylines = doc.getElementsByTagName("polyline");
+        for (int i = 0; i < polylines.getLength(); i++) {
+            Element p = (Element) polylines.item(i);
+            if (p.getAttribute("class").equals("series")) {
+                String precision = p.getAttribute("data-precision");
+                series.add(p.getAttribute("data-kernel") + " " + precision);
+                // Single-precision series are dashed, double ones solid.
+                assertEquals(precision.equals("single"), p.hasAttribute("stroke-dasharray"),
+                    precision);
+            } else {
+                assertEquals("floor", p.getAttribute("class"));
+                floors.add(p.getAttribute("data-precision"));
+            }
+        }
+        // In the order the series first appear in the CSV: the circuit rows only at n = 11.
+        assertEquals(List.of("dense double", "diagonal double", "permutation double",
+            "controlled double", "dense single", "diagonal single", "permutation single",
+            "controlled single", "circuit-fused double", "circuit-unfused double",
+            "circuit-fused single", "circuit-unfused single"), series);
+        assertEquals(List.of("double", "single"), floors);
+        String text = doc.getDocumentElement().getTextContent();
+        assertTrue(text.contains("dense (single)"), text);
+        assertTrue(text.contains("circuit-fused (single)"), text);
+        assertTrue(text.contains("bandwidth floor (single)"), text);
+        assertTrue(text.contains("double and single precision"), text);
+    }
+
+    @Test
+    void singlePrecisionOnly() {
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int status = run(out, err, "--min", "5", "--max", "5", "--precision", "single",
+            "--millis", "2", "--threads", "1", "--kernels", "dense", "--targets", "low,high");
+        assertEquals(0, status, err.toString(StandardCharsets.UTF_8));
+        String[] lines = out.toString(StandardCharsets.UTF_8).split("\\R");
+        assertEquals(3, lines.length, String.join("\n", lines));
+        checkRow(lines[1], 5, "dense", "low", "single");
+        checkRow(lines[2], 5, "dense", "high", "single");
+        // Probe (2) and the two kernel rows: precision counts once.
+        assertEquals(4, ScalingReport.steps(ScalingReport.parse(new String[] {"--min", "5",
+            "--max", "5", "--precision", "single", "--kernels", "dense", "--targets",
+            "low,high"}, 1)));
+        assertEquals(2 + 2 * 2 + 2 * 2, ScalingReport.steps(ScalingReport.parse(new String[] {
+            "--min", "5", "--max", "5", "--precision", "both", "--kernels", "dense",
+            "--targets", "low,high", "--circuit-qubits", "5"}, 1)));
     }
 
     @Test
@@ -338,13 +509,22 @@ class ScalingReportTest {
     void stateTooLargeForTheHeapExitsTwo() {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         ByteArrayOutputStream err = new ByteArrayOutputStream();
-        // 40 qubits need 16 TiB, more than any test heap; the probe stops at 2^30 doubles
-        // (8 GiB each): 32768 + 24 GiB, plus 1 GiB of room.
+        // 40 qubits need 16 TiB, more than any test heap; with an eighth and 256 MiB of room
+        // 18432.25 GiB, and the probe stops at 2^30 doubles (8 GiB each): 18456.25 GiB,
+        // rounded up, plus 1 GiB of room. Single precision (8 TiB) does not fit either.
         assertEquals(2, run(out, err, "--min", "40", "--max", "40"));
         assertEquals("", out.toString(StandardCharsets.UTF_8));
         String errText = err.toString(StandardCharsets.UTF_8);
-        assertTrue(errText.startsWith("error: a 40-qubit state needs 16384.0 GiB"), errText);
-        assertTrue(errText.contains("-Xmx32793g"), errText);
+        assertTrue(errText.startsWith("error: a 40-qubit state in double precision needs"
+            + " 16384.0 GiB (18432.3 GiB with room"), errText);
+        assertTrue(errText.contains("-Xmx18458g, or lower --max"), errText);
+        err.reset();
+        // In single precision: 8192 GiB + 1024 GiB + 256 MiB + 24 GiB, rounded up, plus 1 GiB.
+        assertEquals(2, run(out, err, "--min", "40", "--max", "40", "--precision", "single"));
+        errText = err.toString(StandardCharsets.UTF_8);
+        assertTrue(errText.startsWith("error: a 40-qubit state in single precision needs"
+            + " 8192.0 GiB"), errText);
+        assertTrue(errText.contains("-Xmx9242g, or lower --max"), errText);
     }
 
     @Test

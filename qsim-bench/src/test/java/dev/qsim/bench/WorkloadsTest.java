@@ -9,6 +9,7 @@ import dev.qsim.Circuit;
 import dev.qsim.Gates;
 import dev.qsim.Instruction;
 import dev.qsim.Operator;
+import dev.qsim.Precision;
 import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import org.apache.commons.numbers.complex.Complex;
@@ -94,22 +95,34 @@ class WorkloadsTest {
         // Reference: column 0 of the circuit's own matrix (Circuit.toOperator, a dense product
         // of the gate matrices) is the state the circuit makes from |0...0>. Tolerance 1e-12:
         // 180 gates, each adding a few ulps of rounding to unit-modulus sums.
+        // In single precision each rounding of the state to float moves every part by at most
+        // 2^-24 of its size (binary32 has a 24-bit significand, round to nearest: IEEE 754-2019,
+        // sec. 3.6 and 4.3.1), so the state by at most 2^-24 in norm; unitaries keep the norm of
+        // that error (Nielsen & Chuang 2010, sec. 2.1.6). At most one rounding per gate and one
+        // for |0000>: 181 * 2^-24 (about 1.1e-5), plus the double-precision 1e-12.
         Circuit c = Workloads.layeredCircuit(4, 20, Workloads.CIRCUIT_SEED);
         Operator u = c.toOperator();
         FusionBenchmark bench = new FusionBenchmark();
-        for (String fusion : new String[] {"true", "false"}) {
-            for (int threads = 1; threads <= 2; threads++) {
-                FusionBenchmark.Workload w = new FusionBenchmark.Workload();
-                w.n = 4;
-                w.fusion = Boolean.parseBoolean(fusion);
-                w.threads = threads;
-                w.setUp();
-                assertEquals(w.fusion, w.simulator.fusion());
-                StateVector s = bench.run(w);
-                for (int i = 0; i < 16; i++) {
-                    Complex diff = s.amplitude(i).subtract(u.get(i, 0));
-                    assertTrue(diff.abs() < 1e-12, "fusion " + fusion + ", amplitude " + i
-                        + ", seed " + Workloads.CIRCUIT_SEED);
+        for (String precision : new String[] {"double", "single"}) {
+            double tolerance = precision.equals("double") ? 1e-12
+                : 181 * Math.scalb(1.0, -24) + 1e-12;
+            for (String fusion : new String[] {"true", "false"}) {
+                for (int threads = 1; threads <= 2; threads++) {
+                    FusionBenchmark.Workload w = new FusionBenchmark.Workload();
+                    w.n = 4;
+                    w.fusion = Boolean.parseBoolean(fusion);
+                    w.threads = threads;
+                    w.precision = precision;
+                    w.setUp();
+                    assertEquals(w.fusion, w.simulator.fusion());
+                    assertEquals(Workloads.precision(precision), w.simulator.precision());
+                    StateVector s = bench.run(w);
+                    assertEquals(Workloads.precision(precision), s.precision());
+                    for (int i = 0; i < 16; i++) {
+                        Complex diff = s.amplitude(i).subtract(u.get(i, 0));
+                        assertTrue(diff.abs() < tolerance, precision + ", fusion " + fusion
+                            + ", amplitude " + i + ", seed " + Workloads.CIRCUIT_SEED);
+                    }
                 }
             }
         }
@@ -119,18 +132,25 @@ class WorkloadsTest {
 
     @ParameterizedTest
     @CsvSource({
-        "dense,       low,  1",
-        "diagonal,    high, 2",
-        "permutation, low,  2",
-        "controlled,  high, 1",
+        "dense,       low,  1, double",
+        "diagonal,    high, 2, double",
+        "permutation, low,  2, double",
+        "controlled,  high, 1, double",
+        "dense,       high, 2, single",
+        "diagonal,    low,  1, single",
+        "permutation, high, 1, single",
+        "controlled,  low,  2, single",
     })
-    void kernelBenchmarkKeepsTheNorm(String kernel, String target, int threads) {
+    void kernelBenchmarkKeepsTheNorm(String kernel, String target, int threads,
+            String precision) {
         KernelBenchmark.Workload w = new KernelBenchmark.Workload();
         w.n = 6;
         w.kernel = kernel;
         w.target = target;
         w.threads = threads;
+        w.precision = precision;
         w.setUp();
+        assertEquals(Workloads.precision(precision), w.state.precision());
         assertEquals(1, w.gate.size());
         assertEquals(Workloads.target(target, 6), w.gate.instructions().get(0).targets()[0]);
         KernelBenchmark bench = new KernelBenchmark();
@@ -139,7 +159,56 @@ class WorkloadsTest {
             after = bench.applyGate(w);
         }
         assertSame(w.state, after);
-        // A unitary keeps the norm (Nielsen & Chuang 2010, sec. 2.1.6).
-        assertEquals(1.0, after.norm(), 1e-12);
+        // A unitary keeps the norm (Nielsen & Chuang 2010, sec. 2.1.6). In single precision
+        // each of the 4 roundings to float (the state, then each gate) changes the norm by at
+        // most a factor 1 + 2^-24 (IEEE 754-2019, sec. 4.3.1): 4 * 2^-24 < 2.4e-7.
+        double tolerance = precision.equals("double") ? 1e-12 : 4 * Math.scalb(1.0, -24) + 1e-12;
+        assertEquals(1.0, after.norm(), tolerance);
+    }
+
+    @ParameterizedTest
+    @CsvSource({"1", "2", "7", "12"})
+    void singlePrecisionProductStateIsTheDoubleOneRounded(int n) {
+        // Tensor products of unit vectors are unit vectors (Nielsen & Chuang 2010, sec. 2.1.7),
+        // and the same seed gives the same factors. The single-precision state rounds the low
+        // half to float, multiplies and rounds again: each part moves by at most 2^-24 of the
+        // amplitude's modulus per rounding (IEEE 754-2019, sec. 3.6 and 4.3.1; the two rounded
+        // low parts enter a part of the product at most as |low| |high| = |a| by
+        // Cauchy-Schwarz), so |single - double| <= 2 sqrt(2) 2^-24 |a| < 3 * 2^-24 |a|.
+        StateVector d = Workloads.productState(n, Workloads.STATE_SEED, Precision.DOUBLE);
+        StateVector f = Workloads.productState(n, Workloads.STATE_SEED, Precision.SINGLE);
+        assertEquals(Precision.DOUBLE, d.precision());
+        assertEquals(Precision.SINGLE, f.precision());
+        assertEquals(n, f.qubits());
+        assertEquals(Workloads.productState(n, Workloads.STATE_SEED).amplitude(0),
+            d.amplitude(0));
+        double u = Math.scalb(1.0, -24);
+        for (long i = 0; i < d.dimension(); i++) {
+            Complex a = d.amplitude(i);
+            double diff = f.amplitude(i).subtract(a).abs();
+            assertTrue(diff <= 3 * u * a.abs() + 1e-15, "n " + n + ", index " + i + ": "
+                + f.amplitude(i) + " against " + a + ", seed " + Workloads.STATE_SEED);
+        }
+        assertEquals(1.0, d.norm(), 1e-12);
+    }
+
+    @Test
+    void productStateRefusesBadSizesAndPrecisionNames() {
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+            () -> Workloads.productState(0, 1, Precision.SINGLE));
+        assertEquals("qubit count must be in [1, 40] but was 0", e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> Workloads.precision("half"));
+        assertEquals("precision 'half' is not known; allowed: double, single", e.getMessage());
+        assertEquals(Precision.SINGLE, Workloads.precision("single"));
+        assertEquals("single", Workloads.precisionName(Precision.SINGLE));
+        assertEquals("double", Workloads.precisionName(Precision.DOUBLE));
+        KernelBenchmark.Workload w = new KernelBenchmark.Workload();
+        w.n = 4;
+        w.kernel = "dense";
+        w.target = "low";
+        w.threads = 1;
+        w.precision = "quad";
+        e = assertThrows(IllegalArgumentException.class, w::setUp);
+        assertTrue(e.getMessage().contains("'quad'"), e.getMessage());
     }
 }

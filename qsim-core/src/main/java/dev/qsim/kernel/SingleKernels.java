@@ -1,7 +1,7 @@
 package dev.qsim.kernel;
 
 /**
- * A single-qubit gate applied directly to single-precision storage: each pair of amplitudes is
+ * A single-qubit gate, with or without controls, applied directly to single-precision storage: each pair of amplitudes is
  * read as {@code float}, multiplied by the 2x2 matrix in double and rounded back, in one pass
  * (no window copy). {@link Windows} uses it for a gate that stands alone; runs of gates go
  * through windows. Unchecked; internal. Method as in {@link Kernels}: pairwise updates with
@@ -15,22 +15,49 @@ final class SingleKernels {
     }
 
     /**
-     * Applies {@code m} (row-major, re/im interleaved, length 8) to qubit {@code q}.
+     * Applies {@code m} (row-major, re/im interleaved, length 8) to qubit {@code q} where every
+     * control is 1.
      *
      * @param a single-precision storage. Modified.
      * @param q the target
      * @param m the matrix. Not modified.
+     * @param controls the control qubits' bits (0 for none), without bit {@code q}
      * @param threads threads to use
      */
-    static void dense1(Amplitudes a, int q, double[] m, int threads) {
+    static void dense1(Amplitudes a, int q, double[] m, long controls, int threads) {
         final long units = (1L << (a.n - 1)) >>> Math.min(q, PIECE_LOG);
         Parallel.forRange(threads, units, a.n >= Parallel.MIN_PARALLEL_QUBITS,
-                (from, to) -> run(a, q, m, from, to));
+                (from, to) -> run(a, q, m, controls, from, to));
     }
 
     /** Units {@code [from, to)}: whole blocks of 2^(q+1) amplitudes, or 2^12-pair pieces. */
-    private static void run(Amplitudes a, int q, double[] m, long from, long to) {
+    private static void run(Amplitudes a, int q, double[] m, long controls, long from,
+            long to) {
         final int cl = a.chunkLog;
+        if (controls != 0) {
+            // Bits below runLog vary inside a unit's run of pairs; the others are fixed, so a
+            // unit whose fixed control bits are not all 1 is skipped whole.
+            final int runLog = Math.min(q, PIECE_LOG);
+            final long varying = (1L << runLog) - 1;
+            final long fixed = controls & ~varying;
+            final long inner = controls & varying;
+            for (long u = from; u < to; u++) {
+                final long i0 = q <= PIECE_LOG ? u << (q + 1) : Kernels.pieceBase(q, u);
+                if ((i0 & fixed) != fixed) {
+                    continue;
+                }
+                if (inner == 0) {
+                    span(a, i0, i0 + (1L << q), 1 << runLog, m);
+                } else {
+                    for (int k = 0; k < (1 << runLog); k++) {
+                        if ((k & inner) == inner) {
+                            span(a, i0 + k, i0 + k + (1L << q), 1, m);
+                        }
+                    }
+                }
+            }
+            return;
+        }
         if (q == 0 && cl > 0) {
             // Neighbouring pairs: one flat loop per chunk.
             long u = from;
@@ -103,14 +130,14 @@ final class SingleKernels {
     }
 
     /**
-     * Returns the 2x2 matrix of a lone uncontrolled single-qubit gate, or null when the gate is
-     * not one.
+     * Returns the 2x2 matrix of a single-qubit gate (its controls aside), or null when the gate
+     * has more than one target.
      *
      * @param op the gate
      * @return the matrix (row-major, re/im interleaved), or null
      */
     static double[] matrix2(GateOp op) {
-        if (op.targets.length != 1 || op.controls.length != 0) {
+        if (op.targets.length != 1) {
             return null;
         }
         switch (op.shape) {

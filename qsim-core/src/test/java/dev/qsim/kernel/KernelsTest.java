@@ -180,6 +180,22 @@ class KernelsTest {
             Windows.apply(s, java.util.List.of(op), threads);
             assertArrayEquals(reference(rounded, n, new int[] {q}, new int[0], m), unload(s),
                     1e-6, "seed " + seed + " target " + q);
+
+            // With one or two controls elsewhere (only where they are all 1).
+            int[] others = pickDistinct(n, n, r);
+            int nc = 1 + (q % 2);
+            int[] controls = new int[nc];
+            for (int i = 0, j = 0; i < nc; j++) {
+                if (others[j] != q) {
+                    controls[i++] = others[j];
+                }
+            }
+            double[] before = unload(s);
+            GateOp controlled = new GateOp(GateOp.DENSE, new int[] {q}, controls, m, null);
+            Windows.apply(s, java.util.List.of(controlled), threads);
+            assertArrayEquals(reference(before, n, new int[] {q}, controls, m), unload(s), 1e-6,
+                    "seed " + seed + " target " + q + " controls "
+                    + java.util.Arrays.toString(controls));
         }
     }
 
