@@ -11,6 +11,12 @@ final class SingleKernels {
     /** Log2 of the pairs of one work unit for targets above it, as {@link Kernels#PIECE_LOG}. */
     private static final int PIECE_LOG = Kernels.PIECE_LOG;
 
+    /**
+     * The matrix of X, used as a marker (compared by identity): pairs are swapped without
+     * arithmetic or conversion, exactly.
+     */
+    static final double[] SWAP = {0, 0, 1, 0, 1, 0, 0, 0};
+
     private SingleKernels() {
     }
 
@@ -41,12 +47,23 @@ final class SingleKernels {
             final long varying = (1L << runLog) - 1;
             final long fixed = controls & ~varying;
             final long inner = controls & varying;
+            final boolean inChunk = q < cl && q <= PIECE_LOG;
             for (long u = from; u < to; u++) {
                 final long i0 = q <= PIECE_LOG ? u << (q + 1) : Kernels.pieceBase(q, u);
                 if ((i0 & fixed) != fixed) {
                     continue;
                 }
-                if (inner == 0) {
+                if (inChunk) {
+                    // The block lies in one chunk: index it directly (short blocks, no calls).
+                    final float[] psi = a.singles[(int) (i0 >>> cl)];
+                    final int x0 = (int) (i0 & a.chunkMask) << 1;
+                    final int s2 = 2 << q;
+                    for (int k = 0; k < (1 << q); k++) {
+                        if ((k & inner) == inner) {
+                            pair(psi, x0 + 2 * k, x0 + 2 * k + s2, m);
+                        }
+                    }
+                } else if (inner == 0) {
                     span(a, i0, i0 + (1L << q), 1 << runLog, m);
                 } else {
                     for (int k = 0; k < (1 << runLog); k++) {
@@ -99,11 +116,40 @@ final class SingleKernels {
         }
     }
 
+    /** One pair at float offsets x and y of the same array. */
+    private static void pair(float[] psi, int x, int y, double[] m) {
+        if (m == SWAP) {
+            final float r = psi[x];
+            final float i = psi[x + 1];
+            psi[x] = psi[y];
+            psi[x + 1] = psi[y + 1];
+            psi[y] = r;
+            psi[y + 1] = i;
+            return;
+        }
+        final double ar = psi[x], ai = psi[x + 1], br = psi[y], bi = psi[y + 1];
+        psi[x] = (float) (m[0] * ar - m[1] * ai + m[2] * br - m[3] * bi);
+        psi[x + 1] = (float) (m[0] * ai + m[1] * ar + m[2] * bi + m[3] * br);
+        psi[y] = (float) (m[4] * ar - m[5] * ai + m[6] * br - m[7] * bi);
+        psi[y + 1] = (float) (m[4] * ai + m[5] * ar + m[6] * bi + m[7] * br);
+    }
+
     /** {@code count} neighbouring pairs from float offset {@code x0}. */
     private static void flat(float[] psi, int x0, int count, double[] m) {
         final double m00r = m[0], m00i = m[1], m01r = m[2], m01i = m[3];
         final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
         final int end = x0 + (count << 2);
+        if (m == SWAP) {
+            for (int x = x0; x < end; x += 4) {
+                final float r = psi[x];
+                final float i = psi[x + 1];
+                psi[x] = psi[x + 2];
+                psi[x + 1] = psi[x + 3];
+                psi[x + 2] = r;
+                psi[x + 3] = i;
+            }
+            return;
+        }
         for (int x = x0; x < end; x += 4) {
             final double ar = psi[x], ai = psi[x + 1], br = psi[x + 2], bi = psi[x + 3];
             psi[x] = (float) (m00r * ar - m00i * ai + m01r * br - m01i * bi);
@@ -118,6 +164,15 @@ final class SingleKernels {
         final double m00r = m[0], m00i = m[1], m01r = m[2], m01i = m[3];
         final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
         final int n2 = count << 1;
+        if (m == SWAP) {
+            // Both halves are contiguous runs of the same length: swap them whole.
+            for (int k = 0; k < n2; k++) {
+                final float t = u[uo + k];
+                u[uo + k] = v[vo + k];
+                v[vo + k] = t;
+            }
+            return;
+        }
         for (int k = 0; k < n2; k += 2) {
             final int x = uo + k;
             final int y = vo + k;
@@ -146,6 +201,10 @@ final class SingleKernels {
             case GateOp.DIAGONAL:
                 return new double[] {op.data[0], op.data[1], 0, 0, 0, 0, op.data[2], op.data[3]};
             default:
+                if (op.perm[0] == 1 && op.data[0] == 1 && op.data[1] == 0 && op.data[2] == 1
+                        && op.data[3] == 0) {
+                    return SWAP;
+                }
                 double[] m = new double[8];
                 // Column j goes to row perm[j] with phase data[j].
                 for (int j = 0; j < 2; j++) {

@@ -196,6 +196,18 @@ class KernelsTest {
             assertArrayEquals(reference(before, n, new int[] {q}, controls, m), unload(s), 1e-6,
                     "seed " + seed + " target " + q + " controls "
                     + java.util.Arrays.toString(controls));
+
+            // X and controlled X move floats without arithmetic: exact.
+            double[] x = {0, 0, 1, 0, 1, 0, 0, 0};
+            for (int[] cs : new int[][] {{}, controls}) {
+                before = unload(s);
+                GateOp flip = new GateOp(GateOp.MONOMIAL, new int[] {q}, cs,
+                        new double[] {1, 0, 1, 0}, new int[] {1, 0});
+                Windows.apply(s, java.util.List.of(flip), threads);
+                assertArrayEquals(reference(before, n, new int[] {q}, cs, x), unload(s), 0.0,
+                        "seed " + seed + " X on " + q + " controls "
+                        + java.util.Arrays.toString(cs));
+            }
         }
     }
 
