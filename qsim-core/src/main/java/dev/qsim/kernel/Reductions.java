@@ -109,59 +109,30 @@ public final class Reductions {
      * @return {re, im}
      */
     public static double[] inner(Amplitudes a, Amplitudes b, int threads) {
-        if (a.singles != null || b.singles != null || a.chunkLog != b.chunkLog) {
-            return innerWidened(a, b, threads);
-        }
-        final int bl = blockLog(a);
-        final int blocks = 1 << (a.n - bl);
-        final double[] pr = new double[blocks];
-        final double[] pi = new double[blocks];
-        final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
-        Parallel.forRange(threads, blocks, par, (from, to) -> {
-            for (long blk = from; blk < to; blk++) {
-                long first = blk << bl;
-                int c = (int) (first >>> a.chunkLog);
-                double[] u = a.chunks[c];
-                double[] v = b.chunks[c];
-                int start = (int) (first & a.chunkMask) << 1;
-                int end = start + (2 << bl);
-                double sr = 0;
-                double si = 0;
-                for (int x = start; x < end; x += 2) {
-                    sr += u[x] * v[x] + u[x + 1] * v[x + 1];
-                    si += u[x] * v[x + 1] - u[x + 1] * v[x];
-                }
-                pr[(int) blk] = sr;
-                pi[(int) blk] = si;
-            }
-        });
-        double re = 0;
-        double im = 0;
-        for (int i = 0; i < blocks; i++) {
-            re += pr[i];
-            im += pi[i];
-        }
-        return new double[] {re, im};
-    }
-
-    /** {@link #inner} through double blocks: any precisions and chunk sizes. */
-    private static double[] innerWidened(Amplitudes a, Amplitudes b, int threads) {
+        // Any precisions and chunk sizes: blocks fit in both states' chunks.
         final int bl = Math.min(blockLog(a), blockLog(b));
         final int blocks = 1 << (a.n - bl);
         final double[] pr = new double[blocks];
         final double[] pi = new double[blocks];
         final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
         Parallel.forRange(threads, blocks, par, (from, to) -> {
-            double[] u = new double[2 << bl];
-            double[] v = new double[2 << bl];
+            double[] ua = buffer(a, bl);
+            double[] vb = buffer(b, bl);
             for (long blk = from; blk < to; blk++) {
-                a.read(blk << bl, bl, u, 0);
-                b.read(blk << bl, bl, v, 0);
+                long first = blk << bl;
+                double[] u = view(a, first, bl, ua);
+                double[] v = view(b, first, bl, vb);
+                int uo = offset(a, first, ua);
+                int vo = offset(b, first, vb);
                 double sr = 0;
                 double si = 0;
-                for (int x = 0; x < u.length; x += 2) {
-                    sr += u[x] * v[x] + u[x + 1] * v[x + 1];
-                    si += u[x] * v[x + 1] - u[x + 1] * v[x];
+                for (int x = 0; x < (2 << bl); x += 2) {
+                    final double ur = u[uo + x];
+                    final double ui = u[uo + x + 1];
+                    final double vr = v[vo + x];
+                    final double vi = v[vo + x + 1];
+                    sr += ur * vr + ui * vi;
+                    si += ur * vi - ui * vr;
                 }
                 pr[(int) blk] = sr;
                 pi[(int) blk] = si;
