@@ -17,10 +17,11 @@ import java.util.List;
  * threads without changing the result: every window gets the same operations in the same order
  * whatever the thread count.
  *
- * <p>Method: gathering a qubit subset into a small dense buffer so that several gates act on it
- * while it is in cache is the "cache blocking" of H. De Raedt et al., "Massively parallel
- * quantum computer simulator, eleven years later", Comput. Phys. Commun. 237 (2019) 47, §3,
- * and of qHiPSTER (Smelyanskiy et al., arXiv:1601.07195, 2016, §3.2). Internal.
+ * <p>Method: applying several gates to a part of the state while it sits in cache is the cache
+ * blocking of state-vector simulators such as qHiPSTER (M. Smelyanskiy, N. P. D. Sawaya,
+ * A. Aspuru-Guzik, arXiv:1601.07195, 2016) and H. De Raedt et al., "Massively parallel quantum
+ * computer simulator, eleven years later", Comput. Phys. Commun. 237 (2019) 47 (citations from
+ * memory); gathering the target qubits into a dense window is our own arrangement. Internal.
  */
 public final class Windows {
     /** Log2 of the amplitudes of a full window: 2^14, a 256 KiB double scratch that fits L2. */
