@@ -181,6 +181,65 @@ class PropertiesTest {
         assertEquals(1.0, sum, TOL, "seed " + seed + ": Σ|a|² from amplitude()");
     }
 
+    @Property(tries = 10, seed = "1007", shrinking = ShrinkingMode.OFF,
+            edgeCases = EdgeCasesMode.NONE)
+    void singlePrecisionKeepsTheNormWithinRoundingOverAThousandGates(@ForAll long seed) {
+        UniformRandomProvider rng = rng(seed);
+        int n = 8;
+        List<DenseReference.Step> steps = DenseReference.randomSteps(n, 1000, rng);
+        StateVector s = StateVector.zero(n, Precision.SINGLE);
+        for (DenseReference.Step step : steps) {
+            // Gate by gate: rounded to float after every gate, the worst case.
+            s.apply(DenseReference.build(n, List.of(step)));
+        }
+        // Unitaries keep the norm (N&C 2010 sec. 2.1.6); each rounding to binary32 changes it
+        // by a relative 2^-24 at most (Higham 2002, sec. 2.1), so 1000 gates stay within
+        // 1000 * 2^-24 ≈ 6e-5.
+        assertEquals(1.0, s.norm(), 1000 * Math.scalb(1.0, -24), "seed " + seed + ": norm()");
+        double sum = 0;
+        for (double p : s.probabilities()) {
+            sum += p;
+        }
+        assertEquals(s.norm() * s.norm(), sum, 1e-12, "seed " + seed + ": Σ probabilities()");
+    }
+
+    @Property(tries = 30, seed = "1008", shrinking = ShrinkingMode.OFF,
+            edgeCases = EdgeCasesMode.NONE)
+    void singlePrecisionCircuitsAreLinearToRounding(@ForAll long seed) {
+        // U(αa + βb) = αUa + βUb (N&C 2010 sec. 2.2.2), with the single-precision engine on the
+        // left and the double engine on the right: equal to the rounding of binary32 (1e-5 on
+        // amplitudes of size at most 1, common practice).
+        UniformRandomProvider rng = rng(seed);
+        int n = 1 + rng.nextInt(8);
+        Circuit c = DenseReference.build(n, DenseReference.randomSteps(n, 30, rng));
+        int d = 1 << n;
+        double[][] a = DenseReference.randomState(d, rng);
+        double[][] b = DenseReference.randomState(d, rng);
+        double[][] mix = combine(0.6, 0.0, a, 0.0, 0.8, b);
+        double norm = 0;
+        for (int i = 0; i < d; i++) {
+            norm += mix[0][i] * mix[0][i] + mix[1][i] * mix[1][i];
+        }
+        norm = Math.sqrt(norm);
+        for (int i = 0; i < d; i++) {
+            mix[0][i] /= norm;
+            mix[1][i] /= norm;
+        }
+        StateVector left = DenseReference.toState(mix).toPrecision(Precision.SINGLE).apply(c);
+        StateVector ua = DenseReference.toState(a).apply(c);
+        StateVector ub = DenseReference.toState(b).apply(c);
+        for (int i = 0; i < d; i++) {
+            Complex x = ua.amplitude(i);
+            Complex y = ub.amplitude(i);
+            double re = (0.6 * x.getReal() - 0.8 * y.getImaginary()) / norm;
+            double im = (0.6 * x.getImaginary() + 0.8 * y.getReal()) / norm;
+            Complex l = left.amplitude(i);
+            assertEquals(re, l.getReal(), 1e-5, "seed " + seed + ", amplitude " + i + " (re)");
+            assertEquals(im, l.getImaginary(), 1e-5, "seed " + seed + ", amplitude " + i
+                    + " (im)");
+        }
+    }
+
     @Property(tries = 100, seed = "1006", shrinking = ShrinkingMode.OFF,
             edgeCases = EdgeCasesMode.NONE)
     void probabilitiesMarginalsAndSamplesAreConserved(@ForAll long seed) {
