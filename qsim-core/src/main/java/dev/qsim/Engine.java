@@ -22,15 +22,7 @@ final class Engine {
     static final int CACHE_LOG = 14;
 
     static Kernels.Plan plan(Amplitudes a, Instruction in) {
-        switch (in.shape) {
-            case Instruction.SHAPE_DIAGONAL:
-                return Kernels.diagonalPlan(a, in.targetsRaw(), in.controlsRaw(), in.data);
-            case Instruction.SHAPE_MONOMIAL:
-                return Kernels.monomialPlan(a, in.targetsRaw(), in.controlsRaw(), in.perm,
-                        in.data);
-            default:
-                return Kernels.densePlan(a, in.targetsRaw(), in.controlsRaw(), in.data);
-        }
+        return op(in).plan(a);
     }
 
     /** The kernel description of a gate instruction. */
@@ -48,11 +40,7 @@ final class Engine {
     }
 
     static void gate(Amplitudes a, Instruction in, int threads) {
-        if (a.isSingle()) {
-            Windows.apply(a, List.of(op(in)), threads);
-        } else {
-            plan(a, in).apply(threads);
-        }
+        apply(a, op(in), threads);
     }
 
     /** Applies one kernel description, in either precision. */
