@@ -2,6 +2,7 @@ package dev.qsim;
 
 import java.util.Arrays;
 import java.util.Objects;
+import java.util.function.Supplier;
 
 import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
@@ -47,10 +48,9 @@ public final class StateVector {
             @Override
             public Amplitudes amplitudes(StateVector state) {
                 if (state.amps.isSingle()) {
-                    String what = "a double-precision copy of the " + state.qubits()
-                            + "-qubit state";
-                    Heap.require(Amplitudes.bytes(state.qubits()), what);
-                    return state.amps.convert(false);
+                    return guarded(Amplitudes.bytes(state.qubits()), "a double-precision copy"
+                            + " of the " + state.qubits() + "-qubit state",
+                            () -> state.amps.convert(false));
                 }
                 return state.amps;
             }
@@ -87,13 +87,20 @@ public final class StateVector {
     private static Amplitudes allocate(int n, boolean single) {
         Checks.requireInRange(n, 1, MAX_QUBITS, "qubit count");
         String what = "a " + n + "-qubit state" + (single ? " in single precision" : "");
-        long bytes = Amplitudes.bytes(n, single);
+        return guarded(Amplitudes.bytes(n, single), what,
+                () -> single ? Amplitudes.allocateSingle(n) : Amplitudes.allocate(n));
+    }
+
+    /**
+     * Makes storage of {@code bytes} after the heap check. An {@link OutOfMemoryError} (the heap
+     * looked large enough but could not place the arrays: fragmentation or collector overhead)
+     * is reported like any other refusal.
+     */
+    private static Amplitudes guarded(long bytes, String what, Supplier<Amplitudes> make) {
         Heap.require(bytes, what);
         try {
-            return single ? Amplitudes.allocateSingle(n) : Amplitudes.allocate(n);
+            return make.get();
         } catch (OutOfMemoryError e) {
-            // The heap looked large enough but could not place the arrays (fragmentation or
-            // collector overhead): report it like any other refusal.
             throw Heap.tooLarge(bytes, what);
         }
     }
@@ -261,14 +268,9 @@ public final class StateVector {
     public StateVector toPrecision(Precision precision) {
         Objects.requireNonNull(precision, "precision");
         boolean single = precision == Precision.SINGLE;
-        String what = "a copy of the " + qubits() + "-qubit state";
-        long bytes = Amplitudes.bytes(qubits(), single);
-        Heap.require(bytes, what);
-        try {
-            return new StateVector(amps.convert(single)).withThreads(threads);
-        } catch (OutOfMemoryError e) {
-            throw Heap.tooLarge(bytes, what);
-        }
+        return new StateVector(guarded(Amplitudes.bytes(qubits(), single),
+                "a copy of the " + qubits() + "-qubit state", () -> amps.convert(single)))
+                .withThreads(threads);
     }
 
     /**
@@ -464,14 +466,8 @@ public final class StateVector {
      * @throws IllegalStateException if the heap cannot hold a second state
      */
     public StateVector copy() {
-        String what = "a copy of the " + qubits() + "-qubit state";
-        long bytes = Amplitudes.bytes(qubits(), amps.isSingle());
-        Heap.require(bytes, what);
-        try {
-            return new StateVector(amps.copy()).withThreads(threads);
-        } catch (OutOfMemoryError e) {
-            throw Heap.tooLarge(bytes, what);
-        }
+        return new StateVector(guarded(Amplitudes.bytes(qubits(), amps.isSingle()),
+                "a copy of the " + qubits() + "-qubit state", amps::copy)).withThreads(threads);
     }
 
     /**
