@@ -831,12 +831,8 @@ public final class Kernels {
      */
     public static Plan monomialPlan(Amplitudes a, int[] targets, int[] controls, int[] perm,
             double[] phase) {
-        boolean ones = true;
-        for (int j = 0; j < perm.length; j++) {
-            ones &= phase[2 * j] == 1 && phase[2 * j + 1] == 0;
-        }
-        final boolean pure = ones;
-        if (pure && a.chunks.length > 1 && lowest(targets, controls) >= a.chunkLog) {
+        final boolean pure = unitPhases(phase);
+        if (pure && chunkLevel(a, targets, controls)) {
             return new ChunkPermutationPlan(a, targets, controls, perm);
         }
         if (pure && perm.length == 2 && perm[0] == 1 && controls.length == 0) {
@@ -878,16 +874,23 @@ public final class Kernels {
      * @return whether moving chunk references applies the gate
      */
     static boolean movesChunks(Amplitudes a, GateOp op) {
-        if (op.shape != GateOp.MONOMIAL || (1L << (a.n - a.chunkLog)) < 2
-                || lowest(op.targets, op.controls) < a.chunkLog) {
-            return false;
-        }
-        for (int j = 0; j < op.data.length; j += 2) {
-            if (op.data[j] != 1 || op.data[j + 1] != 0) {
+        return op.shape == GateOp.MONOMIAL && unitPhases(op.data)
+                && chunkLevel(a, op.targets, op.controls);
+    }
+
+    /** Whether every phase of a monomial gate is exactly 1 (a pure permutation). */
+    private static boolean unitPhases(double[] phase) {
+        for (int j = 0; j < phase.length; j += 2) {
+            if (phase[j] != 1 || phase[j + 1] != 0) {
                 return false;
             }
         }
         return true;
+    }
+
+    /** Whether the state has several chunks and every given qubit selects whole chunks. */
+    private static boolean chunkLevel(Amplitudes a, int[] targets, int[] controls) {
+        return a.n > a.chunkLog && lowest(targets, controls) >= a.chunkLog;
     }
 
     /**
