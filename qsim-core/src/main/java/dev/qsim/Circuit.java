@@ -257,8 +257,8 @@ public final class Circuit {
         for (int col = 0; col < d; col++) {
             StateVector s = StateVector.basis(qubits, col).withThreads(1).apply(this);
             for (int row = 0; row < d; row++) {
-                m[2 * (row * d + col)] = s.store().re(row);
-                m[2 * (row * d + col) + 1] = s.store().im(row);
+                m[2 * (row * d + col)] = s.settled().re(row);
+                m[2 * (row * d + col) + 1] = s.settled().im(row);
             }
         }
         return Operator.ofRaw(qubits, m);

@@ -6,10 +6,10 @@ import java.util.List;
 import org.apache.commons.rng.UniformRandomProvider;
 
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.Frame;
 import dev.qsim.kernel.GateOp;
 import dev.qsim.kernel.Kernels;
 import dev.qsim.kernel.Reductions;
-import dev.qsim.kernel.Windows;
 
 /** Runs instructions on amplitudes: picks the kernel, measures, resets, tests conditions. */
 final class Engine {
@@ -17,9 +17,6 @@ final class Engine {
 
     private Engine() {
     }
-
-    /** Log2 of the amplitudes a cache block holds (256 KiB in double precision). */
-    static final int CACHE_LOG = 14;
 
     static Kernels.Plan plan(Amplitudes a, Instruction in) {
         return op(in).plan(a);
@@ -43,52 +40,23 @@ final class Engine {
         apply(a, op(in), threads);
     }
 
-    /** Applies one kernel description, in either precision. */
+    /** Applies one kernel description, in either precision, through the lazy frame. */
     private static void apply(Amplitudes a, GateOp op, int threads) {
-        if (a.isSingle()) {
-            Windows.apply(a, List.of(op), threads);
-        } else {
-            op.plan(a).apply(threads);
-        }
+        Frame.apply(a, List.of(op), threads);
     }
 
     /**
-     * Applies gates {@code [from, to)} of a list in order. Consecutive gates that all act below
-     * the cache-block size are applied block by block while each block sits in cache (cache
-     * blocking), with the same result as one at a time.
+     * Applies gates {@code [from, to)} of a list in order, through the lazy frame
+     * ({@link Frame}): X and single-qubit phase gates go to the frame, and consecutive gates
+     * that all act below the cache-block size are applied block by block while each block
+     * sits in cache (cache blocking), with the same result as one at a time.
      */
     static void gates(Amplitudes a, List<Instruction> list, int from, int to, int threads) {
-        if (a.isSingle()) {
-            List<GateOp> ops = new ArrayList<>(to - from);
-            for (int i = from; i < to; i++) {
-                ops.add(op(list.get(i)));
-            }
-            Windows.apply(a, ops, threads);
-            return;
-        }
-        int blockLog = Math.min(CACHE_LOG, a.chunkLog());
-        boolean blocking = a.qubits() > blockLog;
-        List<Kernels.Plan> group = new ArrayList<>();
+        List<GateOp> ops = new ArrayList<>(to - from);
         for (int i = from; i < to; i++) {
-            Kernels.Plan p = plan(a, list.get(i));
-            if (blocking && p.unitsPerBlock(blockLog) >= 0) {
-                group.add(p);
-                continue;
-            }
-            flush(a, group, blockLog, threads);
-            p.apply(threads);
+            ops.add(op(list.get(i)));
         }
-        flush(a, group, blockLog, threads);
-    }
-
-    /** Applies a group of cache-blockable plans (one alone needs no blocking), then clears it. */
-    private static void flush(Amplitudes a, List<Kernels.Plan> group, int blockLog, int threads) {
-        if (group.size() == 1) {
-            group.get(0).apply(threads);
-        } else if (group.size() > 1) {
-            Kernels.applyBlocked(a, group.toArray(new Kernels.Plan[0]), blockLog, threads);
-        }
-        group.clear();
+        Frame.apply(a, ops, threads);
     }
 
     /**
@@ -118,7 +86,9 @@ final class Engine {
      * renormalises (Nielsen and Chuang 2010, §2.2.3, postulate 3).
      */
     static int measure(Amplitudes a, int q, UniformRandomProvider rng, int threads) {
-        double p1 = Math.min(1, Math.max(0, Reductions.probabilityWhere(a, q, threads)));
+        double stored = Reductions.probabilityWhere(a, q, threads);
+        // A flipped qubit (lazy X) reads 1 where its stored bit is 0.
+        double p1 = Math.min(1, Math.max(0, Frame.flipped(a, q) ? 1 - stored : stored));
         int outcome = rng.nextDouble() < p1 ? 1 : 0;
         double p = outcome == 1 ? p1 : 1 - p1;
         double s = 1 / Math.sqrt(p);

@@ -8,6 +8,7 @@ import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
 
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.Frame;
 import dev.qsim.kernel.Heap;
 import dev.qsim.kernel.Internals;
 import dev.qsim.kernel.Parallel;
@@ -47,12 +48,13 @@ public final class StateVector {
         Internals.register(new Internals.Access() {
             @Override
             public Amplitudes amplitudes(StateVector state) {
-                if (state.amps.isSingle()) {
+                Amplitudes settled = state.settled();
+                if (settled.isSingle()) {
                     return guarded(Amplitudes.bytes(state.qubits()), "a double-precision copy"
                             + " of the " + state.qubits() + "-qubit state",
                             () -> state.amps.convert(false));
                 }
-                return state.amps;
+                return settled;
             }
 
             @Override
@@ -63,12 +65,15 @@ public final class StateVector {
             @Override
             public void applyGate(Amplitudes amplitudes, Instruction gate, int threads) {
                 Engine.gate(amplitudes, gate, threads);
+                Frame.settle(amplitudes, threads);
             }
 
             @Override
             public int measure(Amplitudes amplitudes, int qubit, UniformRandomProvider rng,
                     int threads) {
-                return Engine.measure(amplitudes, qubit, rng, threads);
+                int bit = Engine.measure(amplitudes, qubit, rng, threads);
+                Frame.settle(amplitudes, threads);
+                return bit;
             }
         });
     }
@@ -219,7 +224,17 @@ public final class StateVector {
         }
     }
 
+    /** The storage, possibly with a lazy frame: for the gate engine only. */
     Amplitudes store() {
+        return amps;
+    }
+
+    /**
+     * The storage with its lazy frame applied ({@link Frame#settle}): for every reader of
+     * amplitudes.
+     */
+    Amplitudes settled() {
+        Frame.settle(amps, threads);
         return amps;
     }
 
@@ -268,8 +283,10 @@ public final class StateVector {
     public StateVector toPrecision(Precision precision) {
         Objects.requireNonNull(precision, "precision");
         boolean single = precision == Precision.SINGLE;
+        // Settled first: the frame is applied in this state's own precision.
+        Amplitudes source = settled();
         return new StateVector(guarded(Amplitudes.bytes(qubits(), single),
-                "a copy of the " + qubits() + "-qubit state", () -> amps.convert(single)))
+                "a copy of the " + qubits() + "-qubit state", () -> source.convert(single)))
                 .withThreads(threads);
     }
 
@@ -300,7 +317,8 @@ public final class StateVector {
      */
     public Complex amplitude(long index) {
         requireIndex(index, qubits());
-        return Complex.ofCartesian(amps.re(index), amps.im(index));
+        Amplitudes s = settled();
+        return Complex.ofCartesian(s.re(index), s.im(index));
     }
 
     /**
@@ -312,8 +330,9 @@ public final class StateVector {
      */
     public double probability(long index) {
         requireIndex(index, qubits());
-        double re = amps.re(index);
-        double im = amps.im(index);
+        Amplitudes s = settled();
+        double re = s.re(index);
+        double im = s.im(index);
         return re * re + im * im;
     }
 
@@ -332,8 +351,9 @@ public final class StateVector {
         }
         Heap.require(48L << n, "the amplitude array");
         Complex[] out = new Complex[1 << n];
+        Amplitudes s = settled();
         for (int i = 0; i < out.length; i++) {
-            out[i] = Complex.ofCartesian(amps.re(i), amps.im(i));
+            out[i] = Complex.ofCartesian(s.re(i), s.im(i));
         }
         return out;
     }
@@ -353,7 +373,7 @@ public final class StateVector {
         }
         Heap.require(8L << n, "the probability array");
         double[] out = new double[1 << n];
-        Reductions.probabilities(amps, out, threads);
+        Reductions.probabilities(settled(), out, threads);
         return out;
     }
 
@@ -379,7 +399,7 @@ public final class StateVector {
         }
         Heap.require(8L << qubits.length, "the marginal array");
         double[] out = new double[1 << qubits.length];
-        Reductions.marginal(amps, qubits.clone(), out);
+        Reductions.marginal(settled(), qubits.clone(), out);
         return out;
     }
 
@@ -401,7 +421,7 @@ public final class StateVector {
      */
     public Complex inner(StateVector other) {
         requireSameSize(other);
-        double[] z = Reductions.inner(amps, other.amps, threads);
+        double[] z = Reductions.inner(settled(), other.settled(), threads);
         return Complex.ofCartesian(z[0], z[1]);
     }
 
@@ -415,7 +435,7 @@ public final class StateVector {
      */
     public double fidelity(StateVector other) {
         requireSameSize(other);
-        double[] z = Reductions.inner(amps, other.amps, threads);
+        double[] z = Reductions.inner(settled(), other.settled(), threads);
         return z[0] * z[0] + z[1] * z[1];
     }
 
@@ -444,15 +464,17 @@ public final class StateVector {
         Amplitudes r = allocate(n, amps.isSingle() || other.amps.isSingle());
         long da = dimension();
         long db = other.dimension();
+        Amplitudes sa = settled();
+        Amplitudes sb = other.settled();
         for (long i = 0; i < da; i++) {
-            double ar = amps.re(i);
-            double ai = amps.im(i);
+            double ar = sa.re(i);
+            double ai = sa.im(i);
             if (ar == 0 && ai == 0) {
                 continue;
             }
             for (long j = 0; j < db; j++) {
-                double br = other.amps.re(j);
-                double bi = other.amps.im(j);
+                double br = sb.re(j);
+                double bi = sb.im(j);
                 r.set((i << nb) | j, ar * br - ai * bi, ar * bi + ai * br);
             }
         }
@@ -582,6 +604,7 @@ public final class StateVector {
      */
     long[] sampleIndices(int shots, UniformRandomProvider rng) {
         Heap.require(16L * shots, "sampling " + shots + " shots");
+        Amplitudes amps = settled();
         double[] sums = Reductions.blockSums(amps, threads);
         double total = 0;
         for (double x : sums) {
@@ -616,6 +639,7 @@ public final class StateVector {
             return "StateVector[" + n + " qubits]";
         }
         StringBuilder sb = new StringBuilder();
+        Amplitudes amps = settled();
         for (long i = 0; i < dimension(); i++) {
             double re = amps.re(i);
             double im = amps.im(i);

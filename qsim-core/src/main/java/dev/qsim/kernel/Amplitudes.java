@@ -26,6 +26,16 @@ public final class Amplitudes {
     final double[][] chunks;
     final float[][] singles;
 
+    /*
+     * The lazy frame (see Frame): the state this storage stands for is X^flips D times the
+     * stored amplitudes, where D is the product over qubits q of diag(phases[4q] + i
+     * phases[4q+1], phases[4q+2] + i phases[4q+3]) (null: every factor is 1). Identity unless
+     * Frame put something there; `framed` says whether either part is present.
+     */
+    long flips;
+    double[] phases;
+    volatile boolean framed;
+
     private Amplitudes(int n, int chunkLog, double[][] chunks, float[][] singles) {
         this.n = n;
         this.chunkLog = chunkLog;
@@ -154,13 +164,26 @@ public final class Amplitudes {
             for (int i = 0; i < c.length; i++) {
                 c[i] = singles[i].clone();
             }
-            return new Amplitudes(n, chunkLog, null, c);
+            return new Amplitudes(n, chunkLog, null, c).frameFrom(this);
         }
         double[][] c = new double[chunks.length][];
         for (int i = 0; i < c.length; i++) {
             c[i] = chunks[i].clone();
         }
-        return new Amplitudes(n, chunkLog, c, null);
+        return new Amplitudes(n, chunkLog, c, null).frameFrom(this);
+    }
+
+    /** Takes a copy of another storage's lazy frame; returns this. */
+    private Amplitudes frameFrom(Amplitudes other) {
+        flips = other.flips;
+        phases = other.phases == null ? null : other.phases.clone();
+        framed = other.framed;
+        return this;
+    }
+
+    /** @return whether a lazy frame is pending (see {@link Frame}) */
+    public boolean framed() {
+        return framed;
     }
 
     /**
@@ -181,16 +204,17 @@ public final class Amplitudes {
             read(first, bl, buf, 0);
             out.write(first, bl, buf, 0);
         }
-        return out;
+        return out.frameFrom(this);
     }
 
     /**
-     * Copies the amplitudes of another state of the same size, precision and chunk size into
-     * this one.
+     * Copies the amplitudes (and the lazy frame) of another state of the same size, precision
+     * and chunk size into this one.
      *
      * @param other the source
      */
     public void copyFrom(Amplitudes other) {
+        frameFrom(other);
         if (singles != null) {
             for (int i = 0; i < singles.length; i++) {
                 System.arraycopy(other.singles[i], 0, singles[i], 0, singles[i].length);
@@ -292,8 +316,11 @@ public final class Amplitudes {
         a[o + 1] = im;
     }
 
-    /** Sets every amplitude to zero. */
+    /** Sets every amplitude to zero (and drops the lazy frame). */
     public void clear() {
+        flips = 0;
+        phases = null;
+        framed = false;
         if (singles != null) {
             for (float[] c : singles) {
                 java.util.Arrays.fill(c, 0f);

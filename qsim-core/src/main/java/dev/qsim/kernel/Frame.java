@@ -1,0 +1,393 @@
+package dev.qsim.kernel;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Runs gates on a storage with a lazy frame: X gates and single-qubit diagonal gates (Z, S, T,
+ * RZ, phase, and their products) without controls are not applied to the amplitudes but kept
+ * as a frame {@code F = X^m D}, where {@code m} is a set of flipped qubits and {@code D} a
+ * product of one unitary 2x2 diagonal per qubit; the state is {@code F} times the stored
+ * amplitudes. Such a gate costs a few arithmetic operations instead of a pass over the state.
+ *
+ * <p>Every other gate {@code G} is applied to the stored amplitudes as
+ * {@code F^-1 G F}, which has the same shape as {@code G} and costs the same: its matrix,
+ * diagonal or permutation is re-indexed by the flipped targets and its entries multiplied by
+ * the frame phases of its targets ({@code G'[r][c] = conj(d_r) G[r ^ f][c ^ f] d_c}). A
+ * diagonal gate commutes with {@code D}; so does a control, whose frame phases stay put. A
+ * control on a flipped qubit is the one case that needs data moved: that X is applied to the
+ * amplitudes first. Measurement reads the flipped outcome; probabilities do not see {@code D}.
+ * {@link #settle} applies the frame to the amplitudes in one pass (plus moves for flips) and
+ * clears it; every reader of amplitudes outside the gate path settles first.
+ *
+ * <p>Method: keeping Pauli gates as a frame instead of applying them is the Pauli frame of
+ * E. Knill, "Quantum computing with realistically noisy devices", Nature 434 (2005) 39, used
+ * there for error correction (citation from memory); extending it to diagonal phases and
+ * absorbing the frame into later gates by conjugation is our own arrangement, exact up to
+ * rounding. Internal.
+ */
+public final class Frame {
+    /** Log2 of the amplitudes of a cache block for grouped double-precision gates (256 KiB). */
+    public static final int CACHE_LOG = 14;
+    /** How far from 1 a frame phase's squared modulus may be (unitary gates only). */
+    static final double UNIT_TOLERANCE = 1e-13;
+    private static final int[] NONE = new int[0];
+    private static final double[] X_PHASES = {1, 0, 1, 0};
+    private static final int[] X_PERM = {1, 0};
+
+    private Frame() {
+    }
+
+    /**
+     * Applies gates in order: frame gates go to the frame, the rest (conjugated by the frame)
+     * to the amplitudes, with cache blocking for double precision and windows for single.
+     *
+     * @param a the storage. Modified.
+     * @param ops the gates
+     * @param threads threads to use
+     */
+    public static void apply(Amplitudes a, List<GateOp> ops, int threads) {
+        List<GateOp> out = new ArrayList<>(ops.size());
+        for (GateOp op : ops) {
+            if (!absorb(a, op)) {
+                out.add(conjugate(a, op, out));
+            }
+        }
+        a.framed = a.flips != 0 || a.phases != null;
+        execute(a, out, threads);
+    }
+
+    /**
+     * Whether qubit {@code q} is flipped by the frame: its measured value is the stored bit
+     * negated.
+     *
+     * @param a the storage
+     * @param q the qubit
+     * @return whether q is flipped
+     */
+    public static boolean flipped(Amplitudes a, int q) {
+        return ((a.flips >>> q) & 1) != 0;
+    }
+
+    /**
+     * Applies the frame to the amplitudes and clears it; nothing happens without a frame.
+     * Safe to call from several threads at once.
+     *
+     * @param a the storage. Modified.
+     * @param threads threads to use
+     */
+    public static void settle(Amplitudes a, int threads) {
+        if (!a.framed) {
+            return;
+        }
+        synchronized (a) {
+            if (!a.framed) {
+                return;
+            }
+            if (a.phases != null) {
+                applyPhases(a, a.phases, threads);
+            }
+            List<GateOp> moves = new ArrayList<>();
+            for (int q = 0; q < a.n; q++) {
+                if (flipped(a, q)) {
+                    moves.add(xOp(q));
+                }
+            }
+            execute(a, moves, threads);
+            a.flips = 0;
+            a.phases = null;
+            a.framed = false;
+        }
+    }
+
+    /** Applies gates to the amplitudes as they are (no frame). */
+    static void execute(Amplitudes a, List<GateOp> ops, int threads) {
+        if (ops.isEmpty()) {
+            return;
+        }
+        if (a.isSingle()) {
+            Windows.apply(a, ops, threads);
+            return;
+        }
+        int blockLog = Math.min(CACHE_LOG, a.chunkLog);
+        boolean blocking = a.n > blockLog;
+        List<Kernels.Plan> group = new ArrayList<>();
+        for (GateOp op : ops) {
+            Kernels.Plan p = op.plan(a);
+            if (blocking && p.unitsPerBlock(blockLog) >= 0) {
+                group.add(p);
+                continue;
+            }
+            flush(a, group, blockLog, threads);
+            p.apply(threads);
+        }
+        flush(a, group, blockLog, threads);
+    }
+
+    /** Applies a group of cache-blockable plans (one alone needs no blocking), then clears it. */
+    private static void flush(Amplitudes a, List<Kernels.Plan> group, int blockLog, int threads) {
+        if (group.size() == 1) {
+            group.get(0).apply(threads);
+        } else if (group.size() > 1) {
+            Kernels.applyBlocked(a, group.toArray(new Kernels.Plan[0]), blockLog, threads);
+        }
+        group.clear();
+    }
+
+    static GateOp xOp(int q) {
+        return new GateOp(GateOp.MONOMIAL, new int[] {q}, NONE, X_PHASES, X_PERM);
+    }
+
+    private static boolean unit(double re, double im) {
+        return Math.abs(re * re + im * im - 1) <= UNIT_TOLERANCE;
+    }
+
+    /**
+     * Takes a single-qubit diagonal or permutation gate without controls into the frame, if
+     * its entries are unit phases; returns whether it did.
+     */
+    private static boolean absorb(Amplitudes a, GateOp op) {
+        if (op.targets.length != 1 || op.controls.length != 0 || op.shape == GateOp.DENSE) {
+            return false;
+        }
+        double[] g = op.data;
+        if (!unit(g[0], g[1]) || !unit(g[2], g[3])) {
+            return false;
+        }
+        int q = op.targets[0];
+        boolean swaps = op.shape == GateOp.MONOMIAL && op.perm[0] == 1;
+        // X^m G X^m on qubit q: the entries swap where q is flipped; G = X diag(g0, g1) when
+        // it swaps. The diagonal part multiplies the frame phases of q.
+        int b = flipped(a, q) ? 1 : 0;
+        double d0r = g[2 * b], d0i = g[2 * b + 1];
+        double d1r = g[2 - 2 * b], d1i = g[3 - 2 * b];
+        if (!(d0r == 1 && d0i == 0 && d1r == 1 && d1i == 0)) {
+            if (a.phases == null) {
+                a.phases = new double[4 * a.n];
+                for (int x = 0; x < a.n; x++) {
+                    a.phases[4 * x] = 1;
+                    a.phases[4 * x + 2] = 1;
+                }
+            }
+            double[] p = a.phases;
+            int o = 4 * q;
+            double r0 = d0r * p[o] - d0i * p[o + 1];
+            double i0 = d0r * p[o + 1] + d0i * p[o];
+            double r1 = d1r * p[o + 2] - d1i * p[o + 3];
+            double i1 = d1r * p[o + 3] + d1i * p[o + 2];
+            p[o] = r0;
+            p[o + 1] = i0;
+            p[o + 2] = r1;
+            p[o + 3] = i1;
+        }
+        if (swaps) {
+            a.flips ^= 1L << q;
+        }
+        return true;
+    }
+
+    private static boolean phased(Amplitudes a, int q) {
+        double[] p = a.phases;
+        if (p == null) {
+            return false;
+        }
+        int o = 4 * q;
+        return !(p[o] == 1 && p[o + 1] == 0 && p[o + 2] == 1 && p[o + 3] == 0);
+    }
+
+    /**
+     * Returns {@code F^-1 G F} for the stored amplitudes. A flipped control is first unflipped
+     * by a physical X, added to {@code out}.
+     */
+    private static GateOp conjugate(Amplitudes a, GateOp op, List<GateOp> out) {
+        for (int c : op.controls) {
+            if (flipped(a, c)) {
+                out.add(xOp(c));
+                a.flips ^= 1L << c;
+                if (a.phases != null) {
+                    // X_c D X_c: the two phases of c trade places.
+                    double[] p = a.phases;
+                    int o = 4 * c;
+                    double r = p[o], i = p[o + 1];
+                    p[o] = p[o + 2];
+                    p[o + 1] = p[o + 3];
+                    p[o + 2] = r;
+                    p[o + 3] = i;
+                }
+            }
+        }
+        int k = op.targets.length;
+        int f = 0;
+        boolean phased = false;
+        for (int t = 0; t < k; t++) {
+            if (flipped(a, op.targets[t])) {
+                f |= 1 << t;
+            }
+            phased |= phased(a, op.targets[t]);
+        }
+        if (f == 0 && (!phased || op.shape == GateOp.DIAGONAL)) {
+            return op;
+        }
+        int dim = 1 << k;
+        double[] d = phased ? targetPhases(a, op.targets) : null;
+        double[] g = op.data;
+        switch (op.shape) {
+            case GateOp.DIAGONAL: {
+                double[] x = new double[2 * dim];
+                for (int j = 0; j < dim; j++) {
+                    x[2 * j] = g[2 * (j ^ f)];
+                    x[2 * j + 1] = g[2 * (j ^ f) + 1];
+                }
+                return new GateOp(GateOp.DIAGONAL, op.targets, op.controls, x, null);
+            }
+            case GateOp.MONOMIAL: {
+                int[] perm = new int[dim];
+                double[] x = new double[2 * dim];
+                for (int c = 0; c < dim; c++) {
+                    perm[c] = op.perm[c ^ f] ^ f;
+                    double re = g[2 * (c ^ f)];
+                    double im = g[2 * (c ^ f) + 1];
+                    if (d != null) {
+                        double[] z = sandwich(d, perm[c], c, re, im);
+                        re = z[0];
+                        im = z[1];
+                    }
+                    x[2 * c] = re;
+                    x[2 * c + 1] = im;
+                }
+                return new GateOp(GateOp.MONOMIAL, op.targets, op.controls, x, perm);
+            }
+            default: {
+                double[] x = new double[2 * dim * dim];
+                for (int r = 0; r < dim; r++) {
+                    for (int c = 0; c < dim; c++) {
+                        int src = 2 * ((r ^ f) * dim + (c ^ f));
+                        double re = g[src];
+                        double im = g[src + 1];
+                        if (d != null) {
+                            double[] z = sandwich(d, r, c, re, im);
+                            re = z[0];
+                            im = z[1];
+                        }
+                        x[2 * (r * dim + c)] = re;
+                        x[2 * (r * dim + c) + 1] = im;
+                    }
+                }
+                return new GateOp(GateOp.DENSE, op.targets, op.controls, x, null);
+            }
+        }
+    }
+
+    /** conj(d_r) (re + i im) d_c. */
+    private static double[] sandwich(double[] d, int r, int c, double re, double im) {
+        double cr = d[2 * c], ci = d[2 * c + 1];
+        double xr = re * cr - im * ci;
+        double xi = re * ci + im * cr;
+        double rr = d[2 * r], ri = -d[2 * r + 1];
+        return new double[] {rr * xr - ri * xi, rr * xi + ri * xr};
+    }
+
+    /** The frame phase of each combination j of the targets (bit t of j is targets[t]). */
+    private static double[] targetPhases(Amplitudes a, int[] targets) {
+        int dim = 1 << targets.length;
+        double[] d = new double[2 * dim];
+        double[] p = a.phases;
+        for (int j = 0; j < dim; j++) {
+            double re = 1;
+            double im = 0;
+            for (int t = 0; t < targets.length; t++) {
+                int o = 4 * targets[t] + 2 * ((j >>> t) & 1);
+                double nr = re * p[o] - im * p[o + 1];
+                im = re * p[o + 1] + im * p[o];
+                re = nr;
+            }
+            d[2 * j] = re;
+            d[2 * j + 1] = im;
+        }
+        return d;
+    }
+
+    /** Log2 of the amplitudes that share one precomputed phase table row. */
+    private static final int ROW_LOG = 12;
+
+    /**
+     * Multiplies amplitude i by the product over qubits of its frame phase, in one pass: a
+     * table for the low {@value #ROW_LOG} qubits, one product per row for the rest.
+     */
+    private static void applyPhases(Amplitudes a, double[] p, int threads) {
+        final int rl = Math.min(ROW_LOG, a.chunkLog);
+        final int[] low = new int[rl];
+        for (int q = 0; q < rl; q++) {
+            low[q] = q;
+        }
+        final double[] table = tableOf(p, low);
+        final int n = a.n;
+        Parallel.forRange(threads, 1L << (n - rl), n >= Parallel.MIN_PARALLEL_QUBITS,
+                (from, to) -> {
+                    for (long row = from; row < to; row++) {
+                        double hr = 1;
+                        double hi = 0;
+                        for (int q = rl; q < n; q++) {
+                            int o = 4 * q + 2 * (int) ((row >>> (q - rl)) & 1);
+                            double nr = hr * p[o] - hi * p[o + 1];
+                            hi = hr * p[o + 1] + hi * p[o];
+                            hr = nr;
+                        }
+                        long first = row << rl;
+                        int c = (int) (first >>> a.chunkLog);
+                        int off = (int) (first & a.chunkMask) << 1;
+                        if (a.singles != null) {
+                            scaleRow(a.singles[c], off, table, hr, hi, 1 << rl);
+                        } else {
+                            scaleRow(a.chunks[c], off, table, hr, hi, 1 << rl);
+                        }
+                    }
+                });
+    }
+
+    /** The product of the frame phases of the given qubits for each of their combinations. */
+    private static double[] tableOf(double[] p, int[] qubits) {
+        int dim = 1 << qubits.length;
+        double[] t = new double[2 * dim];
+        t[0] = 1;
+        for (int j = 0; j < qubits.length; j++) {
+            int o = 4 * qubits[j];
+            int half = 1 << j;
+            for (int x = half - 1; x >= 0; x--) {
+                double re = t[2 * x];
+                double im = t[2 * x + 1];
+                t[2 * (x + half)] = re * p[o + 2] - im * p[o + 3];
+                t[2 * (x + half) + 1] = re * p[o + 3] + im * p[o + 2];
+                t[2 * x] = re * p[o] - im * p[o + 1];
+                t[2 * x + 1] = re * p[o + 1] + im * p[o];
+            }
+        }
+        return t;
+    }
+
+    private static void scaleRow(double[] psi, int off, double[] table, double hr, double hi,
+            int count) {
+        for (int j = 0; j < count; j++) {
+            final double tr = table[2 * j] * hr - table[2 * j + 1] * hi;
+            final double ti = table[2 * j] * hi + table[2 * j + 1] * hr;
+            final int x = off + 2 * j;
+            final double re = psi[x];
+            final double im = psi[x + 1];
+            psi[x] = tr * re - ti * im;
+            psi[x + 1] = tr * im + ti * re;
+        }
+    }
+
+    private static void scaleRow(float[] psi, int off, double[] table, double hr, double hi,
+            int count) {
+        for (int j = 0; j < count; j++) {
+            final double tr = table[2 * j] * hr - table[2 * j + 1] * hi;
+            final double ti = table[2 * j] * hi + table[2 * j + 1] * hr;
+            final int x = off + 2 * j;
+            final double re = psi[x];
+            final double im = psi[x + 1];
+            psi[x] = (float) (tr * re - ti * im);
+            psi[x + 1] = (float) (tr * im + ti * re);
+        }
+    }
+}
