@@ -22,6 +22,12 @@ import dev.qsim.kernel.Reductions;
  * threads internally ({@link #withThreads(int)}), with results identical to the bit whatever
  * the thread count.
  *
+ * <p>X, Y and single-qubit phase gates (Z, S, T, RZ, phase) without controls are not applied
+ * to the amplitudes at once but kept in a lazy frame that later gates are applied through; the
+ * first read afterwards (an amplitude, probabilities, a sample, an inner product ...) applies
+ * the frame in one pass. Every method returns what applying each gate in turn would, up to
+ * rounding; only the time a gate or a read takes shows the difference.
+ *
  * <p>Amplitudes live in primitive arrays split into chunks, so a state may exceed Java's largest
  * array: 30 qubits (16 GiB) run with {@code -Xmx20g}. A state the heap cannot hold is refused
  * with an {@link IllegalStateException} naming the bytes needed and the {@code -Xmx} that would

@@ -230,6 +230,22 @@ public final class Frame {
         }
         int dim = 1 << k;
         double[] d = phased ? targetPhases(a, op.targets) : null;
+        // Without controls, a non-diagonal gate takes the targets' frame phases into its
+        // columns and they leave the frame: G X^m D = X^m D_rest (X^f G X^f D_T). With
+        // controls the phases must stay (they act where a control is 0 too): F^-1 G F.
+        boolean take = d != null && op.controls.length == 0 && op.shape != GateOp.DIAGONAL;
+        if (take) {
+            for (int t : op.targets) {
+                int o = 4 * t;
+                a.phases[o] = 1;
+                a.phases[o + 1] = 0;
+                a.phases[o + 2] = 1;
+                a.phases[o + 3] = 0;
+            }
+            if (!anyPhased(a)) {
+                a.phases = null;
+            }
+        }
         double[] g = op.data;
         switch (op.shape) {
             case GateOp.DIAGONAL: {
@@ -247,7 +263,11 @@ public final class Frame {
                     perm[c] = op.perm[c ^ f] ^ f;
                     double re = g[2 * (c ^ f)];
                     double im = g[2 * (c ^ f) + 1];
-                    if (d != null) {
+                    if (take) {
+                        double[] z = column(d, c, re, im);
+                        re = z[0];
+                        im = z[1];
+                    } else if (d != null) {
                         double[] z = sandwich(d, perm[c], c, re, im);
                         re = z[0];
                         im = z[1];
@@ -264,7 +284,11 @@ public final class Frame {
                         int src = 2 * ((r ^ f) * dim + (c ^ f));
                         double re = g[src];
                         double im = g[src + 1];
-                        if (d != null) {
+                        if (take) {
+                            double[] z = column(d, c, re, im);
+                            re = z[0];
+                            im = z[1];
+                        } else if (d != null) {
                             double[] z = sandwich(d, r, c, re, im);
                             re = z[0];
                             im = z[1];
@@ -276,6 +300,21 @@ public final class Frame {
                 return new GateOp(GateOp.DENSE, op.targets, op.controls, x, null);
             }
         }
+    }
+
+    /** (re + i im) d_c. */
+    private static double[] column(double[] d, int c, double re, double im) {
+        double cr = d[2 * c], ci = d[2 * c + 1];
+        return new double[] {re * cr - im * ci, re * ci + im * cr};
+    }
+
+    private static boolean anyPhased(Amplitudes a) {
+        for (int q = 0; q < a.n; q++) {
+            if (phased(a, q)) {
+                return true;
+            }
+        }
+        return false;
     }
 
     /** conj(d_r) (re + i im) d_c. */
@@ -307,27 +346,42 @@ public final class Frame {
         return d;
     }
 
-    /** Log2 of the amplitudes that share one precomputed phase table row. */
+    /** Log2 of the amplitudes of one phase-table row at least, and at most. */
     private static final int ROW_LOG = 12;
+    private static final int MAX_ROW_LOG = 16;
 
     /**
      * Multiplies amplitude i by the product over qubits of its frame phase, in one pass: a
-     * table for the low {@value #ROW_LOG} qubits, one product per row for the rest.
+     * table for the low qubits (up to the highest phased one, within 2^16 entries), times one
+     * product per row for phased qubits above the table, if any.
      */
     private static void applyPhases(Amplitudes a, double[] p, int threads) {
-        final int rl = Math.min(ROW_LOG, a.chunkLog);
+        final int n = a.n;
+        int top = -1;
+        for (int q = 0; q < n; q++) {
+            if (phased(a, q)) {
+                top = q;
+            }
+        }
+        final int rl = Math.min(a.chunkLog, Math.max(Math.min(ROW_LOG, n), Math.min(top + 1,
+                MAX_ROW_LOG)));
         final int[] low = new int[rl];
         for (int q = 0; q < rl; q++) {
             low[q] = q;
         }
         final double[] table = tableOf(p, low);
-        final int n = a.n;
+        final boolean rowPhases = top >= rl;
+        boolean lowPhased = false;
+        for (int q = 0; q < rl; q++) {
+            lowPhased |= phased(a, q);
+        }
+        final boolean tablePhases = lowPhased;
         Parallel.forRange(threads, 1L << (n - rl), n >= Parallel.MIN_PARALLEL_QUBITS,
                 (from, to) -> {
                     for (long row = from; row < to; row++) {
                         double hr = 1;
                         double hi = 0;
-                        for (int q = rl; q < n; q++) {
+                        for (int q = rl; q < n && rowPhases; q++) {
                             int o = 4 * q + 2 * (int) ((row >>> (q - rl)) & 1);
                             double nr = hr * p[o] - hi * p[o + 1];
                             hi = hr * p[o + 1] + hi * p[o];
@@ -338,8 +392,12 @@ public final class Frame {
                         int off = (int) (first & a.chunkMask) << 1;
                         if (a.singles != null) {
                             scaleRow(a.singles[c], off, table, hr, hi, 1 << rl);
-                        } else {
+                        } else if (rowPhases && !tablePhases) {
+                            scaleRow(a.chunks[c], off, hr, hi, 1 << rl);
+                        } else if (rowPhases) {
                             scaleRow(a.chunks[c], off, table, hr, hi, 1 << rl);
+                        } else {
+                            scaleRow(a.chunks[c], off, table, 1 << rl);
                         }
                     }
                 });
@@ -375,6 +433,28 @@ public final class Frame {
             final double im = psi[x + 1];
             psi[x] = tr * re - ti * im;
             psi[x + 1] = tr * im + ti * re;
+        }
+    }
+
+    private static void scaleRow(double[] psi, int off, double hr, double hi, int count) {
+        final int end = off + 2 * count;
+        for (int x = off; x < end; x += 2) {
+            final double re = psi[x];
+            final double im = psi[x + 1];
+            psi[x] = hr * re - hi * im;
+            psi[x + 1] = hr * im + hi * re;
+        }
+    }
+
+    private static void scaleRow(double[] psi, int off, double[] table, int count) {
+        final int end = 2 * count;
+        for (int j = 0; j < end; j += 2) {
+            final double tr = table[j];
+            final double ti = table[j + 1];
+            final double re = psi[off + j];
+            final double im = psi[off + j + 1];
+            psi[off + j] = tr * re - ti * im;
+            psi[off + j + 1] = tr * im + ti * re;
         }
     }
 
