@@ -92,6 +92,44 @@ class LazyFrameTest {
     }
 
     /**
+     * Two threads reading a state with a frame pending, at the same moment, both see the state
+     * the gates define: H and CNOT make (|0...0> + |1...1>)/sqrt 2 on qubits 0 and 15, X flips
+     * qubit 3, rz(0.3) multiplies by e^(-0.15i) or e^(0.15i) by qubit 15, T leaves qubit 7 at 0
+     * alone (textbook definitions; common practice). The frame is applied once.
+     */
+    @Test
+    void concurrentFirstReadsSeeTheSameState() throws Exception {
+        int n = 16;
+        Circuit c = Circuit.builder(n).h(0).cnot(0, 15).x(3).rz(15, 0.3).t(7).build();
+        long low = 1L << 3;
+        long high = 1L | (1L << 3) | (1L << 15);
+        double r = 1 / Math.sqrt(2);
+        java.util.concurrent.ExecutorService pool =
+                java.util.concurrent.Executors.newFixedThreadPool(2);
+        try {
+            for (int trial = 0; trial < 20; trial++) {
+                StateVector s = StateVector.zero(n).withThreads(2).apply(c);
+                java.util.concurrent.CyclicBarrier start = new java.util.concurrent.CyclicBarrier(2);
+                java.util.concurrent.Callable<Complex[]> read = () -> {
+                    start.await();
+                    return new Complex[] {s.amplitude(low), s.amplitude(high)};
+                };
+                java.util.concurrent.Future<Complex[]> f1 = pool.submit(read);
+                java.util.concurrent.Future<Complex[]> f2 = pool.submit(read);
+                for (Complex[] got : new Complex[][] {f1.get(), f2.get()}) {
+                    assertEquals(r * Math.cos(0.15), got[0].getReal(), TOL, "trial " + trial);
+                    assertEquals(-r * Math.sin(0.15), got[0].getImaginary(), TOL);
+                    assertEquals(r * Math.cos(0.15), got[1].getReal(), TOL);
+                    assertEquals(r * Math.sin(0.15), got[1].getImaginary(), TOL);
+                }
+                assertEquals(1.0, s.norm(), TOL);
+            }
+        } finally {
+            pool.shutdownNow();
+        }
+    }
+
+    /**
      * Measurement, reset and conditions read flipped qubits correctly (X|0> = |1>, and the
      * Born rule; common practice): every shot is determined.
      */
