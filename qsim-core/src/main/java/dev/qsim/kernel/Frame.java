@@ -391,7 +391,14 @@ public final class Frame {
                         int c = (int) (first >>> a.chunkLog);
                         int off = (int) (first & a.chunkMask) << 1;
                         if (a.singles != null) {
-                            scaleRow(a.singles[c], off, table, hr, hi, 1 << rl);
+                            float[] f = a.singles[c];
+                            if (rowPhases && !tablePhases) {
+                                scaleRow(f, off, hr, hi, 1 << rl);
+                            } else if (rowPhases) {
+                                scaleRow(f, off, table, hr, hi, 1 << rl);
+                            } else {
+                                scaleRow(f, off, table, 1 << rl);
+                            }
                         } else if (rowPhases && !tablePhases) {
                             scaleRow(a.chunks[c], off, hr, hi, 1 << rl);
                         } else if (rowPhases) {
@@ -455,6 +462,28 @@ public final class Frame {
             final double im = psi[off + j + 1];
             psi[off + j] = tr * re - ti * im;
             psi[off + j + 1] = tr * im + ti * re;
+        }
+    }
+
+    private static void scaleRow(float[] psi, int off, double hr, double hi, int count) {
+        final int end = off + 2 * count;
+        for (int x = off; x < end; x += 2) {
+            final double re = psi[x];
+            final double im = psi[x + 1];
+            psi[x] = (float) (hr * re - hi * im);
+            psi[x + 1] = (float) (hr * im + hi * re);
+        }
+    }
+
+    private static void scaleRow(float[] psi, int off, double[] table, int count) {
+        final int end = 2 * count;
+        for (int j = 0; j < end; j += 2) {
+            final double tr = table[j];
+            final double ti = table[j + 1];
+            final double re = psi[off + j];
+            final double im = psi[off + j + 1];
+            psi[off + j] = (float) (tr * re - ti * im);
+            psi[off + j + 1] = (float) (tr * im + ti * re);
         }
     }
 
