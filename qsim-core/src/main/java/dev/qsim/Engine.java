@@ -8,7 +8,6 @@ import org.apache.commons.rng.UniformRandomProvider;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Frame;
 import dev.qsim.kernel.GateOp;
-import dev.qsim.kernel.Kernels;
 import dev.qsim.kernel.Reductions;
 
 /** Runs instructions on amplitudes: picks the kernel, measures, resets, tests conditions. */
@@ -16,10 +15,6 @@ final class Engine {
     private static final int[] NONE = new int[0];
 
     private Engine() {
-    }
-
-    static Kernels.Plan plan(Amplitudes a, Instruction in) {
-        return op(in).plan(a);
     }
 
     /** The kernel description of a gate instruction. */

@@ -365,11 +365,7 @@ public final class Frame {
         }
         final int rl = Math.min(a.chunkLog, Math.max(Math.min(ROW_LOG, n), Math.min(top + 1,
                 MAX_ROW_LOG)));
-        final int[] low = new int[rl];
-        for (int q = 0; q < rl; q++) {
-            low[q] = q;
-        }
-        final double[] table = tableOf(p, low);
+        final double[] table = tableOf(p, rl);
         final boolean rowPhases = top >= rl;
         boolean lowPhased = false;
         for (int q = 0; q < rl; q++) {
@@ -378,6 +374,9 @@ public final class Frame {
         final boolean tablePhases = lowPhased;
         Parallel.forRange(threads, 1L << (n - rl), n >= Parallel.MIN_PARALLEL_QUBITS,
                 (from, to) -> {
+                    // Both parts phased: the row's own table, the low table times its constant.
+                    final double[] own = rowPhases && tablePhases ? new double[table.length]
+                            : null;
                     for (long row = from; row < to; row++) {
                         double hr = 1;
                         double hi = 0;
@@ -387,36 +386,40 @@ public final class Frame {
                             hi = hr * p[o + 1] + hi * p[o];
                             hr = nr;
                         }
+                        double[] t = table;
+                        if (own != null) {
+                            for (int j = 0; j < own.length; j += 2) {
+                                own[j] = table[j] * hr - table[j + 1] * hi;
+                                own[j + 1] = table[j] * hi + table[j + 1] * hr;
+                            }
+                            t = own;
+                        }
                         long first = row << rl;
                         int c = (int) (first >>> a.chunkLog);
                         int off = (int) (first & a.chunkMask) << 1;
+                        boolean constant = rowPhases && !tablePhases;
                         if (a.singles != null) {
-                            float[] f = a.singles[c];
-                            if (rowPhases && !tablePhases) {
-                                scaleRow(f, off, hr, hi, 1 << rl);
-                            } else if (rowPhases) {
-                                scaleRow(f, off, table, hr, hi, 1 << rl);
+                            if (constant) {
+                                scaleRow(a.singles[c], off, hr, hi, 1 << rl);
                             } else {
-                                scaleRow(f, off, table, 1 << rl);
+                                scaleRow(a.singles[c], off, t, 1 << rl);
                             }
-                        } else if (rowPhases && !tablePhases) {
+                        } else if (constant) {
                             scaleRow(a.chunks[c], off, hr, hi, 1 << rl);
-                        } else if (rowPhases) {
-                            scaleRow(a.chunks[c], off, table, hr, hi, 1 << rl);
                         } else {
-                            scaleRow(a.chunks[c], off, table, 1 << rl);
+                            scaleRow(a.chunks[c], off, t, 1 << rl);
                         }
                     }
                 });
     }
 
-    /** The product of the frame phases of the given qubits for each of their combinations. */
-    private static double[] tableOf(double[] p, int[] qubits) {
-        int dim = 1 << qubits.length;
+    /** The product of the frame phases of qubits 0 to count-1 for each of their combinations. */
+    private static double[] tableOf(double[] p, int count) {
+        int dim = 1 << count;
         double[] t = new double[2 * dim];
         t[0] = 1;
-        for (int j = 0; j < qubits.length; j++) {
-            int o = 4 * qubits[j];
+        for (int j = 0; j < count; j++) {
+            int o = 4 * j;
             int half = 1 << j;
             for (int x = half - 1; x >= 0; x--) {
                 double re = t[2 * x];
@@ -428,19 +431,6 @@ public final class Frame {
             }
         }
         return t;
-    }
-
-    private static void scaleRow(double[] psi, int off, double[] table, double hr, double hi,
-            int count) {
-        for (int j = 0; j < count; j++) {
-            final double tr = table[2 * j] * hr - table[2 * j + 1] * hi;
-            final double ti = table[2 * j] * hi + table[2 * j + 1] * hr;
-            final int x = off + 2 * j;
-            final double re = psi[x];
-            final double im = psi[x + 1];
-            psi[x] = tr * re - ti * im;
-            psi[x + 1] = tr * im + ti * re;
-        }
     }
 
     private static void scaleRow(double[] psi, int off, double hr, double hi, int count) {
@@ -484,19 +474,6 @@ public final class Frame {
             final double im = psi[off + j + 1];
             psi[off + j] = (float) (tr * re - ti * im);
             psi[off + j + 1] = (float) (tr * im + ti * re);
-        }
-    }
-
-    private static void scaleRow(float[] psi, int off, double[] table, double hr, double hi,
-            int count) {
-        for (int j = 0; j < count; j++) {
-            final double tr = table[2 * j] * hr - table[2 * j + 1] * hi;
-            final double ti = table[2 * j] * hi + table[2 * j + 1] * hr;
-            final int x = off + 2 * j;
-            final double re = psi[x];
-            final double im = psi[x + 1];
-            psi[x] = (float) (tr * re - ti * im);
-            psi[x + 1] = (float) (tr * im + ti * re);
         }
     }
 }
