@@ -84,7 +84,8 @@ public final class Frame {
             if (!a.framed) {
                 return;
             }
-            if (a.phases != null) {
+            if (a.phases != null && anyPhased(a)) {
+                // Phases that cancelled (S then S-dagger) cost no pass.
                 applyPhases(a, a.phases, threads);
             }
             List<GateOp> moves = new ArrayList<>();
