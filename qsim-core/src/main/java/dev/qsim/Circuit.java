@@ -6,6 +6,8 @@ import java.util.List;
 import java.util.Objects;
 import java.util.function.Consumer;
 
+import dev.qsim.kernel.Amplitudes;
+
 /**
  * An immutable list of instructions on a fixed number of qubits and classical bits. Built with
  * {@link #builder(int)}; run with {@link Simulator} (any circuit) or
@@ -255,10 +257,10 @@ public final class Circuit {
         int d = 1 << qubits;
         double[] m = new double[2 * d * d];
         for (int col = 0; col < d; col++) {
-            StateVector s = StateVector.basis(qubits, col).withThreads(1).apply(this);
+            Amplitudes s = StateVector.basis(qubits, col).withThreads(1).apply(this).settled();
             for (int row = 0; row < d; row++) {
-                m[2 * (row * d + col)] = s.settled().re(row);
-                m[2 * (row * d + col) + 1] = s.settled().im(row);
+                m[2 * (row * d + col)] = s.re(row);
+                m[2 * (row * d + col) + 1] = s.im(row);
             }
         }
         return Operator.ofRaw(qubits, m);

@@ -58,7 +58,7 @@ public final class StateVector {
                 if (settled.isSingle()) {
                     return guarded(Amplitudes.bytes(state.qubits()), "a double-precision copy"
                             + " of the " + state.qubits() + "-qubit state",
-                            () -> state.amps.convert(false));
+                            () -> settled.convert(false));
                 }
                 return settled;
             }
@@ -610,8 +610,8 @@ public final class StateVector {
      */
     long[] sampleIndices(int shots, UniformRandomProvider rng) {
         Heap.require(16L * shots, "sampling " + shots + " shots");
-        Amplitudes amps = settled();
-        double[] sums = Reductions.blockSums(amps, threads);
+        Amplitudes store = settled();
+        double[] sums = Reductions.blockSums(store, threads);
         double total = 0;
         for (double x : sums) {
             total += x;
@@ -628,7 +628,7 @@ public final class StateVector {
             u[s] *= scale;
         }
         long[] idx = new long[shots];
-        Reductions.pickIndices(amps, sums, u, idx, threads);
+        Reductions.pickIndices(store, sums, u, idx, threads);
         return idx;
     }
 
@@ -645,10 +645,10 @@ public final class StateVector {
             return "StateVector[" + n + " qubits]";
         }
         StringBuilder sb = new StringBuilder();
-        Amplitudes amps = settled();
+        Amplitudes s = settled();
         for (long i = 0; i < dimension(); i++) {
-            double re = amps.re(i);
-            double im = amps.im(i);
+            double re = s.re(i);
+            double im = s.im(i);
             if (Math.hypot(re, im) < 1e-12) {
                 continue;
             }

@@ -247,6 +247,8 @@ public final class Frame {
                 a.phases = null;
             }
         }
+        // Rows are multiplied by conj(d_r) unless the phases were taken.
+        double[] left = take ? null : d;
         double[] g = op.data;
         switch (op.shape) {
             case GateOp.DIAGONAL: {
@@ -264,12 +266,8 @@ public final class Frame {
                     perm[c] = op.perm[c ^ f] ^ f;
                     double re = g[2 * (c ^ f)];
                     double im = g[2 * (c ^ f) + 1];
-                    if (take) {
-                        double[] z = column(d, c, re, im);
-                        re = z[0];
-                        im = z[1];
-                    } else if (d != null) {
-                        double[] z = sandwich(d, perm[c], c, re, im);
+                    if (d != null) {
+                        double[] z = sandwich(left, perm[c], d, c, re, im);
                         re = z[0];
                         im = z[1];
                     }
@@ -285,12 +283,8 @@ public final class Frame {
                         int src = 2 * ((r ^ f) * dim + (c ^ f));
                         double re = g[src];
                         double im = g[src + 1];
-                        if (take) {
-                            double[] z = column(d, c, re, im);
-                            re = z[0];
-                            im = z[1];
-                        } else if (d != null) {
-                            double[] z = sandwich(d, r, c, re, im);
+                        if (d != null) {
+                            double[] z = sandwich(left, r, d, c, re, im);
                             re = z[0];
                             im = z[1];
                         }
@@ -303,12 +297,6 @@ public final class Frame {
         }
     }
 
-    /** (re + i im) d_c. */
-    private static double[] column(double[] d, int c, double re, double im) {
-        double cr = d[2 * c], ci = d[2 * c + 1];
-        return new double[] {re * cr - im * ci, re * ci + im * cr};
-    }
-
     private static boolean anyPhased(Amplitudes a) {
         for (int q = 0; q < a.n; q++) {
             if (phased(a, q)) {
@@ -318,12 +306,16 @@ public final class Frame {
         return false;
     }
 
-    /** conj(d_r) (re + i im) d_c. */
-    private static double[] sandwich(double[] d, int r, int c, double re, double im) {
+    /** conj(left_r) (re + i im) d_c; without {@code left}, (re + i im) d_c. */
+    private static double[] sandwich(double[] left, int r, double[] d, int c, double re,
+            double im) {
         double cr = d[2 * c], ci = d[2 * c + 1];
         double xr = re * cr - im * ci;
         double xi = re * ci + im * cr;
-        double rr = d[2 * r], ri = -d[2 * r + 1];
+        if (left == null) {
+            return new double[] {xr, xi};
+        }
+        double rr = left[2 * r], ri = -left[2 * r + 1];
         return new double[] {rr * xr - ri * xi, rr * xi + ri * xr};
     }
 
