@@ -359,6 +359,10 @@ public final class Kernels {
         final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
         final int start = firstBlock << (q + 2);
         final int end = start + (count << (q + 2));
+        if (isReal(m)) {
+            real1InChunk(psi, q, m00r, m01r, m10r, m11r, start, end);
+            return;
+        }
         if (q == 0) {
             // Pairs are neighbours: one flat loop the JIT can unroll.
             for (int x = start; x < end; x += 4) {
@@ -402,6 +406,46 @@ public final class Kernels {
         }
     }
 
+    /**
+     * Whether a 2x2 matrix (re/im interleaved) has no imaginary part: H, RY and their products.
+     * Such a matrix needs half the arithmetic (four real products per amplitude pair and part).
+     */
+    static boolean isReal(double[] m) {
+        return m[1] == 0 && m[3] == 0 && m[5] == 0 && m[7] == 0;
+    }
+
+    /** {@link #dense1InChunk} for a real matrix, on the array offsets {@code [start, end)}. */
+    private static void real1InChunk(double[] psi, int q, double m00, double m01, double m10,
+            double m11, int start, int end) {
+        if (q == 0) {
+            for (int x = start; x < end; x += 4) {
+                final double ar = psi[x], ai = psi[x + 1], br = psi[x + 2], bi = psi[x + 3];
+                psi[x] = m00 * ar + m01 * br;
+                psi[x + 1] = m00 * ai + m01 * bi;
+                psi[x + 2] = m10 * ar + m11 * br;
+                psi[x + 3] = m10 * ai + m11 * bi;
+            }
+            return;
+        }
+        // With q >= 1 both halves of a block are runs of at least four doubles; re and im parts
+        // take the same real coefficients, so each run is one flat loop over doubles.
+        final int s2 = 2 << q;
+        for (int block = start; block < end; block += s2 << 1) {
+            realRuns(psi, block, psi, block + s2, s2, m00, m01, m10, m11);
+        }
+    }
+
+    /** {@code (u[uo + k], v[vo + k]) <- M (u[uo + k], v[vo + k])} for k below len, M real. */
+    private static void realRuns(double[] u, int uo, double[] v, int vo, int len, double m00,
+            double m01, double m10, double m11) {
+        for (int k = 0; k < len; k++) {
+            final double a = u[uo + k];
+            final double b = v[vo + k];
+            u[uo + k] = m00 * a + m01 * b;
+            v[vo + k] = m10 * a + m11 * b;
+        }
+    }
+
     /** Target at or above the chunk size: pair chunk c with chunk c | 2^(q - chunkLog). */
     private static void dense1High(Amplitudes a, int q, double[] m, long from, long to) {
         final int cl = a.chunkLog;
@@ -424,6 +468,10 @@ public final class Kernels {
         final double m00r = m[0], m00i = m[1], m01r = m[2], m01i = m[3];
         final double m10r = m[4], m10i = m[5], m11r = m[6], m11i = m[7];
         final int n2 = count << 1;
+        if (isReal(m)) {
+            realRuns(u, uo, v, vo, n2, m00r, m01r, m10r, m11r);
+            return;
+        }
         for (int k = 0; k < n2; k += 2) {
             final int x = uo + k;
             final int y = vo + k;

@@ -150,6 +150,16 @@ final class SingleKernels {
             }
             return;
         }
+        if (Kernels.isReal(m)) {
+            for (int x = x0; x < end; x += 4) {
+                final double ar = psi[x], ai = psi[x + 1], br = psi[x + 2], bi = psi[x + 3];
+                psi[x] = (float) (m00r * ar + m01r * br);
+                psi[x + 1] = (float) (m00r * ai + m01r * bi);
+                psi[x + 2] = (float) (m10r * ar + m11r * br);
+                psi[x + 3] = (float) (m10r * ai + m11r * bi);
+            }
+            return;
+        }
         for (int x = x0; x < end; x += 4) {
             final double ar = psi[x], ai = psi[x + 1], br = psi[x + 2], bi = psi[x + 3];
             psi[x] = (float) (m00r * ar - m00i * ai + m01r * br - m01i * bi);
@@ -170,6 +180,16 @@ final class SingleKernels {
                 final float t = u[uo + k];
                 u[uo + k] = v[vo + k];
                 v[vo + k] = t;
+            }
+            return;
+        }
+        if (Kernels.isReal(m)) {
+            // Re and im parts take the same real coefficients: one flat loop over floats.
+            for (int k = 0; k < n2; k++) {
+                final double a = u[uo + k];
+                final double b = v[vo + k];
+                u[uo + k] = (float) (m00r * a + m01r * b);
+                v[vo + k] = (float) (m10r * a + m11r * b);
             }
             return;
         }

@@ -79,6 +79,24 @@ class KernelsTest {
         return v;
     }
 
+    /** Float storage holding {@code v} rounded to float. */
+    static Amplitudes loadSingle(double[] v, int n, int chunkLog) {
+        Amplitudes s = Amplitudes.allocateSingle(n, chunkLog);
+        for (int i = 0; i < (1 << n); i++) {
+            s.set(i, v[2 * i], v[2 * i + 1]);
+        }
+        return s;
+    }
+
+    /** {@code v} with each part rounded to float: what float storage holds of it. */
+    static double[] rounded(double[] v) {
+        double[] out = new double[v.length];
+        for (int i = 0; i < v.length; i++) {
+            out[i] = (float) v[i];
+        }
+        return out;
+    }
+
     static int[] pickDistinct(int n, int count, SplittableRandom r) {
         int[] perm = new int[n];
         for (int i = 0; i < n; i++) {
@@ -169,13 +187,8 @@ class KernelsTest {
                 m[i] = r.nextDouble(-0.7, 0.7);
             }
             double[] in = randomVector(n, r);
-            Amplitudes s = Amplitudes.allocateSingle(n, chunkLog);
-            double[] rounded = new double[in.length];
-            for (int i = 0; i < (1 << n); i++) {
-                s.set(i, in[2 * i], in[2 * i + 1]);
-                rounded[2 * i] = (float) in[2 * i];
-                rounded[2 * i + 1] = (float) in[2 * i + 1];
-            }
+            Amplitudes s = loadSingle(in, n, chunkLog);
+            double[] rounded = rounded(in);
             GateOp op = new GateOp(GateOp.DENSE, new int[] {q}, new int[0], m, null);
             Windows.apply(s, java.util.List.of(op), threads);
             assertArrayEquals(reference(rounded, n, new int[] {q}, new int[0], m), unload(s),
@@ -246,13 +259,8 @@ class KernelsTest {
             // Moving references copies no number: equality is exact.
             assertArrayEquals(expected, unload(a), 0.0, where);
 
-            Amplitudes s = Amplitudes.allocateSingle(n, chunkLog);
-            double[] rounded = new double[in.length];
-            for (int i = 0; i < (1 << n); i++) {
-                s.set(i, in[2 * i], in[2 * i + 1]);
-                rounded[2 * i] = (float) in[2 * i];
-                rounded[2 * i + 1] = (float) in[2 * i + 1];
-            }
+            Amplitudes s = loadSingle(in, n, chunkLog);
+            double[] rounded = rounded(in);
             Windows.apply(s, java.util.List.of(op), 1);
             assertArrayEquals(reference(rounded, n, targets, controls, pm), unload(s), 0.0,
                     where + " single");
@@ -416,6 +424,49 @@ class KernelsTest {
             a = load(in, n, chunkLog);
             Kernels.monomial(a, t, none, new int[] {1, 0}, new double[] {1, 0, 1, 0}, threads);
             assertArrayEquals(reference(in, n, t, none, xm), unload(a), 0.0, "flip q" + q);
+        }
+    }
+
+    /**
+     * Real 2x2 matrices (H, RY and their products; here random real entries, since the kernels
+     * are linear) take loops with half the arithmetic: every target, in one pass and cache
+     * blocked, in double storage and (lone gates through {@link SingleKernels}) in float storage,
+     * with chunks small enough to reach the piece and chunk-pair paths. Reference and tolerances
+     * as in the tests above (Nielsen and Chuang 2010, §4.3; IEEE 754-2019 §4.3.1 for floats).
+     */
+    @ParameterizedTest(name = "n={0} chunkLog={1} threads={2}")
+    @CsvSource({"16, 16, 2", "16, 14, 1", "15, 3, 2", "6, 0, 1", "6, 1, 1"})
+    void realMatricesMatchTheReferenceOnEveryTarget(int n, int chunkLog, int threads) {
+        SplittableRandom r = new SplittableRandom(77L * n + chunkLog);
+        double[] in = randomVector(n, r);
+        int[] none = new int[0];
+        for (int q = 0; q < n; q++) {
+            double[] m = new double[8];
+            for (int i = 0; i < 8; i += 2) {
+                m[i] = r.nextDouble(-1, 1);
+            }
+            int[] t = {q};
+            double[] expected = reference(in, n, t, none, m);
+            Amplitudes a = load(in, n, chunkLog);
+            Kernels.dense(a, t, none, m, threads);
+            assertArrayEquals(expected, unload(a), TOL, "real dense q" + q);
+
+            // Cache blocked: the same gate twice in one group, against two passes.
+            if (q < Math.min(chunkLog, 10)) {
+                a = load(in, n, chunkLog);
+                Kernels.Plan[] plans = {Kernels.densePlan(a, t, none, m),
+                    Kernels.densePlan(a, t, none, m)};
+                Kernels.applyBlocked(a, plans, Math.min(chunkLog, 10), threads);
+                assertArrayEquals(reference(expected, n, t, none, m), unload(a), TOL,
+                        "real dense twice, blocked, q" + q);
+            }
+
+            Amplitudes s = loadSingle(in, n, chunkLog);
+            double[] rounded = rounded(in);
+            GateOp op = new GateOp(GateOp.DENSE, t, none, m, null);
+            Windows.apply(s, java.util.List.of(op), threads);
+            assertArrayEquals(reference(rounded, n, t, none, m), unload(s), 1e-6,
+                    "real dense on floats, q" + q);
         }
     }
 }
