@@ -55,7 +55,7 @@ public class SingleQubitGateBenchmark {
         @Param({"1", "2"})
         int threads;
 
-        /** Gate: dense (generic complex unitary), h, ry, t (diagonal) or x (permutation). */
+        /** Gate: dense (generic complex unitary), h, rx, ry, t (diagonal) or x (permutation). */
         @Param({"dense"})
         String gate;
 

@@ -17,7 +17,7 @@ import org.apache.commons.rng.simple.RandomSource;
  */
 final class Workloads {
     /** Gate names accepted by {@link #gate(String)}, in the order shown in messages. */
-    static final List<String> GATE_NAMES = List.of("dense", "h", "ry", "t", "x");
+    static final List<String> GATE_NAMES = List.of("dense", "h", "rx", "ry", "t", "x");
 
     /** Target names accepted by {@link #target(String, int)}, in the order shown in messages. */
     static final List<String> TARGET_NAMES = List.of("low", "mid", "high");
@@ -47,7 +47,8 @@ final class Workloads {
      * <ul>
      *   <li>{@code dense}: {@code rz(1.1) ry(0.3) rz(0.7)}, a unitary with four nonzero complex
      *       entries, so no kernel can take a shortcut;</li>
-     *   <li>{@code h}: Hadamard; {@code ry}: {@code ry(0.3)} (real dense);</li>
+     *   <li>{@code h}: Hadamard; {@code ry}: {@code ry(0.3)} (real dense); {@code rx}:
+     *       {@code rx(0.3)} (real diagonal, imaginary off-diagonal);</li>
      *   <li>{@code t}: T (diagonal); {@code x}: X (a permutation).</li>
      * </ul>
      *
@@ -59,6 +60,8 @@ final class Workloads {
                 return Gates.rz(1.1).times(Gates.ry(0.3)).times(Gates.rz(0.7));
             case "h":
                 return Gates.H;
+            case "rx":
+                return Gates.rx(0.3);
             case "ry":
                 return Gates.ry(0.3);
             case "t":

@@ -128,7 +128,7 @@ class SingleQubitGateBenchmarkTest {
     void badNamesAreRefused() {
         IllegalArgumentException gate = assertThrows(IllegalArgumentException.class,
             () -> workload(4, "mid", 1, "swap"));
-        assertEquals("gate 'swap' is not known; allowed: dense, h, ry, t, x", gate.getMessage());
+        assertEquals("gate 'swap' is not known; allowed: dense, h, rx, ry, t, x", gate.getMessage());
         IllegalArgumentException target = assertThrows(IllegalArgumentException.class,
             () -> Workloads.target("middle", 4));
         assertEquals("target 'middle' is not known; allowed: low, mid, high", target.getMessage());

@@ -363,6 +363,17 @@ public final class Kernels {
             real1InChunk(psi, q, m00r, m01r, m10r, m11r, start, end);
             return;
         }
+        if (isCrossImaginary(m)) {
+            if (q == 0) {
+                crossPairs(psi, start, psi, start + 2, (end - start) >> 2, 4, m);
+                return;
+            }
+            final int s2 = 2 << q;
+            for (int block = start; block < end; block += s2 << 1) {
+                crossPairs(psi, block, psi, block + s2, 1 << q, 2, m);
+            }
+            return;
+        }
         if (q == 0) {
             // Pairs are neighbours: one flat loop the JIT can unroll.
             for (int x = start; x < end; x += 4) {
@@ -412,6 +423,33 @@ public final class Kernels {
      */
     static boolean isReal(double[] m) {
         return m[1] == 0 && m[3] == 0 && m[5] == 0 && m[7] == 0;
+    }
+
+    /**
+     * Whether a 2x2 matrix (re/im interleaved) has a real diagonal and an imaginary
+     * off-diagonal, as RX has: half the arithmetic of a complex matrix, like a real one.
+     */
+    static boolean isCrossImaginary(double[] m) {
+        return m[1] == 0 && m[2] == 0 && m[4] == 0 && m[7] == 0;
+    }
+
+    /**
+     * {@code count} pairs {@code (u[uo + k], v[vo + k])}, k stepping by {@code step} doubles,
+     * times a matrix {@code [[d0, i o01], [i o10, d1]]} with d0, o01, o10, d1 real.
+     */
+    private static void crossPairs(double[] u, int uo, double[] v, int vo, int count, int step,
+            double[] m) {
+        final double d0 = m[0], o01 = m[3], o10 = m[5], d1 = m[6];
+        final int len = count * step;
+        for (int k = 0; k < len; k += step) {
+            final int x = uo + k;
+            final int y = vo + k;
+            final double ar = u[x], ai = u[x + 1], br = v[y], bi = v[y + 1];
+            u[x] = d0 * ar - o01 * bi;
+            u[x + 1] = d0 * ai + o01 * br;
+            v[y] = d1 * br - o10 * ai;
+            v[y + 1] = d1 * bi + o10 * ar;
+        }
     }
 
     /** {@link #dense1InChunk} for a real matrix, on the array offsets {@code [start, end)}. */
@@ -470,6 +508,10 @@ public final class Kernels {
         final int n2 = count << 1;
         if (isReal(m)) {
             realRuns(u, uo, v, vo, n2, m00r, m01r, m10r, m11r);
+            return;
+        }
+        if (isCrossImaginary(m)) {
+            crossPairs(u, uo, v, vo, count, 2, m);
             return;
         }
         for (int k = 0; k < n2; k += 2) {

@@ -160,6 +160,10 @@ final class SingleKernels {
             }
             return;
         }
+        if (Kernels.isCrossImaginary(m)) {
+            crossPairs(psi, x0, psi, x0 + 2, count, 4, m);
+            return;
+        }
         for (int x = x0; x < end; x += 4) {
             final double ar = psi[x], ai = psi[x + 1], br = psi[x + 2], bi = psi[x + 3];
             psi[x] = (float) (m00r * ar - m00i * ai + m01r * br - m01i * bi);
@@ -193,6 +197,10 @@ final class SingleKernels {
             }
             return;
         }
+        if (Kernels.isCrossImaginary(m)) {
+            crossPairs(u, uo, v, vo, count, 2, m);
+            return;
+        }
         for (int k = 0; k < n2; k += 2) {
             final int x = uo + k;
             final int y = vo + k;
@@ -201,6 +209,22 @@ final class SingleKernels {
             u[x + 1] = (float) (m00r * ai + m00i * ar + m01r * bi + m01i * br);
             v[y] = (float) (m10r * ar - m10i * ai + m11r * br - m11i * bi);
             v[y + 1] = (float) (m10r * ai + m10i * ar + m11r * bi + m11i * br);
+        }
+    }
+
+    /** {@code Kernels.crossPairs} on float storage: RX-shaped matrices, half the arithmetic. */
+    private static void crossPairs(float[] u, int uo, float[] v, int vo, int count, int step,
+            double[] m) {
+        final double d0 = m[0], o01 = m[3], o10 = m[5], d1 = m[6];
+        final int len = count * step;
+        for (int k = 0; k < len; k += step) {
+            final int x = uo + k;
+            final int y = vo + k;
+            final double ar = u[x], ai = u[x + 1], br = v[y], bi = v[y + 1];
+            u[x] = (float) (d0 * ar - o01 * bi);
+            u[x + 1] = (float) (d0 * ai + o01 * br);
+            v[y] = (float) (d1 * br - o10 * ai);
+            v[y + 1] = (float) (d1 * bi + o10 * ar);
         }
     }
 

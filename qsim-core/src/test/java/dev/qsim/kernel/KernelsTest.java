@@ -428,28 +428,32 @@ class KernelsTest {
     }
 
     /**
-     * Real 2x2 matrices (H, RY and their products; here random real entries, since the kernels
-     * are linear) take loops with half the arithmetic: every target, in one pass and cache
+     * Real 2x2 matrices (H, RY and their products) and matrices shaped like RX (real diagonal,
+     * imaginary off-diagonal) take loops with half the arithmetic; here their entries are
+     * random, since the kernels are linear. Every target, in one pass and cache
      * blocked, in double storage and (lone gates through {@link SingleKernels}) in float storage,
      * with chunks small enough to reach the piece and chunk-pair paths. Reference and tolerances
      * as in the tests above (Nielsen and Chuang 2010, §4.3; IEEE 754-2019 §4.3.1 for floats).
      */
     @ParameterizedTest(name = "n={0} chunkLog={1} threads={2}")
     @CsvSource({"16, 16, 2", "16, 14, 1", "15, 3, 2", "6, 0, 1", "6, 1, 1"})
-    void realMatricesMatchTheReferenceOnEveryTarget(int n, int chunkLog, int threads) {
+    void realAndRxShapedMatricesMatchTheReferenceOnEveryTarget(int n, int chunkLog, int threads) {
         SplittableRandom r = new SplittableRandom(77L * n + chunkLog);
         double[] in = randomVector(n, r);
         int[] none = new int[0];
-        for (int q = 0; q < n; q++) {
+        for (int shaped = 0; shaped < 2 * n; shaped++) {
+            int q = shaped / 2;
             double[] m = new double[8];
-            for (int i = 0; i < 8; i += 2) {
+            // Even: real entries (H, RY); odd: real diagonal, imaginary off-diagonal (RX).
+            int[] slots = shaped % 2 == 0 ? new int[] {0, 2, 4, 6} : new int[] {0, 3, 5, 6};
+            for (int i : slots) {
                 m[i] = r.nextDouble(-1, 1);
             }
             int[] t = {q};
             double[] expected = reference(in, n, t, none, m);
             Amplitudes a = load(in, n, chunkLog);
             Kernels.dense(a, t, none, m, threads);
-            assertArrayEquals(expected, unload(a), TOL, "real dense q" + q);
+            assertArrayEquals(expected, unload(a), TOL, "shape " + shaped % 2 + " q" + q);
 
             // Cache blocked: the same gate twice in one group, against two passes.
             if (q < Math.min(chunkLog, 10)) {
@@ -458,7 +462,7 @@ class KernelsTest {
                     Kernels.densePlan(a, t, none, m)};
                 Kernels.applyBlocked(a, plans, Math.min(chunkLog, 10), threads);
                 assertArrayEquals(reference(expected, n, t, none, m), unload(a), TOL,
-                        "real dense twice, blocked, q" + q);
+                        "shape " + shaped % 2 + " twice, blocked, q" + q);
             }
 
             Amplitudes s = loadSingle(in, n, chunkLog);
@@ -466,7 +470,7 @@ class KernelsTest {
             GateOp op = new GateOp(GateOp.DENSE, t, none, m, null);
             Windows.apply(s, java.util.List.of(op), threads);
             assertArrayEquals(reference(rounded, n, t, none, m), unload(s), 1e-6,
-                    "real dense on floats, q" + q);
+                    "shape " + shaped % 2 + " on floats, q" + q);
         }
     }
 }
