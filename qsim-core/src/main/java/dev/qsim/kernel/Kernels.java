@@ -365,12 +365,13 @@ public final class Kernels {
         }
         if (isCrossImaginary(m)) {
             if (q == 0) {
-                crossPairs(psi, start, psi, start + 2, (end - start) >> 2, 4, m);
+                crossPairs(psi, start, psi, start + 2, (end - start) >> 2, 4,
+                        m00r, m01i, m10i, m11r);
                 return;
             }
             final int s2 = 2 << q;
             for (int block = start; block < end; block += s2 << 1) {
-                crossPairs(psi, block, psi, block + s2, 1 << q, 2, m);
+                crossPairs(psi, block, psi, block + s2, 1 << q, 2, m00r, m01i, m10i, m11r);
             }
             return;
         }
@@ -438,8 +439,7 @@ public final class Kernels {
      * times a matrix {@code [[d0, i o01], [i o10, d1]]} with d0, o01, o10, d1 real.
      */
     private static void crossPairs(double[] u, int uo, double[] v, int vo, int count, int step,
-            double[] m) {
-        final double d0 = m[0], o01 = m[3], o10 = m[5], d1 = m[6];
+            double d0, double o01, double o10, double d1) {
         final int len = count * step;
         for (int k = 0; k < len; k += step) {
             final int x = uo + k;
@@ -511,7 +511,7 @@ public final class Kernels {
             return;
         }
         if (isCrossImaginary(m)) {
-            crossPairs(u, uo, v, vo, count, 2, m);
+            crossPairs(u, uo, v, vo, count, 2, m00r, m01i, m10i, m11r);
             return;
         }
         for (int k = 0; k < n2; k += 2) {

@@ -161,7 +161,7 @@ final class SingleKernels {
             return;
         }
         if (Kernels.isCrossImaginary(m)) {
-            crossPairs(psi, x0, psi, x0 + 2, count, 4, m);
+            crossPairs(psi, x0, psi, x0 + 2, count, 4, m00r, m01i, m10i, m11r);
             return;
         }
         for (int x = x0; x < end; x += 4) {
@@ -198,7 +198,7 @@ final class SingleKernels {
             return;
         }
         if (Kernels.isCrossImaginary(m)) {
-            crossPairs(u, uo, v, vo, count, 2, m);
+            crossPairs(u, uo, v, vo, count, 2, m00r, m01i, m10i, m11r);
             return;
         }
         for (int k = 0; k < n2; k += 2) {
@@ -214,8 +214,7 @@ final class SingleKernels {
 
     /** {@code Kernels.crossPairs} on float storage: RX-shaped matrices, half the arithmetic. */
     private static void crossPairs(float[] u, int uo, float[] v, int vo, int count, int step,
-            double[] m) {
-        final double d0 = m[0], o01 = m[3], o10 = m[5], d1 = m[6];
+            double d0, double o01, double o10, double d1) {
         final int len = count * step;
         for (int k = 0; k < len; k += step) {
             final int x = uo + k;
