@@ -1,12 +1,16 @@
 package dev.qsim;
 
 import java.util.ArrayList;
-import java.util.Collections;
+import java.util.Arrays;
+import java.util.BitSet;
 import java.util.List;
 import java.util.Objects;
+import java.util.OptionalInt;
 import java.util.function.Consumer;
 
-import dev.qsim.kernel.Amplitudes;
+import dev.qsim.internal.Checks;
+import dev.qsim.kernel.GateOp;
+import dev.qsim.kernel.Matrices;
 
 /**
  * An immutable list of instructions on a fixed number of qubits and classical bits. Built with
@@ -119,12 +123,128 @@ public final class Circuit {
      * Tells whether every measurement could be moved to the end without changing what the
      * circuit does: no reset, no condition, and no gate on a qubit after that qubit was measured
      * (the deferred-measurement principle, Nielsen and Chuang 2010, §4.4). Such a circuit's
-     * shots can all be drawn from one final state.
+     * shots can all be drawn from one final state; this is the one place that rule is decided.
      *
      * @return whether the measurements come last
      */
     public boolean measuresAtEnd() {
-        return Simulator.measurementsDeferrable(instructions);
+        return firstAfterMeasurement() < 0;
+    }
+
+    /**
+     * Returns the index of the first instruction that stops the measurements from being moved
+     * to the end (a reset, a condition, or a gate on a measured qubit), or -1 if there is none.
+     */
+    int firstAfterMeasurement() {
+        BitSet measured = new BitSet();
+        for (int i = 0; i < instructions.size(); i++) {
+            Instruction in = instructions.get(i);
+            switch (in.kind()) {
+                case MEASURE:
+                    measured.set(in.targetsRaw()[0]);
+                    break;
+                case GATE:
+                    for (int q : in.targetsRaw()) {
+                        if (measured.get(q)) {
+                            return i;
+                        }
+                    }
+                    for (int q : in.controlsRaw()) {
+                        if (measured.get(q)) {
+                            return i;
+                        }
+                    }
+                    break;
+                default:
+                    return i;
+            }
+        }
+        return -1;
+    }
+
+    /** Says why instruction {@code stop} keeps the measurements from moving to the end. */
+    String whyNotAtEnd(int stop) {
+        Instruction in = instructions.get(stop);
+        switch (in.kind()) {
+            case RESET:
+                return "instruction " + stop + " is a reset (" + in + ")";
+            case IF_BIT:
+                return "instruction " + stop + " is a block conditioned on clbit " + in.clbit()
+                        + " (" + Checks.excerpt(in.toString()) + ")";
+            default:
+                return "instruction " + stop + " (" + in + ") acts on a qubit after it was"
+                        + " measured";
+        }
+    }
+
+    /**
+     * Returns, for each classical bit, the qubit whose measurement last writes it, or -1 for a
+     * bit no measurement writes (it reads 0). Conditioned blocks are not looked into: this is
+     * the map of a circuit whose {@linkplain #measuresAtEnd() measurements come last}, where
+     * each clbit's final value is its qubit's value in the final state.
+     *
+     * @return a new array of length {@link #clbits()}
+     */
+    public int[] clbitSources() {
+        int[] source = new int[clbits];
+        Arrays.fill(source, -1);
+        for (Instruction in : instructions) {
+            if (in.kind() == Instruction.Kind.MEASURE) {
+                source[in.clbit()] = in.targetsRaw()[0];
+            }
+        }
+        return source;
+    }
+
+    /**
+     * Returns the gates of this circuit without its measurements, for a circuit whose
+     * {@linkplain #measuresAtEnd() measurements come last}: the state those gates make is the
+     * state the measurements read.
+     *
+     * @return a circuit of gates only, with the same qubits and clbits
+     * @throws IllegalArgumentException if a reset, a condition or a gate after a measurement of
+     *     one of its qubits stops the measurements from being moved to the end
+     */
+    public Circuit withoutMeasurements() {
+        int stop = firstAfterMeasurement();
+        if (stop >= 0) {
+            throw new IllegalArgumentException(whyNotAtEnd(stop) + ", so the measurements"
+                    + " cannot all be moved to the end; run such circuits shot by shot with"
+                    + " Simulator");
+        }
+        List<Instruction> gates = new ArrayList<>(instructions.size());
+        for (Instruction in : instructions) {
+            if (in.kind() == Instruction.Kind.GATE) {
+                gates.add(in);
+            }
+        }
+        return new Circuit(qubits, clbits, gates);
+    }
+
+    /**
+     * Tells whether the stabilizer engine can run this circuit: every gate is a Clifford
+     * catalogue gate for its angles ({@link Instruction#isClifford()}); measurements, resets
+     * and conditions are allowed.
+     *
+     * @return whether the circuit is Clifford
+     */
+    public boolean isClifford() {
+        return firstNonClifford().isEmpty();
+    }
+
+    /**
+     * Returns the index of the first instruction that is not Clifford (a conditioned block
+     * counts when its body holds a non-Clifford gate).
+     *
+     * @return the index, or empty if the circuit is Clifford
+     */
+    public OptionalInt firstNonClifford() {
+        for (int i = 0; i < instructions.size(); i++) {
+            if (!instructions.get(i).isClifford()) {
+                return OptionalInt.of(i);
+            }
+        }
+        return OptionalInt.empty();
     }
 
     /**
@@ -194,50 +314,19 @@ public final class Circuit {
     }
 
     private static Instruction inverseOf(Instruction in) {
-        String name = in.name();
-        double[] a = in.anglesRaw();
-        int[] t = in.targetsRaw();
-        int[] c = in.controlsRaw();
-        switch (name) {
-            case "s":
-                return Instruction.gate("sDagger", new double[0], Gates.S_DAGGER, t, c);
-            case "sDagger":
-                return Instruction.gate("s", new double[0], Gates.S, t, c);
-            case "t":
-                return Instruction.gate("tDagger", new double[0], Gates.T_DAGGER, t, c);
-            case "tDagger":
-                return Instruction.gate("t", new double[0], Gates.T, t, c);
-            case "sqrtX":
-                return Instruction.gate("sqrtXDagger", new double[0], Gates.SQRT_X_DAGGER, t, c);
-            case "sqrtXDagger":
-                return Instruction.gate("sqrtX", new double[0], Gates.SQRT_X, t, c);
-            case "rx":
-                return Instruction.gate(name, new double[] {-a[0]}, Gates.rx(-a[0]), t, c);
-            case "ry":
-                return Instruction.gate(name, new double[] {-a[0]}, Gates.ry(-a[0]), t, c);
-            case "rz":
-                return Instruction.gate(name, new double[] {-a[0]}, Gates.rz(-a[0]), t, c);
-            case "phase":
-                return Instruction.gate(name, new double[] {-a[0]}, Gates.phase(-a[0]), t, c);
-            case "cphase":
-                return Instruction.gate(name, new double[] {-a[0]}, Gates.cphase(-a[0]), t, c);
-            case "rzz":
-                return Instruction.gate(name, new double[] {-a[0]}, Gates.rzz(-a[0]), t, c);
-            case "h":
-            case "x":
-            case "y":
-            case "z":
-            case "cnot":
-            case "cz":
-            case "swap":
-            case "toffoli":
-            case "fredkin":
-                return in; // self-inverse (Nielsen and Chuang 2010, §4.2-4.3)
-            default:
-                Operator op = in.operator();
-                Operator inv = op.dagger();
-                return Instruction.gate(name, a, inv.equals(op) ? op : inv, t, c);
+        Gate g = in.gate();
+        if (g == Gate.UNITARY) {
+            Operator op = in.operator();
+            Operator inv = op.dagger();
+            return Instruction.gate(g, in.anglesRaw(), inv.equals(op) ? op : inv,
+                    in.targetsRaw(), in.controlsRaw());
         }
+        Gate inv = g.inverse();
+        double[] a = g.inverseAngles(in.anglesRaw());
+        if (inv == g && a.length == 0) {
+            return in; // self-inverse (Nielsen and Chuang 2010, §4.2-4.3)
+        }
+        return Instruction.gate(inv, a, inv.operator(a), in.targetsRaw(), in.controlsRaw());
     }
 
     /**
@@ -254,15 +343,11 @@ public final class Circuit {
                     + " qubits but the circuit has " + qubits);
         }
         requireGatesOnly("toOperator()");
-        int d = 1 << qubits;
-        double[] m = new double[2 * d * d];
-        for (int col = 0; col < d; col++) {
-            Amplitudes s = StateVector.basis(qubits, col).withThreads(1).apply(this).settled();
-            for (int row = 0; row < d; row++) {
-                m[2 * (row * d + col)] = s.re(row);
-                m[2 * (row * d + col) + 1] = s.im(row);
-            }
+        List<GateOp> plans = new ArrayList<>(instructions.size());
+        for (Instruction in : instructions) {
+            plans.add(in.plan());
         }
+        double[] m = Matrices.ofGates(qubits, plans);
         return Operator.ofRaw(qubits, m);
     }
 
@@ -335,9 +420,16 @@ public final class Circuit {
      * records anything, so a refused call leaves the builder as it was. Mutable; not
      * thread-safe. {@link #build()} may be called more than once.
      *
+     * <p>The named methods ({@link #h}, {@link #cnot}, {@link #rz} ...) and the general
+     * {@link #gate(Gate, double[], int...)} record entries of the {@link Gate} catalogue; the
+     * matrices are those of {@link Gates}.
+     *
      * @since 0.1
      */
     public static final class Builder {
+        private static final double[] NO_ANGLES = new double[0];
+        private static final int[] NONE = new int[0];
+
         private final int qubits;
         private final int clbits;
         private final List<Instruction> list = new ArrayList<>();
@@ -347,16 +439,102 @@ public final class Circuit {
             this.clbits = clbits;
         }
 
-        private Builder one(String name, Operator op, int q) {
-            Checks.requireQubit(q, qubits);
-            list.add(Instruction.gate(name, op, q));
+        /**
+         * Checks and records a catalogue gate with added controls, recording the controlled
+         * form's own entry where it has one.
+         */
+        private Builder record(Gate gate, double[] angles, int[] extra, int[] qs) {
+            Objects.requireNonNull(gate, "gate");
+            Objects.requireNonNull(angles, "angles");
+            Objects.requireNonNull(extra, "controls");
+            Objects.requireNonNull(qs, "qubits");
+            if (gate == Gate.UNITARY) {
+                throw new IllegalArgumentException("unitary has no fixed matrix; record it with"
+                        + " apply(Operator, int...) or controlled(Operator, int[], int...)");
+            }
+            if (qs.length != gate.qubits()) {
+                throw new IllegalArgumentException("gate " + gate.id() + " acts on "
+                        + gate.qubits() + " qubit(s) but " + qs.length
+                        + " qubit index(es) were given");
+            }
+            int[] all = concat(extra, qs);
+            Checks.requireDistinctQubits(all, qubits, "the qubits of " + gate.id());
+            gate.requireAngles(angles);
+            double[] a = angles.clone();
+            Gate named = gate.withControls(extra.length).orElse(null);
+            if (named != null) {
+                list.add(Instruction.gate(named, a, named.operator(a),
+                        Arrays.copyOfRange(all, named.controls(), all.length),
+                        Arrays.copyOf(all, named.controls())));
+            } else {
+                int own = extra.length + gate.controls();
+                list.add(Instruction.gate(gate, a, gate.operator(a),
+                        Arrays.copyOfRange(all, own, all.length), Arrays.copyOf(all, own)));
+            }
             return this;
         }
 
-        private Builder rotation(String name, Operator op, double angle, int... qs) {
-            Checks.requireDistinctQubits(qs, qubits, "the qubits of " + name);
-            list.add(Instruction.gate(name, new double[] {angle}, op, qs, new int[0]));
-            return this;
+        private static int[] concat(int[] a, int[] b) {
+            int[] all = Arrays.copyOf(a, a.length + b.length);
+            System.arraycopy(b, 0, all, a.length, b.length);
+            return all;
+        }
+
+        private Builder fixed(Gate gate, int... qs) {
+            return record(gate, NO_ANGLES, NONE, qs);
+        }
+
+        private Builder turned(Gate gate, double angle, int... qs) {
+            return record(gate, new double[] {angle}, NONE, qs);
+        }
+
+        /**
+         * Appends a catalogue gate without angles, given its qubits (controls first, then
+         * targets, as {@link Gate#qubits()} counts them).
+         *
+         * @param gate the gate, with {@link Gate#parameters()} 0
+         * @param qubits distinct qubits, {@code gate.qubits()} of them
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if the qubit count is wrong, a qubit repeats, the
+         *     gate takes angles, or the gate is {@link Gate#UNITARY}
+         */
+        public Builder gate(Gate gate, int... qubits) {
+            return record(gate, NO_ANGLES, NONE, qubits);
+        }
+
+        /**
+         * Appends a catalogue gate with its angles, given its qubits (controls first, then
+         * targets).
+         *
+         * @param gate the gate
+         * @param angles {@code gate.parameters()} finite angles in radians
+         * @param qubits distinct qubits, {@code gate.qubits()} of them
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if a count is wrong, a qubit repeats, an angle is
+         *     not finite, or the gate is {@link Gate#UNITARY}
+         */
+        public Builder gate(Gate gate, double[] angles, int... qubits) {
+            return record(gate, angles, NONE, qubits);
+        }
+
+        /**
+         * Appends a catalogue gate applied only where every one of {@code controls} is 1. A
+         * controlled form with an entry of its own is recorded as that entry
+         * ({@link Gate#withControls(int)}: {@code X} with one control is {@link Gate#CNOT}).
+         *
+         * @param gate the gate
+         * @param angles {@code gate.parameters()} finite angles in radians
+         * @param controls the added control qubits (may be empty)
+         * @param qubits the gate's own qubits, {@code gate.qubits()} of them
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if a count is wrong, a qubit repeats among controls
+         *     and qubits, an angle is not finite, or the gate is {@link Gate#UNITARY}
+         */
+        public Builder controlled(Gate gate, double[] angles, int[] controls, int... qubits) {
+            return record(gate, angles, controls, qubits);
         }
 
         /**
@@ -367,7 +545,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder h(int q) {
-            return one("h", Gates.H, q);
+            return fixed(Gate.H, q);
         }
 
         /**
@@ -378,7 +556,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder x(int q) {
-            return one("x", Gates.X, q);
+            return fixed(Gate.X, q);
         }
 
         /**
@@ -389,7 +567,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder y(int q) {
-            return one("y", Gates.Y, q);
+            return fixed(Gate.Y, q);
         }
 
         /**
@@ -400,7 +578,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder z(int q) {
-            return one("z", Gates.Z, q);
+            return fixed(Gate.Z, q);
         }
 
         /**
@@ -411,7 +589,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder s(int q) {
-            return one("s", Gates.S, q);
+            return fixed(Gate.S, q);
         }
 
         /**
@@ -422,7 +600,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder sDagger(int q) {
-            return one("sDagger", Gates.S_DAGGER, q);
+            return fixed(Gate.S_DAGGER, q);
         }
 
         /**
@@ -433,7 +611,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder t(int q) {
-            return one("t", Gates.T, q);
+            return fixed(Gate.T, q);
         }
 
         /**
@@ -444,7 +622,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder tDagger(int q) {
-            return one("tDagger", Gates.T_DAGGER, q);
+            return fixed(Gate.T_DAGGER, q);
         }
 
         /**
@@ -455,7 +633,7 @@ public final class Circuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder sqrtX(int q) {
-            return one("sqrtX", Gates.SQRT_X, q);
+            return fixed(Gate.SQRT_X, q);
         }
 
         /**
@@ -468,7 +646,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if {@code angle} is not finite
          */
         public Builder rx(int q, double angle) {
-            return rotation("rx", Gates.rx(angle), angle, q);
+            return turned(Gate.RX, angle, q);
         }
 
         /**
@@ -481,7 +659,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if {@code angle} is not finite
          */
         public Builder ry(int q, double angle) {
-            return rotation("ry", Gates.ry(angle), angle, q);
+            return turned(Gate.RY, angle, q);
         }
 
         /**
@@ -494,7 +672,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if {@code angle} is not finite
          */
         public Builder rz(int q, double angle) {
-            return rotation("rz", Gates.rz(angle), angle, q);
+            return turned(Gate.RZ, angle, q);
         }
 
         /**
@@ -507,7 +685,23 @@ public final class Circuit {
          * @throws IllegalArgumentException if {@code angle} is not finite
          */
         public Builder phase(int q, double angle) {
-            return rotation("phase", Gates.phase(angle), angle, q);
+            return turned(Gate.PHASE, angle, q);
+        }
+
+        /**
+         * Appends the general single-qubit gate {@code u(θ, φ, λ)},
+         * {@link Gates#u(double, double, double)}.
+         *
+         * @param q the qubit
+         * @param theta radians, finite
+         * @param phi radians, finite
+         * @param lambda radians, finite
+         * @return this builder
+         * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
+         * @throws IllegalArgumentException if an angle is not finite
+         */
+        public Builder u(int q, double theta, double phi, double lambda) {
+            return record(Gate.U, new double[] {theta, phi, lambda}, NONE, new int[] {q});
         }
 
         /**
@@ -520,7 +714,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if {@code control == target}
          */
         public Builder cnot(int control, int target) {
-            return controlledGate("cnot", Gates.X, new int[] {control}, target);
+            return fixed(Gate.CNOT, control, target);
         }
 
         /**
@@ -533,10 +727,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if {@code a == b}
          */
         public Builder cz(int a, int b) {
-            int[] qs = {a, b};
-            Checks.requireDistinctQubits(qs, qubits, "the qubits of cz");
-            list.add(Instruction.gate("cz", Gates.CZ, qs));
-            return this;
+            return fixed(Gate.CZ, a, b);
         }
 
         /**
@@ -551,7 +742,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if the qubits are equal or the angle is not finite
          */
         public Builder cphase(int control, int target, double angle) {
-            return rotation("cphase", Gates.cphase(angle), angle, control, target);
+            return turned(Gate.CPHASE, angle, control, target);
         }
 
         /**
@@ -564,10 +755,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if {@code a == b}
          */
         public Builder swap(int a, int b) {
-            int[] qs = {a, b};
-            Checks.requireDistinctQubits(qs, qubits, "the qubits of swap");
-            list.add(Instruction.gate("swap", Gates.SWAP, qs));
-            return this;
+            return fixed(Gate.SWAP, a, b);
         }
 
         /**
@@ -581,7 +769,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if the qubits are equal or the angle is not finite
          */
         public Builder rzz(int a, int b, double angle) {
-            return rotation("rzz", Gates.rzz(angle), angle, a, b);
+            return turned(Gate.RZZ, angle, a, b);
         }
 
         /**
@@ -595,7 +783,7 @@ public final class Circuit {
          * @throws IllegalArgumentException if two of the qubits are equal
          */
         public Builder toffoli(int c1, int c2, int target) {
-            return controlledGate("toffoli", Gates.X, new int[] {c1, c2}, target);
+            return fixed(Gate.TOFFOLI, c1, c2, target);
         }
 
         /**
@@ -609,21 +797,14 @@ public final class Circuit {
          * @throws IllegalArgumentException if two of the qubits are equal
          */
         public Builder fredkin(int control, int a, int b) {
-            return controlledGate("fredkin", Gates.SWAP, new int[] {control}, a, b);
-        }
-
-        private Builder controlledGate(String name, Operator op, int[] controls, int... targets) {
-            int[] all = new int[controls.length + targets.length];
-            System.arraycopy(controls, 0, all, 0, controls.length);
-            System.arraycopy(targets, 0, all, controls.length, targets.length);
-            Checks.requireDistinctQubits(all, qubits, "the qubits of " + name);
-            list.add(Instruction.gate(name, new double[0], op, targets.clone(), controls.clone()));
-            return this;
+            return fixed(Gate.FREDKIN, control, a, b);
         }
 
         /**
          * Appends any unitary operator on the given qubits; bit {@code j} of the operator's
-         * matrix index is {@code qubits[j]}.
+         * matrix index is {@code qubits[j]}. An operator equal, entry for entry, to a fixed
+         * catalogue gate's matrix ({@link Gates#H}, {@link Gates#CNOT} on (control, target)
+         * ...) is recorded as that gate; any other as a {@link Gate#UNITARY}.
          *
          * @param op a unitary operator (within {@value Operator#UNITARY_TOLERANCE})
          * @param qubits distinct qubits, as many as the operator acts on
@@ -633,14 +814,14 @@ public final class Circuit {
          *     a qubit repeats, or the operator is not unitary
          */
         public Builder apply(Operator op, int... qubits) {
-            Objects.requireNonNull(op, "op");
-            requireGateShape(op, qubits, "apply");
-            list.add(Instruction.gate("apply", new double[0], op, qubits.clone(), new int[0]));
-            return this;
+            return controlled(op, NONE, qubits);
         }
 
         /**
          * Appends an operator applied to {@code targets} only where every control qubit is 1.
+         * As for {@link #apply(Operator, int...)}, an operator equal to a fixed catalogue
+         * gate's matrix is recorded as that gate (with the controls added, so {@link Gates#X}
+         * with one control is a {@link Gate#CNOT}); any other as a {@link Gate#UNITARY}.
          *
          * @param op a unitary operator (within {@value Operator#UNITARY_TOLERANCE})
          * @param controls control qubits (may be empty)
@@ -653,23 +834,26 @@ public final class Circuit {
         public Builder controlled(Operator op, int[] controls, int... targets) {
             Objects.requireNonNull(op, "op");
             Objects.requireNonNull(controls, "controls");
-            requireGateShape(op, targets, "controlled");
-            return controlledGate("controlled", op, controls, targets);
-        }
-
-        private void requireGateShape(Operator op, int[] qs, String what) {
-            Objects.requireNonNull(qs, "qubits");
-            if (qs.length != op.qubits()) {
+            Objects.requireNonNull(targets, "qubits");
+            if (targets.length != op.qubits()) {
                 throw new IllegalArgumentException("the operator acts on " + op.qubits()
-                        + " qubit(s) but " + qs.length + " qubit index(es) were given to " + what);
+                        + " qubit(s) but " + targets.length + " qubit index(es) were given");
             }
-            Checks.requireDistinctQubits(qs, qubits, "the qubits of " + what);
+            Checks.requireDistinctQubits(concat(controls, targets), qubits,
+                    "the qubits of the operator");
             double err = op.unitarityError();
             if (!(err <= Operator.UNITARY_TOLERANCE)) {
                 throw new IllegalArgumentException("the operator is not unitary: the largest entry"
                         + " of |U†U - I| is " + err + " but at most " + Operator.UNITARY_TOLERANCE
                         + " is allowed");
             }
+            Gate known = Gate.matching(op).orElse(null);
+            if (known != null) {
+                return record(known, NO_ANGLES, controls, targets);
+            }
+            list.add(Instruction.gate(Gate.UNITARY, NO_ANGLES, op, targets.clone(),
+                    controls.clone()));
+            return this;
         }
 
         /**
@@ -721,7 +905,8 @@ public final class Circuit {
         /**
          * Appends a block that runs only when classical bit {@code clbit} equals {@code value}
          * at that point of a shot. The block is recorded by {@code then} on a builder with the
-         * same qubits and clbits; it counts as one instruction.
+         * same qubits and clbits; it counts as one instruction. If {@code then} throws, nothing
+         * is recorded.
          *
          * @param clbit the classical bit to test
          * @param value 0 or 1
@@ -765,7 +950,7 @@ public final class Circuit {
          * @return an immutable circuit
          */
         public Circuit build() {
-            return new Circuit(qubits, clbits, Collections.unmodifiableList(list));
+            return new Circuit(qubits, clbits, list);
         }
     }
 }

@@ -1,9 +1,7 @@
 package dev.qsim;
 
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
-import java.util.Locale;
 
 /** Draws a circuit as text, one line per qubit, time left to right. */
 final class Diagram {
@@ -143,69 +141,13 @@ final class Diagram {
     }
 
     private static String[] labels(Instruction in) {
-        int k = in.targetsRaw().length;
-        String[] out = new String[k];
-        double[] a = in.anglesRaw();
-        switch (in.name()) {
-            case "measure":
+        switch (in.kind()) {
+            case MEASURE:
                 return new String[] {"M>c" + in.clbit()};
-            case "reset":
+            case RESET:
                 return new String[] {"|0>"};
-            case "cnot":
-            case "toffoli":
-                return new String[] {"(+)"};
-            case "swap":
-            case "fredkin":
-                return new String[] {"x", "x"};
-            case "cz":
-                return new String[] {"@", "@"};
-            case "cphase":
-                return new String[] {"@", "P(" + angle(a[0]) + ")"};
-            case "sDagger":
-                return new String[] {"S+"};
-            case "tDagger":
-                return new String[] {"T+"};
-            case "sqrtX":
-                return new String[] {"SX"};
-            case "sqrtXDagger":
-                return new String[] {"SX+"};
-            case "phase":
-                return new String[] {"P(" + angle(a[0]) + ")"};
-            case "apply":
-            case "controlled":
-                for (int j = 0; j < k; j++) {
-                    out[j] = k == 1 ? "U" : "U" + j;
-                }
-                return out;
             default:
-                String base = in.name().toUpperCase(Locale.ROOT);
-                if (a.length > 0) {
-                    StringBuilder sb = new StringBuilder(base).append('(');
-                    for (int i = 0; i < a.length; i++) {
-                        sb.append(i > 0 ? "," : "").append(angle(a[i]));
-                    }
-                    base = sb.append(')').toString();
-                }
-                Arrays.fill(out, base);
-                return out;
+                return in.gate().targetLabels(in.anglesRaw(), in.targetsRaw().length);
         }
-    }
-
-    /** Formats an angle, as a simple multiple of pi where it is one. */
-    static String angle(double x) {
-        if (x == 0) {
-            return "0";
-        }
-        for (int den = 1; den <= 16; den++) {
-            double num = x * den / Math.PI;
-            long r = Math.round(num);
-            if (r != 0 && Math.abs(num - r) < 1e-12 * Math.max(1, Math.abs(num))) {
-                String s = (r == 1 ? "" : r == -1 ? "-" : Long.toString(r)) + "pi";
-                return den == 1 ? s : s + "/" + den;
-            }
-        }
-        String s = String.format(Locale.ROOT, "%.4f", x);
-        s = s.replaceAll("0+$", "");
-        return s.endsWith(".") ? s + "0" : s;
     }
 }

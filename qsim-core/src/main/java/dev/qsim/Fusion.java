@@ -4,6 +4,8 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 
+import dev.qsim.kernel.GateOp;
+
 /**
  * Gate fusion: merges runs of gates on overlapping small qubit sets into one dense operator on
  * their union, so the state is streamed once for the run instead of once per gate. Greedy, in
@@ -60,7 +62,7 @@ final class Fusion {
     }
 
     private static double cost(Instruction in) {
-        if (in.shape != Instruction.SHAPE_DENSE) {
+        if (in.plan().shape() != GateOp.DENSE) {
             // X and single-qubit phases without controls go to the engine's lazy frame: free.
             boolean frame = in.targetsRaw().length == 1 && in.controlsRaw().length == 0;
             return frame ? 0 : CHEAP_COST;
@@ -155,7 +157,7 @@ final class Fusion {
         for (Instruction g : b.gates) {
             m = expand(g, qs).times(m);
         }
-        out.add(Instruction.gate("fused", new double[0], m, qs, new int[0]));
+        out.add(Instruction.gate(Gate.UNITARY, new double[0], m, qs, new int[0]));
     }
 
     /** The matrix of gate g (with its controls) on the block's qubits qs (bit j = qs[j]). */

@@ -1,5 +1,7 @@
 package dev.qsim;
 
+import dev.qsim.internal.Checks;
+
 /**
  * The standard gates as {@link Operator}s, with their textbook matrices.
  *

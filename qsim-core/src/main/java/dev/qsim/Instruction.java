@@ -4,16 +4,18 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.Objects;
 
+import dev.qsim.kernel.GateOp;
+
 /**
  * One step of a {@link Circuit}: a gate, a measurement, a reset, or a block of instructions
  * conditioned on a classical bit. Immutable and thread-safe; arrays are copied in and out.
  *
- * <p>A gate is an operator on its {@linkplain #targets() targets} (bit {@code j} of the matrix
- * index is {@code targets()[j]}), applied only where every {@linkplain #controls() control}
- * qubit is 1 (Barenco et al. 1995, "Elementary gates for quantum computation", Phys. Rev. A 52,
- * 3457, doi:10.1103/PhysRevA.52.3457). Its {@linkplain #name() name} is the builder method that
- * recorded it ({@code "h"}, {@code "cnot"}, {@code "rz"}, {@code "apply"} ...), with the angles
- * in {@link #angles()}.
+ * <p>A gate is a {@linkplain #gate() catalogue entry} with its {@linkplain #angles() angles},
+ * applied as its {@linkplain #operator() operator} on its {@linkplain #targets() targets} (bit
+ * {@code j} of the matrix index is {@code targets()[j]}) only where every
+ * {@linkplain #controls() control} qubit is 1 (Barenco et al. 1995, "Elementary gates for
+ * quantum computation", Phys. Rev. A 52, 3457, doi:10.1103/PhysRevA.52.3457). The controls are
+ * the entry's own ({@link Gate#CNOT} has one) followed by any added ones.
  *
  * @since 0.1
  */
@@ -30,15 +32,11 @@ public final class Instruction {
         IF_BIT
     }
 
-    static final int SHAPE_DENSE = 0;
-    static final int SHAPE_DIAGONAL = 1;
-    static final int SHAPE_MONOMIAL = 2;
-
     private static final int[] NONE = new int[0];
     private static final double[] NO_ANGLES = new double[0];
 
     private final Kind kind;
-    private final String name;
+    private final Gate gate;
     private final double[] angles;
     private final Operator operator;
     private final int[] targets;
@@ -46,16 +44,13 @@ public final class Instruction {
     private final int clbit;
     private final int value;
     private final List<Instruction> body;
+    /** The kernel's description of a gate, chosen once; null for other kinds. */
+    private final GateOp plan;
 
-    // Kernel plan, chosen once.
-    final int shape;
-    final double[] data;
-    final int[] perm;
-
-    private Instruction(Kind kind, String name, double[] angles, Operator operator, int[] targets,
+    private Instruction(Kind kind, Gate gate, double[] angles, Operator operator, int[] targets,
             int[] controls, int clbit, int value, List<Instruction> body) {
         this.kind = kind;
-        this.name = name;
+        this.gate = gate;
         this.angles = angles;
         this.operator = operator;
         this.targets = targets;
@@ -63,65 +58,28 @@ public final class Instruction {
         this.clbit = clbit;
         this.value = value;
         this.body = body;
-        if (operator == null) {
-            shape = SHAPE_DENSE;
-            data = null;
-            perm = null;
-        } else {
-            double[] m = operator.raw();
-            int d = operator.dimension();
-            if (operator.isDiagonal()) {
-                shape = SHAPE_DIAGONAL;
-                data = new double[2 * d];
-                for (int i = 0; i < d; i++) {
-                    data[2 * i] = m[2 * (i * d + i)];
-                    data[2 * i + 1] = m[2 * (i * d + i) + 1];
-                }
-                perm = null;
-            } else if (operator.isMonomial()) {
-                shape = SHAPE_MONOMIAL;
-                data = new double[2 * d];
-                perm = new int[d];
-                for (int c = 0; c < d; c++) {
-                    for (int r = 0; r < d; r++) {
-                        double re = m[2 * (r * d + c)];
-                        double im = m[2 * (r * d + c) + 1];
-                        if (re != 0 || im != 0) {
-                            perm[c] = r;
-                            data[2 * c] = re;
-                            data[2 * c + 1] = im;
-                        }
-                    }
-                }
-            } else {
-                shape = SHAPE_DENSE;
-                data = m;
-                perm = null;
-            }
-        }
+        this.plan = operator == null ? null : GateOp.of(operator.raw(), targets, controls);
     }
 
-    static Instruction gate(String name, double[] angles, Operator op, int[] targets,
+    /** A gate; arrays are taken as they are (callers pass fresh ones). */
+    static Instruction gate(Gate gate, double[] angles, Operator op, int[] targets,
             int[] controls) {
-        return new Instruction(Kind.GATE, name, angles, op, targets, controls, -1, -1, List.of());
-    }
-
-    static Instruction gate(String name, Operator op, int... targets) {
-        return gate(name, NO_ANGLES, op, targets, NONE);
+        return new Instruction(Kind.GATE, gate, angles, op, targets, controls, -1, -1,
+                List.of());
     }
 
     static Instruction measure(int qubit, int clbit) {
-        return new Instruction(Kind.MEASURE, "measure", NO_ANGLES, null, new int[] {qubit}, NONE,
+        return new Instruction(Kind.MEASURE, null, NO_ANGLES, null, new int[] {qubit}, NONE,
                 clbit, -1, List.of());
     }
 
     static Instruction reset(int qubit) {
-        return new Instruction(Kind.RESET, "reset", NO_ANGLES, null, new int[] {qubit}, NONE, -1,
+        return new Instruction(Kind.RESET, null, NO_ANGLES, null, new int[] {qubit}, NONE, -1,
                 -1, List.of());
     }
 
     static Instruction ifBit(int clbit, int value, List<Instruction> body) {
-        return new Instruction(Kind.IF_BIT, "if", NO_ANGLES, null, NONE, NONE, clbit, value,
+        return new Instruction(Kind.IF_BIT, null, NO_ANGLES, null, NONE, NONE, clbit, value,
                 List.copyOf(body));
     }
 
@@ -135,14 +93,33 @@ public final class Instruction {
     }
 
     /**
-     * Returns the name of the builder method that recorded this instruction, such as
-     * {@code "h"}, {@code "cnot"}, {@code "rz"}, {@code "apply"}, {@code "measure"},
-     * {@code "reset"} or {@code "if"}.
+     * Returns the catalogue entry of a gate ({@link Gate#UNITARY} for an operator given as a
+     * matrix), or {@code null} for a measurement, reset or conditioned block.
+     *
+     * @return the entry or null
+     */
+    public Gate gate() {
+        return gate;
+    }
+
+    /**
+     * Returns a short name: the gate's {@linkplain Gate#id() identifier} ({@code "h"},
+     * {@code "cnot"}, {@code "unitary"} ...), or {@code "measure"}, {@code "reset"} or
+     * {@code "if"}. For display; to tell gates apart use {@link #gate()}.
      *
      * @return the name
      */
     public String name() {
-        return name;
+        switch (kind) {
+            case MEASURE:
+                return "measure";
+            case RESET:
+                return "reset";
+            case IF_BIT:
+                return "if";
+            default:
+                return gate.id();
+        }
     }
 
     /**
@@ -173,12 +150,24 @@ public final class Instruction {
     }
 
     /**
-     * Returns the control qubits of a gate (empty if none).
+     * Returns the control qubits of a gate (empty if none): the entry's own, then added ones.
      *
      * @return a copy of the controls
      */
     public int[] controls() {
         return controls.clone();
+    }
+
+    /**
+     * Returns every qubit a gate, measurement or reset touches: controls first, then targets
+     * (empty for a conditioned block).
+     *
+     * @return a new array
+     */
+    public int[] qubits() {
+        int[] all = Arrays.copyOf(controls, controls.length + targets.length);
+        System.arraycopy(targets, 0, all, controls.length, targets.length);
+        return all;
     }
 
     /**
@@ -208,6 +197,29 @@ public final class Instruction {
         return body;
     }
 
+    /**
+     * Tells whether this is a gate the stabilizer engine can run: a Clifford catalogue gate
+     * ({@link Gate#isClifford(double...)}) without added controls. Measurements and resets
+     * are Clifford operations; a conditioned block is Clifford when its body is.
+     *
+     * @return whether the instruction is Clifford
+     */
+    public boolean isClifford() {
+        switch (kind) {
+            case GATE:
+                return controls.length == gate.controls() && gate.isClifford(angles);
+            case IF_BIT:
+                for (Instruction in : body) {
+                    if (!in.isClifford()) {
+                        return false;
+                    }
+                }
+                return true;
+            default:
+                return true;
+        }
+    }
+
     int[] targetsRaw() {
         return targets;
     }
@@ -220,13 +232,17 @@ public final class Instruction {
         return angles;
     }
 
-    /** True if this instruction or its body measures, resets or is conditioned. */
+    GateOp plan() {
+        return plan;
+    }
+
+    /** True if this instruction measures, resets or is conditioned. */
     boolean isClassical() {
         return kind != Kind.GATE;
     }
 
     /**
-     * Compares kind, name, angles (bitwise), operator, qubits, clbit, value and body.
+     * Compares kind, gate, angles (bitwise), operator, qubits, clbit, value and body.
      *
      * @param o another object
      * @return whether the instructions are equal
@@ -240,7 +256,7 @@ public final class Instruction {
             return false;
         }
         Instruction x = (Instruction) o;
-        return kind == x.kind && name.equals(x.name) && Arrays.equals(angles, x.angles)
+        return kind == x.kind && gate == x.gate && Arrays.equals(angles, x.angles)
                 && Objects.equals(operator, x.operator) && Arrays.equals(targets, x.targets)
                 && Arrays.equals(controls, x.controls) && clbit == x.clbit && value == x.value
                 && body.equals(x.body);
@@ -253,7 +269,7 @@ public final class Instruction {
      */
     @Override
     public int hashCode() {
-        int h = Objects.hash(kind, name, operator, clbit, value, body);
+        int h = Objects.hash(kind, gate, operator, clbit, value, body);
         h = 31 * h + Arrays.hashCode(angles);
         h = 31 * h + Arrays.hashCode(targets);
         return 31 * h + Arrays.hashCode(controls);
@@ -274,7 +290,7 @@ public final class Instruction {
             case IF_BIT:
                 return "if c" + clbit + " == " + value + " " + body;
             default:
-                StringBuilder sb = new StringBuilder(name);
+                StringBuilder sb = new StringBuilder(gate.id());
                 if (angles.length > 0) {
                     sb.append(Arrays.toString(angles).replace('[', '(').replace(']', ')'));
                 }

@@ -3,6 +3,8 @@ package dev.qsim;
 import java.util.Arrays;
 import java.util.Objects;
 
+import dev.qsim.internal.Checks;
+
 import org.apache.commons.numbers.complex.Complex;
 
 /**

@@ -1,96 +1,146 @@
 package dev.qsim;
 
-import java.util.ArrayList;
-import java.util.HashMap;
-import java.util.List;
-import java.util.Map;
 import java.util.Objects;
+import java.util.OptionalInt;
 
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 
-import dev.qsim.kernel.Amplitudes;
+import dev.qsim.internal.Bridge;
+import dev.qsim.internal.Checks;
 import dev.qsim.kernel.Parallel;
-import dev.qsim.stabilizer.CliffordRunner;
+import dev.qsim.noise.DensityMatrix;
+import dev.qsim.noise.NoiseModel;
+import dev.qsim.stabilizer.GeneratorTable;
 
 /**
- * Runs circuits and tallies their shots: an immutable configuration (seed, threads, fusion,
- * engine).
- * Each call starts from the seed, so equal calls give equal results, whatever the thread count.
- * Thread-safe.
+ * The one way to run a circuit, whatever the engine: an immutable configuration (seed,
+ * threads, engine, noise, precision, fusion) with the same shape for every engine,
+ * {@code Simulator.seeded(seed).withThreads(t).run(circuit, shots)}. Each call starts from the
+ * seed, so equal calls give equal results, whatever the thread count. Thread-safe.
  *
- * <p>How shots are taken: a circuit whose measurements could all be moved to its end (no reset,
- * no condition, no gate on a qubit after it was measured) is simulated once and its shots are
- * drawn from the final state in one pass. Any other circuit is simulated shot by shot, with the
- * gates before its first measurement, reset or condition simulated once and copied for each
- * shot. Randomness: the XoRoShiRo128++ generator of Commons RNG (Blackman and Vigna,
- * "Scrambled linear pseudorandom number generators", ACM TOMS 47 (2021),
- * doi:10.1145/3460772), seeded with the simulator's seed.
+ * <p>Engines ({@link Engine}): the state vector ({@link Engine#AMPLITUDES}), the stabilizer
+ * tableau ({@link Engine#TABLEAU}, Clifford circuits of thousands of qubits), and for noisy
+ * runs the density matrix ({@link Engine#DENSITY_MATRIX}, exact) or Monte Carlo wave-function
+ * trajectories ({@link Engine#TRAJECTORIES}, any circuit). Noise is a setting of the run
+ * ({@link #withNoise(NoiseModel)}); the engine is another ({@link #withEngine(Engine)}), by
+ * default {@link Engine#CHEAPEST}, which picks per circuit and says why
+ * ({@link #explain(Circuit, int)}).
  *
- * <p>Engines: {@link #run} uses the state-vector engine, or for circuits of Clifford gates,
- * measurements, resets and conditions the stabilizer engine
- * ({@link dev.qsim.stabilizer.CliffordRunner}), as {@link #withMethod(Method)} sets;
- * {@link #methodFor(Circuit)} tells which one runs a given circuit. The two engines draw their
- * random numbers differently, so one seed gives equally distributed but different tallies on
- * the two.
+ * <p>How shots are taken on the state vector: a circuit whose measurements could all be moved
+ * to its end ({@link Circuit#measuresAtEnd()}) is simulated once and its shots are drawn from
+ * the final state in one pass. Any other circuit is simulated shot by shot, with the gates
+ * before its first measurement, reset or condition simulated once and copied for each shot.
+ * Randomness: the XoRoShiRo128++ generator of Commons RNG (Blackman and Vigna, "Scrambled
+ * linear pseudorandom number generators", ACM TOMS 47 (2021), doi:10.1145/3460772), seeded with
+ * the simulator's seed. Different engines draw their random numbers differently, so one seed
+ * gives equally distributed but different tallies on two engines.
  *
  * @since 0.1
  */
-public final class Simulator {
+public final class Simulator implements CircuitRunner {
     /**
      * Which engine runs a circuit.
      *
      * @since 0.1
      */
-    public enum Method {
+    public enum Engine {
         /**
-         * The stabilizer engine for a Clifford circuit (see
-         * {@link dev.qsim.stabilizer.CliffordRunner#isClifford(Circuit)}) of at least
-         * {@link Simulator#STABILIZER_FROM_QUBITS} qubits, otherwise the state-vector engine.
+         * Whichever engine below the rules of {@link Simulator#explain(Circuit, int)} expect to
+         * be cheapest for the circuit, the noise and the shots.
          */
-        AUTOMATIC,
-        /** Always the state-vector engine. */
-        STATE_VECTOR,
+        CHEAPEST,
+        /** The state vector: 2^n amplitudes, any gate, no noise. */
+        AMPLITUDES,
         /**
-         * Always the stabilizer engine; a circuit with a non-Clifford gate is refused with an
-         * {@link IllegalArgumentException} naming the gate and its position.
+         * The stabilizer tableau (Aaronson and Gottesman 2004): Clifford gates, measurements,
+         * resets and conditions on thousands of qubits, no noise. A circuit with a non-Clifford
+         * gate is refused, naming the gate and its position.
          */
-        STABILIZER
+        TABLEAU,
+        /**
+         * The density matrix: the exact distribution of a noisy circuit whose measurements come
+         * last, at {@code 16·4^n} bytes ({@link DensityMatrix#MAX_QUBITS} qubits at most).
+         */
+        DENSITY_MATRIX,
+        /** Monte Carlo wave-function trajectories of a noisy circuit: one per shot, any circuit. */
+        TRAJECTORIES
     }
 
     /**
-     * The qubit count from which {@link Method#AUTOMATIC} runs a Clifford circuit on the
-     * stabilizer engine. A state-vector gate touches 2^n amplitudes; a tableau gate touches
-     * about n/32 words per qubit and a measurement O(n²/64) words (Aaronson and Gottesman 2004,
+     * An engine chosen for a circuit, with the reason in words.
+     *
+     * @param engine the engine, never {@link Engine#CHEAPEST}
+     * @param reason why this engine, such as {@code "gate t at instruction 4 is not Clifford"}
+     * @since 0.1
+     */
+    public record Choice(Engine engine, String reason) {
+        /**
+         * Checks the fields.
+         *
+         * @param engine the engine
+         * @param reason the reason
+         */
+        public Choice {
+            Objects.requireNonNull(engine, "engine");
+            Objects.requireNonNull(reason, "reason");
+        }
+
+        /**
+         * Returns {@code "ENGINE: reason"}.
+         *
+         * @return the text
+         */
+        @Override
+        public String toString() {
+            return engine + ": " + reason;
+        }
+    }
+
+    /**
+     * The qubit count from which {@link Engine#CHEAPEST} runs a noiseless Clifford circuit on
+     * the tableau. A state-vector gate touches 2^n amplitudes; a tableau gate touches about
+     * n/32 words per qubit and a measurement O(n²/64) words (Aaronson and Gottesman 2004,
      * Phys. Rev. A 70, 052328), so from 16 qubits on the tableau is the cheaper for any mix of
      * gates and measurements, and every circuit too large for a state vector is above this.
      */
-    public static final int STABILIZER_FROM_QUBITS = 16;
+    public static final int TABLEAU_FROM_QUBITS = 16;
+
+    /**
+     * The most qubits for which {@link Engine#CHEAPEST} runs a noisy circuit on the density
+     * matrix (16 MiB at 10 qubits): a density-matrix gate costs about {@code 4^n} amplitude
+     * updates, a trajectory's {@code 2^n} per shot, so above this the density matrix wins only
+     * for very many shots, and it also needs the shots to exceed {@code 2^n / 4}.
+     */
+    public static final int DENSITY_MATRIX_UP_TO_QUBITS = 10;
 
     private final long seed;
     private final int threads;
     private final boolean fusion;
-    private final Method method;
+    private final Engine engine;
+    private final NoiseModel noise;
     private final Precision precision;
 
-    private Simulator(long seed, int threads, boolean fusion, Method method,
+    private Simulator(long seed, int threads, boolean fusion, Engine engine, NoiseModel noise,
             Precision precision) {
         this.seed = seed;
         this.threads = threads;
         this.fusion = fusion;
-        this.method = method;
+        this.engine = engine;
+        this.noise = noise;
         this.precision = precision;
     }
 
     /**
-     * Returns a simulator with the given seed, using every available processor.
+     * Returns a simulator with the given seed, using every available processor, the cheapest
+     * engine, no noise, double precision and gate fusion.
      *
      * @param seed the seed of every run
      * @return the simulator
      */
     public static Simulator seeded(long seed) {
-        return new Simulator(seed, Runtime.getRuntime().availableProcessors(), true,
-                Method.AUTOMATIC, Precision.DOUBLE);
+        return new Simulator(seed, Parallel.defaultThreads(), true, Engine.CHEAPEST,
+                NoiseModel.none(), Precision.DOUBLE);
     }
 
     /**
@@ -101,35 +151,47 @@ public final class Simulator {
      * @throws IllegalArgumentException if {@code threads} is out of range
      */
     public Simulator withThreads(int threads) {
-        Checks.requireInRange(threads, 1, Parallel.MAX_THREADS, "thread count");
-        return new Simulator(seed, threads, fusion, method, precision);
+        Checks.requireThreads(threads);
+        return new Simulator(seed, threads, fusion, engine, noise, precision);
     }
 
     /**
      * Returns a simulator like this one with gate fusion on or off. With fusion (the default),
-     * runs of gates on a few qubits are merged into one dense operator before they are applied,
-     * which streams the state fewer times; results agree with unfused runs to rounding (about
-     * 1e-15 per amplitude), and are still the same for the same seed whatever the thread count.
-     * Circuits of fewer than 16 qubits are never fused: their state sits in cache and the
-     * fusion pass itself would cost more than it saves.
+     * runs of gates on a few qubits are merged into one dense operator before the state-vector
+     * engine applies them, which streams the state fewer times; results agree with unfused runs
+     * to rounding (about 1e-15 per amplitude), and are still the same for the same seed whatever
+     * the thread count. Circuits of fewer than 16 qubits are never fused: their state sits in
+     * cache and the fusion pass itself would cost more than it saves.
      *
      * @param on whether to fuse gates
      * @return the new simulator
      */
     public Simulator withFusion(boolean on) {
-        return new Simulator(seed, threads, on, method, precision);
+        return new Simulator(seed, threads, on, engine, noise, precision);
     }
 
     /**
-     * Returns a simulator like this one that chooses engines as {@code method} says.
+     * Returns a simulator like this one that runs circuits on the given engine.
      *
-     * @param method the engine choice
+     * @param engine the engine, or {@link Engine#CHEAPEST} to choose per circuit
      * @return the new simulator
-     * @since 0.1
      */
-    public Simulator withMethod(Method method) {
-        Objects.requireNonNull(method, "method");
-        return new Simulator(seed, threads, fusion, method, precision);
+    public Simulator withEngine(Engine engine) {
+        Objects.requireNonNull(engine, "engine");
+        return new Simulator(seed, threads, fusion, engine, noise, precision);
+    }
+
+    /**
+     * Returns a simulator like this one that runs circuits under a noise model: each gate is
+     * followed by the model's channel for it, each measured bit passes through the model's
+     * readout error. {@link NoiseModel#none()} runs ideal circuits.
+     *
+     * @param model the noise model
+     * @return the new simulator
+     */
+    public Simulator withNoise(NoiseModel model) {
+        Objects.requireNonNull(model, "model");
+        return new Simulator(seed, threads, fusion, engine, model, precision);
     }
 
     /**
@@ -137,67 +199,15 @@ public final class Simulator {
      * precision. {@link Precision#SINGLE} halves the memory (31 qubits in 16 GiB) at about
      * seven significant digits per amplitude; tallies for a seed can differ from double
      * precision's where a sampled uniform falls within rounding of a cumulative probability.
-     * The stabilizer engine is exact either way; states it returns are converted.
+     * The tableau is exact either way; states it returns are converted. Noisy runs are in
+     * double precision.
      *
      * @param precision the storage precision
      * @return the new simulator
-     * @since 0.1
      */
     public Simulator withPrecision(Precision precision) {
         Objects.requireNonNull(precision, "precision");
-        return new Simulator(seed, threads, fusion, method, precision);
-    }
-
-    /**
-     * Returns the storage precision of the state vectors ({@link Precision#DOUBLE} unless
-     * set).
-     *
-     * @return the precision
-     * @since 0.1
-     */
-    public Precision precision() {
-        return precision;
-    }
-
-    /**
-     * Returns the configured engine choice ({@link Method#AUTOMATIC} unless set).
-     *
-     * @return the method
-     * @since 0.1
-     */
-    public Method method() {
-        return method;
-    }
-
-    /**
-     * Returns the engine that {@link #run} uses for a circuit: {@link Method#STATE_VECTOR} or
-     * {@link Method#STABILIZER}, never {@link Method#AUTOMATIC}.
-     *
-     * @param circuit the circuit
-     * @return the engine that runs it
-     * @since 0.1
-     */
-    public Method methodFor(Circuit circuit) {
-        Objects.requireNonNull(circuit, "circuit");
-        if (method != Method.AUTOMATIC) {
-            return method;
-        }
-        return circuit.qubits() >= STABILIZER_FROM_QUBITS && CliffordRunner.isClifford(circuit)
-                ? Method.STABILIZER : Method.STATE_VECTOR;
-    }
-
-    /** Fusion is used from this many qubits on; below, the pass costs more than it saves. */
-    private boolean fuses(Circuit circuit) {
-        return fusion && circuit.qubits() >= Fusion.MIN_STATE_QUBITS;
-    }
-
-    /**
-     * Tells whether gate fusion is on.
-     *
-     * @return whether gates are fused
-     */
-    public boolean fusion() {
-        return fusion;
+        return new Simulator(seed, threads, fusion, engine, noise, precision);
     }
 
     /**
@@ -212,171 +222,368 @@ public final class Simulator {
     /**
      * Returns the thread count.
      *
-     * @return the threads the kernels may use
+     * @return the threads the engines may use
      */
     public int threads() {
         return threads;
+    }
+
+    /**
+     * Tells whether gate fusion is on.
+     *
+     * @return whether gates are fused
+     */
+    public boolean fusion() {
+        return fusion;
+    }
+
+    /**
+     * Returns the configured engine ({@link Engine#CHEAPEST} unless set).
+     *
+     * @return the engine setting
+     */
+    public Engine engine() {
+        return engine;
+    }
+
+    /**
+     * Returns the noise model ({@link NoiseModel#none()} unless set).
+     *
+     * @return the noise model
+     */
+    public NoiseModel noise() {
+        return noise;
+    }
+
+    /**
+     * Returns the storage precision of state vectors ({@link Precision#DOUBLE} unless set).
+     *
+     * @return the precision
+     */
+    public Precision precision() {
+        return precision;
+    }
+
+    /**
+     * Says which engine {@link #run(Circuit, int)} uses for a circuit and why, or why none
+     * can. The rules of {@link Engine#CHEAPEST}:
+     * <ul>
+     *   <li>without noise, a Clifford circuit ({@link Circuit#isClifford()}) of at least
+     *       {@value #TABLEAU_FROM_QUBITS} qubits runs on the tableau, any other on the state
+     *       vector;</li>
+     *   <li>with noise, a circuit whose measurements come last runs on the density matrix when
+     *       it has at most {@value #DENSITY_MATRIX_UP_TO_QUBITS} qubits and the shots are at
+     *       least {@code 2^n / 4} (a density-matrix gate costs as much as a gate on about
+     *       {@code 2^n} trajectories); any other runs as trajectories.</li>
+     * </ul>
+     * A fixed engine is explained too, and refused with the reason when it cannot run the
+     * circuit.
+     *
+     * @param circuit the circuit
+     * @param shots the shots the run would take, at least 1
+     * @return the engine and the reason
+     * @throws IllegalArgumentException if {@code shots < 1}, or the configured engine cannot
+     *     run the circuit with this noise (the message says why and what would)
+     */
+    public Choice explain(Circuit circuit, int shots) {
+        Objects.requireNonNull(circuit, "circuit");
+        Checks.requireShots(shots);
+        boolean noisy = !noise.isIdeal();
+        int n = circuit.qubits();
+        switch (engine) {
+            case AMPLITUDES:
+                if (noisy) {
+                    throw refuse("the state-vector engine runs ideal circuits; with a noise"
+                            + " model use DENSITY_MATRIX or TRAJECTORIES (or CHEAPEST)");
+                }
+                requireStateVector(circuit);
+                return new Choice(Engine.AMPLITUDES, "set by withEngine");
+            case TABLEAU:
+                if (noisy) {
+                    throw refuse("the tableau runs ideal circuits; with a noise model use"
+                            + " DENSITY_MATRIX or TRAJECTORIES (or CHEAPEST)");
+                }
+                requireClifford(circuit);
+                return new Choice(Engine.TABLEAU, "set by withEngine");
+            case DENSITY_MATRIX:
+                requireDensityMatrix(circuit);
+                return new Choice(Engine.DENSITY_MATRIX, "set by withEngine");
+            case TRAJECTORIES:
+                requireTrajectories(circuit);
+                return new Choice(Engine.TRAJECTORIES, "set by withEngine");
+            default:
+                break;
+        }
+        if (!noisy) {
+            OptionalInt bad = circuit.firstNonClifford();
+            if (bad.isEmpty() && n >= TABLEAU_FROM_QUBITS) {
+                return new Choice(Engine.TABLEAU, "every gate is Clifford and the circuit has "
+                        + n + " qubits (a tableau gate costs about n/32 words, a state-vector"
+                        + " gate 2^n amplitudes)");
+            }
+            if (bad.isPresent()) {
+                requireStateVector(circuit);
+                return new Choice(Engine.AMPLITUDES, nonClifford(circuit, bad.getAsInt())
+                        + ", so the tableau cannot run it");
+            }
+            return new Choice(Engine.AMPLITUDES, "every gate is Clifford, but with " + n
+                    + " qubits (below " + TABLEAU_FROM_QUBITS + ") the state vector is cheaper");
+        }
+        if (!circuit.measuresAtEnd()) {
+            requireTrajectories(circuit);
+            return new Choice(Engine.TRAJECTORIES, circuit.whyNotAtEnd(circuit
+                    .firstAfterMeasurement()) + ": it needs measured values during the shot,"
+                    + " which one trajectory per shot provides");
+        }
+        if (n > DENSITY_MATRIX_UP_TO_QUBITS) {
+            requireTrajectories(circuit);
+            return new Choice(Engine.TRAJECTORIES, n + " qubits: a density matrix would need "
+                    + bytes(DensityMatrix.MAX_QUBITS < n ? Long.MAX_VALUE : densityBytes(n))
+                    + " and cost 4^n per gate; trajectories cost 2^n per gate and shot");
+        }
+        if ((1L << n) > 4L * shots) {
+            requireTrajectories(circuit);
+            return new Choice(Engine.TRAJECTORIES, shots + " shot(s) of 2^" + n
+                    + " amplitudes cost less than one density matrix of 4^" + n);
+        }
+        return new Choice(Engine.DENSITY_MATRIX, n + " qubits and measurements at the end: the"
+                + " exact distribution from one density matrix of " + bytes(densityBytes(n)));
+    }
+
+    private static long densityBytes(int n) {
+        return 16L << (2 * n);
+    }
+
+    private static String bytes(long b) {
+        if (b == Long.MAX_VALUE) {
+            return "more than the largest density matrix allowed";
+        }
+        return b >= (1L << 30) ? (b >> 30) + " GiB" : b >= (1L << 20) ? (b >> 20) + " MiB"
+                : (b >> 10) + " KiB";
+    }
+
+    private static IllegalArgumentException refuse(String why) {
+        return new IllegalArgumentException(why);
+    }
+
+    /** Names the first non-Clifford gate at {@code index}, looking into conditioned blocks. */
+    private static String nonClifford(Circuit circuit, int index) {
+        StringBuilder where = new StringBuilder("instruction " + index);
+        Instruction in = circuit.instructions().get(index);
+        while (in.kind() == Instruction.Kind.IF_BIT) {
+            java.util.List<Instruction> body = in.body();
+            int step = 0;
+            while (body.get(step).isClifford()) {
+                step++;
+            }
+            where.append(" (if), step ").append(step);
+            in = body.get(step);
+        }
+        return where + " (" + in.name() + ", " + in + ") is not a Clifford gate";
+    }
+
+    private void requireStateVector(Circuit circuit) {
+        if (circuit.qubits() > StateVector.MAX_QUBITS) {
+            OptionalInt bad = circuit.firstNonClifford();
+            throw refuse("the circuit has " + circuit.qubits() + " qubits; a state vector holds"
+                    + " at most " + StateVector.MAX_QUBITS + (bad.isPresent()
+                    ? ", and " + nonClifford(circuit, bad.getAsInt())
+                    + ", which rules out the tableau" : "; the tableau (TABLEAU) runs it"));
+        }
+    }
+
+    private static void requireClifford(Circuit circuit) {
+        OptionalInt bad = circuit.firstNonClifford();
+        if (bad.isPresent()) {
+            throw refuse(nonClifford(circuit, bad.getAsInt()) + "; the tableau runs Clifford"
+                    + " gates only (h, x, y, z, s, sDagger, sqrtX, sqrtXDagger, cnot, cy, cz, swap,"
+                    + " and rotations by multiples of pi/2), measurements, resets and"
+                    + " conditions");
+        }
+    }
+
+    private static void requireDensityMatrix(Circuit circuit) {
+        if (circuit.qubits() > DensityMatrix.MAX_QUBITS) {
+            throw refuse("the circuit has " + circuit.qubits() + " qubits; a density matrix"
+                    + " holds at most " + DensityMatrix.MAX_QUBITS + " (use TRAJECTORIES)");
+        }
+        int stop = circuit.firstAfterMeasurement();
+        if (stop >= 0) {
+            throw refuse(circuit.whyNotAtEnd(stop) + ": the density-matrix engine needs"
+                    + " measurements at the end (use TRAJECTORIES)");
+        }
+    }
+
+    private static void requireTrajectories(Circuit circuit) {
+        if (circuit.clbits() > 63) {
+            throw refuse("the circuit has " + circuit.clbits() + " classical bits; trajectory"
+                    + " runs record at most 63");
+        }
+        if (circuit.qubits() > StateVector.MAX_QUBITS) {
+            throw refuse("the circuit has " + circuit.qubits() + " qubits; a trajectory is a"
+                    + " state vector of at most " + StateVector.MAX_QUBITS + " qubits");
+        }
+    }
+
+    private boolean fuses(Circuit circuit) {
+        return fusion && circuit.qubits() >= Fusion.MIN_STATE_QUBITS;
     }
 
     private UniformRandomProvider rng() {
         return RandomSource.XO_RO_SHI_RO_128_PP.create(seed);
     }
 
+    private void requireDoubleForNoise() {
+        if (precision != Precision.DOUBLE) {
+            throw refuse("noisy runs are in double precision; use withPrecision(DOUBLE) with a"
+                    + " noise model");
+        }
+    }
+
     /**
-     * Runs a circuit for a number of shots and tallies its classical bits; bits never written
-     * read 0.
+     * Runs a circuit for a number of shots on the engine {@link #explain(Circuit, int)} names,
+     * and tallies its classical bits; bits never written read 0.
      *
      * @param circuit the circuit
      * @param shots the number of shots, at least 1
      * @return a tally of width {@code circuit.clbits()}
-     * @throws IllegalArgumentException if {@code shots < 1}, or the stabilizer engine is forced
-     *     and the circuit has a non-Clifford gate
-     * @throws IllegalStateException if the heap cannot hold the state
-     * @see #methodFor(Circuit)
+     * @throws IllegalArgumentException if {@code shots < 1} or the engine cannot run the
+     *     circuit (see {@link #explain(Circuit, int)})
+     * @throws IllegalStateException if the heap cannot hold the engine's state
      */
+    @Override
     public Tally run(Circuit circuit, int shots) {
-        Objects.requireNonNull(circuit, "circuit");
-        Checks.requirePositiveShots(shots);
-        if (methodFor(circuit) == Method.STABILIZER) {
-            return CliffordRunner.run(circuit, shots, seed);
+        Choice choice = explain(circuit, shots);
+        switch (choice.engine()) {
+            case TABLEAU:
+                return Bridge.tableaus().run(circuit, shots, seed);
+            case DENSITY_MATRIX:
+                requireDoubleForNoise();
+                return Tally.sample(Bridge.noise().distribution(circuit, noise, threads),
+                        circuit.clbits(), shots, rng());
+            case TRAJECTORIES:
+                requireDoubleForNoise();
+                return Bridge.noise().trajectories(circuit, noise, shots, seed, threads,
+                        precision);
+            default:
+                StateVector state = StateVector.zero(circuit.qubits(), precision)
+                        .setThreads(threads);
+                return AmplitudeEngine.run(circuit, shots, state, rng(), fuses(circuit),
+                        threads);
         }
-        StateVector state = StateVector.zero(circuit.qubits(), precision).withThreads(threads);
-        UniformRandomProvider rng = rng();
-        List<Instruction> original = circuit.instructions();
-        if (measurementsDeferrable(original)) {
-            return sampleAtEnd(circuit, state, shots, rng);
-        }
-        List<Instruction> list = fuses(circuit) ? Engine.fuse(original) : original;
-        int first = 0;
-        while (first < list.size() && !list.get(first).isClassical()) {
-            first++;
-        }
-        Engine.gates(state.store(), list, 0, first, threads);
-        Amplitudes prefix = state.store();
-        Amplitudes work = state.copy().store();
-        boolean[] reg = new boolean[circuit.clbits()];
-        Map<String, Long> counts = new HashMap<>();
-        char[] text = new char[circuit.clbits()];
-        for (int s = 0; s < shots; s++) {
-            work.copyFrom(prefix);
-            java.util.Arrays.fill(reg, false);
-            Engine.run(work, list, first, reg, rng, threads);
-            for (int c = 0; c < reg.length; c++) {
-                text[reg.length - 1 - c] = reg[c] ? '1' : '0';
-            }
-            counts.merge(new String(text), 1L, Long::sum);
-        }
-        return Tally.ofStrings(circuit.clbits(), counts);
-    }
-
-    /** No reset, no condition, and no gate on a qubit after that qubit was measured. */
-    static boolean measurementsDeferrable(List<Instruction> list) {
-        java.util.Set<Integer> measured = new java.util.HashSet<>();
-        for (Instruction in : list) {
-            switch (in.kind()) {
-                case MEASURE:
-                    measured.add(in.targetsRaw()[0]);
-                    break;
-                case GATE:
-                    for (int q : in.targetsRaw()) {
-                        if (measured.contains(q)) {
-                            return false;
-                        }
-                    }
-                    for (int q : in.controlsRaw()) {
-                        if (measured.contains(q)) {
-                            return false;
-                        }
-                    }
-                    break;
-                default:
-                    return false;
-            }
-        }
-        return true;
-    }
-
-    private Tally sampleAtEnd(Circuit circuit, StateVector state, int shots,
-            UniformRandomProvider rng) {
-        List<int[]> measures = new ArrayList<>();
-        List<Instruction> gates = new ArrayList<>();
-        for (Instruction in : circuit.instructions()) {
-            if (in.kind() == Instruction.Kind.GATE) {
-                gates.add(in);
-            } else {
-                measures.add(new int[] {in.targetsRaw()[0], in.clbit()});
-            }
-        }
-        // Measured qubits are not touched afterwards, so all gates may run first.
-        List<Instruction> program = fuses(circuit) ? Fusion.fuse(gates) : gates;
-        Engine.gates(state.store(), program, 0, program.size(), threads);
-        int width = circuit.clbits();
-        if (measures.isEmpty()) {
-            Map<String, Long> one = new HashMap<>();
-            one.put("0".repeat(width), (long) shots);
-            return Tally.ofStrings(width, one);
-        }
-        long[] idx = state.sampleIndices(shots, rng);
-        if (width <= 63) {
-            long[] keys = new long[shots];
-            for (int s = 0; s < shots; s++) {
-                long key = 0;
-                for (int[] m : measures) {
-                    long bit = (idx[s] >>> m[0]) & 1L;
-                    key = (key & ~(1L << m[1])) | (bit << m[1]);
-                }
-                keys[s] = key;
-            }
-            return Tally.ofKeys(width, keys);
-        }
-        Map<String, Long> counts = new HashMap<>();
-        char[] text = new char[width];
-        for (int s = 0; s < shots; s++) {
-            java.util.Arrays.fill(text, '0');
-            for (int[] m : measures) {
-                text[width - 1 - m[1]] = ((idx[s] >>> m[0]) & 1L) == 1 ? '1' : '0';
-            }
-            counts.merge(new String(text), 1L, Long::sum);
-        }
-        return Tally.ofStrings(width, counts);
     }
 
     /**
      * Returns the state after one seeded shot of the circuit: measurements collapse the state
-     * with outcomes drawn from the seed, resets and conditions act as in {@link #run}. Runs on
-     * the state-vector engine unless the stabilizer engine is forced
-     * ({@link Method#STABILIZER}); then the final stabilizer state is converted (at most
-     * {@value dev.qsim.stabilizer.GeneratorTable#MAX_DENSE_QUBITS} qubits).
+     * with outcomes drawn from the seed, resets and conditions act as in {@link #run}. Ideal
+     * circuits run on the state vector, or on the tableau when {@link Engine#TABLEAU} is set
+     * (the final stabilizer state is then converted, at most
+     * {@value GeneratorTable#MAX_DENSE_QUBITS} qubits); with noise, the state is the end of
+     * one trajectory.
      *
      * @param circuit the circuit
      * @return the final state of that shot
-     * @throws IllegalArgumentException if the stabilizer engine is forced and the circuit is
-     *     not Clifford or has too many qubits to convert
+     * @throws IllegalArgumentException if the configured engine cannot give a state vector
+     *     for the circuit (the density matrix: use {@link #densityMatrixAfter(Circuit)})
      * @throws IllegalStateException if the heap cannot hold the state
      */
     public StateVector stateAfter(Circuit circuit) {
         Objects.requireNonNull(circuit, "circuit");
-        if (method == Method.STABILIZER) {
-            StateVector exact = CliffordRunner.stateAfter(circuit, seed).toStateVector()
-                    .withThreads(threads);
+        if (!noise.isIdeal() || engine == Engine.TRAJECTORIES) {
+            if (engine == Engine.DENSITY_MATRIX || engine == Engine.AMPLITUDES
+                    || engine == Engine.TABLEAU) {
+                explain(circuit, 1);
+                throw refuse("a noisy run has no single final state vector on the "
+                        + engine + " engine; use densityMatrixAfter, or TRAJECTORIES");
+            }
+            requireTrajectories(circuit);
+            requireDoubleForNoise();
+            return Bridge.noise().trajectoryState(circuit, noise, seed, threads, precision);
+        }
+        if (engine == Engine.TABLEAU) {
+            requireClifford(circuit);
+            StateVector exact = Bridge.tableaus().stateAfter(circuit, seed).toStateVector()
+                    .setThreads(threads);
             return precision == Precision.DOUBLE ? exact : exact.toPrecision(precision);
         }
-        StateVector state = StateVector.zero(circuit.qubits(), precision).withThreads(threads);
-        List<Instruction> list = fuses(circuit) ? Engine.fuse(circuit.instructions())
-                : circuit.instructions();
-        Engine.run(state.store(), list, 0, new boolean[circuit.clbits()], rng(), threads);
+        if (engine == Engine.DENSITY_MATRIX) {
+            throw refuse("the density-matrix engine gives a density matrix; use"
+                    + " densityMatrixAfter");
+        }
+        requireStateVector(circuit);
+        StateVector state = StateVector.zero(circuit.qubits(), precision).setThreads(threads);
+        java.util.List<Instruction> list = fuses(circuit)
+                ? AmplitudeEngine.fuse(circuit.instructions()) : circuit.instructions();
+        AmplitudeEngine.run(state.store(), list, 0, new boolean[circuit.clbits()], rng(),
+                threads);
         return state;
     }
 
     /**
-     * Returns a short description such as {@code "Simulator[seed 7, 2 threads]"}.
+     * Returns the density matrix after the circuit under this simulator's noise model (ideal
+     * without one): each gate followed by its noise, resets as channels, measurements as the
+     * loss of coherence they cause (the ensemble over their outcomes; readout error does not
+     * change the state). Deterministic: no seed is used.
+     *
+     * @param circuit a circuit without conditioned blocks, at most
+     *     {@value DensityMatrix#MAX_QUBITS} qubits
+     * @return the density matrix
+     * @throws IllegalArgumentException if the circuit has a conditioned block or too many
+     *     qubits, or a noise rule's channel does not fit a gate
+     * @throws IllegalStateException if the heap cannot hold the density matrix
+     */
+    public DensityMatrix densityMatrixAfter(Circuit circuit) {
+        Objects.requireNonNull(circuit, "circuit");
+        if (circuit.qubits() > DensityMatrix.MAX_QUBITS) {
+            throw refuse("the circuit has " + circuit.qubits() + " qubits; a density matrix"
+                    + " holds at most " + DensityMatrix.MAX_QUBITS);
+        }
+        return Bridge.noise().densityMatrix(circuit, noise, threads);
+    }
+
+    /**
+     * Returns the exact probability of each value of the classical register after the circuit:
+     * from the state vector without noise, from the density matrix with noise (readout error
+     * included). Bits never written read 0. Deterministic: no seed is used.
+     *
+     * @param circuit a circuit whose measurements come last ({@link Circuit#measuresAtEnd()}),
+     *     with at most 26 classical bits
+     * @return a new array of {@code 2^clbits} probabilities; index {@code v} is the register
+     *     value with clbit {@code j} as bit {@code j}
+     * @throws IllegalArgumentException if the measurements do not come last, the register is
+     *     too wide, or (with noise) the circuit has more than {@value DensityMatrix#MAX_QUBITS}
+     *     qubits
+     * @throws IllegalStateException if the heap cannot hold the state
+     */
+    public double[] distribution(Circuit circuit) {
+        Objects.requireNonNull(circuit, "circuit");
+        if (circuit.clbits() > MAX_DISTRIBUTION_CLBITS) {
+            throw refuse("the circuit has " + circuit.clbits() + " classical bits; an exact"
+                    + " distribution has at most " + MAX_DISTRIBUTION_CLBITS);
+        }
+        if (!noise.isIdeal()) {
+            requireDensityMatrix(circuit);
+            return Bridge.noise().distribution(circuit, noise, threads);
+        }
+        Circuit gates = circuit.withoutMeasurements();
+        requireStateVector(circuit);
+        StateVector psi = StateVector.zero(circuit.qubits()).setThreads(threads).apply(gates);
+        return psi.registerDistribution(circuit.clbitSources());
+    }
+
+    /** The widest register {@link #distribution(Circuit)} returns: {@value}. */
+    public static final int MAX_DISTRIBUTION_CLBITS = 26;
+
+    /**
+     * Returns a short description such as
+     * {@code "Simulator[seed 7, 2 threads, fusion on, engine CHEAPEST, ...]"}.
      *
      * @return the text
      */
     @Override
     public String toString() {
         return "Simulator[seed " + seed + ", " + threads + " threads, fusion "
-                + (fusion ? "on" : "off") + ", method " + method + ", precision " + precision
-                + "]";
+                + (fusion ? "on" : "off") + ", engine " + engine + ", noise " + noise
+                + ", precision " + precision + "]";
     }
 }

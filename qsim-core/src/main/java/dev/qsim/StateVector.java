@@ -1,16 +1,20 @@
 package dev.qsim;
 
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 import java.util.Objects;
-import java.util.function.Supplier;
 
 import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
 
+import dev.qsim.internal.Bridge;
+import dev.qsim.internal.Checks;
+import dev.qsim.internal.Heap;
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.GateOp;
 import dev.qsim.kernel.Frame;
-import dev.qsim.kernel.Heap;
-import dev.qsim.kernel.Internals;
+import dev.qsim.kernel.Measurement;
 import dev.qsim.kernel.Parallel;
 import dev.qsim.kernel.Reductions;
 
@@ -19,7 +23,7 @@ import dev.qsim.kernel.Reductions;
  * type of the API: {@link #apply(Circuit)}, {@link #apply(Operator, int...)} and
  * {@link #measure(int, UniformRandomProvider)} change it in place and return it, and
  * {@link #copy()} is the way to keep a state. Not thread-safe; its kernels may use several
- * threads internally ({@link #withThreads(int)}), with results identical to the bit whatever
+ * threads internally ({@link #setThreads(int)}), with results identical to the bit whatever
  * the thread count.
  *
  * <p>X, Y and single-qubit phase gates (Z, S, T, RZ, phase) without controls are not applied
@@ -51,44 +55,42 @@ public final class StateVector {
     public static final int MAX_QUBITS = 40;
 
     static {
-        Internals.register(new Internals.Access() {
+        Bridge.register(new Bridge.States() {
             @Override
-            public Amplitudes amplitudes(StateVector state) {
-                Amplitudes settled = state.settled();
-                if (settled.isSingle()) {
-                    return guarded(Amplitudes.bytes(state.qubits()), "a double-precision copy"
-                            + " of the " + state.qubits() + "-qubit state",
-                            () -> settled.convert(false));
+            public Amplitudes store(StateVector state) {
+                return state.amps;
+            }
+
+            @Override
+            public Amplitudes doubles(StateVector state) {
+                Amplitudes a = state.amps;
+                if (a.isSingle()) {
+                    a.settle();
+                    return Heap.allocate(Amplitudes.bytes(state.qubits()), "a double-precision"
+                            + " copy of the " + state.qubits() + "-qubit state",
+                            () -> a.convert(false));
                 }
-                return settled;
+                return a;
             }
 
             @Override
             public StateVector wrap(Amplitudes amplitudes, int threads) {
-                return new StateVector(amplitudes).withThreads(threads);
+                return new StateVector(amplitudes).setThreads(threads);
             }
 
             @Override
-            public void applyGate(Amplitudes amplitudes, Instruction gate, int threads) {
-                Engine.gate(amplitudes, gate, threads);
-                Frame.settle(amplitudes, threads);
-            }
-
-            @Override
-            public int measure(Amplitudes amplitudes, int qubit, UniformRandomProvider rng,
-                    int threads) {
-                int bit = Engine.measure(amplitudes, qubit, rng, threads);
-                Frame.settle(amplitudes, threads);
-                return bit;
+            public void apply(StateVector state, Instruction gate) {
+                Frame.apply(state.amps, List.of(gate.plan()), state.threads);
             }
         });
     }
 
     private final Amplitudes amps;
-    private int threads = Runtime.getRuntime().availableProcessors();
+    private int threads;
 
     private StateVector(Amplitudes amps) {
         this.amps = amps;
+        setThreads(Parallel.defaultThreads());
     }
 
     private static Amplitudes allocate(int n) {
@@ -98,7 +100,7 @@ public final class StateVector {
     private static Amplitudes allocate(int n, boolean single) {
         Checks.requireInRange(n, 1, MAX_QUBITS, "qubit count");
         String what = "a " + n + "-qubit state" + (single ? " in single precision" : "");
-        return guarded(Amplitudes.bytes(n, single), what,
+        return Heap.allocate(Amplitudes.bytes(n, single), what,
                 () -> single ? Amplitudes.allocateSingle(n) : Amplitudes.allocate(n));
     }
 
@@ -107,14 +109,6 @@ public final class StateVector {
      * looked large enough but could not place the arrays: fragmentation or collector overhead)
      * is reported like any other refusal.
      */
-    private static Amplitudes guarded(long bytes, String what, Supplier<Amplitudes> make) {
-        Heap.require(bytes, what);
-        try {
-            return make.get();
-        } catch (OutOfMemoryError e) {
-            throw Heap.tooLarge(bytes, what);
-        }
-    }
 
     /**
      * Returns {@code |0...0>} on {@code n} qubits.
@@ -236,25 +230,18 @@ public final class StateVector {
     }
 
     /**
-     * The storage with its lazy frame applied ({@link Frame#settle}): for every reader of
-     * amplitudes.
-     */
-    Amplitudes settled() {
-        Frame.settle(amps, threads);
-        return amps;
-    }
-
-    /**
-     * Sets the number of threads the kernels of this state may use; states under 16 qubits
-     * always use one. Results do not depend on it.
+     * Sets, in place, the number of threads the kernels of this state may use; states under 16
+     * qubits always use one. Results do not depend on it. (A setter, not a copy: this is the
+     * one mutable type of the API.)
      *
      * @param threads at least 1 (at most 256)
      * @return this state
      * @throws IllegalArgumentException if {@code threads} is out of range
      */
-    public StateVector withThreads(int threads) {
-        Checks.requireInRange(threads, 1, Parallel.MAX_THREADS, "thread count");
+    public StateVector setThreads(int threads) {
+        Checks.requireThreads(threads);
         this.threads = threads;
+        amps.setThreads(threads);
         return this;
     }
 
@@ -290,10 +277,10 @@ public final class StateVector {
         Objects.requireNonNull(precision, "precision");
         boolean single = precision == Precision.SINGLE;
         // Settled first: the frame is applied in this state's own precision.
-        Amplitudes source = settled();
-        return new StateVector(guarded(Amplitudes.bytes(qubits(), single),
+        Amplitudes source = amps;
+        return new StateVector(Heap.allocate(Amplitudes.bytes(qubits(), single),
                 "a copy of the " + qubits() + "-qubit state", () -> source.convert(single)))
-                .withThreads(threads);
+                .setThreads(threads);
     }
 
     /**
@@ -323,7 +310,7 @@ public final class StateVector {
      */
     public Complex amplitude(long index) {
         requireIndex(index, qubits());
-        Amplitudes s = settled();
+        Amplitudes s = amps;
         return Complex.ofCartesian(s.re(index), s.im(index));
     }
 
@@ -336,7 +323,7 @@ public final class StateVector {
      */
     public double probability(long index) {
         requireIndex(index, qubits());
-        Amplitudes s = settled();
+        Amplitudes s = amps;
         double re = s.re(index);
         double im = s.im(index);
         return re * re + im * im;
@@ -357,7 +344,7 @@ public final class StateVector {
         }
         Heap.require(48L << n, "the amplitude array");
         Complex[] out = new Complex[1 << n];
-        Amplitudes s = settled();
+        Amplitudes s = amps;
         for (int i = 0; i < out.length; i++) {
             out[i] = Complex.ofCartesian(s.re(i), s.im(i));
         }
@@ -379,7 +366,7 @@ public final class StateVector {
         }
         Heap.require(8L << n, "the probability array");
         double[] out = new double[1 << n];
-        Reductions.probabilities(settled(), out, threads);
+        Reductions.probabilities(amps, out, threads);
         return out;
     }
 
@@ -405,7 +392,7 @@ public final class StateVector {
         }
         Heap.require(8L << qubits.length, "the marginal array");
         double[] out = new double[1 << qubits.length];
-        Reductions.marginal(settled(), qubits.clone(), out);
+        Reductions.marginal(amps, qubits.clone(), out);
         return out;
     }
 
@@ -427,7 +414,7 @@ public final class StateVector {
      */
     public Complex inner(StateVector other) {
         requireSameSize(other);
-        double[] z = Reductions.inner(settled(), other.settled(), threads);
+        double[] z = Reductions.inner(amps, other.amps, threads);
         return Complex.ofCartesian(z[0], z[1]);
     }
 
@@ -441,7 +428,7 @@ public final class StateVector {
      */
     public double fidelity(StateVector other) {
         requireSameSize(other);
-        double[] z = Reductions.inner(settled(), other.settled(), threads);
+        double[] z = Reductions.inner(amps, other.amps, threads);
         return z[0] * z[0] + z[1] * z[1];
     }
 
@@ -470,8 +457,8 @@ public final class StateVector {
         Amplitudes r = allocate(n, amps.isSingle() || other.amps.isSingle());
         long da = dimension();
         long db = other.dimension();
-        Amplitudes sa = settled();
-        Amplitudes sb = other.settled();
+        Amplitudes sa = amps;
+        Amplitudes sb = other.amps;
         for (long i = 0; i < da; i++) {
             double ar = sa.re(i);
             double ai = sa.im(i);
@@ -484,7 +471,7 @@ public final class StateVector {
                 r.set((i << nb) | j, ar * br - ai * bi, ar * bi + ai * br);
             }
         }
-        return new StateVector(r).withThreads(threads);
+        return new StateVector(r).setThreads(threads);
     }
 
     /**
@@ -494,8 +481,8 @@ public final class StateVector {
      * @throws IllegalStateException if the heap cannot hold a second state
      */
     public StateVector copy() {
-        return new StateVector(guarded(Amplitudes.bytes(qubits(), amps.isSingle()),
-                "a copy of the " + qubits() + "-qubit state", amps::copy)).withThreads(threads);
+        return new StateVector(Heap.allocate(Amplitudes.bytes(qubits(), amps.isSingle()),
+                "a copy of the " + qubits() + "-qubit state", amps::copy)).setThreads(threads);
     }
 
     /**
@@ -513,7 +500,11 @@ public final class StateVector {
                     + " qubit(s) but the state has " + qubits() + "; they must match");
         }
         circuit.requireGatesOnly("StateVector.apply(Circuit)");
-        Engine.gates(amps, circuit.instructions(), 0, circuit.size(), threads);
+        List<GateOp> plans = new ArrayList<>(circuit.size());
+        for (Instruction in : circuit.instructions()) {
+            plans.add(in.plan());
+        }
+        Frame.apply(amps, plans, threads);
         return this;
     }
 
@@ -533,7 +524,7 @@ public final class StateVector {
         Objects.requireNonNull(qubits, "qubits");
         int[] qs = qubits.length == 0 ? allQubits(qubits()) : qubits.clone();
         Circuit c = Circuit.builder(qubits(), 0).apply(op, qs).build();
-        Engine.gate(amps, c.instructions().get(0), threads);
+        Frame.apply(amps, List.of(c.instructions().get(0).plan()), threads);
         return this;
     }
 
@@ -555,7 +546,7 @@ public final class StateVector {
     public int measure(int qubit, UniformRandomProvider rng) {
         Checks.requireQubit(qubit, qubits());
         Objects.requireNonNull(rng, "rng");
-        return Engine.measure(amps, qubit, rng, threads);
+        return Measurement.measure(amps, qubit, rng.nextDouble(), threads);
     }
 
     /**
@@ -573,7 +564,7 @@ public final class StateVector {
      * @throws IndexOutOfBoundsException if a qubit is out of range
      */
     public Tally sample(int shots, UniformRandomProvider rng, int... qubits) {
-        Checks.requirePositiveShots(shots);
+        Checks.requireShots(shots);
         Objects.requireNonNull(rng, "rng");
         Objects.requireNonNull(qubits, "qubits");
         int[] qs = qubits.length == 0 ? allQubits(qubits()) : qubits.clone();
@@ -603,6 +594,44 @@ public final class StateVector {
     }
 
     /**
+     * The distribution of a classical register whose bit {@code c} is read from qubit
+     * {@code source[c]} (-1: never written, reads 0), from the marginal of the read qubits.
+     */
+    double[] registerDistribution(int[] source) {
+        int width = source.length;
+        int[] position = new int[qubits()];
+        Arrays.fill(position, -1);
+        int[] read = new int[Math.min(width, qubits())];
+        int k = 0;
+        for (int q : source) {
+            if (q >= 0 && position[q] < 0) {
+                position[q] = k;
+                read[k++] = q;
+            }
+        }
+        Heap.require(8L << width, "a distribution over " + width + " classical bits");
+        double[] out = new double[1 << width];
+        if (k == 0) {
+            out[0] = 1;
+            return out;
+        }
+        double[] m = marginal(Arrays.copyOf(read, k));
+        for (int v = 0; v < m.length; v++) {
+            if (m[v] == 0) {
+                continue;
+            }
+            int key = 0;
+            for (int c = 0; c < width; c++) {
+                if (source[c] >= 0 && ((v >>> position[source[c]]) & 1) == 1) {
+                    key |= 1 << c;
+                }
+            }
+            out[key] += m[v];
+        }
+        return out;
+    }
+
+    /**
      * Draws basis indices for {@code shots} shots, in ascending order. The sorted uniforms are
      * made directly as normalised partial sums of exponential spacings (L. Devroye,
      * <i>Non-Uniform Random Variate Generation</i>, Springer 1986, §V.2), so no sort is needed;
@@ -610,7 +639,7 @@ public final class StateVector {
      */
     long[] sampleIndices(int shots, UniformRandomProvider rng) {
         Heap.require(16L * shots, "sampling " + shots + " shots");
-        Amplitudes store = settled();
+        Amplitudes store = amps;
         double[] sums = Reductions.blockSums(store, threads);
         double total = 0;
         for (double x : sums) {
@@ -645,7 +674,7 @@ public final class StateVector {
             return "StateVector[" + n + " qubits]";
         }
         StringBuilder sb = new StringBuilder();
-        Amplitudes s = settled();
+        Amplitudes s = amps;
         for (long i = 0; i < dimension(); i++) {
             double re = s.re(i);
             double im = s.im(i);
@@ -657,7 +686,7 @@ public final class StateVector {
             }
             String amp = im == 0 ? fmt(re) : re == 0 ? fmt(im) + "i"
                     : "(" + fmt(re) + (im < 0 ? "-" : "+") + fmt(Math.abs(im)) + "i)";
-            sb.append(amp).append('|').append(Tally.bits(i, n)).append('>');
+            sb.append(amp).append('|').append(Tally.bitString(i, n)).append('>');
         }
         return sb.length() == 0 ? "0" : sb.toString();
     }

@@ -106,9 +106,9 @@ class CircuitTest {
         int at = ml.get(0).indexOf("M>c0");
         assertTrue(at > 0 && ml.get(1).length() <= at + 1 || ml.get(1).charAt(at + 1) == ' ', m);
         assertEquals(1, ml.get(1).chars().filter(ch -> ch == '|').count(), m);
-        assertEquals("3pi/4", Diagram.angle(3 * Math.PI / 4));
-        assertEquals("-pi/2", Diagram.angle(-Math.PI / 2));
-        assertEquals("0.3", Diagram.angle(0.3));
+        assertEquals("3pi/4", Gate.angleText(3 * Math.PI / 4));
+        assertEquals("-pi/2", Gate.angleText(-Math.PI / 2));
+        assertEquals("0.3", Gate.angleText(0.3));
     }
 
     @Test

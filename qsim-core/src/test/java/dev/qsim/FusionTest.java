@@ -34,7 +34,7 @@ class FusionTest {
                 StateVector actual = StateVector.zero(n);
                 List<Instruction> program = fusion ? Fusion.fuse(circuit.instructions())
                         : circuit.instructions();
-                Engine.gates(actual.store(), program, 0, program.size(), 1);
+                AmplitudeEngine.gates(actual.store(), program, 0, program.size(), 1);
                 final int t = trial;
                 DenseReference.assertClose(expected, actual, TOL, () -> "seed " + seed
                         + ", trial " + t + ", fusion " + fusion + ", " + steps.size() + " gates");

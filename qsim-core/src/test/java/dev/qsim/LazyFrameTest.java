@@ -77,8 +77,8 @@ class LazyFrameTest {
         double[][] expected = DenseReference.run(map.length, steps,
                 DenseReference.basisState(1 << map.length, 0));
         Circuit circuit = DenseReference.build(17, steps, map);
-        StateVector one = StateVector.zero(17).withThreads(1).apply(circuit);
-        StateVector two = StateVector.zero(17).withThreads(2).apply(circuit);
+        StateVector one = StateVector.zero(17).setThreads(1).apply(circuit);
+        StateVector two = StateVector.zero(17).setThreads(2).apply(circuit);
         for (int v = 0; v < (1 << map.length); v++) {
             long index = 0;
             for (int j = 0; j < map.length; j++) {
@@ -108,7 +108,7 @@ class LazyFrameTest {
                 java.util.concurrent.Executors.newFixedThreadPool(2);
         try {
             for (int trial = 0; trial < 20; trial++) {
-                StateVector s = StateVector.zero(n).withThreads(2).apply(c);
+                StateVector s = StateVector.zero(n).setThreads(2).apply(c);
                 java.util.concurrent.CyclicBarrier start = new java.util.concurrent.CyclicBarrier(2);
                 java.util.concurrent.Callable<Complex[]> read = () -> {
                     start.await();

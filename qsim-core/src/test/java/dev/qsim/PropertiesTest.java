@@ -326,8 +326,8 @@ class PropertiesTest {
         int n = 21; // 2^21 amplitudes: more than one 2^20-amplitude chunk
         Circuit c = DenseReference.build(n, DenseReference.randomSteps(n, 30, rng));
         // DESIGN.md: same results whatever the thread count.
-        StateVector one = StateVector.zero(n).withThreads(1).apply(c);
-        StateVector two = StateVector.zero(n).withThreads(2).apply(c);
+        StateVector one = StateVector.zero(n).setThreads(1).apply(c);
+        StateVector two = StateVector.zero(n).setThreads(2).apply(c);
         assertBitwiseEqual(one, two, seed);
         // Unitaries keep the norm (N&C 2010 sec. 2.1.6).
         assertEquals(1.0, two.norm(), TOL, "seed " + seed + ": norm");
@@ -341,8 +341,8 @@ class PropertiesTest {
         List<DenseReference.Step> steps = DenseReference.randomSteps(n, 120, rng);
         Circuit c = DenseReference.build(n, steps);
         // DESIGN.md: same seed, same results, whatever the thread count.
-        StateVector one = StateVector.zero(n).withThreads(1).apply(c);
-        StateVector two = StateVector.zero(n).withThreads(2).apply(c);
+        StateVector one = StateVector.zero(n).setThreads(1).apply(c);
+        StateVector two = StateVector.zero(n).setThreads(2).apply(c);
         assertEquals(1, one.threads(), "seed " + seed + ": threads()");
         assertEquals(2, two.threads(), "seed " + seed + ": threads()");
         assertBitwiseEqual(one, two, seed);

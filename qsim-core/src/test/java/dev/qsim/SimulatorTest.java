@@ -47,8 +47,8 @@ class SimulatorTest {
         Circuit c = Circuit.builder(3).h(0).ry(1, 1.1).cnot(0, 2).measure().build();
         // A reset on a fresh qubit makes the run shot by shot without changing the state.
         Circuit slow = Circuit.builder(3).reset(2).append(c).build();
-        assertTrue(Simulator.measurementsDeferrable(c.instructions()));
-        assertTrue(!Simulator.measurementsDeferrable(slow.instructions()));
+        assertTrue(c.measuresAtEnd());
+        assertTrue(!slow.measuresAtEnd());
         int shots = 20000;
         Tally fast = Simulator.seeded(3).run(c, shots);
         Tally step = Simulator.seeded(3).run(slow, shots);

@@ -14,7 +14,7 @@ import org.apache.commons.rng.simple.RandomSource;
 import org.junit.jupiter.api.Test;
 
 import dev.qsim.kernel.Amplitudes;
-import dev.qsim.kernel.Internals;
+import dev.qsim.internal.Bridge;
 
 /**
  * Single-precision storage: amplitudes are rounded to {@code float} (IEEE 754-2019, binary32,
@@ -45,10 +45,10 @@ class SinglePrecisionTest {
                         : circuit.instructions();
                 // Whole program at once (one window), and gate by gate (rounded every gate).
                 StateVector whole = single(n);
-                Engine.gates(whole.store(), program, 0, program.size(), 1);
+                AmplitudeEngine.gates(whole.store(), program, 0, program.size(), 1);
                 StateVector each = single(n);
                 for (Instruction in : program) {
-                    Engine.gate(each.store(), in, 1);
+                    AmplitudeEngine.gates(each.store(), List.of(in), 0, 1, 1);
                 }
                 final int t = trial;
                 for (StateVector actual : new StateVector[] {whole, each}) {
@@ -79,10 +79,10 @@ class SinglePrecisionTest {
             double[][] expected = DenseReference.run(n, steps,
                     DenseReference.basisState(1 << n, 0));
             Circuit circuit = DenseReference.build(physical, steps, map);
-            StateVector plain = single(physical).withThreads(2).apply(circuit);
+            StateVector plain = single(physical).setThreads(2).apply(circuit);
             StateVector fused = Simulator.seeded(3).withThreads(2)
                     .withPrecision(Precision.SINGLE).stateAfter(circuit);
-            StateVector oneThread = single(physical).withThreads(1).apply(circuit);
+            StateVector oneThread = single(physical).setThreads(1).apply(circuit);
             for (StateVector actual : new StateVector[] {plain, fused}) {
                 assertEquals(Precision.SINGLE, actual.precision());
                 double worst = 0;
@@ -121,7 +121,7 @@ class SinglePrecisionTest {
         StateVector reference = StateVector.zero(9).apply(c);
         Amplitudes small = Amplitudes.allocateSingle(9, 3);
         small.set(0, 1, 0);
-        StateVector chunked = Internals.access().wrap(small, 1).apply(c);
+        StateVector chunked = Bridge.states().wrap(small, 1).apply(c);
         assertEquals(Precision.SINGLE, chunked.precision());
         for (long i = 0; i < 512; i++) {
             Complex d = chunked.amplitude(i).subtract(reference.amplitude(i));
@@ -221,8 +221,8 @@ class SinglePrecisionTest {
         StateVector d = s.toPrecision(Precision.DOUBLE);
         dev.qsim.observable.Observable zz = dev.qsim.observable.Observable.of(1.5, "Z0 Z1")
                 .plus(0.5, "X2");
-        assertEquals(dev.qsim.observable.Expectation.exact(zz, d),
-                dev.qsim.observable.Expectation.exact(zz, s), 0.0);
+        assertEquals(dev.qsim.observable.Expectation.of(zz, d),
+                dev.qsim.observable.Expectation.of(zz, s), 0.0);
         assertSame(Precision.SINGLE, s.precision());
     }
 }

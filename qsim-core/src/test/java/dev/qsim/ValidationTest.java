@@ -128,7 +128,7 @@ class ValidationTest {
         // A Clifford circuit that large runs on the stabilizer engine unless the state vector
         // is forced.
         fails(IllegalStateException.class, () -> Simulator.seeded(1)
-                .withMethod(Simulator.Method.STATE_VECTOR)
+                .withEngine(Simulator.Engine.AMPLITUDES)
                 .run(Circuit.builder(36).h(0).build(), 10), "-Xmx");
     }
 

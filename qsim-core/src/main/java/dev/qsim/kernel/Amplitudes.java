@@ -8,7 +8,12 @@ package dev.qsim.kernel;
  * half the memory); exactly one of the two is present. The gate kernels of {@link Kernels} work
  * on double storage only; single storage is worked on through {@link Windows}, which widens a
  * window to double, applies the kernels there and rounds back. Mutable; not thread-safe.
- * Internal.
+ *
+ * <p>One way in: the storage may carry a lazy frame (see {@link Frame}) that only the gate path
+ * of this package may leave pending. Every public accessor ({@link #chunks()},
+ * {@link #singles()}, {@link #re}, {@link #im}, {@link #set}, {@link #read}, {@link #write})
+ * settles it first, so code outside this package cannot read or write amplitudes with a frame
+ * pending; kernel code uses the fields directly. Internal.
  */
 public final class Amplitudes {
     /**
@@ -35,6 +40,9 @@ public final class Amplitudes {
     long flips;
     double[] phases;
     volatile boolean framed;
+
+    /** Threads for passes this storage starts itself (settling the frame). */
+    private volatile int threads = 1;
 
     private Amplitudes(int n, int chunkLog, double[][] chunks, float[][] singles) {
         this.n = n;
@@ -129,6 +137,7 @@ public final class Amplitudes {
      * @return the chunks, or null
      */
     public float[][] singles() {
+        settle();
         return singles;
     }
 
@@ -145,6 +154,7 @@ public final class Amplitudes {
      * @return the chunks
      */
     public double[][] chunks() {
+        settle();
         return chunks;
     }
 
@@ -236,6 +246,12 @@ public final class Amplitudes {
      * @param at the first double of {@code out} to write; {@code 2^(log+1)} are written
      */
     public void read(long first, int log, double[] out, int at) {
+        settle();
+        readRaw(first, log, out, at);
+    }
+
+    /** {@link #read} with the frame left as it is: for kernel code that knows the frame. */
+    void readRaw(long first, int log, double[] out, int at) {
         int c = (int) (first >>> chunkLog);
         int o = (int) (first & chunkMask) << 1;
         int len = 2 << log;
@@ -259,6 +275,12 @@ public final class Amplitudes {
      * @param at the first double of {@code in} to read; {@code 2^(log+1)} are read
      */
     public void write(long first, int log, double[] in, int at) {
+        settle();
+        writeRaw(first, log, in, at);
+    }
+
+    /** {@link #write} with the frame left as it is: for kernel code that knows the frame. */
+    void writeRaw(long first, int log, double[] in, int at) {
         int c = (int) (first >>> chunkLog);
         int o = (int) (first & chunkMask) << 1;
         int len = 2 << log;
@@ -277,6 +299,7 @@ public final class Amplitudes {
      * @return the real part of amplitude {@code index}
      */
     public double re(long index) {
+        settle();
         int o = (int) (index & chunkMask) << 1;
         if (singles != null) {
             return singles[(int) (index >>> chunkLog)][o];
@@ -289,6 +312,7 @@ public final class Amplitudes {
      * @return the imaginary part of amplitude {@code index}
      */
     public double im(long index) {
+        settle();
         int o = ((int) (index & chunkMask) << 1) + 1;
         if (singles != null) {
             return singles[(int) (index >>> chunkLog)][o];
@@ -304,6 +328,7 @@ public final class Amplitudes {
      * @param im imaginary part
      */
     public void set(long index, double re, double im) {
+        settle();
         int o = (int) (index & chunkMask) << 1;
         if (singles != null) {
             float[] f = singles[(int) (index >>> chunkLog)];
@@ -314,6 +339,25 @@ public final class Amplitudes {
         double[] a = chunks[(int) (index >>> chunkLog)];
         a[o] = re;
         a[o + 1] = im;
+    }
+
+    /**
+     * Applies a pending lazy frame to the amplitudes (one pass) and clears it; nothing happens
+     * without one. Safe to call from several threads at once.
+     */
+    public void settle() {
+        if (framed) {
+            Frame.settle(this, threads);
+        }
+    }
+
+    /**
+     * Sets the threads this storage uses for passes it starts itself (settling the frame).
+     *
+     * @param threads 1 to {@link Parallel#MAX_THREADS}; unchecked
+     */
+    public void setThreads(int threads) {
+        this.threads = threads;
     }
 
     /** Sets every amplitude to zero (and drops the lazy frame). */

@@ -52,6 +52,66 @@ public final class GateOp {
      * @param c control qubits in {@code a}
      * @return the plan
      */
+    /**
+     * Returns the shape: {@link #DENSE}, {@link #DIAGONAL} or {@link #MONOMIAL}.
+     *
+     * @return the shape
+     */
+    public int shape() {
+        return shape;
+    }
+
+    /**
+     * Describes a (controlled) gate by its matrix, choosing the cheapest exact shape: diagonal
+     * when every off-diagonal entry is zero, monomial when every row and column holds one
+     * non-zero entry, dense otherwise.
+     *
+     * @param m the matrix on the targets, {@code 2^k x 2^k}, row-major, re/im interleaved. Not
+     *     modified; a dense description keeps a reference to it.
+     * @param targets the targets. Kept, not copied.
+     * @param controls the controls. Kept, not copied.
+     * @return the description
+     */
+    public static GateOp of(double[] m, int[] targets, int[] controls) {
+        int d = 1 << targets.length;
+        boolean diagonal = true;
+        boolean monomial = true;
+        int[] perRow = new int[d];
+        int[] perm = new int[d];
+        double[] phase = new double[2 * d];
+        for (int c = 0; c < d; c++) {
+            int inColumn = 0;
+            for (int r = 0; r < d; r++) {
+                double re = m[2 * (r * d + c)];
+                double im = m[2 * (r * d + c) + 1];
+                if (re != 0 || im != 0) {
+                    diagonal &= r == c;
+                    inColumn++;
+                    perRow[r]++;
+                    perm[c] = r;
+                    phase[2 * c] = re;
+                    phase[2 * c + 1] = im;
+                }
+            }
+            monomial &= inColumn == 1;
+        }
+        for (int r = 0; r < d && monomial; r++) {
+            monomial = perRow[r] == 1;
+        }
+        if (diagonal) {
+            double[] diag = new double[2 * d];
+            for (int i = 0; i < d; i++) {
+                diag[2 * i] = m[2 * (i * d + i)];
+                diag[2 * i + 1] = m[2 * (i * d + i) + 1];
+            }
+            return new GateOp(DIAGONAL, targets, controls, diag, null);
+        }
+        if (monomial) {
+            return new GateOp(MONOMIAL, targets, controls, phase, perm);
+        }
+        return new GateOp(DENSE, targets, controls, m, null);
+    }
+
     Kernels.Plan plan(Amplitudes a, int[] t, int[] c) {
         switch (shape) {
             case DIAGONAL:

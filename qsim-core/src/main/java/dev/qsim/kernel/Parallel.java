@@ -25,6 +25,16 @@ public final class Parallel {
     private Parallel() {
     }
 
+    /**
+     * Returns the thread count qsim uses unless told otherwise: every available processor, at
+     * most {@link #MAX_THREADS}. The one default of every package.
+     *
+     * @return the default thread count
+     */
+    public static int defaultThreads() {
+        return Math.max(1, Math.min(MAX_THREADS, Runtime.getRuntime().availableProcessors()));
+    }
+
     /** A piece of work over the half-open range {@code [from, to)}. */
     @FunctionalInterface
     public interface Range {

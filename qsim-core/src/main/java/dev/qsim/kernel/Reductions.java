@@ -5,7 +5,8 @@ package dev.qsim.kernel;
  * {@code 2^}{@value #BLOCK_LOG} amplitudes, in index order within a block, and the block sums are
  * then added in block order: the result does not depend on the thread count. A block of a
  * single-precision state is first widened to double (exactly), so the sums are taken in double
- * in both precisions. Internal.
+ * in both precisions. Every public sum settles a pending lazy frame first (the norm does not
+ * need to: the frame is unitary). Internal.
  */
 public final class Reductions {
     /** Log2 of the amplitudes per summation block. */
@@ -28,7 +29,7 @@ public final class Reductions {
         if (buf == null) {
             return a.chunks[(int) (first >>> a.chunkLog)];
         }
-        a.read(first, bl, buf, 0);
+        a.readRaw(first, bl, buf, 0);
         return buf;
     }
 
@@ -61,7 +62,7 @@ public final class Reductions {
      * @param threads threads to use
      * @return the (unnormalised) probability
      */
-    public static double probabilityWhere(Amplitudes a, int q, int threads) {
+    static double probabilityWhere(Amplitudes a, int q, int threads) {
         final int bl = blockLog(a);
         final int blocks = 1 << (a.n - bl);
         final double[] partial = new double[blocks];
@@ -109,6 +110,8 @@ public final class Reductions {
      * @return {re, im}
      */
     public static double[] inner(Amplitudes a, Amplitudes b, int threads) {
+        a.settle();
+        b.settle();
         // Any precisions and chunk sizes: blocks fit in both states' chunks.
         final int bl = Math.min(blockLog(a), blockLog(b));
         final int blocks = 1 << (a.n - bl);
@@ -155,6 +158,7 @@ public final class Reductions {
      * @param threads threads to use
      */
     public static void probabilities(Amplitudes a, double[] out, int threads) {
+        a.settle();
         final int bl = blockLog(a);
         final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
         Parallel.forRange(threads, 1L << (a.n - bl), par, (from, to) -> {
@@ -181,6 +185,7 @@ public final class Reductions {
      * @param out length 2^qubits.length, zeroed. Modified.
      */
     public static void marginal(Amplitudes a, int[] qubits, double[] out) {
+        a.settle();
         final int k = qubits.length;
         final int bl = blockLog(a);
         double[] buf = buffer(a, bl);
@@ -208,6 +213,7 @@ public final class Reductions {
      * @return one sum per block of {@code 2^min(chunkLog, BLOCK_LOG)} amplitudes
      */
     public static double[] blockSums(Amplitudes a, int threads) {
+        a.settle();
         final int bl = blockLog(a);
         final int blocks = 1 << (a.n - bl);
         final double[] partial = new double[blocks];
@@ -246,6 +252,7 @@ public final class Reductions {
      */
     public static void pickIndices(Amplitudes a, double[] sums, double[] sorted, long[] out,
             int threads) {
+        a.settle();
         final int bl = blockLog(a);
         final int blocks = sums.length;
         final double[] prefix = new double[blocks];

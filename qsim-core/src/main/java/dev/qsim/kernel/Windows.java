@@ -177,7 +177,7 @@ public final class Windows {
                     continue;
                 }
                 for (int r = 0; r < runStart.length; r++) {
-                    a.read(base | runStart[r], l, buf, r << (l + 1));
+                    a.readRaw(base | runStart[r], l, buf, r << (l + 1));
                 }
                 for (int x = 0; x < k; x++) {
                     if ((base & outer[x]) == outer[x]) {
@@ -185,7 +185,7 @@ public final class Windows {
                     }
                 }
                 for (int r = 0; r < runStart.length; r++) {
-                    a.write(base | runStart[r], l, buf, r << (l + 1));
+                    a.writeRaw(base | runStart[r], l, buf, r << (l + 1));
                 }
             }
         });

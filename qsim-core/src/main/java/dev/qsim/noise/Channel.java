@@ -9,6 +9,7 @@ import org.apache.commons.numbers.complex.Complex;
 
 import dev.qsim.Gates;
 import dev.qsim.Operator;
+import dev.qsim.internal.Checks;
 
 /**
  * A quantum channel (completely positive, trace-preserving map) on one or two qubits, given by
@@ -200,7 +201,7 @@ public final class Channel {
      * @throws IllegalArgumentException if {@code p} is outside [0, 1]
      */
     public static Channel bitFlip(double p) {
-        Require.probability(p, "bit-flip probability");
+        Checks.requireProbability(p, "bit-flip probability");
         return of(scaled(Gates.I, Math.sqrt(1 - p)), scaled(Gates.X, Math.sqrt(p)));
     }
 
@@ -214,7 +215,7 @@ public final class Channel {
      * @throws IllegalArgumentException if {@code p} is outside [0, 1]
      */
     public static Channel phaseFlip(double p) {
-        Require.probability(p, "phase-flip probability");
+        Checks.requireProbability(p, "phase-flip probability");
         return of(scaled(Gates.I, Math.sqrt(1 - p)), scaled(Gates.Z, Math.sqrt(p)));
     }
 
@@ -228,7 +229,7 @@ public final class Channel {
      * @throws IllegalArgumentException if {@code p} is outside [0, 1]
      */
     public static Channel bitPhaseFlip(double p) {
-        Require.probability(p, "bit-phase-flip probability");
+        Checks.requireProbability(p, "bit-phase-flip probability");
         return of(scaled(Gates.I, Math.sqrt(1 - p)), scaled(Gates.Y, Math.sqrt(p)));
     }
 
@@ -244,7 +245,7 @@ public final class Channel {
      * @throws IllegalArgumentException if {@code p} is outside [0, 1]
      */
     public static Channel depolarizing(double p) {
-        Require.probability(p, "depolarizing probability");
+        Checks.requireProbability(p, "depolarizing probability");
         double s = Math.sqrt(p / 3);
         return of(scaled(Gates.I, Math.sqrt(1 - p)), scaled(Gates.X, s), scaled(Gates.Y, s),
                 scaled(Gates.Z, s));
@@ -262,7 +263,7 @@ public final class Channel {
      * @throws IllegalArgumentException if {@code p} is outside [0, 1]
      */
     public static Channel twoQubitDepolarizing(double p) {
-        Require.probability(p, "two-qubit depolarizing probability");
+        Checks.requireProbability(p, "two-qubit depolarizing probability");
         Operator[] paulis = {Gates.I, Gates.X, Gates.Y, Gates.Z};
         List<Operator> ops = new ArrayList<>();
         double s = Math.sqrt(p / 15);
@@ -287,7 +288,7 @@ public final class Channel {
      * @throws IllegalArgumentException if {@code gamma} is outside [0, 1]
      */
     public static Channel amplitudeDamping(double gamma) {
-        Require.probability(gamma, "amplitude-damping probability");
+        Checks.requireProbability(gamma, "amplitude-damping probability");
         return of(matrix(1, 0, 0, Math.sqrt(1 - gamma)), matrix(0, Math.sqrt(gamma), 0, 0));
     }
 
@@ -302,32 +303,33 @@ public final class Channel {
      * @throws IllegalArgumentException if {@code lambda} is outside [0, 1]
      */
     public static Channel phaseDamping(double lambda) {
-        Require.probability(lambda, "phase-damping probability");
+        Checks.requireProbability(lambda, "phase-damping probability");
         return of(matrix(1, 0, 0, Math.sqrt(1 - lambda)), matrix(0, 0, 0, Math.sqrt(lambda)));
     }
 
     /**
-     * Returns thermal relaxation towards |0> during a time {@code time}, for a qubit with
+     * Returns the decay of a qubit left alone for a time {@code duration}, with
      * energy-relaxation time {@code t1} and coherence time {@code t2}: amplitude damping with
-     * {@code gamma = 1 - exp(-time/t1)}, then phase damping with
-     * {@code lambda = 1 - exp(-time (2/t2 - 1/t1))}, so that the excited population decays as
-     * {@code exp(-time/t1)} and the coherences as {@code exp(-time/t2)}. This is the usual
+     * {@code gamma = 1 - exp(-duration/t1)}, then phase damping with
+     * {@code lambda = 1 - exp(-duration (2/t2 - 1/t1))}, so that the excited population decays as
+     * {@code exp(-duration/t1)} and the coherences as {@code exp(-duration/t2)}. This is the usual
      * phenomenological model {@code 1/T2 = 1/(2 T1) + 1/T_phi} (Krantz et al. 2019, "A quantum
      * engineer's guide to superconducting qubits", Appl. Phys. Rev. 6, 021318,
      * doi:10.1063/1.5089550; Nielsen and Chuang 2010, §8.3.5-8.3.6 for the two parts),
      * which requires {@code t2 <= 2 t1}. Times are in any one unit.
      *
+     * @param duration the time the qubit decays for, finite and at least 0
      * @param t1 the relaxation time, positive (infinity allowed)
      * @param t2 the coherence time, positive (infinity allowed if {@code t1} is), at most
      *     {@code 2 t1}
-     * @param time the duration, finite and at least 0
      * @return the channel on 1 qubit
      * @throws IllegalArgumentException if a time is out of range or {@code t2 > 2 t1}
      */
-    public static Channel thermalRelaxation(double t1, double t2, double time) {
-        Require.positiveTime(t1, "T1");
-        Require.positiveTime(t2, "T2");
-        Require.nonNegativeFiniteTime(time, "gate time");
+    public static Channel decay(double duration, double t1, double t2) {
+        Checks.requirePositiveTime(t1, "T1");
+        Checks.requirePositiveTime(t2, "T2");
+        Checks.requireFiniteTime(duration, "the duration");
+        double time = duration;
         if (t2 > 2 * t1) {
             throw new IllegalArgumentException("T2 " + t2 + " is larger than 2*T1 = " + 2 * t1
                     + "; physical qubits have T2 <= 2*T1");

@@ -10,13 +10,13 @@ import dev.qsim.Instruction;
 import dev.qsim.Operator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
-import dev.qsim.kernel.Args;
+import dev.qsim.internal.Bridge;
+import dev.qsim.internal.Checks;
+import dev.qsim.internal.Heap;
 import dev.qsim.kernel.Amplitudes;
-import dev.qsim.kernel.Heap;
-import dev.qsim.kernel.Internals;
-import dev.qsim.kernel.Kernels;
+import dev.qsim.kernel.DensityKernels;
+import dev.qsim.kernel.Parallel;
 import dev.qsim.kernel.Reductions;
-import dev.qsim.observable.Observable;
 
 /**
  * The density matrix {@code rho} of {@code n} qubits; mutable (the {@code apply} methods work
@@ -38,7 +38,19 @@ public final class DensityMatrix {
     /** The largest number of qubits (the heap usually limits it sooner). */
     public static final int MAX_QUBITS = 15;
 
-    private static final int[] NONE = new int[0];
+    static {
+        Bridge.register(new Bridge.Densities() {
+            @Override
+            public Amplitudes store(DensityMatrix rho) {
+                return rho.amps;
+            }
+
+            @Override
+            public DensityMatrix wrap(Amplitudes amplitudes, int threads) {
+                return new DensityMatrix(amplitudes.qubits() / 2, amplitudes, threads);
+            }
+        });
+    }
 
     private final int n;
     private final Amplitudes amps;
@@ -87,46 +99,32 @@ public final class DensityMatrix {
      */
     public static DensityMatrix of(StateVector psi) {
         Objects.requireNonNull(psi, "psi");
+        requireCount(psi.qubits());
         DensityMatrix rho = allocate(psi.qubits());
-        Amplitudes a = Internals.access().amplitudes(psi);
-        long d = 1L << rho.n;
-        for (long c = 0; c < d; c++) {
-            double cr = a.re(c);
-            double ci = -a.im(c);
-            for (long r = 0; r < d; r++) {
-                double ar = a.re(r);
-                double ai = a.im(r);
-                rho.amps.set(r | (c << rho.n), ar * cr - ai * ci, ar * ci + ai * cr);
-            }
-        }
+        DensityKernels.fromPure(Bridge.states().doubles(psi), rho.amps);
         return rho;
     }
 
     private static DensityMatrix allocate(int n) {
         requireCount(n);
-        long bytes = Amplitudes.bytes(2 * n);
-        Heap.require(bytes, "a " + n + "-qubit density matrix");
-        return new DensityMatrix(n, Amplitudes.allocate(2 * n),
-                Math.max(1, Math.min(256, Runtime.getRuntime().availableProcessors())));
+        Amplitudes a = Heap.allocate(Amplitudes.bytes(2 * n), "a " + n + "-qubit density matrix",
+                () -> Amplitudes.allocate(2 * n));
+        return new DensityMatrix(n, a, Parallel.defaultThreads());
     }
 
     private static void requireCount(int n) {
-        if (n < 1 || n > MAX_QUBITS) {
-            throw new IllegalArgumentException("qubit count " + n + " is out of range [1, "
-                    + MAX_QUBITS + "] for a density matrix");
-        }
+        Checks.requireInRange(n, 1, MAX_QUBITS, "the qubit count of a density matrix");
     }
 
     /**
-     * Sets the number of threads the kernels use; results do not depend on it.
+     * Sets, in place, the number of threads the kernels use; results do not depend on it.
      *
      * @param threads 1 to 256
      * @return this
      * @throws IllegalArgumentException if {@code threads} is out of range
      */
-    public DensityMatrix withThreads(int threads) {
-        Args.requireThreads(threads);
-        this.threads = threads;
+    public DensityMatrix setThreads(int threads) {
+        this.threads = Checks.requireThreads(threads);
         return this;
     }
 
@@ -142,31 +140,33 @@ public final class DensityMatrix {
     /**
      * Returns the number of qubits.
      *
-     * @return {@code n}
+     * @return n
      */
     public int qubits() {
         return n;
     }
 
     /**
-     * Returns an independent copy.
+     * Returns a deep copy with the same thread count.
      *
-     * @return the copy, same thread count
+     * @return the copy
      * @throws IllegalStateException if the heap cannot hold it
      */
     public DensityMatrix copy() {
-        Heap.require(Amplitudes.bytes(2 * n), "a copy of a " + n + "-qubit density matrix");
-        return new DensityMatrix(n, amps.copy(), threads);
+        Amplitudes c = Heap.allocate(Amplitudes.bytes(2 * n), "a copy of a " + n
+                + "-qubit density matrix", amps::copy);
+        return new DensityMatrix(n, c, threads);
     }
 
     /**
-     * Applies a unitary: {@code rho -> U rho U^dagger}, bit {@code j} of the matrix index on
-     * {@code qubits[j]}.
+     * Applies a unitary {@code rho -> U rho U^dagger} in place; bit {@code j} of the operator's
+     * index is {@code qubits[j]}.
      *
-     * @param op the operator (meant to be unitary; not checked again)
+     * @param op a unitary operator (within {@value Operator#UNITARY_TOLERANCE})
      * @param qubits distinct qubits, as many as {@code op.qubits()}
      * @return this
-     * @throws IllegalArgumentException if the qubit count differs or a qubit repeats
+     * @throws IllegalArgumentException if the counts differ, a qubit repeats, or the operator
+     *     is not unitary (use {@link #apply(Channel, int...)} for a general map)
      * @throws IndexOutOfBoundsException if a qubit is out of range
      */
     public DensityMatrix apply(Operator op, int... qubits) {
@@ -176,19 +176,22 @@ public final class DensityMatrix {
             throw new IllegalArgumentException("operator acts on " + op.qubits()
                     + " qubit(s) but " + qubits.length + " qubit index(es) were given");
         }
-        Args.requireDistinctQubits(qubits, n, "the qubits of the operator");
-        unitary(op, qubits.clone(), NONE);
+        Checks.requireDistinctQubits(qubits, n, "the qubits of the operator");
+        if (!op.isUnitary(Operator.UNITARY_TOLERANCE)) {
+            throw new IllegalArgumentException("the operator is not unitary within "
+                    + Operator.UNITARY_TOLERANCE + "; apply a general map as a Channel");
+        }
+        DensityKernels.unitary(amps, n, qubits.clone(), new int[0], raw(op), threads);
         return this;
     }
 
     /**
-     * Applies a channel: {@code rho -> sum_k K_k rho K_k^dagger}, bit {@code j} of the Kraus
-     * matrix index on {@code qubits[j]}.
+     * Applies a channel in place: {@code rho -> sum_k K_k rho K_k^dagger} on the given qubits.
      *
      * @param channel the channel
      * @param qubits distinct qubits, as many as {@code channel.qubits()}
      * @return this
-     * @throws IllegalArgumentException if the qubit count differs or a qubit repeats
+     * @throws IllegalArgumentException if the counts differ or a qubit repeats
      * @throws IndexOutOfBoundsException if a qubit is out of range
      */
     public DensityMatrix apply(Channel channel, int... qubits) {
@@ -198,19 +201,20 @@ public final class DensityMatrix {
             throw new IllegalArgumentException("channel acts on " + channel.qubits()
                     + " qubit(s) but " + qubits.length + " qubit index(es) were given");
         }
-        Args.requireDistinctQubits(qubits, n, "the qubits of the channel");
-        channel(channel, qubits);
+        Checks.requireDistinctQubits(qubits, n, "the qubits of the channel");
+        channel(channel, qubits.clone());
         return this;
     }
 
     /**
-     * Applies the gates and resets of a circuit without noise (a reset is the channel with
-     * Kraus operators {@code |0><0|} and {@code |0><1|}).
+     * Applies the gates, resets and measurements of a circuit in place, without noise: a reset
+     * is the channel {@code |0><0|, |0><1|}, a measurement (its outcome not kept) the channel
+     * {@code |0><0|, |1><1|}. For noisy runs use {@link dev.qsim.Simulator#withNoise}.
      *
-     * @param circuit a circuit on {@link #qubits()} qubits with only gates and resets
+     * @param circuit a circuit on {@link #qubits()} qubits without conditioned blocks
      * @return this
-     * @throws IllegalArgumentException if the qubit counts differ or the circuit measures or
-     *     has a conditioned block
+     * @throws IllegalArgumentException if the sizes differ or the circuit has a conditioned
+     *     block
      */
     public DensityMatrix apply(Circuit circuit) {
         Objects.requireNonNull(circuit, "circuit");
@@ -219,56 +223,51 @@ public final class DensityMatrix {
                     + " qubits but the density matrix has " + n);
         }
         for (Instruction in : circuit.instructions()) {
-            if (in.kind() == Instruction.Kind.GATE) {
-                gate(in);
-            } else if (in.kind() == Instruction.Kind.RESET) {
-                channel(NoisyRunner.RESET, in.targets());
-            } else {
-                throw new IllegalArgumentException("a density matrix applies gates and resets "
-                        + "only, not '" + in.name() + "'; run measured circuits with NoisyRunner");
+            if (in.kind() == Instruction.Kind.IF_BIT) {
+                throw new IllegalArgumentException("a density matrix applies gates, resets and"
+                        + " measurements, not the conditioned block '" + in + "'; run"
+                        + " conditioned circuits with Simulator (trajectories)");
+            }
+        }
+        for (Instruction in : circuit.instructions()) {
+            switch (in.kind()) {
+                case GATE:
+                    gate(in);
+                    break;
+                case RESET:
+                    channel(NoiseEngines.RESET, in.targets());
+                    break;
+                default:
+                    channel(NoiseEngines.MEASURE, in.targets());
+                    break;
             }
         }
         return this;
     }
 
+    /** Applies a gate instruction (no checks). */
     void gate(Instruction in) {
-        unitary(in.operator(), in.targets(), in.controls());
+        DensityKernels.unitary(amps, n, in.targets(), in.controls(), raw(in.operator()),
+                threads);
     }
 
-    private void unitary(Operator op, int[] targets, int[] controls) {
+    /** Applies a channel (no checks). */
+    void channel(Channel ch, int[] qubits) {
+        DensityKernels.channel(amps, n, qubits, ch.superoperator(), threads);
+    }
+
+    /** An operator's matrix, row-major, re/im interleaved. */
+    static double[] raw(Operator op) {
         int d = op.dimension();
         double[] m = new double[2 * d * d];
-        double[] mc = new double[2 * d * d];
         for (int r = 0; r < d; r++) {
             for (int c = 0; c < d; c++) {
                 Complex z = op.get(r, c);
-                int o = 2 * (r * d + c);
-                m[o] = z.getReal();
-                m[o + 1] = z.getImaginary();
-                mc[o] = z.getReal();
-                mc[o + 1] = -z.getImaginary();
+                m[2 * (r * d + c)] = z.getReal();
+                m[2 * (r * d + c) + 1] = z.getImaginary();
             }
         }
-        Kernels.dense(amps, targets, controls, m, threads);
-        Kernels.dense(amps, shift(targets), shift(controls), mc, threads);
-    }
-
-    void channel(Channel ch, int[] qubits) {
-        int k = qubits.length;
-        int[] both = new int[2 * k];
-        for (int j = 0; j < k; j++) {
-            both[j] = qubits[j];
-            both[k + j] = qubits[j] + n;
-        }
-        Kernels.dense(amps, both, NONE, ch.superoperator(), threads);
-    }
-
-    private int[] shift(int[] qs) {
-        int[] out = new int[qs.length];
-        for (int j = 0; j < qs.length; j++) {
-            out[j] = qs[j] + n;
-        }
-        return out;
+        return m;
     }
 
     /**
@@ -303,8 +302,7 @@ public final class DensityMatrix {
         Complex[][] out = new Complex[d][d];
         for (int r = 0; r < d; r++) {
             for (int c = 0; c < d; c++) {
-                long i = r | ((long) c << n);
-                out[r][c] = Complex.ofCartesian(amps.re(i), amps.im(i));
+                out[r][c] = get(r, c);
             }
         }
         return out;
@@ -316,12 +314,7 @@ public final class DensityMatrix {
      * @return the trace
      */
     public double trace() {
-        long d = 1L << n;
-        double t = 0;
-        for (long r = 0; r < d; r++) {
-            t += amps.re(r | (r << n));
-        }
-        return t;
+        return DensityKernels.trace(amps, n);
     }
 
     /**
@@ -342,12 +335,7 @@ public final class DensityMatrix {
      * @return a new array of length {@code 2^n}, index as in {@link dev.qsim}
      */
     public double[] probabilities() {
-        int d = 1 << n;
-        double[] p = new double[d];
-        for (int r = 0; r < d; r++) {
-            p[r] = Math.max(0, amps.re(r | ((long) r << n)));
-        }
-        return p;
+        return DensityKernels.diagonal(amps, n);
     }
 
     /**
@@ -365,21 +353,7 @@ public final class DensityMatrix {
             throw new IllegalArgumentException("the state has " + psi.qubits()
                     + " qubits but the density matrix has " + n);
         }
-        Amplitudes a = Internals.access().amplitudes(psi);
-        long d = 1L << n;
-        double re = 0;
-        for (long c = 0; c < d; c++) {
-            // (rho psi)_r summed against conj(psi_r)
-            double pr = a.re(c);
-            double pi = a.im(c);
-            for (long r = 0; r < d; r++) {
-                long i = r | (c << n);
-                double xr = amps.re(i) * pr - amps.im(i) * pi;
-                double xi = amps.re(i) * pi + amps.im(i) * pr;
-                re += a.re(r) * xr + a.im(r) * xi;
-            }
-        }
-        return re;
+        return DensityKernels.fidelity(amps, n, Bridge.states().doubles(psi));
     }
 
     /**
@@ -396,78 +370,10 @@ public final class DensityMatrix {
         if (qubits.length == 0) {
             throw new IllegalArgumentException("keep at least one qubit");
         }
-        Args.requireDistinctQubits(qubits, n, "the kept qubits");
-        int m = qubits.length;
-        long keptMask = 0;
-        for (int q : qubits) {
-            keptMask |= 1L << q;
-        }
-        int[] traced = new int[n - m];
-        int t = 0;
-        for (int q = 0; q < n; q++) {
-            if ((keptMask >>> q & 1L) == 0) {
-                traced[t++] = q;
-            }
-        }
-        int dk = 1 << m;
-        long[] keptIndex = new long[dk];
-        for (int a = 0; a < dk; a++) {
-            long x = 0;
-            for (int j = 0; j < m; j++) {
-                x |= (long) ((a >>> j) & 1) << qubits[j];
-            }
-            keptIndex[a] = x;
-        }
-        DensityMatrix out = allocate(m).withThreads(threads);
-        long dt = 1L << traced.length;
-        for (long b = 0; b < dt; b++) {
-            long y = 0;
-            for (int j = 0; j < traced.length; j++) {
-                y |= ((b >>> j) & 1L) << traced[j];
-            }
-            for (int c = 0; c < dk; c++) {
-                long col = (keptIndex[c] | y) << n;
-                for (int r = 0; r < dk; r++) {
-                    long i = (keptIndex[r] | y) | col;
-                    long o = r | ((long) c << m);
-                    out.amps.set(o, out.amps.re(o) + amps.re(i), out.amps.im(o) + amps.im(i));
-                }
-            }
-        }
+        Checks.requireDistinctQubits(qubits, n, "the kept qubits");
+        DensityMatrix out = allocate(qubits.length).setThreads(threads);
+        DensityKernels.reduce(amps, n, qubits.clone(), out.amps);
         return out;
-    }
-
-    /**
-     * Returns the expectation value {@code Tr(rho H)} of an observable (Nielsen and Chuang
-     * 2010, §2.4.1), for at most 12 qubits.
-     *
-     * @param h the observable, with {@code h.span() <= n}
-     * @return the real part of {@code Tr(rho H)} (the imaginary part vanishes for Hermitian
-     *     {@code H} and {@code rho})
-     * @throws IllegalArgumentException if {@code n > 12} or the observable acts beyond the
-     *     register
-     */
-    public double expectation(Observable h) {
-        Objects.requireNonNull(h, "h");
-        if (n > Operator.MAX_QUBITS) {
-            throw new IllegalArgumentException("expectation is for at most "
-                    + Operator.MAX_QUBITS + " qubits, not " + n);
-        }
-        if (h.span() > n) {
-            throw new IllegalArgumentException("the observable acts on qubit "
-                    + (h.span() - 1) + " but the density matrix has " + n + " qubits");
-        }
-        Operator op = h.toOperator(n);
-        int d = 1 << n;
-        double re = 0;
-        for (int r = 0; r < d; r++) {
-            for (int c = 0; c < d; c++) {
-                Complex z = op.get(c, r);
-                long i = r | ((long) c << n);
-                re += amps.re(i) * z.getReal() - amps.im(i) * z.getImaginary();
-            }
-        }
-        return re;
     }
 
     /**
@@ -477,13 +383,13 @@ public final class DensityMatrix {
      *
      * @param shots the number of shots, at least 1
      * @param rng the source of randomness
-     * @param qubits distinct qubits, at most 30
+     * @param qubits distinct qubits
      * @return the tally
      * @throws IllegalArgumentException if {@code shots < 1} or a qubit repeats
      * @throws IndexOutOfBoundsException if a qubit is out of range
      */
     public Tally sample(int shots, UniformRandomProvider rng, int... qubits) {
-        Args.requirePositiveShots(shots);
+        Checks.requireShots(shots);
         Objects.requireNonNull(rng, "rng");
         Objects.requireNonNull(qubits, "qubits");
         int[] qs = qubits;
@@ -493,7 +399,7 @@ public final class DensityMatrix {
                 qs[q] = q;
             }
         }
-        Args.requireDistinctQubits(qs, n, "the sampled qubits");
+        Checks.requireDistinctQubits(qs, n, "the sampled qubits");
         double[] p = probabilities();
         double[] marginal = new double[1 << qs.length];
         for (int i = 0; i < p.length; i++) {
@@ -503,7 +409,7 @@ public final class DensityMatrix {
             }
             marginal[key] += p[i];
         }
-        return Sampling.tally(marginal, qs.length, shots, rng);
+        return Tally.sample(marginal, qs.length, shots, rng);
     }
 
     /**

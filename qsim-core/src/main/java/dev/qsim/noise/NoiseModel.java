@@ -7,7 +7,10 @@ import java.util.List;
 import java.util.Map;
 import java.util.Objects;
 
+import dev.qsim.Gate;
 import dev.qsim.Instruction;
+import dev.qsim.internal.Bridge;
+import dev.qsim.internal.Checks;
 
 /**
  * Which channel follows which gate, and the readout error of each qubit. Immutable and
@@ -16,8 +19,11 @@ import dev.qsim.Instruction;
  *
  * <p>The qubits of a gate are its controls followed by its targets, as in
  * {@link Instruction#controls()} and {@link Instruction#targets()}; {@code cnot(c, t)} acts
- * on {@code (c, t)}. For a gate with name {@code g} on qubits {@code Q}, the first rule that
- * exists wins:
+ * on {@code (c, t)}. Rules name gates by their {@link Gate} catalogue entry, or by any name
+ * {@link Gate#lookup(String)} knows ({@code "cnot"}, {@code "CNOT"} and OpenQASM's {@code "cx"}
+ * are the same gate); an unknown name is refused with the list of known ones. For a gate
+ * {@code g} on qubits {@code Q} (a gate with added controls counts as its entry: a rule for
+ * {@code rz} also follows a controlled {@code rz}), the first rule that exists wins:
  * <ol>
  * <li>a rule for gate {@code g} on exactly the qubits {@code Q};</li>
  * <li>a rule for gate {@code g} on any qubits;</li>
@@ -37,9 +43,13 @@ import dev.qsim.Instruction;
  * @since 0.1
  */
 public final class NoiseModel {
+    static {
+        Bridge.register(new NoiseEngines());
+    }
+
     private static final NoiseModel NONE = new Builder().build();
 
-    private final Map<String, Channel> byName;
+    private final Map<Gate, Channel> byName;
     private final Map<String, Channel> byNameOn;
     private final Map<Integer, Channel> byCount;
     private final Map<String, Channel> byCountOn;
@@ -79,7 +89,7 @@ public final class NoiseModel {
 
     /** Records the rules of a noise model; mutable, not thread-safe. */
     public static final class Builder {
-        private final Map<String, Channel> byName = new HashMap<>();
+        private final Map<Gate, Channel> byName = new HashMap<>();
         private final Map<String, Channel> byNameOn = new HashMap<>();
         private final Map<Integer, Channel> byCount = new HashMap<>();
         private final Map<String, Channel> byCountOn = new HashMap<>();
@@ -124,7 +134,7 @@ public final class NoiseModel {
         public Builder afterOneQubitGatesOn(int qubit, Channel channel) {
             int[] qs = {qubit};
             requireQubits(qs);
-            byCountOn.put(key("", qs), fitting(channel, 1, "one-qubit gates"));
+            byCountOn.put(key(null, qs), fitting(channel, 1, "one-qubit gates"));
             return this;
         }
 
@@ -142,44 +152,78 @@ public final class NoiseModel {
         public Builder afterTwoQubitGatesOn(int a, int b, Channel channel) {
             int[] qs = {a, b};
             requireQubits(qs);
-            byCountOn.put(key("", qs), fitting(channel, 2, "two-qubit gates"));
+            byCountOn.put(key(null, qs), fitting(channel, 2, "two-qubit gates"));
             return this;
         }
 
         /**
-         * Puts {@code channel} after every gate named {@code gate} (rule 2), such as
-         * {@code "h"} or {@code "cnot"} ({@link Instruction#name()}).
+         * Puts {@code channel} after every instance of a catalogue gate (rule 2).
+         *
+         * @param gate the gate
+         * @param channel a one-qubit channel, or one on as many qubits as the gate
+         * @return this builder
+         * @throws IllegalArgumentException if the channel fits neither
+         */
+        public Builder afterGate(Gate gate, Channel channel) {
+            Objects.requireNonNull(gate, "gate");
+            byName.put(gate, fitting(channel, gate, gate.qubits()));
+            return this;
+        }
+
+        /**
+         * Puts {@code channel} after every instance of the gate with this name (rule 2): a name
+         * {@link Gate#lookup(String)} knows, such as {@code "h"}, {@code "cnot"}, {@code "CNOT"}
+         * or OpenQASM's {@code "cx"}.
          *
          * @param gate the gate name
-         * @param channel the channel; it must fit the gate's qubits when it is used
+         * @param channel a one-qubit channel, or one on as many qubits as the gate
          * @return this builder
-         * @throws IllegalArgumentException if the name is empty
+         * @throws IllegalArgumentException if no gate has this name (the message lists the
+         *     known names) or the channel does not fit
          */
         public Builder afterGate(String gate, Channel channel) {
-            byName.put(requireName(gate), Objects.requireNonNull(channel, "channel"));
+            return afterGate(Gate.lookup(Objects.requireNonNull(gate, "gate")), channel);
+        }
+
+        /**
+         * Puts {@code channel} after every instance of a catalogue gate on exactly the given
+         * qubits, controls first (rule 1).
+         *
+         * @param gate the gate
+         * @param channel a one-qubit channel or one on {@code qubits.length} qubits
+         * @param qubits the gate's qubits, distinct, at least one
+         * @return this builder
+         * @throws IllegalArgumentException if a qubit is negative or repeats, or the channel
+         *     does not fit
+         */
+        public Builder afterGateOn(Gate gate, Channel channel, int... qubits) {
+            Objects.requireNonNull(gate, "gate");
+            Objects.requireNonNull(qubits, "qubits");
+            if (qubits.length == 0) {
+                throw new IllegalArgumentException("give at least one qubit of gate "
+                        + gate.id());
+            }
+            requireQubits(qubits);
+            byNameOn.put(key(gate, qubits), fitting(channel, qubits.length, "gate "
+                    + gate.id()));
             return this;
         }
 
         /**
-         * Puts {@code channel} after every gate named {@code gate} on exactly the given
-         * qubits, controls first (rule 1).
+         * Puts {@code channel} after every instance of the gate with this name on exactly the
+         * given qubits, controls first (rule 1); names as for
+         * {@link #afterGate(String, Channel)}.
          *
          * @param gate the gate name
          * @param channel a one-qubit channel or one on {@code qubits.length} qubits
          * @param qubits the gate's qubits, distinct, at least one
          * @return this builder
-         * @throws IllegalArgumentException if the name is empty, a qubit is negative or
+         * @throws IllegalArgumentException if no gate has this name, a qubit is negative or
          *     repeats, or the channel does not fit
          */
         public Builder afterGateOn(String gate, Channel channel, int... qubits) {
-            requireName(gate);
-            Objects.requireNonNull(qubits, "qubits");
-            if (qubits.length == 0) {
-                throw new IllegalArgumentException("give at least one qubit of gate " + gate);
-            }
-            requireQubits(qubits);
-            byNameOn.put(key(gate, qubits), fitting(channel, qubits.length, "gate " + gate));
-            return this;
+            return afterGateOn(Gate.lookup(Objects.requireNonNull(gate, "gate")), channel,
+                    qubits);
         }
 
         /**
@@ -191,8 +235,8 @@ public final class NoiseModel {
          * @throws IllegalArgumentException if a probability is outside [0, 1]
          */
         public Builder readoutError(double p1given0, double p0given1) {
-            readoutDefault = new double[] {Require.probability(p1given0, "readout error P(1|0)"),
-                Require.probability(p0given1, "readout error P(0|1)")};
+            readoutDefault = new double[] {Checks.requireProbability(p1given0, "readout error P(1|0)"),
+                Checks.requireProbability(p0given1, "readout error P(0|1)")};
             return this;
         }
 
@@ -209,8 +253,8 @@ public final class NoiseModel {
         public Builder readoutError(int qubit, double p1given0, double p0given1) {
             requireQubits(new int[] {qubit});
             readout.put(qubit, new double[] {
-                Require.probability(p1given0, "readout error P(1|0) of qubit " + qubit),
-                Require.probability(p0given1, "readout error P(0|1) of qubit " + qubit)});
+                Checks.requireProbability(p1given0, "readout error P(1|0) of qubit " + qubit),
+                Checks.requireProbability(p0given1, "readout error P(0|1) of qubit " + qubit)});
             return this;
         }
 
@@ -223,6 +267,14 @@ public final class NoiseModel {
             return new NoiseModel(this);
         }
 
+        private static Channel fitting(Channel channel, Gate gate, int gateQubits) {
+            Objects.requireNonNull(channel, "channel");
+            if (gate == Gate.UNITARY || channel.qubits() == 1) {
+                return channel;
+            }
+            return fitting(channel, gateQubits, "gate " + gate.id());
+        }
+
         private static Channel fitting(Channel channel, int gateQubits, String what) {
             Objects.requireNonNull(channel, "channel");
             if (channel.qubits() != 1 && channel.qubits() != gateQubits) {
@@ -231,14 +283,6 @@ public final class NoiseModel {
                         + " qubit(s); use a 1-qubit or " + gateQubits + "-qubit channel");
             }
             return channel;
-        }
-
-        private static String requireName(String gate) {
-            Objects.requireNonNull(gate, "gate");
-            if (gate.isEmpty()) {
-                throw new IllegalArgumentException("the gate name is empty");
-            }
-            return gate;
         }
 
         private static void requireQubits(int[] qs) {
@@ -257,8 +301,8 @@ public final class NoiseModel {
         }
     }
 
-    private static String key(String name, int[] qubits) {
-        return name + Arrays.toString(qubits);
+    private static String key(Gate gate, int[] qubits) {
+        return (gate == null ? "" : gate.name()) + Arrays.toString(qubits);
     }
 
     /**
@@ -273,27 +317,18 @@ public final class NoiseModel {
         if (gate.kind() != Instruction.Kind.GATE) {
             throw new IllegalArgumentException("noise follows gates, not '" + gate.name() + "'");
         }
-        int[] qs = qubitsOf(gate);
-        Channel c = byNameOn.get(key(gate.name(), qs));
+        int[] qs = gate.qubits();
+        Channel c = byNameOn.get(key(gate.gate(), qs));
         if (c == null) {
-            c = byName.get(gate.name());
+            c = byName.get(gate.gate());
         }
         if (c == null) {
-            c = byCountOn.get(key("", qs));
+            c = byCountOn.get(key(null, qs));
         }
         if (c == null) {
             c = byCount.get(qs.length);
         }
         return c;
-    }
-
-    /** The gate's qubits, controls first. */
-    static int[] qubitsOf(Instruction gate) {
-        int[] c = gate.controls();
-        int[] t = gate.targets();
-        int[] all = Arrays.copyOf(c, c.length + t.length);
-        System.arraycopy(t, 0, all, c.length, t.length);
-        return all;
     }
 
     /**
@@ -306,7 +341,7 @@ public final class NoiseModel {
         if (c == null || c.isIdentity()) {
             return out;
         }
-        int[] qs = qubitsOf(gate);
+        int[] qs = gate.qubits();
         if (c.qubits() == qs.length) {
             out.add(new Placed(c, qs));
         } else if (c.qubits() == 1) {
@@ -323,6 +358,44 @@ public final class NoiseModel {
 
     /** A channel and the qubits it acts on. */
     record Placed(Channel channel, int[] qubits) {
+    }
+
+    /**
+     * Tells whether this model adds no noise: no gate rule with a channel other than the
+     * identity, and no readout error.
+     *
+     * @return whether runs under this model are ideal
+     */
+    public boolean isIdeal() {
+        for (Channel c : byName.values()) {
+            if (!c.isIdentity()) {
+                return false;
+            }
+        }
+        for (Channel c : byNameOn.values()) {
+            if (!c.isIdentity()) {
+                return false;
+            }
+        }
+        for (Channel c : byCount.values()) {
+            if (!c.isIdentity()) {
+                return false;
+            }
+        }
+        for (Channel c : byCountOn.values()) {
+            if (!c.isIdentity()) {
+                return false;
+            }
+        }
+        if (readoutDefault[0] != 0 || readoutDefault[1] != 0) {
+            return false;
+        }
+        for (double[] r : readout.values()) {
+            if (r[0] != 0 || r[1] != 0) {
+                return false;
+            }
+        }
+        return true;
     }
 
     /**

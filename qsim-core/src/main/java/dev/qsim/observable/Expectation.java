@@ -14,12 +14,18 @@ import dev.qsim.Circuit;
 import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
+import dev.qsim.internal.Bridge;
+import dev.qsim.internal.Checks;
 import dev.qsim.kernel.Amplitudes;
-import dev.qsim.kernel.Internals;
+import dev.qsim.kernel.DensityKernels;
+import dev.qsim.kernel.PauliKernels;
+import dev.qsim.noise.DensityMatrix;
 
 /**
- * Expectation values of observables in state vectors: exact ({@code <ψ|H|ψ>}, variance) and
- * estimated from shots. Stateless; thread-safe as long as no other thread changes the state
+ * Expectation values of observables: exact in a state vector ({@code <ψ|H|ψ>}, variance) or a
+ * density matrix ({@code Tr(ρH)}), and estimated from shots. One name for every kind of state:
+ * {@code Expectation.of(h, state)}; a stabilizer table answers for one Pauli product itself
+ * ({@link dev.qsim.stabilizer.GeneratorTable#expectation(PauliProduct)}). Stateless; thread-safe as long as no other thread changes the state
  * during a call.
  *
  * <p>The exact value reads the amplitudes once per term and never copies the state: for a term
@@ -31,6 +37,48 @@ import dev.qsim.kernel.Internals;
  */
 public final class Expectation {
     private Expectation() {
+    }
+
+    /** Checks that an observable or Pauli product fits on a state of {@code qubits} qubits. */
+    static void requireFits(int span, int qubits, Object what) {
+        if (span > qubits) {
+            throw new IllegalArgumentException("qubit " + (span - 1) + " of "
+                    + Checks.excerpt(String.valueOf(what)) + " is out of range [0, "
+                    + (qubits - 1) + "] for a " + qubits + "-qubit state");
+        }
+    }
+
+    /**
+     * Returns the expectation value {@code Tr(ρH)} of an observable in a density matrix
+     * (Nielsen and Chuang 2010, §2.4.1), for at most 12 qubits.
+     *
+     * @param h the observable, acting on qubits of the matrix only
+     * @param rho the density matrix. Not modified.
+     * @return the real part of {@code Tr(ρH)} (the imaginary part vanishes for Hermitian
+     *     {@code H} and {@code ρ})
+     * @throws IllegalArgumentException if the matrix has more than 12 qubits or the
+     *     observable acts beyond it
+     */
+    public static double of(Observable h, DensityMatrix rho) {
+        Objects.requireNonNull(h, "h");
+        Objects.requireNonNull(rho, "rho");
+        int n = rho.qubits();
+        if (n > dev.qsim.Operator.MAX_QUBITS) {
+            throw new IllegalArgumentException("the expectation in a density matrix is for at"
+                    + " most " + dev.qsim.Operator.MAX_QUBITS + " qubits, not " + n);
+        }
+        requireFits(h.span(), n, "the observable");
+        dev.qsim.Operator op = h.toOperator(n);
+        int d = 1 << n;
+        double[] m = new double[2 * d * d];
+        for (int r = 0; r < d; r++) {
+            for (int c = 0; c < d; c++) {
+                Complex z = op.get(r, c);
+                m[2 * (r * d + c)] = z.getReal();
+                m[2 * (r * d + c) + 1] = z.getImaginary();
+            }
+        }
+        return DensityKernels.expectation(Bridge.densities().store(rho), n, m);
     }
 
     /**
@@ -45,8 +93,8 @@ public final class Expectation {
     public static Complex of(PauliProduct pauli, StateVector state) {
         Objects.requireNonNull(pauli, "pauli");
         Objects.requireNonNull(state, "state");
-        Require.fits(pauli.span(), state.qubits(), "the Pauli product " + pauli);
-        Amplitudes a = Internals.access().amplitudes(state);
+        requireFits(pauli.span(), state.qubits(), "the Pauli product " + pauli);
+        Amplitudes a = Bridge.states().doubles(state);
         long x = pauli.xBits();
         long z = pauli.zBits();
         double[] v = PauliKernels.inner(a, a, x, z, state.threads());
@@ -71,16 +119,16 @@ public final class Expectation {
      * @return the expectation value
      * @throws IllegalArgumentException if a term acts on a qubit outside the state
      */
-    public static double exact(Observable h, StateVector state) {
+    public static double of(Observable h, StateVector state) {
         Objects.requireNonNull(h, "h");
         Objects.requireNonNull(state, "state");
-        Require.fits(h.span(), state.qubits(), "the observable");
-        Amplitudes a = Internals.access().amplitudes(state);
-        return exact(h, a, a, state.threads());
+        requireFits(h.span(), state.qubits(), "the observable");
+        Amplitudes a = Bridge.states().doubles(state);
+        return sum(h, a, a, state.threads());
     }
 
     /** Returns Re Σ_k w_k <bra|P_k|ket>; unchecked. */
-    static double exact(Observable h, Amplitudes bra, Amplitudes ket, int threads) {
+    static double sum(Observable h, Amplitudes bra, Amplitudes ket, int threads) {
         double sum = 0;
         for (int k = 0; k < h.size(); k++) {
             PauliProduct p = h.product(k);
@@ -117,8 +165,8 @@ public final class Expectation {
      * @throws IllegalArgumentException if a term acts on a qubit outside the state
      */
     public static double variance(Observable h, StateVector state) {
-        double mean = exact(h, state);
-        double square = exact(h.squared(), state);
+        double mean = of(h, state);
+        double square = of(h.squared(), state);
         return Math.max(0, square - mean * mean);
     }
 
@@ -200,8 +248,8 @@ public final class Expectation {
         Objects.requireNonNull(h, "h");
         Objects.requireNonNull(state, "state");
         Objects.requireNonNull(rng, "rng");
-        Require.fits(h.span(), state.qubits(), "the observable");
-        Require.atLeast(shots, 2, "shots per setting");
+        requireFits(h.span(), state.qubits(), "the observable");
+        Checks.requireAtLeast(shots, 2, "shots per setting");
         int n = state.qubits();
         double constant = 0;
         for (int k = 0; k < h.size(); k++) {
@@ -214,8 +262,8 @@ public final class Expectation {
             return new Estimate(constant, 0, 0, shots);
         }
         StateVector work = state.toPrecision(Precision.DOUBLE);
-        Amplitudes source = Internals.access().amplitudes(state);
-        Amplitudes target = Internals.access().amplitudes(work);
+        Amplitudes source = Bridge.states().doubles(state);
+        Amplitudes target = Bridge.states().store(work);
         double value = constant;
         double errorSquared = 0;
         for (Observable g : groups) {

@@ -7,8 +7,10 @@ import dev.qsim.Circuit;
 import dev.qsim.Instruction;
 import dev.qsim.Precision;
 import dev.qsim.StateVector;
+import dev.qsim.Gate;
+import dev.qsim.internal.Bridge;
 import dev.qsim.kernel.Amplitudes;
-import dev.qsim.kernel.Internals;
+import dev.qsim.kernel.PauliKernels;
 
 /**
  * Exact gradients of an expectation value {@code E(θ) = <ψ(θ)|H|ψ(θ)>}, with
@@ -75,19 +77,19 @@ public final class Gradients {
         Circuit bound = check(circuit, values, h, initial);
         int n = circuit.qubits();
         int threads = initial.threads();
-        Internals.Access access = Internals.access();
+        Bridge.States access = Bridge.states();
         List<Instruction> forward = bound.instructions();
         List<Instruction> backward = bound.inverse().instructions();
         List<TunableCircuit.Step> steps = circuit.steps();
         int count = forward.size();
 
         StateVector phiState = initial.toPrecision(Precision.DOUBLE);
-        Amplitudes phi = access.amplitudes(phiState);
         for (Instruction in : forward) {
-            access.applyGate(phi, in, threads);
+            access.apply(phiState, in);
         }
-        StateVector lambdaState = StateVector.zero(n).withThreads(threads);
-        Amplitudes lambda = access.amplitudes(lambdaState);
+        Amplitudes phi = access.store(phiState);
+        StateVector lambdaState = StateVector.zero(n).setThreads(threads);
+        Amplitudes lambda = access.store(lambdaState);
         lambda.clear();
         for (int k = 0; k < h.size(); k++) {
             long x = h.product(k).xBits();
@@ -112,8 +114,8 @@ public final class Gradients {
             }
             if (k > first) {
                 Instruction undo = backward.get(count - 1 - k);
-                access.applyGate(phi, undo, threads);
-                access.applyGate(lambda, undo, threads);
+                access.apply(phiState, undo);
+                access.apply(lambdaState, undo);
             }
         }
         return grad;
@@ -127,33 +129,40 @@ public final class Gradients {
      */
     private static double slope(TunableCircuit.Step s, Amplitudes lambda, Amplitudes phi,
             int threads) {
-        long a = 1L << s.qubits[0];
-        long b = s.qubits.length > 1 ? 1L << s.qubits[1] : 0;
-        switch (s.rotation) {
-            case RX:
-                return PauliKernels.inner(lambda, phi, a, 0, threads)[1];
-            case RY:
-                // Y = i X Z, so Im <λ|Y|φ> = Re <λ|XZ|φ>.
-                return PauliKernels.inner(lambda, phi, a, a, threads)[0];
-            case RZ:
-                return PauliKernels.inner(lambda, phi, 0, a, threads)[1];
-            case RZZ:
-                return PauliKernels.inner(lambda, phi, 0, a | b, threads)[1];
-            case PHASE: {
-                // Π = (I - Z)/2
-                double i0 = PauliKernels.inner(lambda, phi, 0, 0, threads)[1];
-                double iz = PauliKernels.inner(lambda, phi, 0, a, threads)[1];
-                return iz - i0;
+        double sum = 0;
+        for (Gate.Term t : s.gate.generator()) {
+            long x = 0;
+            long z = 0;
+            for (int j = 0; j < s.qubits.length; j++) {
+                char c = t.letters().charAt(j);
+                long bit = 1L << s.qubits[j];
+                if (c == 'X' || c == 'Y') {
+                    x |= bit;
+                }
+                if (c == 'Z' || c == 'Y') {
+                    z |= bit;
+                }
             }
-            default: {
-                // CPHASE: Π = (I - Za - Zb + Za Zb)/4
-                double i0 = PauliKernels.inner(lambda, phi, 0, 0, threads)[1];
-                double ia = PauliKernels.inner(lambda, phi, 0, a, threads)[1];
-                double ib = PauliKernels.inner(lambda, phi, 0, b, threads)[1];
-                double iab = PauliKernels.inner(lambda, phi, 0, a | b, threads)[1];
-                return -(i0 - ia - ib + iab) / 2;
+            // P = i^{|x∧z|} X^x Z^z; the slope takes Im <λ|P|φ>.
+            double[] v = PauliKernels.inner(lambda, phi, x, z, threads);
+            double im;
+            switch (Long.bitCount(x & z) & 3) {
+                case 0:
+                    im = v[1];
+                    break;
+                case 1:
+                    im = v[0];
+                    break;
+                case 2:
+                    im = -v[1];
+                    break;
+                default:
+                    im = -v[0];
+                    break;
             }
+            sum += t.weight() * im;
         }
+        return sum;
     }
 
     /**
@@ -195,18 +204,18 @@ public final class Gradients {
         List<TunableCircuit.Step> steps = circuit.steps();
         double[] grad = new double[circuit.parameters().size()];
         StateVector work = initial.toPrecision(Precision.DOUBLE);
-        Amplitudes source = Internals.access().amplitudes(initial);
-        Amplitudes target = Internals.access().amplitudes(work);
+        Amplitudes source = Bridge.states().doubles(initial);
+        Amplitudes target = Bridge.states().store(work);
         for (int k = 0; k < steps.size(); k++) {
             TunableCircuit.Step s = steps.get(k);
             if (s.param < 0) {
                 continue;
             }
             target.copyFrom(source);
-            double plus = Expectation.exact(h,
+            double plus = Expectation.of(h,
                     work.apply(circuit.bind(values, k, Math.PI / 2)));
             target.copyFrom(source);
-            double minus = Expectation.exact(h,
+            double minus = Expectation.of(h,
                     work.apply(circuit.bind(values, k, -Math.PI / 2)));
             grad[s.param] += s.scale * (plus - minus) / 2;
         }
@@ -221,7 +230,7 @@ public final class Gradients {
             throw new IllegalArgumentException("the initial state has " + initial.qubits()
                     + " qubit(s) but the circuit has " + circuit.qubits() + "; they must match");
         }
-        Require.fits(h.span(), circuit.qubits(), "the observable");
+        Expectation.requireFits(h.span(), circuit.qubits(), "the observable");
         return bound;
     }
 }

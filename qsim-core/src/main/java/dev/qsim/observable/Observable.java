@@ -10,6 +10,7 @@ import java.util.Objects;
 import org.apache.commons.numbers.complex.Complex;
 
 import dev.qsim.Operator;
+import dev.qsim.internal.Checks;
 
 /**
  * A Hermitian observable {@code H = Σ_k w_k P_k}: a sum of Pauli products {@code P_k}, each with
@@ -173,7 +174,7 @@ public final class Observable {
      * @throws IllegalArgumentException if {@code factor} is not finite
      */
     public Observable times(double factor) {
-        Require.finite(factor, "the factor");
+        Checks.requireFinite(factor, "the factor");
         double[] w = weights.clone();
         for (int k = 0; k < w.length; k++) {
             w[k] *= factor;

@@ -7,7 +7,9 @@ import java.util.Map;
 import java.util.Objects;
 
 import dev.qsim.Circuit;
+import dev.qsim.Gate;
 import dev.qsim.Operator;
+import dev.qsim.internal.Checks;
 
 /**
  * A circuit of gates whose rotation angles may depend on named parameters: each such angle is
@@ -17,35 +19,29 @@ import dev.qsim.Operator;
  * <p>Parameters are declared by first use in the builder, and {@link #parameters()} lists them
  * in that order; {@link #bind(double...)} takes values in that order and
  * {@link #bind(Map)} by name. A parameter may appear in many gates (its gradient sums over
- * them). Parameterised gates are {@code rx, ry, rz, phase} on one qubit and {@code cphase, rzz}
- * on two, with the angle conventions of {@link dev.qsim}.
+ * them). A parameter may drive any catalogue gate with a {@linkplain Gate#generator()
+ * generator} (rx, ry, rz, phase, cphase, rzz), with the angle conventions of
+ * {@link dev.qsim}; every other catalogue gate and any unitary may appear with fixed angles.
  *
  * @since 0.2
  */
 public final class TunableCircuit {
-    /** The gates whose angle may be a parameter. */
-    enum Rotation {
-        RX, RY, RZ, PHASE, CPHASE, RZZ
-    }
-
-    /** One recorded gate: fixed (param -1, angle or operator given) or parameterised. */
+    /** One recorded gate: fixed (param -1, angles or operator given) or driven by a parameter. */
     static final class Step {
-        final String gate;
+        final Gate gate;
         final int[] qubits;
-        final double angle;
+        final double[] angles;
         final Operator op;
-        final Rotation rotation;
         final int param;
         final double scale;
         final double offset;
 
-        Step(String gate, int[] qubits, double angle, Operator op, Rotation rotation, int param,
-                double scale, double offset) {
+        Step(Gate gate, int[] qubits, double[] angles, Operator op, int param, double scale,
+                double offset) {
             this.gate = gate;
             this.qubits = qubits;
-            this.angle = angle;
+            this.angles = angles;
             this.op = op;
-            this.rotation = rotation;
             this.param = param;
             this.scale = scale;
             this.offset = offset;
@@ -83,7 +79,7 @@ public final class TunableCircuit {
     }
 
     /**
-     * Returns the parameter names in declared order (order of first use).
+     * Returns the parameter names in order of declaration.
      *
      * @return an unmodifiable list
      */
@@ -105,116 +101,106 @@ public final class TunableCircuit {
     }
 
     /**
-     * Returns the plain circuit with parameter {@code j} set to {@code values[j]}, in the order
-     * of {@link #parameters()}.
+     * Returns the plain circuit for the given parameter values, in declared order.
      *
      * @param values one finite value per parameter
-     * @return the bound circuit, one instruction per gate of this circuit
-     * @throws IllegalArgumentException if the count of values differs from the parameter count
-     *     or a value is not finite
+     * @return the circuit, gate for gate
+     * @throws IllegalArgumentException if the count is wrong or a value is not finite
      */
     public Circuit bind(double... values) {
         Objects.requireNonNull(values, "values");
         if (values.length != parameters.size()) {
             throw new IllegalArgumentException("the circuit has " + parameters.size()
-                    + " parameter(s) " + parameters + " but " + values.length
-                    + " value(s) were given");
+                    + " parameter(s) " + Checks.excerpt(parameters.toString()) + " but "
+                    + values.length + " value(s) were given");
         }
         for (int j = 0; j < values.length; j++) {
             if (!Double.isFinite(values[j])) {
-                throw new IllegalArgumentException("the value of parameter '" + parameters.get(j)
-                        + "' must be finite but was " + values[j]);
+                throw new IllegalArgumentException("the value of parameter '"
+                        + Checks.excerpt(parameters.get(j)) + "' must be finite but was "
+                        + values[j]);
             }
         }
         return bind(values, -1, 0);
     }
 
     /**
-     * Returns the plain circuit with each parameter set to the value of its name.
+     * Returns the plain circuit for parameter values given by name.
      *
-     * @param values a finite value for every parameter, and no other names
-     * @return the bound circuit
-     * @throws IllegalArgumentException if a name is not a parameter of this circuit, a
-     *     parameter has no value, or a value is null or not finite
+     * @param values a value for every parameter, finite
+     * @return the circuit
+     * @throws IllegalArgumentException if a name is unknown or missing, or a value is not
+     *     finite
      */
     public Circuit bind(Map<String, Double> values) {
         Objects.requireNonNull(values, "values");
         for (String name : values.keySet()) {
             if (!parameters.contains(name)) {
-                throw new IllegalArgumentException("unknown parameter '" + name
-                        + "'; the circuit's parameters are " + parameters);
+                throw new IllegalArgumentException("unknown parameter '" + Checks.excerpt(name)
+                        + "'; the circuit's parameters are "
+                        + Checks.excerpt(parameters.toString()));
             }
         }
         double[] v = new double[parameters.size()];
         for (int j = 0; j < v.length; j++) {
             Double d = values.get(parameters.get(j));
             if (d == null) {
-                throw new IllegalArgumentException("parameter '" + parameters.get(j)
-                        + "' has no value; every one of " + parameters + " must be bound");
+                throw new IllegalArgumentException("parameter '" + Checks.excerpt(
+                        parameters.get(j)) + "' has no value; every parameter must be bound");
             }
             v[j] = d;
         }
         return bind(v);
     }
 
-    /** Binds with the angle of step {@code shifted} (if >= 0) moved by {@code shift}. */
+    /** Binds values, adding {@code shift} to the angle of step {@code shifted} (-1: none). */
     Circuit bind(double[] values, int shifted, double shift) {
         Circuit.Builder b = Circuit.builder(qubits, 0);
         for (int k = 0; k < steps.size(); k++) {
             Step s = steps.get(k);
-            double a = s.param < 0 ? s.angle : s.scale * values[s.param] + s.offset;
-            if (k == shifted) {
-                a += shift;
+            double[] a = s.angles;
+            if (s.param >= 0 || k == shifted) {
+                a = a.clone();
+                if (s.param >= 0) {
+                    a[0] = s.scale * values[s.param] + s.offset;
+                }
+                if (k == shifted) {
+                    a[0] += shift;
+                }
             }
             record(b, s, a);
         }
         return b.build();
     }
 
-    /** Records one step with its angle into a plain builder. */
-    static void record(Circuit.Builder b, Step s, double a) {
-        int[] q = s.qubits;
-        switch (s.gate) {
-            case "h" -> b.h(q[0]);
-            case "x" -> b.x(q[0]);
-            case "y" -> b.y(q[0]);
-            case "z" -> b.z(q[0]);
-            case "s" -> b.s(q[0]);
-            case "sDagger" -> b.sDagger(q[0]);
-            case "t" -> b.t(q[0]);
-            case "tDagger" -> b.tDagger(q[0]);
-            case "sqrtX" -> b.sqrtX(q[0]);
-            case "rx" -> b.rx(q[0], a);
-            case "ry" -> b.ry(q[0], a);
-            case "rz" -> b.rz(q[0], a);
-            case "phase" -> b.phase(q[0], a);
-            case "cnot" -> b.cnot(q[0], q[1]);
-            case "cz" -> b.cz(q[0], q[1]);
-            case "swap" -> b.swap(q[0], q[1]);
-            case "cphase" -> b.cphase(q[0], q[1], a);
-            case "rzz" -> b.rzz(q[0], q[1], a);
-            case "toffoli" -> b.toffoli(q[0], q[1], q[2]);
-            default -> b.apply(s.op, q);
+    private static void record(Circuit.Builder b, Step s, double[] angles) {
+        if (s.gate == Gate.UNITARY) {
+            b.apply(s.op, s.qubits);
+        } else {
+            b.gate(s.gate, angles, s.qubits);
         }
     }
 
     /**
-     * Returns a one-line summary, such as {@code "TunableCircuit[4 qubits, 12 gates,
-     * parameters [a, b]]"}.
+     * Returns a short description with the qubit and gate counts and the parameters.
      *
-     * @return the summary
+     * @return the description
      */
     @Override
     public String toString() {
         return "TunableCircuit[" + qubits + " qubits, " + steps.size() + " gates, parameters "
-                + parameters + "]";
+                + Checks.excerpt(parameters.toString()) + "]";
     }
 
     /**
-     * Records gates of a {@link TunableCircuit}; the gate methods mirror
-     * {@link Circuit.Builder} and check their arguments the same way. Mutable, not thread-safe.
+     * Records the gates of a {@link TunableCircuit}; every call checks its arguments before it
+     * records anything. Mutable; not thread-safe.
+     *
+     * @since 0.2
      */
     public static final class Builder {
+        private static final double[] NO_ANGLES = new double[0];
+
         private final int qubits;
         private final Circuit.Builder check;
         private final Map<String, Integer> index = new LinkedHashMap<>();
@@ -225,27 +211,70 @@ public final class TunableCircuit {
             this.qubits = qubits;
         }
 
-        private Builder fixed(String gate, double angle, Operator op, int... q) {
-            Step s = new Step(gate, q.clone(), angle, op, null, -1, 0, 0);
-            record(check, s, angle); // validates qubits, angle and operator
+        /**
+         * Appends a catalogue gate with fixed angles (none for gates without), as
+         * {@link Circuit.Builder#gate(Gate, double[], int...)}.
+         *
+         * @param gate the gate, not {@link Gate#UNITARY}
+         * @param angles {@code gate.parameters()} finite angles in radians
+         * @param qubits the gate's qubits, controls first
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if the gate does not fit its qubits or angles
+         */
+        public Builder gate(Gate gate, double[] angles, int... qubits) {
+            Objects.requireNonNull(gate, "gate");
+            Objects.requireNonNull(angles, "angles");
+            Objects.requireNonNull(qubits, "qubits");
+            Step s = new Step(gate, qubits.clone(), angles.clone(), null, -1, 0, 0);
+            record(check, s, s.angles); // validates qubits and angles
             steps.add(s);
             return this;
         }
 
-        private Builder tunable(String gate, Rotation r, String name, double scale,
-                double offset, int... q) {
-            Require.name(name);
-            Require.finite(scale, "the scale of parameter '" + name + "'");
-            Require.finite(offset, "the offset of parameter '" + name + "'");
-            Step s = new Step(gate, q.clone(), 0, null, r, -1, scale, offset);
-            record(check, s, 0);
+        /**
+         * Appends a one-angle catalogue gate driven by parameter {@code θ}: its angle is
+         * {@code scale·θ + offset}. The gate needs a {@linkplain Gate#generator() generator}.
+         *
+         * @param gate the gate: rx, ry, rz, phase, cphase or rzz
+         * @param name the parameter name, not blank, no whitespace
+         * @param scale a finite factor
+         * @param offset a finite angle in radians
+         * @param qubits the gate's qubits
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException if the gate has no generator, the qubits do not fit,
+         *     the name is bad, or the scale or offset is not finite
+         */
+        public Builder gate(Gate gate, String name, double scale, double offset,
+                int... qubits) {
+            Objects.requireNonNull(gate, "gate");
+            Objects.requireNonNull(qubits, "qubits");
+            if (gate.generator().isEmpty()) {
+                throw new IllegalArgumentException("gate " + gate.id() + " cannot take a"
+                        + " parameter; parameters drive rx, ry, rz, phase, cphase and rzz");
+            }
+            Checks.requireName(name, "a parameter name");
+            Checks.requireFinite(scale, "the scale of parameter '" + Checks.excerpt(name) + "'");
+            Checks.requireFinite(offset, "the offset of parameter '" + Checks.excerpt(name)
+                    + "'");
+            Step probe = new Step(gate, qubits.clone(), new double[] {0}, null, -1, 0, 0);
+            record(check, probe, probe.angles);
             Integer j = index.get(name);
             if (j == null) {
                 j = index.size();
                 index.put(name, j);
             }
-            steps.add(new Step(gate, q.clone(), 0, null, r, j, scale, offset));
+            steps.add(new Step(gate, probe.qubits, probe.angles, null, j, scale, offset));
             return this;
+        }
+
+        private Builder fixed(Gate gate, int... q) {
+            return gate(gate, NO_ANGLES, q);
+        }
+
+        private Builder turned(Gate gate, double angle, int... q) {
+            return gate(gate, new double[] {angle}, q);
         }
 
         /**
@@ -256,7 +285,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder h(int q) {
-            return fixed("h", 0, null, q);
+            return fixed(Gate.H, q);
         }
 
         /**
@@ -267,7 +296,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder x(int q) {
-            return fixed("x", 0, null, q);
+            return fixed(Gate.X, q);
         }
 
         /**
@@ -278,7 +307,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder y(int q) {
-            return fixed("y", 0, null, q);
+            return fixed(Gate.Y, q);
         }
 
         /**
@@ -289,7 +318,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder z(int q) {
-            return fixed("z", 0, null, q);
+            return fixed(Gate.Z, q);
         }
 
         /**
@@ -300,7 +329,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder s(int q) {
-            return fixed("s", 0, null, q);
+            return fixed(Gate.S, q);
         }
 
         /**
@@ -311,7 +340,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder sDagger(int q) {
-            return fixed("sDagger", 0, null, q);
+            return fixed(Gate.S_DAGGER, q);
         }
 
         /**
@@ -322,7 +351,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder t(int q) {
-            return fixed("t", 0, null, q);
+            return fixed(Gate.T, q);
         }
 
         /**
@@ -333,7 +362,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder tDagger(int q) {
-            return fixed("tDagger", 0, null, q);
+            return fixed(Gate.T_DAGGER, q);
         }
 
         /**
@@ -344,7 +373,7 @@ public final class TunableCircuit {
          * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the circuit
          */
         public Builder sqrtX(int q) {
-            return fixed("sqrtX", 0, null, q);
+            return fixed(Gate.SQRT_X, q);
         }
 
         /**
@@ -357,7 +386,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if the angle is not finite
          */
         public Builder rx(int q, double angle) {
-            return fixed("rx", angle, null, q);
+            return turned(Gate.RX, angle, q);
         }
 
         /**
@@ -370,7 +399,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if the angle is not finite
          */
         public Builder ry(int q, double angle) {
-            return fixed("ry", angle, null, q);
+            return turned(Gate.RY, angle, q);
         }
 
         /**
@@ -383,7 +412,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if the angle is not finite
          */
         public Builder rz(int q, double angle) {
-            return fixed("rz", angle, null, q);
+            return turned(Gate.RZ, angle, q);
         }
 
         /**
@@ -396,7 +425,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if the angle is not finite
          */
         public Builder phase(int q, double angle) {
-            return fixed("phase", angle, null, q);
+            return turned(Gate.PHASE, angle, q);
         }
 
         /**
@@ -425,7 +454,7 @@ public final class TunableCircuit {
          *     or offset is not finite
          */
         public Builder rx(int q, String name, double scale, double offset) {
-            return tunable("rx", Rotation.RX, name, scale, offset, q);
+            return gate(Gate.RX, name, scale, offset, q);
         }
 
         /**
@@ -454,7 +483,7 @@ public final class TunableCircuit {
          *     or offset is not finite
          */
         public Builder ry(int q, String name, double scale, double offset) {
-            return tunable("ry", Rotation.RY, name, scale, offset, q);
+            return gate(Gate.RY, name, scale, offset, q);
         }
 
         /**
@@ -483,7 +512,7 @@ public final class TunableCircuit {
          *     or offset is not finite
          */
         public Builder rz(int q, String name, double scale, double offset) {
-            return tunable("rz", Rotation.RZ, name, scale, offset, q);
+            return gate(Gate.RZ, name, scale, offset, q);
         }
 
         /**
@@ -512,7 +541,7 @@ public final class TunableCircuit {
          *     or offset is not finite
          */
         public Builder phase(int q, String name, double scale, double offset) {
-            return tunable("phase", Rotation.PHASE, name, scale, offset, q);
+            return gate(Gate.PHASE, name, scale, offset, q);
         }
 
         /**
@@ -525,7 +554,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if {@code control == target}
          */
         public Builder cnot(int control, int target) {
-            return fixed("cnot", 0, null, control, target);
+            return fixed(Gate.CNOT, control, target);
         }
 
         /**
@@ -538,7 +567,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if {@code a == b}
          */
         public Builder cz(int a, int b) {
-            return fixed("cz", 0, null, a, b);
+            return fixed(Gate.CZ, a, b);
         }
 
         /**
@@ -551,7 +580,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if {@code a == b}
          */
         public Builder swap(int a, int b) {
-            return fixed("swap", 0, null, a, b);
+            return fixed(Gate.SWAP, a, b);
         }
 
         /**
@@ -565,7 +594,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if two of the qubits are equal
          */
         public Builder toffoli(int c1, int c2, int target) {
-            return fixed("toffoli", 0, null, c1, c2, target);
+            return fixed(Gate.TOFFOLI, c1, c2, target);
         }
 
         /**
@@ -579,7 +608,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if the qubits are equal or the angle is not finite
          */
         public Builder cphase(int control, int target, double angle) {
-            return fixed("cphase", angle, null, control, target);
+            return turned(Gate.CPHASE, angle, control, target);
         }
 
         /**
@@ -611,7 +640,7 @@ public final class TunableCircuit {
          */
         public Builder cphase(int control, int target, String name, double scale,
                 double offset) {
-            return tunable("cphase", Rotation.CPHASE, name, scale, offset, control, target);
+            return gate(Gate.CPHASE, name, scale, offset, control, target);
         }
 
         /**
@@ -625,7 +654,7 @@ public final class TunableCircuit {
          * @throws IllegalArgumentException if the qubits are equal or the angle is not finite
          */
         public Builder rzz(int a, int b, double angle) {
-            return fixed("rzz", angle, null, a, b);
+            return turned(Gate.RZZ, angle, a, b);
         }
 
         /**
@@ -656,7 +685,7 @@ public final class TunableCircuit {
          *     scale or offset is not finite
          */
         public Builder rzz(int a, int b, String name, double scale, double offset) {
-            return tunable("rzz", Rotation.RZZ, name, scale, offset, a, b);
+            return gate(Gate.RZZ, name, scale, offset, a, b);
         }
 
         /**
@@ -671,7 +700,10 @@ public final class TunableCircuit {
         public Builder apply(Operator op, int... qubits) {
             Objects.requireNonNull(op, "op");
             Objects.requireNonNull(qubits, "qubits");
-            return fixed("apply", 0, op, qubits);
+            Step s = new Step(Gate.UNITARY, qubits.clone(), NO_ANGLES, op, -1, 0, 0);
+            record(check, s, NO_ANGLES);
+            steps.add(s);
+            return this;
         }
 
         /**

@@ -8,10 +8,13 @@ import java.util.Objects;
 import org.apache.commons.rng.UniformRandomProvider;
 
 import dev.qsim.StateVector;
-import dev.qsim.kernel.Args;
+import dev.qsim.internal.Bridge;
+import dev.qsim.internal.Checks;
+import dev.qsim.internal.Heap;
 import dev.qsim.kernel.Amplitudes;
-import dev.qsim.kernel.Heap;
-import dev.qsim.kernel.Internals;
+import dev.qsim.kernel.Parallel;
+import dev.qsim.kernel.StabilizerStates;
+import dev.qsim.observable.PauliProduct;
 
 /**
  * A stabilizer state of n qubits held as its table of generators: mutable, not thread-safe.
@@ -31,14 +34,16 @@ import dev.qsim.kernel.Internals;
  * phase function g of the paper). The destabilizer signs are never needed for outcomes and are
  * not kept. Memory: about n²/2 bytes.
  *
- * <p><b>Text.</b> A Pauli string of n qubits is written as a sign {@code '+'} or {@code '-'}
- * followed by n letters from {@code I X Y Z}, the highest-numbered qubit leftmost, as bitstrings
- * are in {@link dev.qsim} (see its package documentation): on 3 qubits {@code "+XZI"} is X on
- * qubit 2, Z on qubit 1 and the identity on qubit 0.
+ * <p><b>Pauli products</b> in and out are {@link PauliProduct}s, with the one text format of
+ * {@link PauliProduct#parse(String)} and {@link PauliProduct#toDense(int)}.
  *
  * @since 0.2
  */
 public final class GeneratorTable {
+    static {
+        Bridge.register(new TableauEngine());
+    }
+
     /**
      * The largest qubit count accepted: each bit column set must fit one Java array. Memory
      * grows as n²/2 bytes, so the heap is usually the tighter limit.
@@ -110,7 +115,7 @@ public final class GeneratorTable {
      * @throws IllegalStateException if the heap cannot hold the table
      */
     public static GeneratorTable zero(int n) {
-        StabilizerChecks.requireQubitCount(n, MAX_QUBITS);
+        Checks.requireInRange(n, 1, MAX_QUBITS, "qubit count");
         Heap.require(bytes(n), "a " + n + "-qubit stabilizer table");
         GeneratorTable t = new GeneratorTable(n);
         for (int i = 0; i < n; i++) {
@@ -163,7 +168,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable h(int q) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         hRaw(q);
         return this;
     }
@@ -176,7 +181,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable s(int q) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         sRaw(q);
         return this;
     }
@@ -189,7 +194,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable sDagger(int q) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         sDaggerRaw(q);
         return this;
     }
@@ -202,7 +207,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable sqrtX(int q) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         hRaw(q);
         sRaw(q);
         hRaw(q);
@@ -217,7 +222,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable x(int q) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         xRaw(q);
         return this;
     }
@@ -230,7 +235,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable y(int q) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         yRaw(q);
         return this;
     }
@@ -243,7 +248,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable z(int q) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         zRaw(q);
         return this;
     }
@@ -258,7 +263,7 @@ public final class GeneratorTable {
      * @throws IllegalArgumentException if {@code control == target}
      */
     public GeneratorTable cnot(int control, int target) {
-        StabilizerChecks.requireDistinct(control, target, n, "cnot");
+        requireDistinct(control, target, "cnot");
         cnotRaw(control, target);
         return this;
     }
@@ -273,7 +278,7 @@ public final class GeneratorTable {
      * @throws IllegalArgumentException if {@code a == b}
      */
     public GeneratorTable cz(int a, int b) {
-        StabilizerChecks.requireDistinct(a, b, n, "cz");
+        requireDistinct(a, b, "cz");
         czRaw(a, b);
         return this;
     }
@@ -288,9 +293,13 @@ public final class GeneratorTable {
      * @throws IllegalArgumentException if {@code a == b}
      */
     public GeneratorTable swap(int a, int b) {
-        StabilizerChecks.requireDistinct(a, b, n, "swap");
+        requireDistinct(a, b, "swap");
         swapRaw(a, b);
         return this;
+    }
+
+    private void requireDistinct(int a, int b, String gate) {
+        Checks.requireDistinctQubits(new int[] {a, b}, n, "the qubits of " + gate);
     }
 
     // ---------------------------------------------------------------- gates (unchecked)
@@ -424,7 +433,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public int measure(int q, UniformRandomProvider rng) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         Objects.requireNonNull(rng, "rng");
         return measureRaw(q, rng);
     }
@@ -438,7 +447,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public GeneratorTable reset(int q, UniformRandomProvider rng) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         Objects.requireNonNull(rng, "rng");
         if (measureRaw(q, rng) == 1) {
             xRaw(q);
@@ -455,7 +464,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
     public boolean isDeterministic(int q) {
-        Args.requireQubit(q, n);
+        Checks.requireQubit(q, n);
         return pivot(q) < 0;
     }
 
@@ -670,15 +679,15 @@ public final class GeneratorTable {
     // ---------------------------------------------------------------- queries
 
     /**
-     * Returns the n stabilizer generators as Pauli strings, sign first, highest qubit leftmost
-     * (see the class documentation), such as {@code "+XX"} and {@code "+ZZ"} for the Bell state
+     * Returns the n stabilizer generators as Pauli products with phase +1 or -1, such as
+     * {@code XX} and {@code ZZ} (dense text {@code "XX"}, {@code "ZZ"}) for the Bell state
      * (|00&gt; + |11&gt;)/√2 made by H on qubit 0 then CNOT(0, 1). The generators are not in a
      * canonical form: equal states may give different lists.
      *
-     * @return a new list of n strings
+     * @return a new list of n products
      */
-    public List<String> generators() {
-        List<String> out = new ArrayList<>(n);
+    public List<PauliProduct> generators() {
+        List<PauliProduct> out = new ArrayList<>(n);
         char[] text = new char[n + 1];
         for (int i = 0; i < n; i++) {
             final int w = half + (i >>> 6);
@@ -689,26 +698,41 @@ public final class GeneratorTable {
                 boolean z = (zs[j * stride + w] & b) != 0;
                 text[n - j] = x ? (z ? 'Y' : 'X') : (z ? 'Z' : 'I');
             }
-            out.add(new String(text));
+            out.add(PauliProduct.parse(new String(text)));
         }
         return out;
     }
 
     /**
-     * Returns the expectation value &lt;ψ|P|ψ&gt; of a Pauli string P in this state: +1 or -1
-     * if P or -P is in the stabilizer group, otherwise 0 (a Pauli string outside the group
-     * anticommutes with one of its elements; Aaronson and Gottesman 2004, section III).
+     * Returns the expectation value {@code <psi|P|psi>} of a Hermitian Pauli product in this
+     * stabilizer state: +1 or -1 when {@code ±P} is in the stabilizer group, 0 otherwise
+     * (Aaronson and Gottesman 2004, section III: P commutes with every stabilizer exactly when
+     * it is, up to sign, a product of them).
      *
-     * @param pauli an optional sign {@code '+'} or {@code '-'}, then n letters from
-     *     {@code I X Y Z}, highest qubit leftmost
+     * @param pauli a Hermitian product (phase +1 or -1) on qubits below {@link #qubits()}
      * @return -1, 0 or 1
-     * @throws IllegalArgumentException if the text is not such a string
+     * @throws IllegalArgumentException if the product is not Hermitian or acts on a qubit
+     *     beyond the table
      */
-    public int expectation(String pauli) {
+    public int expectation(PauliProduct pauli) {
         Objects.requireNonNull(pauli, "pauli");
+        if (!pauli.isHermitian()) {
+            throw new IllegalArgumentException("the Pauli product " + Checks.excerpt(
+                    pauli.toString()) + " has phase i or -i and is not Hermitian; give phase +1"
+                    + " or -1");
+        }
+        if (pauli.span() > n) {
+            throw new IllegalArgumentException("the Pauli product acts on qubit "
+                    + (pauli.span() - 1) + " but the table has " + n + " qubit(s)");
+        }
         boolean[] px = new boolean[n];
         boolean[] pz = new boolean[n];
-        int sign = parsePauli(pauli, px, pz);
+        for (int q = 0; q < pauli.span(); q++) {
+            char c = pauli.letter(q);
+            px[q] = c == 'X' || c == 'Y';
+            pz[q] = c == 'Z' || c == 'Y';
+        }
+        int sign = pauli.phase() == 2 ? -1 : 1;
         long[] acc = new long[stride];
         for (int j = 0; j < n; j++) {
             final int c = j * stride;
@@ -735,57 +759,22 @@ public final class GeneratorTable {
         int e = productExponent(acc, qx, qz) + 2 * signParity(acc);
         if (!Arrays.equals(px, qx) || !Arrays.equals(pz, qz)) {
             throw new IllegalStateException("internal error: the stabilizer product does not"
-                    + " match " + pauli);
+                    + " match " + Checks.excerpt(pauli.toString()));
         }
         return ((e >>> 1) & 1) == 0 ? sign : -sign;
     }
 
-    private int parsePauli(String text, boolean[] px, boolean[] pz) {
-        int sign = 1;
-        int start = 0;
-        if (!text.isEmpty() && (text.charAt(0) == '+' || text.charAt(0) == '-')) {
-            sign = text.charAt(0) == '-' ? -1 : 1;
-            start = 1;
-        }
-        int letters = text.length() - start;
-        if (letters != n) {
-            throw new IllegalArgumentException("Pauli string '" + text + "' has " + letters
-                    + " letter(s) but the table has " + n + " qubit(s); give one of I X Y Z per"
-                    + " qubit, highest qubit leftmost, after an optional sign + or -");
-        }
-        for (int k = start; k < text.length(); k++) {
-            int q = n - 1 - (k - start);
-            switch (text.charAt(k)) {
-                case 'I':
-                    break;
-                case 'X':
-                    px[q] = true;
-                    break;
-                case 'Y':
-                    px[q] = true;
-                    pz[q] = true;
-                    break;
-                case 'Z':
-                    pz[q] = true;
-                    break;
-                default:
-                    throw new IllegalArgumentException("Pauli string '" + text + "' has '"
-                            + text.charAt(k) + "' at position " + k
-                            + "; only I, X, Y and Z are allowed after the sign");
-            }
-        }
-        return sign;
-    }
-
     /**
-     * Returns the state as a state vector, with the global phase chosen so that the first
-     * nonzero amplitude found by measuring the qubits in order (a random outcome taken as 0)
-     * is real and positive. Built as the normalised projection ∏_k (I + g_k)/2 of that basis
-     * state onto the joint +1 eigenspace of the generators g_k (Nielsen and Chuang 2010,
-     * section 10.5.1).
+     * Returns the state as a state vector (normalised; its global phase is not specified), for
+     * at most {@value #MAX_DENSE_QUBITS} qubits:
+     * the projection of a basis state the table fixes onto the stabilizer group, {@code Π (I +
+     * g_i) / 2} (Gottesman 1997, "Stabilizer codes and quantum error correction", thesis,
+     * arXiv:quant-ph/9705052, §3.2).
      *
-     * @return a new state vector of n qubits
-     * @throws IllegalArgumentException if n exceeds {@value #MAX_DENSE_QUBITS}
+     * @return the state vector
+     * @throws IllegalArgumentException if the table has more than {@value #MAX_DENSE_QUBITS}
+     *     qubits
+     * @throws IllegalStateException if the heap cannot hold the state
      */
     public StateVector toStateVector() {
         if (n > MAX_DENSE_QUBITS) {
@@ -805,60 +794,27 @@ public final class GeneratorTable {
             }
             start |= (long) bit << q;
         }
-        final int dim = 1 << n;
-        double[] re = new double[dim];
-        double[] im = new double[dim];
-        double[] re2 = new double[dim];
-        double[] im2 = new double[dim];
-        re[(int) start] = 1;
+        int[] xm = new int[n];
+        int[] zm = new int[n];
+        boolean[] minus = new boolean[n];
         for (int i = 0; i < n; i++) {
             final int w = half + (i >>> 6);
             final long b = 1L << (i & 63);
-            int xm = 0;
-            int zm = 0;
             for (int j = 0; j < n; j++) {
                 if ((xs[j * stride + w] & b) != 0) {
-                    xm |= 1 << j;
+                    xm[i] |= 1 << j;
                 }
                 if ((zs[j * stride + w] & b) != 0) {
-                    zm |= 1 << j;
+                    zm[i] |= 1 << j;
                 }
             }
-            final int minus = (signs[w - half] & b) != 0 ? 1 : 0;
-            final int ys = Integer.bitCount(xm & zm) & 3;
-            // g|k> = (-1)^(r + |z & k|) i^(#Y) |k ^ x>.
-            for (int k = 0; k < dim; k++) {
-                double a = re[k];
-                double c = im[k];
-                if ((((Integer.bitCount(zm & k)) + minus) & 1) == 1) {
-                    a = -a;
-                    c = -c;
-                }
-                for (int y = 0; y < ys; y++) {
-                    double t0 = a;
-                    a = -c;
-                    c = t0;
-                }
-                re2[k ^ xm] = a;
-                im2[k ^ xm] = c;
-            }
-            for (int k = 0; k < dim; k++) {
-                re[k] = 0.5 * (re[k] + re2[k]);
-                im[k] = 0.5 * (im[k] + im2[k]);
-            }
+            minus[i] = (signs[w - half] & b) != 0;
         }
-        double norm = 0;
-        for (int k = 0; k < dim; k++) {
-            norm += re[k] * re[k] + im[k] * im[k];
-        }
-        final double scale = 1 / Math.sqrt(norm);
-        Amplitudes amps = Amplitudes.allocate(n);
-        for (int k = 0; k < dim; k++) {
-            if (re[k] != 0 || im[k] != 0) {
-                amps.set(k, re[k] * scale, im[k] * scale);
-            }
-        }
-        return Internals.access().wrap(amps, Runtime.getRuntime().availableProcessors());
+        final long fixedStart = start;
+        Amplitudes amps = Heap.allocate(4 * Amplitudes.bytes(n), "the " + n + "-qubit state of"
+                + " a stabilizer table", () -> StabilizerStates.project(n, xm, zm, minus,
+                (int) fixedStart));
+        return Bridge.states().wrap(amps, Parallel.defaultThreads());
     }
 
     // ---------------------------------------------------------------- runner support

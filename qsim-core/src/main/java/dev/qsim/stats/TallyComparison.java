@@ -1,6 +1,7 @@
 package dev.qsim.stats;
 
 import dev.qsim.Tally;
+import dev.qsim.internal.Checks;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.Collections;

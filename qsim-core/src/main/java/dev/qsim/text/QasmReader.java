@@ -1,6 +1,7 @@
 package dev.qsim.text;
 
 import dev.qsim.Circuit;
+import dev.qsim.Gate;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
 import dev.qsim.text.Lexer.Token;
@@ -110,80 +111,19 @@ public final class QasmReader {
         double eval(Map<String, Double> env);
     }
 
-    /** Records a standard gate on a builder. */
-    @FunctionalInterface
-    interface Emit {
-        void emit(Circuit.Builder b, double[] p, int[] q);
-    }
-
-    /** A gate known without definition. */
-    static final class Builtin {
-        final int params;
-        final int qubits;
-        final int controls;
-        final Function<double[], Operator> op;
-        final Emit emit;
-
-        Builtin(int params, int qubits, int controls, Function<double[], Operator> op, Emit emit) {
-            this.params = params;
-            this.qubits = qubits;
-            this.controls = controls;
-            this.op = op;
-            this.emit = emit;
-        }
-    }
-
-    static final Map<String, Builtin> STANDARD = new LinkedHashMap<>();
+    /** The gates known without definition, by OpenQASM name: the catalogue's and aliases. */
+    static final Map<String, Gate> STANDARD = new LinkedHashMap<>();
 
     static {
-        STANDARD.put("h", new Builtin(0, 1, 0, p -> Gates.H, (b, p, q) -> b.h(q[0])));
-        STANDARD.put("x", new Builtin(0, 1, 0, p -> Gates.X, (b, p, q) -> b.x(q[0])));
-        STANDARD.put("y", new Builtin(0, 1, 0, p -> Gates.Y, (b, p, q) -> b.y(q[0])));
-        STANDARD.put("z", new Builtin(0, 1, 0, p -> Gates.Z, (b, p, q) -> b.z(q[0])));
-        STANDARD.put("s", new Builtin(0, 1, 0, p -> Gates.S, (b, p, q) -> b.s(q[0])));
-        STANDARD.put("sdg", new Builtin(0, 1, 0, p -> Gates.S_DAGGER,
-                (b, p, q) -> b.sDagger(q[0])));
-        STANDARD.put("t", new Builtin(0, 1, 0, p -> Gates.T, (b, p, q) -> b.t(q[0])));
-        STANDARD.put("tdg", new Builtin(0, 1, 0, p -> Gates.T_DAGGER,
-                (b, p, q) -> b.tDagger(q[0])));
-        STANDARD.put("sx", new Builtin(0, 1, 0, p -> Gates.SQRT_X, (b, p, q) -> b.sqrtX(q[0])));
-        STANDARD.put("rx", new Builtin(1, 1, 0, p -> Gates.rx(p[0]),
-                (b, p, q) -> b.rx(q[0], p[0])));
-        STANDARD.put("ry", new Builtin(1, 1, 0, p -> Gates.ry(p[0]),
-                (b, p, q) -> b.ry(q[0], p[0])));
-        STANDARD.put("rz", new Builtin(1, 1, 0, p -> Gates.rz(p[0]),
-                (b, p, q) -> b.rz(q[0], p[0])));
-        Builtin phase = new Builtin(1, 1, 0, p -> Gates.phase(p[0]),
-                (b, p, q) -> b.phase(q[0], p[0]));
-        STANDARD.put("p", phase);
-        STANDARD.put("phase", phase);
-        Builtin cx = new Builtin(0, 2, 1, p -> Gates.X, (b, p, q) -> b.cnot(q[0], q[1]));
-        STANDARD.put("cx", cx);
-        STANDARD.put("CX", cx);
-        STANDARD.put("cy", controlledOne(p -> Gates.Y, 0));
-        STANDARD.put("ch", controlledOne(p -> Gates.H, 0));
-        STANDARD.put("crx", controlledOne(p -> Gates.rx(p[0]), 1));
-        STANDARD.put("cry", controlledOne(p -> Gates.ry(p[0]), 1));
-        STANDARD.put("crz", controlledOne(p -> Gates.rz(p[0]), 1));
-        STANDARD.put("cz", new Builtin(0, 2, 0, p -> Gates.CZ, (b, p, q) -> b.cz(q[0], q[1])));
-        Builtin cp = new Builtin(1, 2, 0, p -> Gates.cphase(p[0]),
-                (b, p, q) -> b.cphase(q[0], q[1], p[0]));
-        STANDARD.put("cp", cp);
-        STANDARD.put("cphase", cp);
-        STANDARD.put("swap", new Builtin(0, 2, 0, p -> Gates.SWAP,
-                (b, p, q) -> b.swap(q[0], q[1])));
-        STANDARD.put("ccx", new Builtin(0, 3, 2, p -> Gates.X,
-                (b, p, q) -> b.toffoli(q[0], q[1], q[2])));
-        STANDARD.put("cswap", new Builtin(0, 3, 1, p -> Gates.SWAP,
-                (b, p, q) -> b.fredkin(q[0], q[1], q[2])));
-    }
-
-    static final Builtin U = new Builtin(3, 1, 0, p -> Gates.u(p[0], p[1], p[2]),
-            (b, p, q) -> b.apply(Gates.u(p[0], p[1], p[2]), q[0]));
-
-    private static Builtin controlledOne(Function<double[], Operator> op, int params) {
-        return new Builtin(params, 2, 1, op,
-                (b, p, q) -> b.controlled(op.apply(p), new int[] {q[0]}, q[1]));
+        // Every catalogue gate with an OpenQASM 3 name, then the aliases stdgates.inc defines.
+        for (Gate g : Gate.values()) {
+            if (g.qasmName() != null && g != Gate.U) {
+                STANDARD.put(g.qasmName(), g);
+            }
+        }
+        STANDARD.put("CX", Gate.CNOT);
+        STANDARD.put("phase", Gate.PHASE);
+        STANDARD.put("cphase", Gate.CPHASE);
     }
 
     /** The operator {@code e^{iγ} I} on one qubit. */
@@ -704,10 +644,10 @@ public final class QasmReader {
                 }
             }
             int wantParams = name.is("gphase") ? 1 : name.is("U") ? 3
-                    : STANDARD.containsKey(name.text) ? STANDARD.get(name.text).params
+                    : STANDARD.containsKey(name.text) ? STANDARD.get(name.text).parameters()
                     : gates.get(name.text).params.size();
             int wantQubits = controls + (name.is("gphase") ? 0 : name.is("U") ? 1
-                    : STANDARD.containsKey(name.text) ? STANDARD.get(name.text).qubits
+                    : STANDARD.containsKey(name.text) ? STANDARD.get(name.text).qubits()
                     : gates.get(name.text).qubits.size());
             if (exprs.size() != wantParams) {
                 throw error(name, "gate '" + name.text + "' takes " + wantParams
@@ -812,39 +752,29 @@ public final class QasmReader {
                 return;
             }
             count(t);
-            if (call.controls > 0) {
-                int k = call.controls;
-                Operator op;
-                int[] controls;
-                int[] targets;
-                if (call.name.equals("gphase")) {
-                    op = Gates.phase(p[0]);
-                    controls = java.util.Arrays.copyOf(q, k - 1);
-                    targets = new int[] {q[k - 1]};
-                } else {
-                    Builtin g = call.name.equals("U") ? U : STANDARD.get(call.name);
-                    op = g.op.apply(p);
-                    controls = java.util.Arrays.copyOf(q, k + g.controls);
-                    targets = java.util.Arrays.copyOfRange(q, k + g.controls, q.length);
-                }
-                Operator fop = call.inverse ? op.dagger() : op;
-                ops.add(at(t, (b, nq, nc) -> b.controlled(fop, controls, targets)));
+            int k = call.controls;
+            boolean inverse = call.inverse;
+            if (call.name.equals("gphase")) {
+                // ctrl(k) @ gphase(γ) is phase(γ) on the last control, controlled by the rest.
+                ops.add(at(t, (b, nq, nc) -> {
+                    double gamma = inverse ? -p[0] : p[0];
+                    if (k == 0) {
+                        b.apply(globalPhase(gamma), 0);
+                    } else {
+                        b.controlled(Gate.PHASE, new double[] {gamma},
+                                java.util.Arrays.copyOf(q, k - 1), q[k - 1]);
+                    }
+                }));
                 return;
             }
-            Op op;
-            if (call.name.equals("gphase")) {
-                op = (b, nq, nc) -> b.apply(globalPhase(p[0]), 0);
-            } else {
-                Builtin g = call.name.equals("U") ? U : STANDARD.get(call.name);
-                op = (b, nq, nc) -> g.emit.emit(b, p, q);
-            }
-            if (call.inverse) {
-                Op plain = op;
-                ops.add(at(t, (b, nq, nc) -> b.append(replay(List.of(plain), nq, nc)
-                        .inverse())));
-            } else {
-                ops.add(at(t, op));
-            }
+            Gate gate = call.name.equals("U") ? Gate.U : STANDARD.get(call.name);
+            int[] controls = java.util.Arrays.copyOf(q, k);
+            int[] own = java.util.Arrays.copyOfRange(q, k, q.length);
+            ops.add(at(t, (b, nq, nc) -> {
+                Gate use = inverse ? gate.inverse() : gate;
+                double[] angles = inverse ? gate.inverseAngles(p) : p;
+                b.controlled(use, angles, controls, own);
+            }));
         }
 
         private static Circuit replay(List<Op> ops, int nq, int nc) {

@@ -1,6 +1,7 @@
 package dev.qsim.text;
 
 import dev.qsim.Circuit;
+import dev.qsim.Gate;
 import dev.qsim.Gates;
 import dev.qsim.Instruction;
 import dev.qsim.Operator;
@@ -63,14 +64,14 @@ public final class QasmWriter {
     public static String write(Circuit circuit) {
         Objects.requireNonNull(circuit, "circuit");
         StringBuilder body = new StringBuilder();
-        boolean[] needsRzz = new boolean[1];
+        java.util.Set<String> definitions = new java.util.LinkedHashSet<>();
         List<Instruction> list = circuit.instructions();
         for (int i = 0; i < list.size(); i++) {
-            instruction(list.get(i), i, "", body, needsRzz);
+            instruction(list.get(i), i, "", body, definitions);
         }
         StringBuilder sb = new StringBuilder("OPENQASM 3.0;\ninclude \"stdgates.inc\";\n");
-        if (needsRzz[0]) {
-            sb.append("gate rzz(theta) a, b { cx a, b; rz(theta) b; cx a, b; }\n");
+        for (String d : definitions) {
+            sb.append(d).append('\n');
         }
         sb.append("qubit[").append(circuit.qubits()).append("] q;\n");
         if (circuit.clbits() > 0) {
@@ -80,7 +81,7 @@ public final class QasmWriter {
     }
 
     private static void instruction(Instruction in, int index, String indent, StringBuilder sb,
-            boolean[] needsRzz) {
+            java.util.Set<String> definitions) {
         int[] t = in.targets();
         int[] c = in.controls();
         double[] a = in.angles();
@@ -97,86 +98,46 @@ public final class QasmWriter {
                         .append(in.value()).append(") {\n");
                 List<Instruction> body = in.body();
                 for (Instruction b : body) {
-                    instruction(b, index, indent + "  ", sb, needsRzz);
+                    instruction(b, index, indent + "  ", sb, definitions);
                 }
                 sb.append(indent).append("}\n");
                 return;
             default:
                 break;
         }
-        sb.append(indent);
-        switch (in.name()) {
-            case "h": case "x": case "y": case "z": case "s": case "t":
-                line(sb, in.name(), "", t);
-                return;
-            case "sDagger":
-                line(sb, "sdg", "", t);
-                return;
-            case "tDagger":
-                line(sb, "tdg", "", t);
-                return;
-            case "sqrtX":
-                line(sb, "sx", "", t);
-                return;
-            case "sqrtXDagger":
-                line(sb, "inv @ sx", "", t);
-                return;
-            case "rx": case "ry": case "rz":
-                line(sb, in.name(), angles(a), t);
-                return;
-            case "phase":
-                line(sb, "p", angles(a), t);
-                return;
-            case "cnot":
-                line(sb, "cx", "", c[0], t[0]);
-                return;
-            case "cz":
-                line(sb, "cz", "", t);
-                return;
-            case "cphase":
-                line(sb, "cp", angles(a), t);
-                return;
-            case "swap":
-                line(sb, "swap", "", t);
-                return;
-            case "rzz":
-                needsRzz[0] = true;
-                line(sb, "rzz", angles(a), t);
-                return;
-            case "toffoli":
-                line(sb, "ccx", "", c[0], c[1], t[0]);
-                return;
-            case "fredkin":
-                line(sb, "cswap", "", c[0], t[0], t[1]);
-                return;
-            default:
-                operator(in, index, indent, sb, t, c);
+        Gate g = in.gate();
+        if (g == Gate.UNITARY) {
+            sb.append(indent);
+            operator(in, index, indent, sb, t, c);
+            return;
         }
+        int extra = c.length - g.controls();
+        String prefix = extra == 0 ? "" : extra == 1 ? "ctrl @ " : "ctrl(" + extra + ") @ ";
+        String name = g.qasmName();
+        double[] angles = a;
+        if (name == null && g.inverse() != g && g.inverse().qasmName() != null) {
+            name = "inv @ " + g.inverse().qasmName();
+            angles = g.inverseAngles(a);
+        } else if (name == null) {
+            definitions.add(g.qasmDefinition());
+            name = g.id();
+        }
+        sb.append(indent);
+        line(sb, prefix + name, angles.length == 0 ? "" : angles(angles), in.qubits());
     }
 
     private static void operator(Instruction in, int index, String indent, StringBuilder sb,
             int[] t, int[] c) {
         Operator op = in.operator();
-        int[] all = new int[c.length + t.length];
-        System.arraycopy(c, 0, all, 0, c.length);
-        System.arraycopy(t, 0, all, c.length, t.length);
         String prefix = c.length == 0 ? "" : c.length == 1 ? "ctrl @ " : "ctrl(" + c.length
                 + ") @ ";
-        String named = oneQubitName(op);
-        if (named == null && sameValues(op, Gates.SWAP)) {
-            named = "swap";
-        }
-        if (named != null) {
-            line(sb, prefix + named, "", all);
-            return;
-        }
         if (op.qubits() == 1) {
             double[] u = decompose(op);
             if (u == null) {
                 throw new IllegalArgumentException("instruction " + index + " '" + in
                         + "' cannot be written as U(theta, phi, lambda) within " + TOLERANCE);
             }
-            line(sb, prefix + "U", angles(new double[] {u[0], u[1], u[2]}), all);
+            line(sb, prefix + "U", angles(new double[] {u[0], u[1], u[2]}), in.qubits());
             if (u[3] != 0) {
                 if (c.length == 0) {
                     sb.append(indent).append("gphase(").append(angle(u[3])).append(");\n");
@@ -187,61 +148,11 @@ public final class QasmWriter {
             }
             return;
         }
-        if (c.length == 0) {
-            if (sameValues(op, Gates.CNOT)) {
-                line(sb, "cx", "", t);
-                return;
-            }
-            if (sameValues(op, Gates.CZ)) {
-                line(sb, "cz", "", t);
-                return;
-            }
-            if (sameValues(op, Gates.TOFFOLI)) {
-                line(sb, "ccx", "", t);
-                return;
-            }
-            if (sameValues(op, Gates.FREDKIN)) {
-                line(sb, "cswap", "", t);
-                return;
-            }
-        }
         throw new IllegalArgumentException("instruction " + index + " '" + in + "' applies a "
-                + op.qubits() + "-qubit operator that has no name in OpenQASM 3's standard gates;"
-                + " only 1-qubit operators, swap, cx, cz, ccx and cswap can be written");
+                + op.qubits() + "-qubit operator that is no catalogue gate; only 1-qubit"
+                + " operators (as U and gphase) and catalogue gates can be written");
     }
 
-    private static String oneQubitName(Operator op) {
-        if (op.qubits() != 1) {
-            return null;
-        }
-        Operator[] ops = {Gates.X, Gates.Y, Gates.Z, Gates.H, Gates.S, Gates.S_DAGGER, Gates.T,
-            Gates.T_DAGGER, Gates.SQRT_X};
-        String[] names = {"x", "y", "z", "h", "s", "sdg", "t", "tdg", "sx"};
-        for (int i = 0; i < ops.length; i++) {
-            if (sameValues(op, ops[i])) {
-                return names[i];
-            }
-        }
-        return null;
-    }
-
-    /** Entry-wise equality of values, so that -0.0 matches 0.0 (as after a dagger). */
-    private static boolean sameValues(Operator a, Operator b) {
-        if (a.qubits() != b.qubits()) {
-            return false;
-        }
-        int d = a.dimension();
-        for (int r = 0; r < d; r++) {
-            for (int c = 0; c < d; c++) {
-                Complex x = a.get(r, c);
-                Complex y = b.get(r, c);
-                if (x.getReal() != y.getReal() || x.getImaginary() != y.getImaginary()) {
-                    return false;
-                }
-            }
-        }
-        return true;
-    }
 
     /**
      * Finds (θ, φ, λ, γ) with {@code op = e^{iγ} u(θ, φ, λ)} within {@link #TOLERANCE}, or null.

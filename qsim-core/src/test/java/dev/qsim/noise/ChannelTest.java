@@ -120,11 +120,11 @@ class ChannelTest {
         one.apply(Channel.amplitudeDamping(1 - Math.exp(-t / t1)), 0);
         assertEquals(Math.exp(-t / t1), one.get(1, 1).getReal(), TOL, "t=" + t);
         DensityMatrix relaxed = DensityMatrix.of(StateVector.basis(1, 1));
-        relaxed.apply(Channel.thermalRelaxation(t1, t2, t), 0);
+        relaxed.apply(Channel.decay(t, t1, t2), 0);
         assertEquals(Math.exp(-t / t1), relaxed.get(1, 1).getReal(), TOL, "t=" + t);
         // ...and from |+>, the coherence rho01 = 1/2 decays as exp(-t/T2).
         DensityMatrix plus = DensityMatrix.of(StateVector.zero(1).apply(Gates.H, 0));
-        plus.apply(Channel.thermalRelaxation(t1, t2, t), 0);
+        plus.apply(Channel.decay(t, t1, t2), 0);
         assertEquals(0.5 * Math.exp(-t / t2), plus.get(0, 1).abs(), TOL, "t=" + t);
         assertEquals(0.5 * Math.exp(-t / t2), plus.get(1, 0).abs(), TOL, "t=" + t);
     }
@@ -169,7 +169,7 @@ class ChannelTest {
         Channel[] all = {Channel.bitFlip(0.3), Channel.phaseFlip(0.7), Channel.bitPhaseFlip(0.2),
             Channel.depolarizing(0.6), Channel.twoQubitDepolarizing(0.4),
             Channel.amplitudeDamping(0.35), Channel.phaseDamping(0.8),
-            Channel.thermalRelaxation(20, 13, 4), Channel.identity(2)};
+            Channel.decay(4, 20, 13), Channel.identity(2)};
         for (Channel ch : all) {
             int d = 1 << ch.qubits();
             for (int r = 0; r < d; r++) {
@@ -204,14 +204,14 @@ class ChannelTest {
         e = assertThrows(IllegalArgumentException.class, () -> Channel.bitFlip(1.01));
         assertTrue(e.getMessage().contains("1.01"), e.getMessage());
         e = assertThrows(IllegalArgumentException.class,
-                () -> Channel.thermalRelaxation(10, 20.5, 1));
+                () -> Channel.decay(1, 10, 20.5));
         assertTrue(e.getMessage().contains("20.5") && e.getMessage().contains("2*T1"),
                 e.getMessage());
         e = assertThrows(IllegalArgumentException.class,
-                () -> Channel.thermalRelaxation(10, 5, -2));
+                () -> Channel.decay(-2, 10, 5));
         assertTrue(e.getMessage().contains("-2.0"), e.getMessage());
         e = assertThrows(IllegalArgumentException.class,
-                () -> Channel.thermalRelaxation(-3, 5, 1));
+                () -> Channel.decay(1, -3, 5));
         assertTrue(e.getMessage().contains("-3.0"), e.getMessage());
         e = assertThrows(IllegalArgumentException.class,
                 () -> Channel.of(Gates.I, Gates.CNOT));

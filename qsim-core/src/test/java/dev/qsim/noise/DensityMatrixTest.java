@@ -7,13 +7,15 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
-import dev.qsim.kernel.Heap;
+import dev.qsim.internal.Heap;
 import org.junit.jupiter.api.Test;
 
 import dev.qsim.Circuit;
 import dev.qsim.Gates;
+import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
+import dev.qsim.observable.Expectation;
 import dev.qsim.observable.Observable;
 
 class DensityMatrixTest {
@@ -28,7 +30,7 @@ class DensityMatrixTest {
             int n = 2 + (int) seed;
             Circuit c = NoiseFixtures.randomGates(Circuit.builder(n), n, 40, rng).build();
             StateVector psi = StateVector.zero(n).apply(c);
-            DensityMatrix rho = DensityMatrix.zero(n).withThreads(1 + (int) (seed % 2)).apply(c);
+            DensityMatrix rho = DensityMatrix.zero(n).setThreads(1 + (int) (seed % 2)).apply(c);
             for (int r = 0; r < 1 << n; r++) {
                 for (int col = 0; col < 1 << n; col++) {
                     Complex want = psi.amplitude(r).multiply(psi.amplitude(col).conj());
@@ -60,8 +62,8 @@ class DensityMatrixTest {
             UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(seed);
             int n = 3 + (int) (seed % 3);
             Circuit c = NoiseFixtures.randomGates(Circuit.builder(n), n, 30, rng).build();
-            DensityMatrix rho = NoisyRunner.seeded(seed).withThreads(2)
-                    .densityMatrix(c, NoiseFixtures.richModel());
+            DensityMatrix rho = Simulator.seeded(seed).withThreads(2)
+                    .withNoise(NoiseFixtures.richModel()).densityMatrixAfter(c);
             Complex[][] m = rho.toArray();
             for (int r = 0; r < m.length; r++) {
                 for (int col = 0; col < m.length; col++) {
@@ -117,11 +119,11 @@ class DensityMatrixTest {
                         .multiply(psi.amplitude(col)));
             }
         }
-        assertEquals(want.getReal(), DensityMatrix.of(psi).expectation(h), TOL);
+        assertEquals(want.getReal(), Expectation.of(h, DensityMatrix.of(psi)), TOL);
         // Z on a qubit after amplitude damping from |1>: z = gamma - (1 - gamma) (§8.3.5).
         DensityMatrix rho = DensityMatrix.of(StateVector.basis(1, 1))
                 .apply(Channel.amplitudeDamping(0.3), 0);
-        assertEquals(0.3 - 0.7, rho.expectation(Observable.of(1, "Z")), TOL);
+        assertEquals(0.3 - 0.7, Expectation.of(Observable.of(1, "Z"), rho), TOL);
     }
 
     @Test

@@ -74,7 +74,7 @@ class ExpectationTest {
             Operator m = h.toOperator(n);
             double mean = dense(m, s).getReal();
             double square = dense(m.times(m), s).getReal();
-            assertEquals(mean, Expectation.exact(h, s), 1e-12, "seed " + seed);
+            assertEquals(mean, Expectation.of(h, s), 1e-12, "seed " + seed);
             assertEquals(square - mean * mean, Expectation.variance(h, s), 1e-12, "seed " + seed);
             PauliProduct p = PauliProduct.parse("-i" + "XYZXY".substring(0, n));
             Complex z = Expectation.of(p, s);
@@ -90,9 +90,9 @@ class ExpectationTest {
         // Design contract: same results whatever the thread count (fixed-block sums).
         StateVector s = randomState(15, 7);
         Observable h = randomObservable(15, 8, 8);
-        double one = Expectation.exact(h, s.copy().withThreads(1));
-        double two = Expectation.exact(h, s.copy().withThreads(2));
-        double three = Expectation.exact(h, s.copy().withThreads(3));
+        double one = Expectation.of(h, s.copy().setThreads(1));
+        double two = Expectation.of(h, s.copy().setThreads(2));
+        double three = Expectation.of(h, s.copy().setThreads(3));
         assertEquals(Double.doubleToLongBits(one), Double.doubleToLongBits(two));
         assertEquals(Double.doubleToLongBits(one), Double.doubleToLongBits(three));
     }
@@ -138,7 +138,7 @@ class ExpectationTest {
                 break;
             }
         }
-        double energy = Expectation.exact(h, StateVector.zero(2).apply(family.bind(theta)));
+        double energy = Expectation.of(h, StateVector.zero(2).apply(family.bind(theta)));
         assertEquals(lowestEigenvalue(h.toOperator(2)), energy, 1e-6);
     }
 
@@ -148,7 +148,7 @@ class ExpectationTest {
         // |estimate - exact| > 4 SE has probability about 6e-5 per run.
         StateVector s = randomState(4, 3);
         Observable h = randomObservable(4, 7, 4).plus(0.75, "I");
-        double exact = Expectation.exact(h, s);
+        double exact = Expectation.of(h, s);
         for (long seed = 1; seed <= 20; seed++) {
             Estimate e = Expectation.sampled(h, s, 4000, seed);
             assertTrue(Math.abs(e.value() - exact) <= 4 * e.standardError(),
@@ -204,7 +204,7 @@ class ExpectationTest {
         StateVector s = StateVector.zero(3);
         Observable h = Observable.of(1, "X5");
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
-                () -> Expectation.exact(h, s));
+                () -> Expectation.of(h, s));
         assertTrue(e.getMessage().contains("qubit 5") && e.getMessage().contains("[0, 2]"),
                 e::getMessage);
         e = assertThrows(IllegalArgumentException.class, () -> Expectation.sampled(h, s, 10, 1));

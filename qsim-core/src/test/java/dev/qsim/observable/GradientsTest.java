@@ -43,7 +43,7 @@ class GradientsTest {
     }
 
     static double energy(TunableCircuit c, double[] v, Observable h) {
-        return Expectation.exact(h, StateVector.zero(c.qubits()).apply(c.bind(v)));
+        return Expectation.of(h, StateVector.zero(c.qubits()).apply(c.bind(v)));
     }
 
     @ParameterizedTest
@@ -95,8 +95,8 @@ class GradientsTest {
         Observable h = ExpectationTest.randomObservable(15, 4, 78);
         double[] v = {0.1, 0.2, 0.3, 0.4, 0.5, 0.6};
         StateVector start = ExpectationTest.randomState(15, 79);
-        double[] one = Gradients.adjoint(c, v, h, start.copy().withThreads(1));
-        double[] two = Gradients.adjoint(c, v, h, start.copy().withThreads(2));
+        double[] one = Gradients.adjoint(c, v, h, start.copy().setThreads(1));
+        double[] two = Gradients.adjoint(c, v, h, start.copy().setThreads(2));
         assertArrayEquals(one, two, 0);
         // Not modified: the start state is still the same state.
         assertEquals(1, start.fidelity(ExpectationTest.randomState(15, 79)), 1e-12);

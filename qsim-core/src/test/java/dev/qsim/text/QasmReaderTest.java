@@ -5,6 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import dev.qsim.Circuit;
+import dev.qsim.Gate;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
 import org.apache.commons.numbers.complex.Complex;
@@ -36,9 +37,11 @@ class QasmReaderTest {
                 .cnot(0, 1).cnot(1, 2).cz(2, 0).cphase(0, 2, 0.3).cphase(1, 0, 0.4).swap(1, 2)
                 .toffoli(0, 1, 2).fredkin(2, 0, 1)
                 .controlled(Gates.Y, new int[] {0}, 1).controlled(Gates.H, new int[] {1}, 2)
-                .controlled(Gates.rx(0.1), new int[] {0}, 2)
-                .controlled(Gates.ry(0.2), new int[] {2}, 1)
-                .controlled(Gates.rz(0.3), new int[] {1}, 0).build();
+                .gate(Gate.CRX, new double[] {0.1}, 0, 2)
+                .gate(Gate.CRY, new double[] {0.2}, 2, 1)
+                .gate(Gate.CRZ, new double[] {0.3}, 1, 0).build();
+        // Catalogue entries: ctrl @ y is cy (Gate.withControls).
+        assertEquals(Gate.CY, read.instructions().get(22).gate());
         assertEquals(hand, read);
     }
 
@@ -70,8 +73,8 @@ class QasmReaderTest {
                 + "gphase(0.5);\n");
         Complex z = Complex.ofCis(0.5);
         Operator phase = Operator.of(new Complex[][] {{z, Complex.ZERO}, {Complex.ZERO, z}});
-        Circuit hand = Circuit.builder(2, 0).apply(Gates.u(0.1, 0.2, 0.3), 1).apply(phase, 0)
-                .build();
+        Circuit hand = Circuit.builder(2, 0).u(1, 0.1, 0.2, 0.3).apply(phase, 0).build();
+        assertEquals(Gates.u(0.1, 0.2, 0.3), read.instructions().get(0).operator());
         assertEquals(hand, read);
     }
 
@@ -135,8 +138,8 @@ class QasmReaderTest {
                 .controlled(Gates.H, new int[] {0, 1}, 2)
                 .controlled(Gates.X, new int[] {3, 0}, 1)
                 .controlled(Gates.SWAP, new int[] {0}, 1, 2)
-                .controlled(Gates.u(0.1, 0.2, 0.3), new int[] {1}, 3)
-                .controlled(Gates.phase(0.7), new int[] {0}, 1)
+                .controlled(Gate.U, new double[] {0.1, 0.2, 0.3}, new int[] {1}, 3)
+                .cphase(0, 1, 0.7)
                 .controlled(Gates.S.dagger(), new int[] {2}, 3).build();
         assertEquals(hand, read);
         assertEquals("sqrtXDagger", read.instructions().get(0).name());

@@ -161,7 +161,7 @@ public final class HydrogenGroundState {
     }
 
     private static double energy(TunableCircuit ansatz, Observable h, double[] x) {
-        return Expectation.exact(h, StateVector.zero(2).apply(ansatz.bind(x)));
+        return Expectation.of(h, StateVector.zero(2).apply(ansatz.bind(x)));
     }
 
     /**

@@ -149,7 +149,7 @@ public final class MaxCutQaoa {
         SteepestDescent.Objective f = new SteepestDescent.Objective() {
             @Override
             public double value(double[] x) {
-                return Expectation.exact(h, StateVector.zero(NODES).apply(c.bind(x)));
+                return Expectation.of(h, StateVector.zero(NODES).apply(c.bind(x)));
             }
 
             @Override

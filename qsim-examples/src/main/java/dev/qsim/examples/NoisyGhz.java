@@ -4,12 +4,12 @@ import java.io.PrintStream;
 import java.util.Objects;
 
 import dev.qsim.Circuit;
+import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
-import dev.qsim.noise.NoisyRunner;
 
 /**
  * A GHZ preparation on a noisy six-qubit chip: the ideal prediction, the exact density-matrix
@@ -130,15 +130,15 @@ public final class NoisyGhz {
     public static NoiseModel chip() {
         NoiseModel.Builder b = NoiseModel.builder();
         for (int q = 0; q < QUBITS; q++) {
-            b.afterOneQubitGatesOn(q, Channel.thermalRelaxation(T1[q], T2[q], ONE_QUBIT_TIME)
+            b.afterOneQubitGatesOn(q, Channel.decay(ONE_QUBIT_TIME, T1[q], T2[q])
                     .then(Channel.depolarizing(ONE_QUBIT_ERROR)));
             b.readoutError(q, READ_1_GIVEN_0[q], READ_0_GIVEN_1[q]);
         }
         for (int q = 0; q + 1 < QUBITS; q++) {
             // The gate's qubits are (control q, target q+1); tensor puts its argument on the
             // first of them.
-            Channel relax = Channel.thermalRelaxation(T1[q + 1], T2[q + 1], CNOT_TIME)
-                    .tensor(Channel.thermalRelaxation(T1[q], T2[q], CNOT_TIME));
+            Channel relax = Channel.decay(CNOT_TIME, T1[q + 1], T2[q + 1])
+                    .tensor(Channel.decay(CNOT_TIME, T1[q], T2[q]));
             b.afterTwoQubitGatesOn(q, q + 1,
                     relax.then(Channel.twoQubitDepolarizing(CNOT_ERROR)));
         }
@@ -160,13 +160,13 @@ public final class NoisyGhz {
         Circuit prep = BellAndGhz.preparation(QUBITS);
         Circuit measured = Circuit.builder(QUBITS).append(prep).measure().build();
         NoiseModel model = chip();
-        NoisyRunner runner = NoisyRunner.seeded(seed);
+        Simulator noisy = Simulator.seeded(seed).withNoise(model);
         StateVector ghz = StateVector.zero(QUBITS).apply(prep);
         double[] ideal = ghz.probabilities();
-        double[] exact = runner.probabilities(measured, model);
-        DensityMatrix rho = runner.densityMatrix(measured, model);
-        Tally dm = runner.run(measured, model, shots);
-        Tally traj = runner.runTrajectories(measured, model, shots);
+        double[] exact = noisy.distribution(measured);
+        DensityMatrix rho = noisy.densityMatrixAfter(prep);
+        Tally dm = noisy.withEngine(Simulator.Engine.DENSITY_MATRIX).run(measured, shots);
+        Tally traj = noisy.withEngine(Simulator.Engine.TRAJECTORIES).run(measured, shots);
         Report report = new Report(ideal, exact, dm, traj, rho.fidelity(ghz));
 
         Text.title(out, "Wren-6 on the Fernhollow bench: a noisy GHZ preparation");

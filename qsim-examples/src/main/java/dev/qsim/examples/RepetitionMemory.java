@@ -8,8 +8,8 @@ import java.util.Objects;
 import java.util.SplittableRandom;
 
 import dev.qsim.Circuit;
+import dev.qsim.Simulator;
 import dev.qsim.Tally;
-import dev.qsim.stabilizer.CliffordRunner;
 
 /**
  * A repetition-code memory experiment on 801 qubits, run on the stabilizer engine.
@@ -201,7 +201,8 @@ public final class RepetitionMemory {
         List<Flip> flips = plantedFlips(seed);
         Circuit circuit = circuit(flips);
         long start = System.nanoTime();
-        Tally tally = CliffordRunner.run(circuit, shots, seed);
+        Tally tally = Simulator.seeded(seed).withEngine(Simulator.Engine.TABLEAU)
+                .run(circuit, shots);
         double seconds = (System.nanoTime() - start) * 1e-9;
 
         int[] undo = new int[DATA];

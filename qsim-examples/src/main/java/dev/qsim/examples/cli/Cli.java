@@ -5,10 +5,8 @@ import dev.qsim.Precision;
 import dev.qsim.Simulator;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.NoiseModel;
-import dev.qsim.noise.NoisyRunner;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
-import dev.qsim.stats.IdealPrediction;
 import dev.qsim.stats.TallyComparison;
 import dev.qsim.stats.TallyFiles;
 import dev.qsim.text.QasmReader;
@@ -259,7 +257,7 @@ public final class Cli implements Callable<Integer> {
             if (svg != null) {
                 double[] predicted = null;
                 try {
-                    predicted = IdealPrediction.outcomes(c);
+                    predicted = Simulator.seeded(seed).withThreads(threads).distribution(c);
                 } catch (IllegalArgumentException e) {
                     predicted = null; // mid-circuit measurement: no exact prediction to draw
                 }
@@ -271,8 +269,8 @@ public final class Cli implements Callable<Integer> {
     }
 
     /**
-     * Runs with the noise options: on a density matrix when the circuit is small and measures
-     * only at the end, otherwise by Monte Carlo trajectories, one per shot.
+     * Runs with the noise options on the engine the simulator picks (a density matrix when the
+     * circuit is small and measures only at the end, otherwise Monte Carlo trajectories).
      */
     private static Tally noisyRun(Circuit c, double depolarizing, double readoutError, long seed,
             int threads, int shots) {
@@ -281,15 +279,8 @@ public final class Cli implements Callable<Integer> {
                 .afterTwoQubitGates(Channel.twoQubitDepolarizing(depolarizing))
                 .readoutError(readoutError, readoutError)
                 .build();
-        NoisyRunner runner = NoisyRunner.seeded(seed).withThreads(threads);
-        if (c.qubits() <= DENSITY_MATRIX_QUBITS && c.measuresAtEnd()) {
-            return runner.run(c, model, shots);
-        }
-        return runner.runTrajectories(c, model, shots);
+        return Simulator.seeded(seed).withThreads(threads).withNoise(model).run(c, shots);
     }
-
-    /** The largest circuit the noisy run simulates on a density matrix (16 * 4^n bytes). */
-    static final int DENSITY_MATRIX_QUBITS = 10;
 
     /** {@code state}: amplitudes or probabilities. */
     @Command(name = "state", mixinStandardHelpOptions = true,
@@ -326,7 +317,7 @@ public final class Cli implements Callable<Integer> {
             }
             StateVector s;
             try {
-                s = IdealPrediction.state(c);
+                s = StateVector.zero(c.qubits()).apply(c.withoutMeasurements());
             } catch (IllegalArgumentException e) {
                 throw new IllegalArgumentException(file + ": " + e.getMessage(), e);
             }
@@ -451,7 +442,7 @@ public final class Cli implements Callable<Integer> {
             Circuit c = readCircuit(circuitFile);
             double[] predicted;
             try {
-                predicted = IdealPrediction.outcomes(c);
+                predicted = Simulator.seeded(seed).distribution(c);
             } catch (IllegalArgumentException e) {
                 throw new IllegalArgumentException(circuitFile + ": " + e.getMessage(), e);
             }
@@ -534,7 +525,7 @@ public final class Cli implements Callable<Integer> {
                         b.h(q);
                     }
                     Circuit layer = b.build();
-                    StateVector s = StateVector.zero(n).withThreads(threads);
+                    StateVector s = StateVector.zero(n).setThreads(threads);
                     long warm = System.nanoTime();
                     do {
                         s.apply(layer); // warm-up, so the timing sees compiled code

@@ -12,14 +12,28 @@ import org.apache.commons.rng.simple.RandomSource;
 import org.junit.jupiter.api.Test;
 
 import dev.qsim.Circuit;
+import dev.qsim.Gate;
 import dev.qsim.Gates;
-import dev.qsim.Instruction;
 import dev.qsim.Operator;
+import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 
-class NoisyRunnerTest {
+/** The noise engines, reached through the run facade ({@link Simulator#withNoise}). */
+class NoisyRunsTest {
     private static final double TOL = 1e-12;
+
+    private static Simulator noisy(long seed, NoiseModel model) {
+        return Simulator.seeded(seed).withNoise(model);
+    }
+
+    private static Simulator trajectories(long seed, NoiseModel model) {
+        return noisy(seed, model).withEngine(Simulator.Engine.TRAJECTORIES);
+    }
+
+    private static Simulator densityMatrix(long seed, NoiseModel model) {
+        return noisy(seed, model).withEngine(Simulator.Engine.DENSITY_MATRIX);
+    }
 
     private static Circuit measuredRandom(int n, int gates, long seed) {
         UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(seed);
@@ -64,30 +78,20 @@ class NoisyRunnerTest {
         for (long seed = 21; seed <= 23; seed++) {
             int n = 4 + (int) (seed % 3);
             Circuit c = measuredRandom(n, 40, seed);
-            double[] ideal = StateVector.zero(n).apply(withoutMeasurements(c)).probabilities();
-            NoisyRunner runner = NoisyRunner.seeded(seed);
-            double[] exact = runner.probabilities(c, NoiseModel.none());
+            double[] ideal = StateVector.zero(n).apply(c.withoutMeasurements()).probabilities();
+            double[] exact = densityMatrix(seed, NoiseModel.none()).distribution(c);
             for (int i = 0; i < ideal.length; i++) {
                 assertEquals(ideal[i], exact[i], TOL, "seed " + seed);
             }
-            Tally t = runner.runTrajectories(c, NoiseModel.none(), 3000);
+            Tally t = trajectories(seed, NoiseModel.none()).run(c, 3000);
             assertAgrees(ideal, t, "trajectories without noise, seed " + seed);
             // Identity channels are no noise either.
             NoiseModel off = NoiseModel.builder().afterOneQubitGates(Channel.identity(1))
                     .afterTwoQubitGates(Channel.identity(2)).build();
-            assertEquals(runner.runTrajectories(c, NoiseModel.none(), 500),
-                    runner.runTrajectories(c, off, 500), "seed " + seed);
+            assertEquals(trajectories(seed, NoiseModel.none()).run(c, 500),
+                    trajectories(seed, off).run(c, 500), "seed " + seed);
+            assertTrue(off.isIdeal());
         }
-    }
-
-    private static Circuit withoutMeasurements(Circuit c) {
-        Circuit.Builder b = Circuit.builder(c.qubits());
-        for (Instruction in : c.instructions()) {
-            if (in.kind() == Instruction.Kind.GATE) {
-                b.controlled(in.operator(), in.controls(), in.targets());
-            }
-        }
-        return b.build();
     }
 
     @Test
@@ -98,18 +102,17 @@ class NoisyRunnerTest {
         int[] sizes = {6, 7, 8};
         for (int k = 0; k < seeds.length; k++) {
             Circuit c = measuredRandom(sizes[k], 35, seeds[k]);
-            NoisyRunner runner = NoisyRunner.seeded(seeds[k]).withThreads(2);
             NoiseModel model = NoiseFixtures.richModel();
-            double[] exact = runner.probabilities(c, model);
+            double[] exact = noisy(seeds[k], model).withThreads(2).distribution(c);
             double sum = 0;
             for (double x : exact) {
                 sum += x;
             }
             assertEquals(1, sum, TOL, "seed " + seeds[k]);
-            assertAgrees(exact, runner.runTrajectories(c, model, 3000),
+            assertAgrees(exact, trajectories(seeds[k], model).withThreads(2).run(c, 3000),
                     "trajectories, seed " + seeds[k]);
-            assertAgrees(exact, runner.run(c, model, 3000), "density-matrix tally, seed "
-                    + seeds[k]);
+            assertAgrees(exact, densityMatrix(seeds[k], model).withThreads(2).run(c, 3000),
+                    "density-matrix tally, seed " + seeds[k]);
         }
     }
 
@@ -118,13 +121,13 @@ class NoisyRunnerTest {
         // Reproducibility whatever the thread count (common practice for seeded simulators).
         Circuit c = measuredRandom(5, 30, 41);
         NoiseModel model = NoiseFixtures.richModel();
-        Tally one = NoisyRunner.seeded(41).withThreads(1).runTrajectories(c, model, 400);
-        Tally two = NoisyRunner.seeded(41).withThreads(2).runTrajectories(c, model, 400);
-        Tally three = NoisyRunner.seeded(41).withThreads(3).runTrajectories(c, model, 400);
+        Tally one = trajectories(41, model).withThreads(1).run(c, 400);
+        Tally two = trajectories(41, model).withThreads(2).run(c, 400);
+        Tally three = trajectories(41, model).withThreads(3).run(c, 400);
         assertEquals(one, two);
         assertEquals(one, three);
-        assertEquals(NoisyRunner.seeded(41).run(c, model, 300),
-                NoisyRunner.seeded(41).withThreads(1).run(c, model, 300));
+        assertEquals(densityMatrix(41, model).run(c, 300),
+                densityMatrix(41, model).withThreads(1).run(c, 300));
     }
 
     @Test
@@ -139,7 +142,7 @@ class NoisyRunnerTest {
         NoiseModel model = NoiseModel.builder().readoutError(0, a0, b0).readoutError(1, a1, b1)
                 .build();
         Circuit c = Circuit.builder(2).x(0).h(1).measure(0, 0).measure(1, 1).build();
-        double[] p = NoisyRunner.seeded(1).probabilities(c, model);
+        double[] p = noisy(1, model).distribution(c);
         double c0is1 = 1 - b0;
         double c1is1 = 0.5 * a1 + 0.5 * (1 - b1);
         assertEquals((1 - c0is1) * (1 - c1is1), p[0], 1e-15);
@@ -147,10 +150,10 @@ class NoisyRunnerTest {
         assertEquals((1 - c0is1) * c1is1, p[2], 1e-15);
         assertEquals(c0is1 * c1is1, p[3], 1e-15);
         // The trajectory engine flips measured bits with the same probabilities.
-        assertAgrees(p, NoisyRunner.seeded(2).runTrajectories(c, model, 4000), "readout");
+        assertAgrees(p, trajectories(2, model).run(c, 4000), "readout");
         // A bit that is never written reads 0, and clbits follow the measure targets.
         Circuit wide = Circuit.builder(2, 3).x(0).measure(0, 2).build();
-        double[] q = NoisyRunner.seeded(1).probabilities(wide, model);
+        double[] q = noisy(1, model).distribution(wide);
         assertEquals(1 - b0, q[4], 1e-15);
         assertEquals(b0, q[0], 1e-15);
     }
@@ -159,23 +162,31 @@ class NoisyRunnerTest {
     void resetsAndMidCircuitMeasurements() {
         // Reset returns a qubit to |0> (common practice): X then reset measures 0 for sure.
         Circuit reset = Circuit.builder(2).x(0).h(1).reset(0).reset(1).measure().build();
-        double[] p = NoisyRunner.seeded(3).probabilities(reset, NoiseModel.none());
-        assertEquals(1, p[0], TOL);
+        DensityMatrix rho = Simulator.seeded(3).densityMatrixAfter(reset);
+        assertEquals(1, rho.probabilities()[0], TOL);
         assertEquals(Tally.of(2, java.util.Map.of("00", 50L)),
-                NoisyRunner.seeded(3).runTrajectories(reset, NoiseModel.none(), 50));
+                trajectories(3, NoiseModel.none()).run(reset, 50));
         // Trajectories run conditioned blocks: copy a random bit by measurement and feedback.
         Circuit copy = Circuit.builder(2).h(0).measure(0, 0)
                 .ifBit(0, 1, b -> b.x(1)).measure(1, 1).build();
-        Tally t = NoisyRunner.seeded(4).runTrajectories(copy, NoiseModel.none(), 400);
+        Tally t = trajectories(4, NoiseModel.none()).run(copy, 400);
         assertEquals(400, t.count("00") + t.count("11"));
         // The density-matrix engine refuses them, naming what it cannot do.
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
-                () -> NoisyRunner.seeded(4).probabilities(copy, NoiseModel.none()));
-        assertTrue(e.getMessage().contains("clbit 0"), e.getMessage());
-        Circuit after = Circuit.builder(1).measure(0, 0).x(0).build();
+                () -> densityMatrix(4, NoiseModel.none()).run(copy, 10));
+        assertTrue(e.getMessage().contains("instruction 2"), e.getMessage());
         e = assertThrows(IllegalArgumentException.class,
-                () -> NoisyRunner.seeded(4).densityMatrix(after, NoiseModel.none()));
-        assertTrue(e.getMessage().contains("qubit 0 after it was measured"), e.getMessage());
+                () -> Simulator.seeded(4).densityMatrixAfter(copy));
+        assertTrue(e.getMessage().contains("clbit 0"), e.getMessage());
+        // An unread measurement in a density matrix is the loss of coherence it causes
+        // (Nielsen and Chuang 2010, §2.4.1): H, measure, H leaves the maximally mixed state.
+        Circuit after = Circuit.builder(1).h(0).measure(0, 0).h(0).build();
+        DensityMatrix mixed = Simulator.seeded(4).densityMatrixAfter(after);
+        assertEquals(0.5, mixed.purity(), TOL);
+        assertEquals(0.5, mixed.probabilities()[1], TOL);
+        e = assertThrows(IllegalArgumentException.class,
+                () -> Simulator.seeded(4).distribution(after));
+        assertTrue(e.getMessage().contains("instruction 2"), e.getMessage());
     }
 
     @Test
@@ -193,17 +204,17 @@ class NoisyRunnerTest {
         double want = (1 - Math.sin(a)) / 2;
         int shots = 2000;
         double se = Math.sqrt(want * (1 - want) / shots);
-        NoiseModel one = NoiseModel.builder().afterGate("apply", xDephase).build();
+        NoiseModel one = NoiseModel.builder().afterGate(Gate.I, xDephase).build();
         Circuit c = Circuit.builder(3).ry(1, a).x(0).apply(Gates.I, 1).h(1).measure().build();
-        Tally t = NoisyRunner.seeded(6).runTrajectories(c, one, shots);
+        Tally t = trajectories(6, one).run(c, shots);
         assertEquals(shots, t.count("001") + t.count("011"), t.toString());
         assertEquals(want, t.count("011") / (double) shots, 4 * se, "seed 6");
         NoiseModel two = NoiseModel.builder()
-                .afterGateOn("apply", Channel.identity(1).tensor(xDephase), 1, 2).build();
+                .afterGateOn(Gate.UNITARY, Channel.identity(1).tensor(xDephase), 1, 2).build();
         // X on qubit 2 must always read 1: a badly normalised branch would lose it.
         Circuit d = Circuit.builder(3).ry(1, a).apply(Operator.identity(2), 1, 2).h(1).x(2)
                 .measure().build();
-        Tally u = NoisyRunner.seeded(7).runTrajectories(d, two, shots);
+        Tally u = trajectories(7, two).run(d, shots);
         assertEquals(shots, u.count("100") + u.count("110"), u.toString());
         assertEquals(want, u.count("110") / (double) shots, 4 * se, "seed 7");
     }
@@ -223,18 +234,17 @@ class NoisyRunnerTest {
         assertSame(countOn, m.channelAfter(c.instructions().get(2)));
         assertSame(count, m.channelAfter(c.instructions().get(3)));
         assertNull(m.channelAfter(c.instructions().get(4)));
-        // A named rule whose channel does not fit its gate fails when used.
-        NoiseModel wrong = NoiseModel.builder().afterGate("h", Channel.twoQubitDepolarizing(0.1))
-                .build();
-        Circuit h = Circuit.builder(2).h(0).measure().build();
+        // A named rule whose channel does not fit its gate is refused when it is made.
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
-                () -> NoisyRunner.seeded(1).probabilities(h, wrong));
-        assertTrue(e.getMessage().contains("2-qubit channel for gate 'h'"), e.getMessage());
+                () -> NoiseModel.builder().afterGate("h", Channel.twoQubitDepolarizing(0.1)));
+        assertTrue(e.getMessage().contains("2-qubit channel cannot follow gate h"),
+                e.getMessage());
         e = assertThrows(IllegalArgumentException.class,
                 () -> NoiseModel.builder().readoutError(0, 1.2, 0));
         assertTrue(e.getMessage().contains("1.2"), e.getMessage());
+        Circuit h = Circuit.builder(2).h(0).measure().build();
         e = assertThrows(IllegalArgumentException.class,
-                () -> NoisyRunner.seeded(1).runTrajectories(h, wrong, 0));
+                () -> trajectories(1, NoiseFixtures.richModel()).run(h, 0));
         assertTrue(e.getMessage().contains("0"), e.getMessage());
     }
 }

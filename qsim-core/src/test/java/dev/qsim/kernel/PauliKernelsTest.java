@@ -1,4 +1,4 @@
-package dev.qsim.observable;
+package dev.qsim.kernel;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 
@@ -6,7 +6,6 @@ import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 import org.junit.jupiter.api.Test;
 
-import dev.qsim.kernel.Amplitudes;
 
 /**
  * The Pauli loops on storage split into many small chunks, so flips that cross chunks are

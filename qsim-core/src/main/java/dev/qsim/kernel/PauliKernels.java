@@ -1,8 +1,4 @@
-package dev.qsim.observable;
-
-import dev.qsim.kernel.Amplitudes;
-import dev.qsim.kernel.Parallel;
-import dev.qsim.kernel.Reductions;
+package dev.qsim.kernel;
 
 /**
  * Loops that apply a Pauli product's bit flips and signs on the fly, on chunked re/im-interleaved
@@ -11,7 +7,7 @@ import dev.qsim.kernel.Reductions;
  * {@code (-1)^{|j∧z|} |j⊕x>}. Sums run over fixed blocks of {@code 2^BLOCK_LOG} amplitudes added
  * in block order, so results do not depend on the thread count. Internal; unchecked.
  */
-final class PauliKernels {
+public final class PauliKernels {
     private PauliKernels() {
     }
 
@@ -30,7 +26,9 @@ final class PauliKernels {
      * @param threads threads to use
      * @return {re, im}
      */
-    static double[] inner(Amplitudes bra, Amplitudes ket, long x, long z, int threads) {
+    public static double[] inner(Amplitudes bra, Amplitudes ket, long x, long z, int threads) {
+        bra.settle();
+        ket.settle();
         final int bl = blockLog(ket);
         final int cl = ket.chunkLog();
         final long cmask = (1L << cl) - 1;
@@ -103,8 +101,8 @@ final class PauliKernels {
      * @param ci imaginary part of {@code c}
      * @param threads threads to use
      */
-    static void accumulate(Amplitudes out, Amplitudes in, long x, long z, double cr, double ci,
-            int threads) {
+    public static void accumulate(Amplitudes out, Amplitudes in, long x, long z, double cr,
+            double ci, int threads) {
         final int bl = blockLog(in);
         final int cl = in.chunkLog();
         final long cmask = (1L << cl) - 1;
@@ -148,7 +146,7 @@ final class PauliKernels {
      * @param z the Z mask
      * @return {re, im}
      */
-    static double[] ownPhase(long x, long z) {
+    public static double[] ownPhase(long x, long z) {
         switch (Long.bitCount(x & z) & 3) {
             case 0:
                 return new double[] {1, 0};

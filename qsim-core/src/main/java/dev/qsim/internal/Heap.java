@@ -1,6 +1,7 @@
-package dev.qsim.kernel;
+package dev.qsim.internal;
 
 import java.util.Locale;
+import java.util.function.Supplier;
 
 /**
  * The one heap check of the module: before a large allocation, make sure the heap can hold it,
@@ -36,11 +37,31 @@ public final class Heap {
     }
 
     /**
-     * Returns the exception for an allocation this JVM's heap cannot hold.
+     * Checks the heap, then allocates; an {@link OutOfMemoryError} during the allocation (the
+     * check raced with other allocations) becomes the same refusal.
+     *
+     * @param <T> what is made
+     * @param bytes the bytes the allocation needs
+     * @param what what is being allocated, for the message
+     * @param make the allocation
+     * @return what {@code make} returns
+     * @throws IllegalStateException if the heap cannot hold it
+     */
+    public static <T> T allocate(long bytes, String what, Supplier<T> make) {
+        require(bytes, what);
+        try {
+            return make.get();
+        } catch (OutOfMemoryError e) {
+            throw tooLarge(bytes, what);
+        }
+    }
+
+    /**
+     * Returns the refusal for an allocation the heap cannot hold.
      *
      * @param bytes the allocation
-     * @param what what is being allocated, for the message
-     * @return the exception to throw
+     * @param what what is being allocated
+     * @return the exception, not thrown
      */
     public static IllegalStateException tooLarge(long bytes, String what) {
         Runtime rt = Runtime.getRuntime();

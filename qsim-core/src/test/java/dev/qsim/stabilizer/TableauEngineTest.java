@@ -18,7 +18,12 @@ import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 
-class CliffordRunnerTest {
+/** The stabilizer engine, reached through the run facade ({@code Engine.TABLEAU}). */
+class TableauEngineTest {
+
+    private static Simulator tableau(long seed) {
+        return Simulator.seeded(seed).withEngine(Simulator.Engine.TABLEAU);
+    }
 
     /** Smallest p-value accepted; with fixed seeds each test either always passes or fails. */
     private static final double ALPHA = 1e-3;
@@ -51,7 +56,7 @@ class CliffordRunnerTest {
             Circuit circuit = gates.build();
             // marginal(qubits): qubits[j] is bit j of the index, clbit j receives qubits[j].
             double[] p = psi.marginal(qubits);
-            Tally tally = CliffordRunner.run(circuit, SHOTS, seed + trial);
+            Tally tally = tableau(seed + trial).run(circuit, SHOTS);
             assertEquals(SHOTS, tally.shots());
             checkFit(p, tally, "seed " + seed + " trial " + trial + " " + circuit);
         }
@@ -73,7 +78,7 @@ class CliffordRunnerTest {
             RandomCliffords.gates(rnd, n, 6 + rnd.nextInt(12), b, null);
             StateVector psi = StateVector.zero(n).apply(b.build());
             Circuit c = b.measure().build();
-            Tally t = CliffordRunner.run(c, 32, seed + trial);
+            Tally t = tableau(seed + trial).run(c, 32);
             for (String k : t.outcomes().keySet()) {
                 final int tr = trial;
                 assertTrue(psi.probability(Long.parseLong(k, 2)) > 1e-12,
@@ -147,7 +152,7 @@ class CliffordRunnerTest {
                 b.measure(rnd.nextInt(n), c);
             }
             Circuit circuit = b.build();
-            Tally mine = CliffordRunner.run(circuit, SHOTS, seed + trial);
+            Tally mine = tableau(seed + trial).run(circuit, SHOTS);
             Tally reference = Simulator.seeded(seed - trial).withThreads(1).run(circuit, SHOTS);
             String what = "seed " + seed + " trial " + trial + " " + circuit;
             compare(mine, reference, what);
@@ -217,14 +222,14 @@ class CliffordRunnerTest {
             b.cnot(q - 1, q);
         }
         Circuit ghz = b.build();
-        Tally z = CliffordRunner.run(Circuit.builder(n).append(ghz).measure().build(), 40, 11L);
+        Tally z = tableau(11L).run(Circuit.builder(n).append(ghz).measure().build(), 40);
         assertEquals(2, z.outcomes().size(), z.outcomes().keySet()::toString);
         assertEquals(40, z.count("0".repeat(n)) + z.count("1".repeat(n)));
         Circuit.Builder xb = Circuit.builder(n).append(ghz);
         for (int q = 0; q < n; q++) {
             xb.h(q);
         }
-        Tally x = CliffordRunner.run(xb.measure().build(), 40, 12L);
+        Tally x = tableau(12L).run(xb.measure().build(), 40);
         assertEquals(40, x.outcomes().size(), "X-basis outcomes should all differ");
         for (Map.Entry<String, Long> e : x.outcomes().entrySet()) {
             long ones = e.getKey().chars().filter(ch -> ch == '1').count();
@@ -262,8 +267,8 @@ class CliffordRunnerTest {
             Circuit conditioned = Circuit.builder(n, 6).append(plain)
                     .ifBit(4, 1, then -> then.x(0)).build();
             // 130 shots: two full batches of 64 in the replay and a partial one.
-            Tally a = CliffordRunner.run(plain, 130, seed + trial);
-            Tally c = CliffordRunner.run(conditioned, 130, seed + trial);
+            Tally a = tableau(seed + trial).run(plain, 130);
+            Tally c = tableau(seed + trial).run(conditioned, 130);
             assertEquals(c, a, "seed " + seed + " trial " + trial);
             assertTrue(a.outcomes().size() > 1, "seed " + seed + " trial " + trial);
             for (String k : a.outcomes().keySet()) {
@@ -276,41 +281,46 @@ class CliffordRunnerTest {
     @Test
     void equalSeedsGiveEqualTallies() {
         Circuit c = Circuit.builder(5).h(0).cnot(0, 1).h(2).cz(2, 3).s(4).h(4).measure().build();
-        assertEquals(CliffordRunner.run(c, 500, 3L), CliffordRunner.run(c, 500, 3L));
+        assertEquals(tableau(3L).run(c, 500), tableau(3L).run(c, 500));
     }
 
     @Test
     void isCliffordTellsWhichCircuitsRun() {
-        assertTrue(CliffordRunner.isClifford(Circuit.builder(2).h(0).sqrtX(1).cnot(0, 1)
-                .sDagger(0).swap(0, 1).reset(1).measure().ifBit(0, 1, t -> t.y(1)).build()));
-        assertFalse(CliffordRunner.isClifford(Circuit.builder(2).h(0).t(1).build()));
-        assertFalse(CliffordRunner.isClifford(Circuit.builder(1, 1).measure(0, 0)
-                .ifBit(0, 1, t -> t.rz(0, 0.1)).build()));
-        assertFalse(CliffordRunner.isClifford(Circuit.builder(1).apply(Gates.H, 0).build()));
+        assertTrue(Circuit.builder(2).h(0).sqrtX(1).cnot(0, 1)
+                .sDagger(0).swap(0, 1).reset(1).measure().ifBit(0, 1, t -> t.y(1)).build()
+                .isClifford());
+        assertFalse(Circuit.builder(2).h(0).t(1).build().isClifford());
+        assertFalse(Circuit.builder(1, 1).measure(0, 0)
+                .ifBit(0, 1, t -> t.rz(0, 0.1)).build().isClifford());
+        // The catalogue decides, with angles: rz(pi/2) is S up to phase, and an operator equal
+        // to a catalogue matrix is that gate (Gottesman 1998, the Clifford group).
+        assertTrue(Circuit.builder(1).apply(Gates.H, 0).rz(0, Math.PI / 2).ry(0, -Math.PI)
+                .build().isClifford());
+        assertFalse(Circuit.builder(1).rz(0, Math.PI / 4).build().isClifford());
     }
 
     @Test
     void nonCliffordGateIsRefusedWithNameAndPosition() {
         Circuit c = Circuit.builder(3).h(0).cnot(0, 1).rx(2, 0.5).build();
         IllegalArgumentException e =
-                assertThrows(IllegalArgumentException.class, () -> CliffordRunner.run(c, 10, 1));
-        assertTrue(e.getMessage().contains("instruction 2 (rx)"), e.getMessage());
+                assertThrows(IllegalArgumentException.class, () -> tableau(1).run(c, 10));
+        assertTrue(e.getMessage().contains("instruction 2 (rx"), e.getMessage());
         Circuit nested = Circuit.builder(3, 1).measure(0, 0)
                 .ifBit(0, 1, t -> t.h(1).toffoli(0, 1, 2)).build();
         IllegalArgumentException g = assertThrows(IllegalArgumentException.class,
-                () -> CliffordRunner.requireClifford(nested));
-        assertTrue(g.getMessage().contains("step 1 (toffoli)"), g.getMessage());
+                () -> tableau(1).run(nested, 1));
+        assertTrue(g.getMessage().contains("step 1 (toffoli"), g.getMessage());
         Circuit inner = Circuit.builder(2, 2).measure(0, 0).ifBit(0, 1, t -> t.h(1).t(1)).build();
         IllegalArgumentException f = assertThrows(IllegalArgumentException.class,
-                () -> CliffordRunner.stateAfter(inner, 1));
-        assertTrue(f.getMessage().contains("instruction 1 (if), step 1 (t)"), f.getMessage());
+                () -> tableau(1).stateAfter(inner));
+        assertTrue(f.getMessage().contains("instruction 1 (if), step 1 (t"), f.getMessage());
     }
 
     @Test
     void zeroShotsAreRefused() {
         Circuit c = Circuit.builder(1).h(0).measure().build();
         IllegalArgumentException e =
-                assertThrows(IllegalArgumentException.class, () -> CliffordRunner.run(c, 0, 1));
+                assertThrows(IllegalArgumentException.class, () -> tableau(1).run(c, 0));
         assertTrue(e.getMessage().contains("0"), e.getMessage());
     }
 
@@ -318,7 +328,7 @@ class CliffordRunnerTest {
     void stateAfterMatchesTheStateVectorEngineForGates() {
         Circuit c = Circuit.builder(3).h(0).cnot(0, 1).s(1).cz(1, 2).sqrtX(2).build();
         StateVector expected = StateVector.zero(3).apply(c);
-        assertEquals(1.0, CliffordRunner.stateAfter(c, 0).toStateVector().fidelity(expected),
+        assertEquals(1.0, tableau(0).stateAfter(c).fidelity(expected),
                 1e-12);
     }
 }

@@ -1,0 +1,359 @@
+package dev.qsim.noise;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+
+import org.apache.commons.numbers.complex.Complex;
+import org.apache.commons.rng.UniformRandomProvider;
+import org.apache.commons.rng.simple.RandomSource;
+
+import dev.qsim.Circuit;
+import dev.qsim.Instruction;
+import dev.qsim.Operator;
+import dev.qsim.Precision;
+import dev.qsim.StateVector;
+import dev.qsim.Tally;
+import dev.qsim.internal.Bridge;
+import dev.qsim.kernel.Amplitudes;
+import dev.qsim.kernel.Frame;
+import dev.qsim.kernel.GateOp;
+import dev.qsim.kernel.Measurement;
+import dev.qsim.kernel.Parallel;
+import dev.qsim.kernel.ReducedStates;
+
+/**
+ * The noise engines behind {@link dev.qsim.Simulator}: an ideal circuit run under a
+ * {@link NoiseModel}, exactly on a {@link DensityMatrix} or by Monte Carlo wave-function
+ * trajectories on state vectors. Results depend only on the seed, never on the thread count.
+ *
+ * <p><b>Density matrix</b>: each gate is applied, then its noise; a reset is the channel with
+ * Kraus operators {@code |0><0|, |0><1|}; a measurement (its outcome unused) is the channel
+ * {@code |0><0|, |1><1|}. The outcome distribution of a circuit whose measurements come last is
+ * read from the diagonal of {@code rho}, then each measured bit passes through its qubit's
+ * readout confusion matrix.
+ *
+ * <p><b>Trajectories</b> take any circuit. Each trajectory starts from {@code |0...0>}; after
+ * each gate, for each channel, one Kraus branch {@code k} is chosen with probability
+ * {@code ||K_k psi||^2} and {@code psi -> K_k psi / ||K_k psi||} (Dalibard, Castin and Mølmer
+ * 1992, "Wave-function approach to dissipative processes in quantum optics", Phys. Rev. Lett.
+ * 68, 580, doi:10.1103/PhysRevLett.68.580; the quantum-trajectory unravelling of a Kraus map,
+ * Nielsen and Chuang 2010, §8.2.3). Averaged over trajectories this reproduces the
+ * density-matrix distribution. Trajectory {@code t} draws from its own generator seeded from
+ * {@code (seed, t)}, so the tally does not depend on how trajectories are spread over threads.
+ */
+final class NoiseEngines implements Bridge.Noise {
+    /** The reset channel {@code rho -> |0><0| rho |0><0| + |0><1| rho |1><0|}. */
+    static final Channel RESET = Channel.of(
+            Operator.of(new Complex[][] {{Complex.ONE, Complex.ZERO}, {Complex.ZERO, Complex.ZERO}}),
+            Operator.of(new Complex[][] {{Complex.ZERO, Complex.ONE}, {Complex.ZERO, Complex.ZERO}}));
+
+    /** An unread measurement: the projections onto |0> and |1>. */
+    static final Channel MEASURE = Channel.of(
+            Operator.of(new Complex[][] {{Complex.ONE, Complex.ZERO}, {Complex.ZERO, Complex.ZERO}}),
+            Operator.of(new Complex[][] {{Complex.ZERO, Complex.ZERO}, {Complex.ZERO, Complex.ONE}}));
+
+    private static final int[] NONE = new int[0];
+
+    @Override
+    public DensityMatrix densityMatrix(Circuit circuit, NoiseModel model, int threads) {
+        return evolve(circuit, model, threads, true);
+    }
+
+    /** The density matrix after the circuit; terminal measurements may be skipped. */
+    private static DensityMatrix evolve(Circuit circuit, NoiseModel model, int threads,
+            boolean measurements) {
+        List<Instruction> list = circuit.instructions();
+        for (int i = 0; i < list.size(); i++) {
+            if (list.get(i).kind() == Instruction.Kind.IF_BIT) {
+                throw new IllegalArgumentException("instruction " + i + " is a conditioned"
+                        + " block (on clbit " + list.get(i).clbit() + "); the density-matrix"
+                        + " engine does not run conditions (use trajectories)");
+            }
+        }
+        DensityMatrix rho = DensityMatrix.zero(circuit.qubits()).setThreads(threads);
+        for (Instruction in : list) {
+            switch (in.kind()) {
+                case GATE:
+                    rho.gate(in);
+                    for (NoiseModel.Placed p : model.noiseAfter(in)) {
+                        rho.channel(p.channel(), p.qubits());
+                    }
+                    break;
+                case RESET:
+                    rho.channel(RESET, in.targets());
+                    break;
+                default:
+                    if (measurements) {
+                        rho.channel(MEASURE, in.targets());
+                    }
+                    break;
+            }
+        }
+        return rho;
+    }
+
+    @Override
+    public double[] distribution(Circuit circuit, NoiseModel model, int threads) {
+        if (!circuit.measuresAtEnd()) {
+            throw new IllegalArgumentException("the exact distribution needs measurements at"
+                    + " the end; this circuit uses measured values during the shot");
+        }
+        // Terminal measurements leave the diagonal as it is: skip their channels.
+        DensityMatrix rho = evolve(circuit, model, threads, false);
+        int width = circuit.clbits();
+        int[] writer = circuit.clbitSources();
+        double[] diag = rho.probabilities();
+        double[] out = new double[1 << width];
+        for (int i = 0; i < diag.length; i++) {
+            int key = 0;
+            for (int c = 0; c < width; c++) {
+                if (writer[c] >= 0) {
+                    key |= ((i >>> writer[c]) & 1) << c;
+                }
+            }
+            out[key] += diag[i];
+        }
+        for (int c = 0; c < width; c++) {
+            if (writer[c] >= 0) {
+                confuse(out, c, model.readoutP1Given0(writer[c]),
+                        model.readoutP0Given1(writer[c]));
+            }
+        }
+        return out;
+    }
+
+    /**
+     * Applies the confusion matrix {@code [[1-e0, e1], [e0, 1-e1]]} to bit {@code c} of a
+     * distribution, in place.
+     */
+    static void confuse(double[] p, int c, double e0, double e1) {
+        int bit = 1 << c;
+        for (int i = 0; i < p.length; i++) {
+            if ((i & bit) == 0) {
+                double p0 = p[i];
+                double p1 = p[i | bit];
+                p[i] = (1 - e0) * p0 + e1 * p1;
+                p[i | bit] = e0 * p0 + (1 - e1) * p1;
+            }
+        }
+    }
+
+    @Override
+    public Tally trajectories(Circuit circuit, NoiseModel model, int shots, long seed,
+            int threads, Precision precision) {
+        int width = circuit.clbits();
+        Step[] program = compile(circuit.instructions(), model);
+        long[] keys = new long[shots];
+        int workers = Math.min(threads, shots);
+        int kernelThreads = Math.max(1, threads / workers);
+        int n = circuit.qubits();
+        Parallel.forRange(workers, shots, workers > 1, (from, to) -> {
+            StateVector sv = StateVector.zero(n, precision).setThreads(kernelThreads);
+            Amplitudes a = Bridge.states().store(sv);
+            boolean[] reg = new boolean[width];
+            double[] work = new double[32];
+            for (long t = from; t < to; t++) {
+                a.clear();
+                a.set(0, 1, 0);
+                Arrays.fill(reg, false);
+                execute(a, program, reg, trajectoryRng(seed, t), kernelThreads, work);
+                long key = 0;
+                for (int c = 0; c < width; c++) {
+                    if (reg[c]) {
+                        key |= 1L << c;
+                    }
+                }
+                keys[(int) t] = key;
+            }
+        });
+        return Tally.fromShots(width, keys);
+    }
+
+    @Override
+    public StateVector trajectoryState(Circuit circuit, NoiseModel model, long seed, int threads,
+            Precision precision) {
+        Step[] program = compile(circuit.instructions(), model);
+        StateVector sv = StateVector.zero(circuit.qubits(), precision).setThreads(threads);
+        execute(Bridge.states().store(sv), program, new boolean[circuit.clbits()],
+                trajectoryRng(seed, 0), threads, new double[32]);
+        return sv;
+    }
+
+    /** The generator of trajectory {@code t}: SplitMix64 outputs of (seed, t) as its state. */
+    static UniformRandomProvider trajectoryRng(long seed, long t) {
+        long s0 = mix(seed + 0x9E3779B97F4A7C15L * (2 * t + 1));
+        long s1 = mix(s0 ^ seed + 0x9E3779B97F4A7C15L * (2 * t + 2));
+        return RandomSource.XO_RO_SHI_RO_128_PP.create(new long[] {s0, s1});
+    }
+
+    /** The SplitMix64 finaliser (Steele, Lea and Flood 2014, doi:10.1145/2714064.2660195). */
+    private static long mix(long z) {
+        z = (z ^ (z >>> 30)) * 0xBF58476D1CE4E5B9L;
+        z = (z ^ (z >>> 27)) * 0x94D049BB133111EBL;
+        return z ^ (z >>> 31);
+    }
+
+    /** One compiled step of a trajectory program. */
+    private static final class Step {
+        final Instruction.Kind kind;
+        final GateOp gate;
+        final NoiseModel.Placed[] noise;
+        final int qubit;
+        final int clbit;
+        final int value;
+        final double e0;
+        final double e1;
+        final Step[] body;
+
+        Step(Instruction.Kind kind, GateOp gate, NoiseModel.Placed[] noise, int qubit,
+                int clbit, int value, double e0, double e1, Step[] body) {
+            this.kind = kind;
+            this.gate = gate;
+            this.noise = noise;
+            this.qubit = qubit;
+            this.clbit = clbit;
+            this.value = value;
+            this.e0 = e0;
+            this.e1 = e1;
+            this.body = body;
+        }
+    }
+
+    private static Step[] compile(List<Instruction> list, NoiseModel model) {
+        List<Step> out = new ArrayList<>();
+        for (Instruction in : list) {
+            switch (in.kind()) {
+                case GATE:
+                    out.add(new Step(in.kind(), planOf(in),
+                            model.noiseAfter(in).toArray(new NoiseModel.Placed[0]), -1, -1, -1, 0,
+                            0, null));
+                    break;
+                case MEASURE: {
+                    int q = in.targets()[0];
+                    out.add(new Step(in.kind(), null, null, q, in.clbit(), -1,
+                            model.readoutP1Given0(q), model.readoutP0Given1(q), null));
+                    break;
+                }
+                case RESET:
+                    out.add(new Step(in.kind(), null, null, in.targets()[0], -1, -1, 0, 0, null));
+                    break;
+                default:
+                    out.add(new Step(in.kind(), null, null, -1, in.clbit(), in.value(), 0, 0,
+                            compile(in.body(), model)));
+                    break;
+            }
+        }
+        return out.toArray(new Step[0]);
+    }
+
+    /** The kernel description of a gate instruction, built from its public parts. */
+    private static GateOp planOf(Instruction in) {
+        Operator op = in.operator();
+        int d = op.dimension();
+        double[] m = new double[2 * d * d];
+        for (int r = 0; r < d; r++) {
+            for (int c = 0; c < d; c++) {
+                Complex z = op.get(r, c);
+                m[2 * (r * d + c)] = z.getReal();
+                m[2 * (r * d + c) + 1] = z.getImaginary();
+            }
+        }
+        return GateOp.of(m, in.targets(), in.controls());
+    }
+
+    private static void execute(Amplitudes a, Step[] program, boolean[] reg,
+            UniformRandomProvider rng, int threads, double[] work) {
+        for (Step s : program) {
+            switch (s.kind) {
+                case GATE:
+                    Frame.apply(a, List.of(s.gate), threads);
+                    for (NoiseModel.Placed p : s.noise) {
+                        kraus(a, p.channel(), p.qubits(), rng, threads, work);
+                    }
+                    break;
+                case MEASURE: {
+                    int outcome = Measurement.measure(a, s.qubit, rng.nextDouble(), threads);
+                    double u = rng.nextDouble();
+                    if (outcome == 0 ? u < s.e0 : u < s.e1) {
+                        outcome ^= 1;
+                    }
+                    reg[s.clbit] = outcome == 1;
+                    break;
+                }
+                case RESET:
+                    Measurement.reset(a, s.qubit, rng.nextDouble(), threads);
+                    break;
+                default:
+                    if (reg[s.clbit] == (s.value == 1)) {
+                        execute(a, s.body, reg, rng, threads, work);
+                    }
+                    break;
+            }
+        }
+    }
+
+    /**
+     * Applies one Kraus branch of {@code ch}, chosen with probability {@code Tr(K^dagger K R)}
+     * where {@code R} is the reduced density matrix of the channel's qubits.
+     */
+    static void kraus(Amplitudes a, Channel ch, int[] qubits, UniformRandomProvider rng,
+            int threads, double[] work) {
+        double[][] raw = ch.rawKraus();
+        double[] p = ch.fixedProbabilities();
+        if (p == null) {
+            p = branchProbabilities(a, ch, qubits, work);
+        }
+        double total = 0;
+        for (double x : p) {
+            total += x;
+        }
+        double target = rng.nextDouble() * total;
+        int chosen = -1;
+        double acc = 0;
+        for (int b = 0; b < p.length; b++) {
+            if (p[b] > 0) {
+                chosen = b;
+                acc += p[b];
+                if (target < acc) {
+                    break;
+                }
+            }
+        }
+        if (ch.scalarBranches()[chosen]) {
+            // K = c I: after normalisation only a global phase is left.
+            return;
+        }
+        double s = 1 / Math.sqrt(p[chosen]);
+        double[] m = raw[chosen].clone();
+        for (int i = 0; i < m.length; i++) {
+            m[i] *= s;
+        }
+        Frame.apply(a, List.of(new GateOp(GateOp.DENSE, qubits.clone(), NONE, m, null)),
+                threads);
+    }
+
+    /**
+     * Returns {@code Tr(K_k^dagger K_k R)} for each branch, where {@code R} is the reduced
+     * density matrix of the channel's qubits.
+     */
+    private static double[] branchProbabilities(Amplitudes a, Channel ch, int[] qubits,
+            double[] work) {
+        int d = 1 << qubits.length;
+        ReducedStates.of(a, qubits, work);
+        double[][] w = ch.weights();
+        double[] p = new double[w.length];
+        for (int b = 0; b < w.length; b++) {
+            // Tr(W R) = sum_{x,y} W[x][y] R[y][x], real part.
+            double tr = 0;
+            for (int x = 0; x < d; x++) {
+                for (int y = 0; y < d; y++) {
+                    tr += w[b][2 * (x * d + y)] * work[2 * (y * d + x)]
+                            - w[b][2 * (x * d + y) + 1] * work[2 * (y * d + x) + 1];
+                }
+            }
+            p[b] = Math.max(0, tr);
+        }
+        return p;
+    }
+}
