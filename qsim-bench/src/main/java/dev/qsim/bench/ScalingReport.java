@@ -6,6 +6,7 @@ import dev.qsim.Gates;
 import dev.qsim.Operator;
 import dev.qsim.Precision;
 import dev.qsim.StateVector;
+import dev.qsim.examples.cli.Progress;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
@@ -13,6 +14,7 @@ import dev.qsim.noise.NoisyRunner;
 import java.io.IOException;
 import java.io.OutputStream;
 import java.io.PrintStream;
+import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -121,9 +123,6 @@ public final class ScalingReport {
 
     /** The measured batch is repeated at most this many times if it came out too short. */
     private static final int MAX_RETRIES = 3;
-
-    /** Width of the progress bar, in characters. */
-    private static final int BAR = 28;
 
     private static final long GIB = 1L << 30;
     private static final long MIB = 1L << 20;
@@ -294,6 +293,15 @@ public final class ScalingReport {
      * @return the exit status: 0 success, 1 bad arguments or unwritable file, 2 not enough heap
      */
     static int run(String[] args, PrintStream out, PrintStream err, boolean bar) {
+        final PrintWriter log = new PrintWriter(err, true);
+        try {
+            return run(args, out, log, bar);
+        } finally {
+            log.flush();
+        }
+    }
+
+    private static int run(String[] args, PrintStream out, PrintWriter err, boolean bar) {
         final Options options;
         try {
             options = parse(args, Runtime.getRuntime().availableProcessors());
@@ -339,7 +347,7 @@ public final class ScalingReport {
         }
     }
 
-    private static int report(Options options, long maxHeap, PrintStream csv, PrintStream err,
+    private static int report(Options options, long maxHeap, PrintStream csv, PrintWriter err,
             boolean bar) {
         final long probeLength = probeLength(options.max(), maxHeap,
                 options.widestBytesPerAmplitude());
@@ -381,8 +389,7 @@ public final class ScalingReport {
                     * probeLength) + "; rerun with a larger -Xmx or lower --max");
             return 2;
         }
-        try (probe) {
-            final Progress progress = new Progress(err, bar, total);
+        try (probe; Progress progress = Progress.of(err, "", total, bar)) {
             final Runner runner = new Runner(options, probe, progress);
             // One discarded pass at the smallest size, so the first row is as warm as the rest.
             runner.size(options.min(), true);
@@ -402,10 +409,8 @@ public final class ScalingReport {
                 }
                 csv.flush();
             }
-            progress.finish();
             blackhole = runner.sink;
         } catch (IllegalStateException e) {
-            err.println();
             err.println("error: " + e.getMessage());
             return 2;
         }
@@ -475,22 +480,34 @@ public final class ScalingReport {
         }
 
         /**
+         * Prints a measurement's line; a reported step ({@code counts}) advances the bar, a
+         * warm-up line does not.
+         */
+        private void finished(String line, boolean counts) {
+            if (counts) {
+                progress.done(line);
+            } else {
+                progress.note(line + " (elapsed " + progress.elapsed() + ")");
+            }
+        }
+
+        /**
          * Measures everything at {@code n}; with {@code warmUp}, only the first target of each
          * kernel, reported as not counted, and returns no rows.
          */
         List<Row> size(int n, boolean warmUp) {
             final String prefix = warmUp ? "# warm-up (not reported) " : "# ";
             final int len = (int) Math.min(2L << n, probe.capacity());
-            progress.start("n=" + n + " probe copy");
+            progress.show("n=" + n + " probe copy");
             final Timing copy = measure(r -> probe.timeCopy(len, r), targetNanos);
             final double copyGbps = BandwidthProbe.copyBytes(len) / copy.perRep();
-            progress.done(String.format(Locale.ROOT, "%sn=%d probe copy: %d doubles, %d"
+            finished(String.format(Locale.ROOT, "%sn=%d probe copy: %d doubles, %d"
                     + " repetitions in %.3f s, %.3f GB/s", prefix, n, len, copy.reps(),
                     copy.nanos() / 1e9, copyGbps), !warmUp);
-            progress.start("n=" + n + " probe triad");
+            progress.show("n=" + n + " probe triad");
             final Timing triad = measure(r -> probe.timeTriad(len, r), targetNanos);
             final double triadGbps = BandwidthProbe.triadBytes(len) / triad.perRep();
-            progress.done(String.format(Locale.ROOT, "%sn=%d probe triad: %d doubles, %d"
+            finished(String.format(Locale.ROOT, "%sn=%d probe triad: %d doubles, %d"
                     + " repetitions in %.3f s, %.3f GB/s", prefix, n, len, triad.reps(),
                     triad.nanos() / 1e9, triadGbps), !warmUp);
             sink += probe.sample(len - 1);
@@ -522,11 +539,11 @@ public final class ScalingReport {
             for (String kernel : options.kernels()) {
                 for (String target : options.targets()) {
                     final Circuit[] gates = gates(kernel, target, n);
-                    progress.start("n=" + n + " " + kernel + " " + target + " " + label);
+                    progress.show("n=" + n + " " + kernel + " " + target + " " + label);
                     final Timing t = measure(r -> timeGates(state, gates, r), targetNanos);
                     final Row row = new Row(n, kernel, target, options.threads(), t.perRep(),
                             copyGbps, triadGbps, precision);
-                    progress.done(String.format(Locale.ROOT, "%sn=%d %s %s (%s): %d repetitions"
+                    finished(String.format(Locale.ROOT, "%sn=%d %s %s (%s): %d repetitions"
                             + " in %.3f s, %.1f ns per gate, %.3f GB/s, %.2f of copy", prefix, n,
                             kernel, target, label, t.reps(), t.nanos() / 1e9, t.perRep(),
                             row.gbps(), row.gbps() / copyGbps), !warmUp);
@@ -560,7 +577,7 @@ public final class ScalingReport {
                 final Simulator sim = Simulator.seeded(Workloads.CIRCUIT_SEED)
                         .withThreads(options.threads()).withFusion(fused)
                         .withPrecision(precision);
-                progress.start("n=" + n + " " + (fused ? "circuit-fused" : "circuit-unfused")
+                progress.show("n=" + n + " " + (fused ? "circuit-fused" : "circuit-unfused")
                         + " " + label);
                 final Timing t = measure(r -> timeCircuit(sim, c, r), targetNanos);
                 if (best[f] == null || t.perRep() < best[f].perRep()) {
@@ -574,7 +591,7 @@ public final class ScalingReport {
                 perGate[f] = t.perRep() / c.size();
                 final Row row = new Row(n, kernel, "all", options.threads(), perGate[f],
                         copyGbps, triadGbps, precision);
-                progress.done(String.format(Locale.ROOT, "%sn=%d %s (%s): %d gates, %d runs in"
+                finished(String.format(Locale.ROOT, "%sn=%d %s (%s): %d gates, %d runs in"
                         + " %.3f s, %.1f ns per gate", prefix, n, kernel, label, c.size(),
                         t.reps(), t.nanos() / 1e9, perGate[f]), !warmUp);
                 rows.add(row);
@@ -604,7 +621,7 @@ public final class ScalingReport {
                 final DensityMatrix rho = DensityMatrix.zero(n).withThreads(options.threads());
                 final int q = n / 2;
                 final Operator gate = Gates.rz(0.7);
-                progress.start("n=" + n + " density-matrix");
+                progress.show("n=" + n + " density-matrix");
                 final Timing t = measure(reps -> {
                     final long start = System.nanoTime();
                     for (long r = 0; r < reps; r++) {
@@ -615,7 +632,7 @@ public final class ScalingReport {
                 sink += rho.purity();
                 final Row row = new Row(n, "density-matrix", "mid", options.threads(), t.perRep(),
                         copyGbps, triadGbps, vector, 2);
-                progress.done(String.format(Locale.ROOT, "# n=%d density-matrix: gate and"
+                finished(String.format(Locale.ROOT, "# n=%d density-matrix: gate and"
                         + " channel %.1f ns (%d repetitions), %.3f GB/s", n, t.perRep(),
                         t.reps(), row.gbps()), true);
                 rows.add(row);
@@ -636,7 +653,7 @@ public final class ScalingReport {
                         / measure(r -> probe.timeCopy(len, r), targetNanos).perRep();
                 final double triadGbps = BandwidthProbe.triadBytes(len)
                         / measure(r -> probe.timeTriad(len, r), targetNanos).perRep();
-                progress.start("n=" + n + " trajectory");
+                progress.show("n=" + n + " trajectory");
                 final Timing t = measure(reps -> {
                     final long start = System.nanoTime();
                     sink += runner.runTrajectories(ghz, model, (int) reps).shots();
@@ -644,7 +661,7 @@ public final class ScalingReport {
                 }, targetNanos);
                 final Row row = new Row(n, "trajectory", "ghz", options.threads(), t.perRep(),
                         copyGbps, triadGbps, n, n);
-                progress.done(String.format(Locale.ROOT, "# n=%d trajectory: %.3f s per"
+                finished(String.format(Locale.ROOT, "# n=%d trajectory: %.3f s per"
                         + " trajectory of a %d-gate noisy GHZ chain (%d trajectories)", n,
                         t.perRep() / 1e9, n, t.reps()), true);
                 rows.add(row);
@@ -1087,69 +1104,5 @@ public final class ScalingReport {
             return "unknown";
         }
         return "unknown";
-    }
-
-    /**
-     * Progress on standard error: one {@code #} line per measurement, and with a console a
-     * single bar redrawn in place with carriage returns.
-     */
-    private static final class Progress {
-        private final PrintStream err;
-        private final boolean bar;
-        private final int total;
-        private final long start = System.nanoTime();
-        private int done;
-        private int drawn;
-
-        Progress(PrintStream err, boolean bar, int total) {
-            this.err = err;
-            this.bar = bar;
-            this.total = total;
-        }
-
-        /** Shows what is being measured now. */
-        void start(String what) {
-            if (!bar) {
-                return;
-            }
-            final int filled = total == 0 ? BAR : done * BAR / total;
-            final String text = "[" + "#".repeat(filled) + "-".repeat(BAR - filled) + "] "
-                    + done + "/" + total + " " + elapsed() + "  " + what;
-            err.print("\r" + text + " ".repeat(Math.max(0, drawn - text.length())));
-            err.flush();
-            drawn = text.length();
-        }
-
-        /** Prints a measurement's line; {@code counts} when it is one of the reported steps. */
-        void done(String line, boolean counts) {
-            if (counts) {
-                done++;
-            }
-            note(line + " (elapsed " + elapsed() + ")");
-        }
-
-        /** Prints a comment line above the bar. */
-        void note(String line) {
-            clear();
-            err.println(line);
-            err.flush();
-        }
-
-        /** Removes the bar. */
-        void finish() {
-            clear();
-        }
-
-        private void clear() {
-            if (bar && drawn > 0) {
-                err.print("\r" + " ".repeat(drawn) + "\r");
-                drawn = 0;
-            }
-        }
-
-        private String elapsed() {
-            final long s = (System.nanoTime() - start) / 1_000_000_000L;
-            return String.format(Locale.ROOT, "%d:%02d:%02d", s / 3600, s / 60 % 60, s % 60);
-        }
     }
 }
