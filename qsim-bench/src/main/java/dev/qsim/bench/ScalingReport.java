@@ -19,12 +19,9 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
-import java.util.Set;
-import java.util.TreeSet;
 
 /**
  * Prints, as CSV, the time of each gate kernel against qubit count, next to a memory-bandwidth
@@ -85,18 +82,6 @@ public final class ScalingReport {
     /** Smallest register whose trajectories {@code --noise on} times. */
     static final int NOISE_TRAJECTORY_MIN = 20;
 
-    /** Largest qubit count accepted by {@code --min} and {@code --max}. */
-    static final int MAX_QUBITS = 40;
-
-    /** Largest thread count accepted by {@code --threads} (the core's own limit). */
-    static final int MAX_THREADS = 256;
-
-    /** Largest value of {@code --millis}: ten minutes per measurement. */
-    static final long MAX_MILLIS = 600_000;
-
-    /** Smallest qubit count of the default fusion comparison. */
-    static final int CIRCUIT_FROM = 20;
-
     /**
      * The probe arrays are never shortened below this many doubles (128 MiB each, three times
      * that in all) to fit the heap: McCalpin asks for arrays well beyond the last-level cache.
@@ -127,73 +112,10 @@ public final class ScalingReport {
     private static final long GIB = 1L << 30;
     private static final long MIB = 1L << 20;
 
-    private static final List<String> OPTIONS = List.of("--min", "--max", "--threads",
-            "--kernels", "--targets", "--millis", "--circuit", "--circuit-qubits", "--csv",
-            "--svg", "--noise", "--precision", "--help");
-
-    private static final List<String> TARGETS = List.of("low", "mid", "high", "all");
-
     /** Written once per run with a sum of results, so no measured work is dead code. */
     private static volatile double blackhole;
 
-    /** The usage text printed by {@code --help} and after bad arguments. */
-    static final String USAGE = String.join("\n",
-            "usage: java -Xmx8g -cp qsim-bench.jar dev.qsim.bench.ScalingReport [options]",
-            "Times each gate kernel on states of min..max qubits next to a memory-bandwidth probe",
-            "(copy and triad) measured in the same run.",
-            "CSV (" + HEADER + ")",
-            "on standard output or --csv FILE; progress on standard error.",
-            "  --min N              smallest qubit count (default 10; 1.." + MAX_QUBITS + ")",
-            "  --max N              largest qubit count (default 26; 1.." + MAX_QUBITS + ")",
-            "  --threads T          threads of the kernels and the probe (default: available"
-                    + " processors; 1.." + MAX_THREADS + ")",
-            "  --kernels K,K,...    of " + String.join(", ", Workloads.KERNEL_NAMES)
-                    + " (default all)",
-            "  --targets W,W,...    of low (qubit 0), mid (n/2), high (n-1), all (each qubit in"
-                    + " turn) (default low,mid,high)",
-            "  --millis M           least measured time per measurement, in ms (default 300; 1.."
-                    + MAX_MILLIS + ")",
-            "  --circuit on|off     time a " + Workloads.CIRCUIT_LAYERS + "-layer circuit with"
-                    + " fusion on and off (default on, at n >= " + CIRCUIT_FROM + ")",
-            "  --circuit-qubits N,N,... the qubit counts of that comparison, within --min..--max",
-            "  --noise on|off       also time the noise engines (default off): a gate plus a"
-                    + " depolarizing channel on a density matrix of " + NOISE_DM_MIN + ".."
-                    + NOISE_DM_MAX + " qubits (up to --max), and one trajectory of a noisy GHZ"
-                    + " chain at " + NOISE_TRAJECTORY_MIN + "..--max qubits",
-            "  --precision P        double, single or both (default double): amplitudes of 16"
-                    + " or 8 bytes;",
-            "                       both measures every kernel and circuit row in each"
-                    + " (noise rows: double only)",
-            "  --csv FILE           write the CSV to FILE instead of standard output",
-            "  --svg FILE           also draw time per gate against n, with the bandwidth floor",
-            "  --help               print this and exit",
-            "Values may also be given as --name=value.",
-            "Exit status: 0 done, 1 bad options or unwritable file, 2 not enough heap.");
-
     private ScalingReport() {
-    }
-
-    /**
-     * The settings of one run, after validation.
-     *
-     * @param circuitQubits the sizes of the fusion comparison, ascending, each in [min, max]
-     *     (empty when it is off)
-     * @param csv the CSV file, or {@code null} for standard output
-     * @param svg the SVG file, or {@code null} for none
-     * @param precisions the precisions to measure in: double, single, or double then single
-     */
-    record Options(int min, int max, int threads, List<String> kernels, List<String> targets,
-            long millis, List<Integer> circuitQubits, Path csv, Path svg, boolean help,
-            boolean noise, List<Precision> precisions) {
-
-        /** Bytes of one amplitude in the widest precision measured: the largest state's. */
-        int widestBytesPerAmplitude() {
-            int widest = 0;
-            for (Precision p : precisions) {
-                widest = Math.max(widest, p.bytesPerAmplitude());
-            }
-            return widest;
-        }
     }
 
     /**
@@ -302,18 +224,19 @@ public final class ScalingReport {
     }
 
     private static int run(String[] args, PrintStream out, PrintWriter err, boolean bar) {
-        final Options options;
+        final Optional<ReportSettings> parsed;
         try {
-            options = parse(args, Runtime.getRuntime().availableProcessors());
+            parsed = ReportOptions.parse(args, Runtime.getRuntime().availableProcessors());
         } catch (IllegalArgumentException e) {
-            err.println("error: " + e.getMessage());
-            err.println(USAGE);
+            err.println("error: " + e.getMessage() + "; see --help");
             return 1;
         }
-        if (options.help()) {
-            out.println(USAGE);
+        if (parsed.isEmpty()) {
+            out.print(ReportOptions.usage());
+            out.flush();
             return 0;
         }
+        final ReportSettings options = parsed.get();
         final long maxHeap = Runtime.getRuntime().maxMemory();
         final Optional<String> heap = heapProblem(options.max(), maxHeap,
                 options.widestBytesPerAmplitude());
@@ -347,7 +270,7 @@ public final class ScalingReport {
         }
     }
 
-    private static int report(Options options, long maxHeap, PrintStream csv, PrintWriter err,
+    private static int report(ReportSettings options, long maxHeap, PrintStream csv, PrintWriter err,
             boolean bar) {
         final long probeLength = probeLength(options.max(), maxHeap,
                 options.widestBytesPerAmplitude());
@@ -355,7 +278,7 @@ public final class ScalingReport {
                 + System.getProperty("java.vm.name") + "), cpu " + cpuModel();
         err.println("# qsim scaling report: kernels " + String.join(",", options.kernels())
                 + ", targets " + String.join(",", options.targets()) + ", precision "
-                + precisionNames(options.precisions()) + ", threads "
+                + options.precisionNames() + ", threads "
                 + options.threads() + ", at least " + options.millis() + " ms per measurement,"
                 + " fusion comparison at n = " + (options.circuitQubits().isEmpty() ? "none"
                 : options.circuitQubits().toString()));
@@ -379,7 +302,7 @@ public final class ScalingReport {
                     + " limit), so from n = " + Long.numberOfTrailingZeros(probeLength)
                     + " the probe runs at that length");
         }
-        final int total = steps(options);
+        final int total = options.steps();
         final List<Row> rows = new ArrayList<>();
         final BandwidthProbe probe;
         try {
@@ -436,47 +359,20 @@ public final class ScalingReport {
         return 0;
     }
 
-    /** The number of reported measurements: probe, kernels and circuit runs. */
-    static int steps(Options options) {
-        final int sizes = options.max() - options.min() + 1;
-        final int precisions = options.precisions().size();
-        return sizes * (2 + precisions * options.kernels().size() * options.targets().size())
-                + 2 * precisions * options.circuitQubits().size() + noiseSizes(options);
-    }
-
-    /** The precisions' names, comma separated: {@code double}, {@code single} or both. */
-    static String precisionNames(List<Precision> precisions) {
-        final List<String> names = new ArrayList<>();
-        for (Precision p : precisions) {
-            names.add(Workloads.precisionName(p));
-        }
-        return String.join(",", names);
-    }
-
-    /** The number of noise-engine measurements of {@code --noise on}. */
-    static int noiseSizes(Options options) {
-        if (!options.noise()) {
-            return 0;
-        }
-        int dm = Math.max(0, Math.min(NOISE_DM_MAX, options.max()) - NOISE_DM_MIN + 1);
-        int tr = Math.max(0, options.max() - Math.max(NOISE_TRAJECTORY_MIN, options.min()) + 1);
-        return dm + tr;
-    }
-
     /** Measures one size; holds what all sizes share. */
     private static final class Runner {
-        private final Options options;
+        private final ReportSettings options;
         private final BandwidthProbe probe;
         private final Progress progress;
         private final long targetNanos;
         /** Sum of values read from results, printed at the end so no work is dead. */
         double sink;
 
-        Runner(Options options, BandwidthProbe probe, Progress progress) {
+        Runner(ReportSettings options, BandwidthProbe probe, Progress progress) {
             this.options = options;
             this.probe = probe;
             this.progress = progress;
-            this.targetNanos = options.millis() * 1_000_000L;
+            this.targetNanos = options.targetNanos();
         }
 
         /**
@@ -732,214 +628,6 @@ public final class ScalingReport {
             elapsed = batch.time(reps);
         }
         return new Timing(reps, Math.max(1, elapsed));
-    }
-
-    /**
-     * Parses the command-line options.
-     *
-     * @param defaultThreads the thread count when {@code --threads} is not given
-     * @return the validated options
-     * @throws IllegalArgumentException naming the bad option or value and what is allowed
-     */
-    static Options parse(String[] args, int defaultThreads) {
-        int min = 10;
-        int max = 26;
-        int threads = Math.min(defaultThreads, MAX_THREADS);
-        List<String> kernels = Workloads.KERNEL_NAMES;
-        List<String> targets = List.of("low", "mid", "high");
-        long millis = 300;
-        Boolean circuit = null;
-        boolean noise = false;
-        List<Precision> precisions = List.of(Precision.DOUBLE);
-        List<Integer> circuitQubits = null;
-        String circuitQubitsText = null;
-        Path csv = null;
-        Path svg = null;
-        boolean help = false;
-        final Set<String> seen = new HashSet<>();
-        for (int i = 0; i < args.length; i++) {
-            String name = args[i];
-            String value = null;
-            final int eq = name.indexOf('=');
-            if (name.startsWith("--") && eq > 0) {
-                value = name.substring(eq + 1);
-                name = name.substring(0, eq);
-            }
-            if (!OPTIONS.contains(name)) {
-                throw new IllegalArgumentException("unknown option '" + args[i] + "'; allowed: "
-                        + String.join(", ", OPTIONS));
-            }
-            if (!seen.add(name)) {
-                throw new IllegalArgumentException("option " + name + " is given twice");
-            }
-            if (name.equals("--help")) {
-                if (value != null) {
-                    throw new IllegalArgumentException("option --help takes no value but got '"
-                            + value + "'");
-                }
-                help = true;
-                continue;
-            }
-            if (value == null) {
-                if (i + 1 >= args.length) {
-                    throw new IllegalArgumentException("option " + name + " needs a value");
-                }
-                value = args[++i];
-            }
-            switch (name) {
-                case "--min":
-                    min = (int) parseWhole(name, value, 1, MAX_QUBITS);
-                    break;
-                case "--max":
-                    max = (int) parseWhole(name, value, 1, MAX_QUBITS);
-                    break;
-                case "--threads":
-                    threads = (int) parseWhole(name, value, 1, MAX_THREADS);
-                    break;
-                case "--millis":
-                    millis = parseWhole(name, value, 1, MAX_MILLIS);
-                    break;
-                case "--kernels":
-                    kernels = value.equals("all") ? Workloads.KERNEL_NAMES
-                            : parseNames(name, value, Workloads.KERNEL_NAMES);
-                    break;
-                case "--targets":
-                    targets = parseNames(name, value, TARGETS);
-                    break;
-                case "--circuit":
-                    if (!value.equals("on") && !value.equals("off")) {
-                        throw new IllegalArgumentException("--circuit must be on or off but was '"
-                                + value + "'");
-                    }
-                    circuit = value.equals("on");
-                    break;
-                case "--noise":
-                    if (!value.equals("on") && !value.equals("off")) {
-                        throw new IllegalArgumentException("--noise must be on or off but was '"
-                                + value + "'");
-                    }
-                    noise = value.equals("on");
-                    break;
-                case "--precision":
-                    precisions = parsePrecisions(value);
-                    break;
-                case "--circuit-qubits":
-                    circuitQubitsText = value;
-                    circuitQubits = new ArrayList<>();
-                    for (String part : value.split(",", -1)) {
-                        final int q = (int) parseWhole(name, part, 1, MAX_QUBITS);
-                        if (circuitQubits.contains(q)) {
-                            throw new IllegalArgumentException(name + " lists " + q + " twice in '"
-                                    + value + "'");
-                        }
-                        circuitQubits.add(q);
-                    }
-                    break;
-                case "--csv":
-                    csv = parsePath(name, value);
-                    break;
-                default: // --svg
-                    svg = parsePath(name, value);
-                    break;
-            }
-        }
-        if (min > max) {
-            throw new IllegalArgumentException("--min " + min + " is greater than --max " + max
-                    + "; the range must not be empty");
-        }
-        if (min < 2 && kernels.contains("controlled")) {
-            throw new IllegalArgumentException("--min " + min + " is too small for the"
-                    + " controlled kernel, a CNOT on two qubits; use --min 2 or more, or leave"
-                    + " controlled out of --kernels");
-        }
-        if (csv != null && csv.equals(svg)) {
-            throw new IllegalArgumentException("--csv and --svg name the same file '" + csv
-                    + "'");
-        }
-        final TreeSet<Integer> sizes = new TreeSet<>();
-        if (circuitQubits != null) {
-            if (Boolean.FALSE.equals(circuit)) {
-                throw new IllegalArgumentException("--circuit-qubits " + circuitQubitsText
-                        + " contradicts --circuit off");
-            }
-            for (int q : circuitQubits) {
-                if (q < min || q > max) {
-                    throw new IllegalArgumentException("--circuit-qubits " + q + " is outside"
-                            + " --min.." + "--max = [" + min + ", " + max + "]");
-                }
-                sizes.add(q);
-            }
-        } else if (!Boolean.FALSE.equals(circuit)) {
-            for (int n = Math.max(min, CIRCUIT_FROM); n <= max; n++) {
-                sizes.add(n);
-            }
-        }
-        return new Options(min, max, threads, kernels, targets, millis, List.copyOf(sizes), csv,
-                svg, help, noise, precisions);
-    }
-
-    /**
-     * Reads {@code --precision}: {@code double}, {@code single}, or {@code both} (double, then
-     * single).
-     *
-     * @throws IllegalArgumentException for any other value
-     */
-    static List<Precision> parsePrecisions(String value) {
-        switch (value) {
-            case "double":
-                return List.of(Precision.DOUBLE);
-            case "single":
-                return List.of(Precision.SINGLE);
-            case "both":
-                return List.of(Precision.DOUBLE, Precision.SINGLE);
-            default:
-                throw new IllegalArgumentException("--precision must be double, single or both"
-                        + " but was '" + value + "'");
-        }
-    }
-
-    private static long parseWhole(String name, String value, long low, long high) {
-        final long parsed;
-        try {
-            parsed = Long.parseLong(value.trim());
-        } catch (NumberFormatException e) {
-            throw new IllegalArgumentException(name + " must be a whole number in [" + low + ", "
-                    + high + "] but was '" + value + "'", e);
-        }
-        if (parsed < low || parsed > high) {
-            throw new IllegalArgumentException(name + " must be in [" + low + ", " + high
-                    + "] but was " + parsed);
-        }
-        return parsed;
-    }
-
-    private static List<String> parseNames(String name, String value, List<String> allowed) {
-        final List<String> names = new ArrayList<>();
-        for (String part : value.split(",", -1)) {
-            final String p = part.trim();
-            if (!allowed.contains(p)) {
-                throw new IllegalArgumentException(name + " '" + p + "' is not known; allowed: "
-                        + String.join(", ", allowed) + " (comma separated)");
-            }
-            if (names.contains(p)) {
-                throw new IllegalArgumentException(name + " lists '" + p + "' twice in '" + value
-                        + "'");
-            }
-            names.add(p);
-        }
-        return List.copyOf(names);
-    }
-
-    private static Path parsePath(String name, String value) {
-        if (value.isBlank()) {
-            throw new IllegalArgumentException(name + " needs a file name but was empty");
-        }
-        try {
-            return Path.of(value);
-        } catch (java.nio.file.InvalidPathException e) {
-            throw new IllegalArgumentException(name + " '" + value + "' is not a valid file name: "
-                    + e.getMessage(), e);
-        }
     }
 
     /** Checks before measuring that a file can be written later: its folder exists. */

@@ -33,34 +33,39 @@ class ScalingReportTest {
     private static final List<String> THREE = List.of("low", "mid", "high");
     private static final Pattern NUMBER = Pattern.compile("\\d+\\.\\d+");
 
+    /** Reads options that must be accepted. */
+    static ReportSettings parse(int defaultThreads, String... args) {
+        return ReportOptions.parse(args, defaultThreads).orElseThrow();
+    }
+
     @Test
     void defaultsWhenNoOptions() {
-        ScalingReport.Options o = ScalingReport.parse(new String[0], 3);
-        assertEquals(new ScalingReport.Options(10, 26, 3, KERNELS, THREE, 300,
-            List.of(20, 21, 22, 23, 24, 25, 26), null, null, false, false,
-            List.of(Precision.DOUBLE)), o);
+        assertEquals(new ReportSettings(10, 26, 3, KERNELS, THREE, 300,
+            List.of(20, 21, 22, 23, 24, 25, 26), null, null, false, List.of(Precision.DOUBLE)),
+            parse(3));
         // The fusion comparison starts at n = 20 by default, so a small range has none.
-        assertEquals(List.of(), ScalingReport.parse(new String[] {"--max", "19"}, 1)
-            .circuitQubits());
+        assertEquals(List.of(), parse(1, "--max", "19").circuitQubits());
+        // The default thread count is capped at the core's limit.
+        assertEquals(256, parse(1000).threads());
     }
 
     @Test
     void everyOptionInBothForms() {
-        ScalingReport.Options o = ScalingReport.parse(new String[] {"--min", "4", "--max=7",
-            "--threads", "2", "--kernels=diagonal,dense", "--targets", "all,low", "--millis",
-            "15", "--circuit", "on", "--circuit-qubits=7,5", "--csv", "a.csv", "--svg=b.svg",
-            "--noise", "on", "--precision=both"}, 1);
-        assertEquals(new ScalingReport.Options(4, 7, 2, List.of("diagonal", "dense"),
-            List.of("all", "low"), 15, List.of(5, 7), Path.of("a.csv"), Path.of("b.svg"), false,
-            true, List.of(Precision.DOUBLE, Precision.SINGLE)), o);
-        assertTrue(ScalingReport.parse(new String[] {"--help"}, 1).help());
-        assertEquals(List.of(), ScalingReport.parse(new String[] {"--max", "22", "--circuit",
-            "off"}, 1).circuitQubits());
-        assertEquals(KERNELS, ScalingReport.parse(new String[] {"--kernels", "all"}, 1)
-            .kernels());
+        ReportSettings o = parse(1, "--min", "4", "--max=7", "--threads", "2",
+            "--kernels=diagonal,dense", "--targets", "all,low", "--millis", "15", "--circuit",
+            "on", "--circuit-qubits=7,5", "--csv", "a.csv", "--svg=b.svg", "--noise", "on",
+            "--precision=both");
+        assertEquals(new ReportSettings(4, 7, 2, List.of("diagonal", "dense"),
+            List.of("all", "low"), 15, List.of(5, 7), Path.of("a.csv"), Path.of("b.svg"), true,
+            List.of(Precision.DOUBLE, Precision.SINGLE)), o);
+        // --help asks for the usage instead of settings.
+        assertEquals(Optional.empty(), ReportOptions.parse(new String[] {"--help"}, 1));
+        assertEquals(List.of(), parse(1, "--max", "22", "--circuit", "off").circuitQubits());
+        assertEquals(KERNELS, parse(1, "--kernels", "all").kernels());
         // A single size needs no controlled CNOT below 2 qubits if controlled is left out.
-        assertEquals(1, ScalingReport.parse(new String[] {"--min", "1", "--kernels", "dense"}, 1)
-            .min());
+        assertEquals(1, parse(1, "--min", "1", "--kernels", "dense").min());
+        // A value starting with @ is a file name, not a file of more arguments.
+        assertEquals(Path.of("@x.csv"), parse(1, "--csv", "@x.csv").csv());
     }
 
     @ParameterizedTest
@@ -68,7 +73,8 @@ class ScalingReportTest {
         // arguments (space separated) | text the message must hold
         "--size 3                  | unknown option '--size'; allowed: --min, --max, --threads",
         "fast                      | unknown option 'fast'",
-        "--min                     | option --min needs a value",
+        "--min                     | Missing required parameter for option '--min' (N)",
+        "--min --max 4             | Expected parameter for option '--min' but found '--max'",
         "--min abc                 | --min must be a whole number in [1, 40] but was 'abc'",
         "--max 41                  | --max must be in [1, 40] but was 41",
         "--min 0                   | --min must be in [1, 40] but was 0",
@@ -89,20 +95,26 @@ class ScalingReportTest {
         "--circuit-qubits 12,12    | --circuit-qubits lists 12 twice in '12,12'",
         "--circuit off --circuit-qubits 12 | --circuit-qubits 12 contradicts --circuit off",
         "--csv x --svg x           | --csv and --svg name the same file 'x'",
-        "--min 4 --min 5           | option --min is given twice",
-        "--help=yes                | option --help takes no value but got 'yes'",
+        "--min 4 --min 5           | option '--min' (N) should be specified only once",
+        "--help=yes                | Invalid value for option '--help': 'yes'",
         "--precision float         | --precision must be double, single or both but was 'float'",
         "--precision Single        | --precision must be double, single or both but was 'Single'",
         "--precision=              | --precision must be double, single or both but was ''",
         "--precision double,single | --precision must be double, single or both but was"
             + " 'double,single'",
-        "--precision               | option --precision needs a value",
-        "--precision single --precision both | option --precision is given twice",
+        "--precision               | Missing required parameter for option '--precision' (P)",
+        "--precision single --precision both | option '--precision' (P) should be specified"
+            + " only once",
+        "--min 4 --max 6 extra     | unknown option 'extra'; allowed: --min, --max, --threads,"
+            + " --kernels, --targets, --millis, --circuit, --circuit-qubits, --noise,"
+            + " --precision, --csv, --svg, --help",
     })
     void badOptionsAreNamed(String args, String expected) {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
-            () -> ScalingReport.parse(args.trim().split(" +"), 1));
+            () -> ReportOptions.parse(args.trim().split(" +"), 1));
         assertTrue(e.getMessage().contains(expected), e.getMessage());
+        assertFalse(e.getMessage().contains("\n") || e.getMessage().contains("\r"),
+            e.getMessage());
     }
 
     @Test
@@ -230,12 +242,11 @@ class ScalingReportTest {
             message);
         assertTrue(message.contains("--precision single fits"), message);
         // The check takes the widest precision measured: both needs the double state.
-        assertEquals(8, ScalingReport.parse(new String[] {"--max", "31", "--precision",
-            "single"}, 1).widestBytesPerAmplitude());
-        assertEquals(16, ScalingReport.parse(new String[] {"--max", "31", "--precision",
-            "both"}, 1).widestBytesPerAmplitude());
-        assertEquals(16, ScalingReport.parse(new String[] {"--max", "31"}, 1)
+        assertEquals(8, parse(1, "--max", "31", "--precision", "single")
             .widestBytesPerAmplitude());
+        assertEquals(16, parse(1, "--max", "31", "--precision", "both")
+            .widestBytesPerAmplitude());
+        assertEquals(16, parse(1, "--max", "31").widestBytesPerAmplitude());
     }
 
     @Test
@@ -402,12 +413,10 @@ class ScalingReportTest {
         checkRow(lines[1], 5, "dense", "low", "single");
         checkRow(lines[2], 5, "dense", "high", "single");
         // Probe (2) and the two kernel rows: precision counts once.
-        assertEquals(4, ScalingReport.steps(ScalingReport.parse(new String[] {"--min", "5",
-            "--max", "5", "--precision", "single", "--kernels", "dense", "--targets",
-            "low,high"}, 1)));
-        assertEquals(2 + 2 * 2 + 2 * 2, ScalingReport.steps(ScalingReport.parse(new String[] {
-            "--min", "5", "--max", "5", "--precision", "both", "--kernels", "dense",
-            "--targets", "low,high", "--circuit-qubits", "5"}, 1)));
+        assertEquals(4, parse(1, "--min", "5", "--max", "5", "--precision", "single", "--kernels",
+            "dense", "--targets", "low,high").steps());
+        assertEquals(2 + 2 * 2 + 2 * 2, parse(1, "--min", "5", "--max", "5", "--precision", "both", "--kernels",
+            "dense", "--targets", "low,high", "--circuit-qubits", "5").steps());
     }
 
     @Test
@@ -475,14 +484,22 @@ class ScalingReportTest {
     }
 
     @Test
-    void badArgumentsExitOneWithNoCsv() {
+    void badOptionsExitOneWithOneLineAndNoCsv() {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         ByteArrayOutputStream err = new ByteArrayOutputStream();
         assertEquals(1, run(out, err, "--threads", "many"));
         assertEquals("", out.toString(StandardCharsets.UTF_8));
-        String errText = err.toString(StandardCharsets.UTF_8);
-        assertTrue(errText.startsWith("error: --threads must be a whole number"), errText);
-        assertTrue(errText.contains("usage:"), errText);
+        // One line: what is wrong and where to look, not the whole usage.
+        assertEquals(List.of("error: --threads must be a whole number in [1, 256] but was 'many';"
+            + " see --help"), err.toString(StandardCharsets.UTF_8).lines().toList());
+        err.reset();
+        assertEquals(1, run(out, err, "--min", "3", "--max", "3", "--size", "4"));
+        List<String> lines = err.toString(StandardCharsets.UTF_8).lines().toList();
+        assertEquals(1, lines.size(), lines.toString());
+        assertTrue(lines.get(0).startsWith("error: unknown option '--size'; allowed: --min,"),
+            lines.get(0));
+        assertTrue(lines.get(0).endsWith("; see --help"), lines.get(0));
+        assertEquals("", out.toString(StandardCharsets.UTF_8));
     }
 
     @Test
@@ -529,13 +546,28 @@ class ScalingReportTest {
     }
 
     @Test
-    void helpGoesToStandardOutput() {
+    void helpGoesToStandardOutputAndExitsZero() {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         ByteArrayOutputStream err = new ByteArrayOutputStream();
         assertEquals(0, run(out, err, "--help"));
         String help = out.toString(StandardCharsets.UTF_8);
-        assertTrue(help.startsWith("usage:"), help);
+        assertTrue(help.startsWith("usage: java -Xmx8g -cp qsim-bench.jar"
+            + " dev.qsim.bench.ScalingReport [options]"), help);
         assertTrue(help.contains(ScalingReport.HEADER), help);
+        // Every option with its default and range, and the exit status.
+        for (String text : List.of("--min=N", "(default 10; 1..40)", "--max=N",
+                "(default 26; 1..40)", "--threads=T", "(default: available processors; 1..256)",
+                "--kernels=K,K,...", "of dense, diagonal, permutation, controlled (default all)",
+                "--targets=W,W,...", "(default low,mid,high)", "--millis=M",
+                "(default 300; 1..600000)", "--circuit=on|off",
+                "time a 20-layer circuit with fusion on and off (default on, at n >= 20)",
+                "--circuit-qubits=N,N,...", "--noise=on|off", "density matrix of 6..14 qubits",
+                "--precision=P", "double, single or both (default double)", "--csv=FILE",
+                "--svg=FILE", "--help", "--name value or --name=value",
+                "Exit status: 0 done, 1 bad options or unwritable file, 2 not enough heap.")) {
+            assertTrue(help.contains(text), text + " in\n" + help);
+        }
+        assertEquals(ReportOptions.usage(), help);
         assertFalse(err.size() > 0, () -> err.toString(StandardCharsets.UTF_8));
     }
 
@@ -573,7 +605,7 @@ class ScalingReportTest {
             12, 2);
         assertEquals(2 * 2 * 16 * 4096 / 1e6, row.gbps(), 1e-12);
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
-            () -> ScalingReport.parse(new String[] {"--noise", "maybe"}, 1));
+            () -> ReportOptions.parse(new String[] {"--noise", "maybe"}, 1));
         assertTrue(e.getMessage().contains("'maybe'"), e.getMessage());
     }
 }
