@@ -31,7 +31,7 @@ import picocli.CommandLine.UnmatchedArgumentException;
         description = {
             "Times each gate kernel on states of min..max qubits next to a memory-bandwidth probe",
             "(copy and triad) measured in the same run.",
-            "CSV (" + ScalingReport.HEADER + ")",
+            "CSV (" + CsvOutput.HEADER + ")",
             "on standard output or --csv FILE; progress on standard error."},
         optionListHeading = "",
         sortOptions = false,
@@ -151,9 +151,9 @@ final class ReportOptions {
 
     @Option(names = "--noise", paramLabel = "on|off", order = 9,
             description = {"also time the noise engines (default off): a gate plus a depolarizing",
-                "channel on a density matrix of " + ScalingReport.NOISE_DM_MIN + ".."
-                    + ScalingReport.NOISE_DM_MAX + " qubits (up to --max), and one trajectory",
-                "of a noisy GHZ chain at " + ScalingReport.NOISE_TRAJECTORY_MIN
+                "channel on a density matrix of " + NoiseRows.NOISE_DM_MIN + ".."
+                    + NoiseRows.NOISE_DM_MAX + " qubits (up to --max), and one trajectory",
+                "of a noisy GHZ chain at " + NoiseRows.NOISE_TRAJECTORY_MIN
                     + "..--max qubits"})
     private void noise(String value) {
         noise = onOff("--noise", value);

@@ -58,9 +58,9 @@ record ReportSettings(int min, int max, int threads, List<String> kernels, List<
         if (!noise) {
             return 0;
         }
-        final int dm = Math.max(0, Math.min(ScalingReport.NOISE_DM_MAX, max)
-                - ScalingReport.NOISE_DM_MIN + 1);
-        final int tr = Math.max(0, max - Math.max(ScalingReport.NOISE_TRAJECTORY_MIN, min) + 1);
+        final int dm = Math.max(0, Math.min(NoiseRows.NOISE_DM_MAX, max)
+                - NoiseRows.NOISE_DM_MIN + 1);
+        final int tr = Math.max(0, max - Math.max(NoiseRows.NOISE_TRAJECTORY_MIN, min) + 1);
         return dm + tr;
     }
 
