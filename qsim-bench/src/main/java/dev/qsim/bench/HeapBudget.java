@@ -1,12 +1,26 @@
 package dev.qsim.bench;
 
 import dev.qsim.Precision;
+import dev.qsim.StateVector;
 import java.util.Locale;
 import java.util.Optional;
 
 /**
- * How the scaling report fits in the heap: the length of the bandwidth probe's arrays next to
- * the largest state, and whether the two fit at all.
+ * How the scaling report fits in the heap. Two questions, answered in this order before
+ * anything is measured:
+ *
+ * <ol>
+ *   <li>How long can the bandwidth probe's arrays be? The report's own budget: the largest
+ *       state, an eighth of it and {@link #HEAP_ROOM} are kept free, and the probe gets the
+ *       longest power of two that fits beside them ({@link #probeLength}), never shorter than
+ *       {@link #MIN_PROBE_LENGTH}.</li>
+ *   <li>Can the heap hold the largest state next to that probe? The core answers: it checks the
+ *       heap whenever a state is allocated and refuses one that does not fit with an
+ *       {@link IllegalStateException} naming the bytes needed, the maximum heap and the
+ *       {@code -Xmx} that would do. {@link #largestStateRefused} allocates the largest state
+ *       once through the public API and passes that message on; the report computes no
+ *       {@code -Xmx} of its own.</li>
+ * </ol>
  */
 final class HeapBudget {
     /**
@@ -19,11 +33,10 @@ final class HeapBudget {
     static final long MAX_PROBE_LENGTH = 1L << 30;
 
     /**
-     * Heap kept free beside the largest state and an eighth of it (256 MiB, the margin the core
-     * adds to the {@code -Xmx} it suggests): for the small objects of a run (circuits, fused
-     * matrices, scratch windows) and for the gaps the collector leaves between the large arrays
-     * of the state and the probe. The eighth covers what the collector loses placing a state's
-     * large chunks in its regions.
+     * Heap kept free beside the largest state and an eighth of it when the probe is sized: for
+     * the small objects of a run (circuits, fused matrices, scratch windows) and for the gaps the
+     * collector leaves between the large arrays of the state and the probe. The eighth covers
+     * what the collector loses placing a state's large chunks in its regions.
      */
     static final long HEAP_ROOM = 256L << 20;
 
@@ -33,8 +46,19 @@ final class HeapBudget {
     private HeapBudget() {
     }
 
+    /** Allocates a state as the report's runs would; the core's heap check comes first. */
+    @FunctionalInterface
+    interface StateMaker {
+        /**
+         * Allocates an {@code n}-qubit state in the given precision and drops it.
+         *
+         * @throws IllegalStateException from the core if the heap cannot hold it
+         */
+        void make(int n, Precision precision);
+    }
+
     /**
-     * Heap the report needs at {@code --max maxQubits} with amplitudes of
+     * The heap the report budgets for at {@code --max maxQubits} with amplitudes of
      * {@code bytesPerAmplitude} bytes and probe arrays of {@code probeLength} doubles: the
      * largest state, an eighth of it plus {@link #HEAP_ROOM} of room, and three probe arrays.
      * One state at a time is enough: the state is built with one large allocation
@@ -49,10 +73,10 @@ final class HeapBudget {
 
     /**
      * Returns the length of the probe arrays: {@code 2^(max+1)} doubles (the bytes of the
-     * double-precision state), at most {@link #MAX_PROBE_LENGTH}; if the heap cannot hold that
-     * next to the state of {@code bytesPerAmplitude} bytes per amplitude, the longest power of two
-     * that fits, but not below {@code min(2^(max+1), MIN_PROBE_LENGTH)}; or -1 if even that does
-     * not fit.
+     * double-precision state), at most {@link #MAX_PROBE_LENGTH}; if the budget of
+     * {@link #heapNeeded} does not fit in {@code maxHeapBytes} with that, the longest power of
+     * two that fits, but never below {@code min(2^(max+1), MIN_PROBE_LENGTH)} (whether the state
+     * then fits is the core's to say, see {@link #largestStateRefused}).
      */
     static long probeLength(int maxQubits, long maxHeapBytes, int bytesPerAmplitude) {
         final long full = Math.min(2L << maxQubits, MAX_PROBE_LENGTH);
@@ -61,38 +85,62 @@ final class HeapBudget {
         while (len > least && heapNeeded(maxQubits, len, bytesPerAmplitude) > maxHeapBytes) {
             len >>= 1;
         }
-        return heapNeeded(maxQubits, len, bytesPerAmplitude) <= maxHeapBytes ? len : -1;
+        return len;
     }
 
     /**
-     * Checks the heap can hold the largest state, of {@code bytesPerAmplitude} bytes per
-     * amplitude (16 in double precision, 8 in single), with room, and the probe arrays (shorter
-     * ones if need be, see {@link #probeLength}).
-     *
-     * @return empty if it can, otherwise a message with the bytes needed, the heap maximum and
-     *     the {@code -Xmx} that would do
+     * Whether the budget of {@link #heapNeeded} fits in {@code maxHeapBytes} with probe arrays
+     * of {@code probeLength} doubles; when it does not, the report still runs if the core
+     * accepts the largest state, with less room than it would like.
      */
-    static Optional<String> heapProblem(int maxQubits, long maxHeapBytes, int bytesPerAmplitude) {
-        if (probeLength(maxQubits, maxHeapBytes, bytesPerAmplitude) > 0) {
+    static boolean roomy(int maxQubits, long probeLength, long maxHeapBytes,
+            int bytesPerAmplitude) {
+        return heapNeeded(maxQubits, probeLength, bytesPerAmplitude) <= maxHeapBytes;
+    }
+
+    /**
+     * Asks the core whether the heap, as it is now (the probe allocated), holds the largest
+     * state: allocates it once with {@link StateVector#zero(int, Precision)} and drops it.
+     *
+     * @param maxQubits the largest qubit count measured
+     * @param precision the widest precision measured
+     * @return empty if the core accepted the state; otherwise the core's message, which names
+     *     the bytes needed, the maximum heap and the {@code -Xmx} that would do, followed by the
+     *     report's other ways out
+     */
+    static Optional<String> largestStateRefused(int maxQubits, Precision precision) {
+        return largestStateRefused(maxQubits, precision, StateVector::zero);
+    }
+
+    /**
+     * As {@link #largestStateRefused(int, Precision)}, allocating with {@code maker}. When a
+     * double-precision state is refused, a single-precision one of the same size is tried the
+     * same way, and if the core accepts it the message says {@code --precision single} fits.
+     */
+    static Optional<String> largestStateRefused(int maxQubits, Precision precision,
+            StateMaker maker) {
+        try {
+            maker.make(maxQubits, precision);
             return Optional.empty();
+        } catch (IllegalStateException refused) {
+            final String others;
+            if (precision != Precision.SINGLE && accepts(maker, maxQubits, Precision.SINGLE)) {
+                others = "; or lower --max, or measure in single precision only (--precision"
+                        + " single fits)";
+            } else {
+                others = "; or lower --max";
+            }
+            return Optional.of(refused.getMessage() + others);
         }
-        final long full = Math.min(2L << maxQubits, MAX_PROBE_LENGTH);
-        final long least = Math.min(full, MIN_PROBE_LENGTH);
-        final long state = ReportRow.stateBytes(maxQubits, bytesPerAmplitude);
-        final long needed = heapNeeded(maxQubits, full, bytesPerAmplitude);
-        final long suggestGib = (needed + GIB - 1) / GIB + 1;
-        final int single = Precision.SINGLE.bytesPerAmplitude();
-        final String precision = bytesPerAmplitude == single ? "single" : "double";
-        final String alternative = bytesPerAmplitude > single
-                && probeLength(maxQubits, maxHeapBytes, single) > 0
-                ? ", lower --max, or measure in single precision only (--precision single fits)"
-                : ", or lower --max";
-        return Optional.of("a " + maxQubits + "-qubit state in " + precision + " precision"
-                + " needs " + formatBytes(state) + " (" + formatBytes(state + state / 8
-                + HEAP_ROOM) + " with room for the collector) and the bandwidth probe 3 x "
-                + formatBytes(8 * full) + " (3 x " + formatBytes(8 * least) + " at least), but"
-                + " the maximum heap is " + formatBytes(maxHeapBytes) + "; rerun with java -Xmx"
-                + suggestGib + "g" + alternative);
+    }
+
+    private static boolean accepts(StateMaker maker, int n, Precision precision) {
+        try {
+            maker.make(n, precision);
+            return true;
+        } catch (IllegalStateException e) {
+            return false;
+        }
     }
 
     /** Formats a byte count in MiB below 1 GiB, else in GiB, one decimal. */

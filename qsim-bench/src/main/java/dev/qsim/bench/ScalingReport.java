@@ -60,8 +60,10 @@ import java.util.Optional;
  * standard error, so the CSV stays clean.
  *
  * <p>Exit status: 0 on success, 1 for bad arguments or an output file that cannot be written,
- * 2 if the heap cannot hold the largest state and the probe (the message says which {@code -Xmx}
- * would do).
+ * 2 if the heap cannot hold the largest state next to the probe. Before measuring, the largest
+ * state is allocated once through the core's public API: the core checks the heap and refuses a
+ * state that does not fit with a message naming the bytes needed, the maximum heap and the
+ * {@code -Xmx} that would do, which the report prints ({@link HeapBudget}).
  */
 public final class ScalingReport {
     /** Written once per run with a sum of results, so no measured work is dead code. */
@@ -123,34 +125,50 @@ public final class ScalingReport {
             return 0;
         }
         final ReportSettings options = parsed.get();
-        final long maxHeap = Runtime.getRuntime().maxMemory();
-        final Optional<String> heap = HeapBudget.heapProblem(options.max(), maxHeap,
-                options.widestBytesPerAmplitude());
-        if (heap.isPresent()) {
-            err.println("error: " + heap.get());
-            return 2;
-        }
-        final Optional<String> unwritable = unwritable(options.svg(), "--svg");
+        final Optional<String> unwritable = unwritable(options.svg(), "--svg")
+                .or(() -> unwritable(options.csv(), "--csv"));
         if (unwritable.isPresent()) {
             err.println("error: " + unwritable.get());
             return 1;
         }
-        final CsvOutput csv;
+        // The probe first, then the largest state next to it: the core's answer, and the -Xmx
+        // it suggests, then count the probe's arrays.
+        final long maxHeap = Runtime.getRuntime().maxMemory();
+        final long probeLength = HeapBudget.probeLength(options.max(), maxHeap,
+                options.widestBytesPerAmplitude());
+        final BandwidthProbe probe;
         try {
-            csv = CsvOutput.open(options.csv(), out);
-        } catch (IOException | SecurityException e) {
-            err.println("error: cannot write --csv file '" + options.csv() + "': " + e);
-            return 1;
+            probe = new BandwidthProbe((int) probeLength, options.threads());
+        } catch (OutOfMemoryError e) {
+            err.println("error: the heap cannot place three probe arrays of "
+                    + HeapBudget.formatBytes(8 * probeLength) + " (maximum heap "
+                    + HeapBudget.formatBytes(maxHeap) + "); rerun with a larger -Xmx or lower"
+                    + " --max");
+            return 2;
         }
-        try (csv) {
-            return report(options, maxHeap, csv, err, bar);
+        try (probe) {
+            final Optional<String> refused = HeapBudget.largestStateRefused(options.max(),
+                    options.widestPrecision());
+            if (refused.isPresent()) {
+                err.println("error: " + refused.get());
+                return 2;
+            }
+            final CsvOutput csv;
+            try {
+                csv = CsvOutput.open(options.csv(), out);
+            } catch (IOException | SecurityException e) {
+                err.println("error: cannot write --csv file '" + options.csv() + "': " + e);
+                return 1;
+            }
+            try (csv) {
+                return report(options, maxHeap, probe, csv, err, bar);
+            }
         }
     }
 
-    private static int report(ReportSettings options, long maxHeap, CsvOutput csv,
-            PrintWriter err, boolean bar) {
-        final long probeLength = HeapBudget.probeLength(options.max(), maxHeap,
-                options.widestBytesPerAmplitude());
+    private static int report(ReportSettings options, long maxHeap, BandwidthProbe probe,
+            CsvOutput csv, PrintWriter err, boolean bar) {
+        final long probeLength = probe.capacity();
         final String environment = "java " + System.getProperty("java.version") + " ("
                 + System.getProperty("java.vm.name") + "), cpu " + cpuModel();
         err.println("# qsim scaling report: kernels " + String.join(",", options.kernels())
@@ -179,17 +197,15 @@ public final class ScalingReport {
                     + " limit), so from n = " + Long.numberOfTrailingZeros(probeLength)
                     + " the probe runs at that length");
         }
-        final List<ReportRow> rows = new ArrayList<>();
-        final BandwidthProbe probe;
-        try {
-            probe = new BandwidthProbe((int) probeLength, options.threads());
-        } catch (OutOfMemoryError e) {
-            err.println("error: the heap cannot place three probe arrays of "
-                    + HeapBudget.formatBytes(8 * probeLength) + "; rerun with a larger -Xmx or"
-                    + " lower --max");
-            return 2;
+        if (!HeapBudget.roomy(options.max(), probeLength, maxHeap,
+                options.widestBytesPerAmplitude())) {
+            err.println("# note: the heap holds the largest state next to the probe, but with"
+                    + " less room than the report keeps (an eighth of the state and 256 MiB);"
+                    + " should the collector fail to place a state, the run stops with exit"
+                    + " status 2");
         }
-        try (probe; Progress progress = Progress.of(err, "", options.steps(), bar)) {
+        final List<ReportRow> rows = new ArrayList<>();
+        try (Progress progress = Progress.of(err, "", options.steps(), bar)) {
             final ReportRunner runner = new ReportRunner(options, probe, progress);
             // One discarded pass at the smallest size, so the first row is as warm as the rest.
             runner.size(options.min(), true);

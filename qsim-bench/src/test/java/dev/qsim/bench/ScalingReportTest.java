@@ -1,6 +1,7 @@
 package dev.qsim.bench;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.ByteArrayOutputStream;
@@ -277,25 +278,31 @@ class ScalingReportTest {
     }
 
     @Test
-    void stateTooLargeForTheHeapExitsTwo() {
+    void stateTooLargeForTheHeapExitsTwoBeforeMeasuring(@TempDir Path dir) {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         ByteArrayOutputStream err = new ByteArrayOutputStream();
-        // 40 qubits need 16 TiB, more than any test heap; with an eighth and 256 MiB of room
-        // 18432.25 GiB, and the probe stops at 2^30 doubles (8 GiB each): 18456.25 GiB,
-        // rounded up, plus 1 GiB of room. Single precision (8 TiB) does not fit either.
-        assertEquals(2, run(out, err, "--min", "40", "--max", "40"));
+        Path csv = dir.resolve("never.csv");
+        // 40 qubits need 16 TiB in double precision (16 bytes an amplitude) and 8 TiB in single,
+        // more than any test heap: the core refuses the state, and its message (bytes needed,
+        // maximum heap, the -Xmx that would do) is the one line printed.
+        assertEquals(2, run(out, err, "--min", "40", "--max", "40", "--csv", csv.toString()));
         assertEquals("", out.toString(StandardCharsets.UTF_8));
-        String errText = err.toString(StandardCharsets.UTF_8);
-        assertTrue(errText.startsWith("error: a 40-qubit state in double precision needs"
-            + " 16384.0 GiB (18432.3 GiB with room"), errText);
-        assertTrue(errText.contains("-Xmx18458g, or lower --max"), errText);
+        List<String> lines = err.toString(StandardCharsets.UTF_8).lines().toList();
+        assertEquals(1, lines.size(), lines.toString());
+        String line = lines.get(0);
+        assertTrue(line.startsWith("error: a 40-qubit state needs 16384.0 GiB"), line);
+        assertTrue(Pattern.compile("-Xmx\\d+g").matcher(line).find(), line);
+        assertTrue(line.endsWith("; or lower --max"), line);
+        // Nothing was measured, so no CSV file was made.
+        assertFalse(Files.exists(csv), csv.toString());
         err.reset();
-        // In single precision: 8192 GiB + 1024 GiB + 256 MiB + 24 GiB, rounded up, plus 1 GiB.
         assertEquals(2, run(out, err, "--min", "40", "--max", "40", "--precision", "single"));
-        errText = err.toString(StandardCharsets.UTF_8);
-        assertTrue(errText.startsWith("error: a 40-qubit state in single precision needs"
-            + " 8192.0 GiB"), errText);
-        assertTrue(errText.contains("-Xmx9242g, or lower --max"), errText);
+        line = err.toString(StandardCharsets.UTF_8).strip();
+        assertTrue(line.startsWith("error: a 40-qubit state in single precision needs 8192.0"
+            + " GiB"), line);
+        assertTrue(line.contains("-Xmx"), line);
+        assertTrue(line.endsWith("; or lower --max"), line);
+        assertEquals("", out.toString(StandardCharsets.UTF_8));
     }
 
     @Test
