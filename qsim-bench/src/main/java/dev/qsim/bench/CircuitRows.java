@@ -3,8 +3,8 @@ package dev.qsim.bench;
 import dev.qsim.Circuit;
 import dev.qsim.Precision;
 import dev.qsim.Simulator;
-import dev.qsim.bench.Measurement.Batch;
-import dev.qsim.bench.Measurement.Timing;
+import dev.qsim.bench.BatchTimer.Batch;
+import dev.qsim.bench.BatchTimer.Timing;
 import dev.qsim.examples.cli.Progress;
 import java.util.ArrayList;
 import java.util.List;
@@ -53,7 +53,7 @@ final class CircuitRows {
             final Batch runs = runs(c, fused, precision);
             progress.show("n=" + n + " " + (fused ? "circuit-fused" : "circuit-unfused") + " "
                     + label);
-            final Timing t = Measurement.measure(runs, settings.targetNanos());
+            final Timing t = BatchTimer.measure(runs, settings.targetNanos());
             if (best[f] == null || t.perRep() < best[f].perRep()) {
                 best[f] = t;
             }

@@ -3,7 +3,7 @@ package dev.qsim.bench;
 import dev.qsim.Circuit;
 import dev.qsim.Precision;
 import dev.qsim.StateVector;
-import dev.qsim.bench.Measurement.Timing;
+import dev.qsim.bench.BatchTimer.Timing;
 import dev.qsim.examples.cli.Progress;
 import java.util.ArrayList;
 import java.util.List;
@@ -48,7 +48,7 @@ final class KernelRows {
             for (String target : settings.targets()) {
                 final Circuit[] gates = gates(kernel, target, n);
                 progress.show("n=" + n + " " + kernel + " " + target + " " + label);
-                final Timing t = Measurement.measure(r -> timeGates(state, gates, r),
+                final Timing t = BatchTimer.measure(r -> timeGates(state, gates, r),
                         settings.targetNanos());
                 final ReportRow row = new ReportRow(n, kernel, target, settings.threads(),
                         t.perRep(), copyGbps, bandwidth.triadGbps(), precision);

@@ -3,8 +3,8 @@ package dev.qsim.bench;
 import dev.qsim.Circuit;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
-import dev.qsim.bench.Measurement.Batch;
-import dev.qsim.bench.Measurement.Timing;
+import dev.qsim.bench.BatchTimer.Batch;
+import dev.qsim.bench.BatchTimer.Timing;
 import dev.qsim.examples.cli.Progress;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.DensityMatrix;
@@ -70,7 +70,7 @@ final class NoiseRows {
             final ReportRunner.Bandwidth bandwidth = probe(vector);
             final Work work = densityMatrixSteps(n);
             progress.show("n=" + n + " density-matrix");
-            final Timing t = Measurement.measure(work.batch(), settings.targetNanos());
+            final Timing t = BatchTimer.measure(work.batch(), settings.targetNanos());
             sink += work.result().getAsDouble();
             final ReportRow row = new ReportRow(n, "density-matrix", "mid", settings.threads(),
                     t.perRep(), bandwidth.copyGbps(), bandwidth.triadGbps(), vector, 2);
@@ -83,7 +83,7 @@ final class NoiseRows {
             final ReportRunner.Bandwidth bandwidth = probe(n);
             final Work work = trajectories(n);
             progress.show("n=" + n + " trajectory");
-            final Timing t = Measurement.measure(work.batch(), settings.targetNanos());
+            final Timing t = BatchTimer.measure(work.batch(), settings.targetNanos());
             sink += work.result().getAsDouble();
             final ReportRow row = new ReportRow(n, "trajectory", "ghz", settings.threads(),
                     t.perRep(), bandwidth.copyGbps(), bandwidth.triadGbps(), n, n);
@@ -105,9 +105,9 @@ final class NoiseRows {
         final int len = (int) Math.min(2L << vectorQubits, probe.capacity());
         final long targetNanos = settings.targetNanos();
         final double copyGbps = BandwidthProbe.copyBytes(len)
-                / Measurement.measure(r -> probe.timeCopy(len, r), targetNanos).perRep();
+                / BatchTimer.measure(r -> probe.timeCopy(len, r), targetNanos).perRep();
         final double triadGbps = BandwidthProbe.triadBytes(len)
-                / Measurement.measure(r -> probe.timeTriad(len, r), targetNanos).perRep();
+                / BatchTimer.measure(r -> probe.timeTriad(len, r), targetNanos).perRep();
         return new ReportRunner.Bandwidth(copyGbps, triadGbps);
     }
 

@@ -1,7 +1,7 @@
 package dev.qsim.bench;
 
 import dev.qsim.Precision;
-import dev.qsim.bench.Measurement.Timing;
+import dev.qsim.bench.BatchTimer.Timing;
 import dev.qsim.examples.cli.Progress;
 import java.util.ArrayList;
 import java.util.List;
@@ -69,13 +69,13 @@ final class ReportRunner {
         final long targetNanos = settings.targetNanos();
         final int len = (int) Math.min(2L << n, probe.capacity());
         progress.show("n=" + n + " probe copy");
-        final Timing copy = Measurement.measure(r -> probe.timeCopy(len, r), targetNanos);
+        final Timing copy = BatchTimer.measure(r -> probe.timeCopy(len, r), targetNanos);
         final double copyGbps = BandwidthProbe.copyBytes(len) / copy.perRep();
         finished(progress, String.format(Locale.ROOT, "%sn=%d probe copy: %d doubles, %d"
                 + " repetitions in %.3f s, %.3f GB/s", prefix, n, len, copy.reps(),
                 copy.nanos() / 1e9, copyGbps), !warmUp);
         progress.show("n=" + n + " probe triad");
-        final Timing triad = Measurement.measure(r -> probe.timeTriad(len, r), targetNanos);
+        final Timing triad = BatchTimer.measure(r -> probe.timeTriad(len, r), targetNanos);
         final double triadGbps = BandwidthProbe.triadBytes(len) / triad.perRep();
         finished(progress, String.format(Locale.ROOT, "%sn=%d probe triad: %d doubles, %d"
                 + " repetitions in %.3f s, %.3f GB/s", prefix, n, len, triad.reps(),

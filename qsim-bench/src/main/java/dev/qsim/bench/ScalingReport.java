@@ -34,7 +34,7 @@ import java.util.Optional;
  *
  * <p>Every measurement warms up with batches of doubling size until one batch lasts a third of
  * {@code --millis}, then times one batch long enough to last at least {@code --millis} (repeated
- * up to three times if it still came out short; {@link Measurement}). Before the first reported
+ * up to three times if it still came out short; {@link BatchTimer}). Before the first reported
  * row every measurement is run once at the smallest size and discarded, so the just-in-time
  * compiler has settled. Run with {@code --help} for every option ({@link ReportOptions}).
  *

@@ -6,7 +6,7 @@ package dev.qsim.bench;
  * target, repeated up to {@link #MAX_RETRIES} times if it still came out short. The same for
  * the probe, the kernels, the circuits and the noise engines, so their figures compare.
  */
-final class Measurement {
+final class BatchTimer {
     /** Repetitions are chosen for this many times the target time, so one batch is enough. */
     static final double MARGIN = 1.25;
 
@@ -16,7 +16,7 @@ final class Measurement {
     /** The measured batch is repeated at most this many times if it came out too short. */
     static final int MAX_RETRIES = 3;
 
-    private Measurement() {
+    private BatchTimer() {
     }
 
     /** Times {@code reps} repetitions of some work; returns nanoseconds. */

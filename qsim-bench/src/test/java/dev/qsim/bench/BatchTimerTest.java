@@ -7,18 +7,18 @@ import java.util.List;
 import org.junit.jupiter.api.Test;
 
 /** How one measurement is timed: repetitions and the doubling warm-up, on a fake clock. */
-class MeasurementTest {
+class BatchTimerTest {
     @Test
     void repetitionsCoverTheTargetWithMargin() {
         // Exact arithmetic: 100 reps in 1 ms is 1e4 ns each; 1.25 * 3e8 / 1e4 = 37500.
-        assertEquals(37_500, Measurement.chooseRepetitions(100, 1_000_000, 300_000_000));
+        assertEquals(37_500, BatchTimer.chooseRepetitions(100, 1_000_000, 300_000_000));
         // A pilot measured as 0 ns counts as 1 ns: ceil(1.25 * 10 / 1) = 13.
-        assertEquals(13, Measurement.chooseRepetitions(1, 0, 10));
+        assertEquals(13, BatchTimer.chooseRepetitions(1, 0, 10));
         // A slow pilot still gives one repetition.
-        assertEquals(1, Measurement.chooseRepetitions(1, 5_000_000_000L, 300_000_000));
+        assertEquals(1, BatchTimer.chooseRepetitions(1, 5_000_000_000L, 300_000_000));
         // Capped.
-        assertEquals(Measurement.MAX_REPETITIONS,
-            Measurement.chooseRepetitions(1L << 40, 1, 1_000_000_000));
+        assertEquals(BatchTimer.MAX_REPETITIONS,
+            BatchTimer.chooseRepetitions(1L << 40, 1, 1_000_000_000));
     }
 
     @Test
@@ -27,12 +27,12 @@ class MeasurementTest {
         // from 1 stops at the first reps with 10 * reps >= 1000 / 3, i.e. 64 (640 ns); then
         // ceil(1.25 * 1000 / 10) = 125 repetitions, 1250 ns >= 1000, no retry.
         List<Long> calls = new ArrayList<>();
-        Measurement.Timing t = Measurement.measure(reps -> {
+        BatchTimer.Timing t = BatchTimer.measure(reps -> {
             calls.add(reps);
             return 10 * reps;
         }, 1000);
         assertEquals(List.of(1L, 2L, 4L, 8L, 16L, 32L, 64L, 125L), calls);
-        assertEquals(new Measurement.Timing(125, 1250), t);
+        assertEquals(new BatchTimer.Timing(125, 1250), t);
         assertEquals(10.0, t.perRep(), 0.0);
     }
 }
