@@ -131,8 +131,8 @@ public final class ScalingReport {
             err.println("error: " + unwritable.get());
             return 1;
         }
-        // The probe first, then the largest state next to it: the core's answer, and the -Xmx
-        // it suggests, then count the probe's arrays.
+        // The probe first, then the largest state next to it, so that the core's answer (and
+        // the -Xmx it suggests) counts the probe's arrays.
         final long maxHeap = Runtime.getRuntime().maxMemory();
         final long probeLength = HeapBudget.probeLength(options.max(), maxHeap,
                 options.widestBytesPerAmplitude());
