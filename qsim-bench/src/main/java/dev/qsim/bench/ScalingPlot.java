@@ -53,16 +53,16 @@ final class ScalingPlot {
      * @param subtitle the second title line (JDK, CPU, threads)
      * @throws IllegalArgumentException if there are no rows
      */
-    static String svg(List<ScalingReport.Row> rows, String title, String subtitle) {
+    static String svg(List<ReportRow> rows, String title, String subtitle) {
         if (rows.isEmpty()) {
             throw new IllegalArgumentException("there are no rows to plot");
         }
         final Map<String, TreeMap<Integer, Double>> series = series(rows);
         // The kernel and precision of each series, and a colour and marker per kernel, so a
         // kernel's single-precision series looks like its double one but dashed.
-        final Map<String, ScalingReport.Row> first = new LinkedHashMap<>();
+        final Map<String, ReportRow> first = new LinkedHashMap<>();
         final Map<String, Integer> style = new LinkedHashMap<>();
-        for (ScalingReport.Row r : rows) {
+        for (ReportRow r : rows) {
             first.putIfAbsent(label(r), r);
             style.putIfAbsent(r.kernel(), style.size());
         }
@@ -168,7 +168,7 @@ final class ScalingPlot {
                     .append(points(e.getValue(), axes)).append("\"/>\n");
         }
         for (Map.Entry<String, TreeMap<Integer, Double>> e : series.entrySet()) {
-            final ScalingReport.Row r = first.get(e.getKey());
+            final ReportRow r = first.get(e.getKey());
             final int k = style.get(r.kernel());
             final String colour = COLOURS[k % COLOURS.length];
             final boolean single = r.precision() == Precision.SINGLE;
@@ -195,7 +195,7 @@ final class ScalingPlot {
                 + " fill=\"#fafafa\" stroke=\"#cccccc\"/>%n", lx - 10, ly - 12, WIDTH - lx - 6,
                 28 * (series.size() + floors.size()) + 8));
         for (String name : series.keySet()) {
-            final ScalingReport.Row r = first.get(name);
+            final ReportRow r = first.get(name);
             final int k = style.get(r.kernel());
             final String colour = COLOURS[k % COLOURS.length];
             final boolean single = r.precision() == Precision.SINGLE;
@@ -238,10 +238,10 @@ final class ScalingPlot {
      * One point per n, kernel and precision: the mid-target row, else the mean over targets.
      * Keyed by {@link #label}, in the order the series first appear in the rows.
      */
-    static Map<String, TreeMap<Integer, Double>> series(List<ScalingReport.Row> rows) {
+    static Map<String, TreeMap<Integer, Double>> series(List<ReportRow> rows) {
         final Map<String, TreeMap<Integer, double[]>> sums = new LinkedHashMap<>();
         final Map<String, TreeMap<Integer, Double>> mids = new LinkedHashMap<>();
-        for (ScalingReport.Row r : rows) {
+        for (ReportRow r : rows) {
             final String label = label(r);
             final double[] s = sums.computeIfAbsent(label, x -> new TreeMap<>())
                     .computeIfAbsent(r.n(), x -> new double[2]);
@@ -268,7 +268,7 @@ final class ScalingPlot {
      * The name of a row's series: the kernel in double precision, the kernel followed by
      * {@code " (single)"} in single precision.
      */
-    static String label(ScalingReport.Row r) {
+    static String label(ReportRow r) {
         return r.precision() == Precision.SINGLE ? r.kernel() + " (single)" : r.kernel();
     }
 
@@ -277,11 +277,11 @@ final class ScalingPlot {
      * measured: {@code 2 * B * 2^n / copy_gb_per_s} ns, {@code B} the bytes of one amplitude
      * (16 in double precision, 8 in single). Empty if there are no such rows.
      */
-    static TreeMap<Integer, Double> floor(List<ScalingReport.Row> rows, Precision precision) {
+    static TreeMap<Integer, Double> floor(List<ReportRow> rows, Precision precision) {
         final TreeMap<Integer, Double> floor = new TreeMap<>();
-        for (ScalingReport.Row r : rows) {
+        for (ReportRow r : rows) {
             if (r.precision() == precision && r.vectorQubits() == r.n() && r.passes() == 1) {
-                floor.put(r.n(), ScalingReport.bytesMoved(r.n(), precision) / r.copyGbps());
+                floor.put(r.n(), ReportRow.bytesMoved(r.n(), precision) / r.copyGbps());
             }
         }
         return floor;

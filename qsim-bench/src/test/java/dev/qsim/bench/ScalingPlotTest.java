@@ -23,13 +23,13 @@ import org.w3c.dom.NodeList;
  */
 class ScalingPlotTest {
 
-    private static ScalingReport.Row row(int n, String kernel, String target, double nanos,
+    private static ReportRow row(int n, String kernel, String target, double nanos,
             double copy) {
-        return new ScalingReport.Row(n, kernel, target, 2, nanos, copy, copy * 0.9);
+        return new ReportRow(n, kernel, target, 2, nanos, copy, copy * 0.9);
     }
 
-    private static List<ScalingReport.Row> rows() {
-        List<ScalingReport.Row> rows = new ArrayList<>();
+    private static List<ReportRow> rows() {
+        List<ReportRow> rows = new ArrayList<>();
         for (int n = 10; n <= 14; n++) {
             double base = 4.0 * (1 << n);
             double copy = n < 12 ? 40.0 : 12.0;
@@ -69,13 +69,13 @@ class ScalingPlotTest {
 
     @Test
     void singlePrecisionRowsMakeTheirOwnDashedSeriesAndFloor() throws Exception {
-        List<ScalingReport.Row> rows = new ArrayList<>(rows());
+        List<ReportRow> rows = new ArrayList<>(rows());
         for (int n = 12; n <= 14; n++) {
-            rows.add(new ScalingReport.Row(n, "dense", "mid", 2, 3.0 * (1 << n), 12.0, 10.8,
+            rows.add(new ReportRow(n, "dense", "mid", 2, 3.0 * (1 << n), 12.0, 10.8,
                 Precision.SINGLE));
         }
         // A density-matrix row (a 2n-qubit vector, two passes) sets no floor point.
-        rows.add(new ScalingReport.Row(9, "density-matrix", "mid", 2, 1e6, 30.0, 27.0, 18, 2));
+        rows.add(new ReportRow(9, "density-matrix", "mid", 2, 1e6, 30.0, 27.0, 18, 2));
         Map<String, TreeMap<Integer, Double>> series = ScalingPlot.series(rows);
         assertEquals(List.of("dense", "diagonal", "circuit-fused", "dense (single)",
             "density-matrix"), new ArrayList<>(series.keySet()));
@@ -162,7 +162,7 @@ class ScalingPlotTest {
 
     @Test
     void oneSizeStillDraws() throws Exception {
-        List<ScalingReport.Row> one = List.of(row(5, "dense", "mid", 100.0, 10.0));
+        List<ReportRow> one = List.of(row(5, "dense", "mid", 100.0, 10.0));
         Document doc = parse(ScalingPlot.svg(one, "t", "s"));
         assertEquals(2, doc.getElementsByTagName("polyline").getLength());
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
