@@ -86,7 +86,7 @@ public class KernelBenchmark {
         public void setUp() {
             final Precision p = Workloads.precision(precision);
             gate = Workloads.kernelCircuit(kernel, n, Workloads.target(target, n));
-            state = Workloads.productState(n, Workloads.STATE_SEED, p).withThreads(threads);
+            state = Workloads.productState(n, Workloads.STATE_SEED, p).setThreads(threads);
         }
     }
 

@@ -43,7 +43,7 @@ final class KernelRows {
         final double copyGbps = bandwidth.copyGbps();
         final List<ReportRow> rows = new ArrayList<>();
         final StateVector state = Workloads.productState(n, Workloads.STATE_SEED, precision)
-                .withThreads(settings.threads());
+                .setThreads(settings.threads());
         for (String kernel : settings.kernels()) {
             for (String target : settings.targets()) {
                 final Circuit[] gates = gates(kernel, target, n);

@@ -3,13 +3,13 @@ package dev.qsim.bench;
 import dev.qsim.Circuit;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
+import dev.qsim.Simulator;
 import dev.qsim.bench.BatchTimer.Batch;
 import dev.qsim.bench.BatchTimer.Timing;
 import dev.qsim.examples.cli.Progress;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
-import dev.qsim.noise.NoisyRunner;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -117,7 +117,7 @@ final class NoiseRows {
      */
     private Work densityMatrixSteps(int n) {
         // core entry point: the density-matrix rows run through DensityMatrix.apply
-        final DensityMatrix rho = DensityMatrix.zero(n).withThreads(settings.threads());
+        final DensityMatrix rho = DensityMatrix.zero(n).setThreads(settings.threads());
         final Channel depolarizing = Channel.depolarizing(0.01);
         final Operator gate = Gates.rz(0.7);
         final int q = n / 2;
@@ -136,7 +136,7 @@ final class NoiseRows {
      * one-qubit gates, 0.01 after two-qubit ones); the shots run are summed.
      */
     private Work trajectories(int n) {
-        // core entry point: the trajectory rows run through NoisyRunner.runTrajectories
+        // core entry point: the trajectory rows run through the facade's TRAJECTORIES engine
         final Circuit.Builder b = Circuit.builder(n).h(0);
         for (int k = 0; k + 1 < n; k++) {
             b.cnot(k, k + 1);
@@ -145,12 +145,13 @@ final class NoiseRows {
         final NoiseModel model = NoiseModel.builder()
                 .afterOneQubitGates(Channel.depolarizing(0.001))
                 .afterTwoQubitGates(Channel.twoQubitDepolarizing(0.01)).build();
-        final NoisyRunner runner = NoisyRunner.seeded(Workloads.STATE_SEED)
-                .withThreads(settings.threads());
+        final Simulator runner = Simulator.seeded(Workloads.STATE_SEED)
+                .withThreads(settings.threads()).withNoise(model)
+                .withEngine(Simulator.Engine.TRAJECTORIES);
         final double[] shots = new double[1];
         return new Work(reps -> {
             final long start = System.nanoTime();
-            shots[0] += runner.runTrajectories(ghz, model, (int) reps).shots();
+            shots[0] += runner.run(ghz, (int) reps).shots();
             return System.nanoTime() - start;
         }, () -> shots[0]);
     }

@@ -185,8 +185,8 @@ public final class PrecisionReport {
             return 0;
         }
         List<Circuit> gates = gates(o.qubits, o.gates, o.seed);
-        StateVector d = StateVector.zero(o.qubits).withThreads(o.threads);
-        StateVector s = StateVector.zero(o.qubits, Precision.SINGLE).withThreads(o.threads);
+        StateVector d = StateVector.zero(o.qubits).setThreads(o.threads);
+        StateVector s = StateVector.zero(o.qubits, Precision.SINGLE).setThreads(o.threads);
         out.printf(Locale.ROOT, "# %d qubits, %d random gates, seed %d, %d threads%n", o.qubits,
                 o.gates, o.seed, o.threads);
         out.println("mode,gates,double_norm_drift,single_norm_drift,infidelity,max_amplitude_diff");
@@ -203,7 +203,7 @@ public final class PrecisionReport {
         for (Circuit c : gates) {
             whole.append(c);
         }
-        StateVector grouped = StateVector.zero(o.qubits, Precision.SINGLE).withThreads(o.threads)
+        StateVector grouped = StateVector.zero(o.qubits, Precision.SINGLE).setThreads(o.threads)
                 .apply(whole.build());
         print(out, "whole-circuit", gates.size(), compare(d, grouped));
         return 0;

@@ -83,7 +83,7 @@ public class SingleQubitGateBenchmark {
         public void setUp() {
             op = Workloads.gate(gate);
             qubits = new int[] {Workloads.target(target, n)};
-            state = Workloads.productState(n, Workloads.STATE_SEED).withThreads(threads);
+            state = Workloads.productState(n, Workloads.STATE_SEED).setThreads(threads);
         }
     }
 

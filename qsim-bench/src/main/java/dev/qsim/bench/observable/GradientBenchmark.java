@@ -97,7 +97,7 @@ public class GradientBenchmark {
             values = values(params, SEED);
             observable = observable(n, terms, SEED + 1);
             bound = circuit.bind(values);
-            start = StateVector.zero(n).withThreads(threads);
+            start = StateVector.zero(n).setThreads(threads);
             finalState = start.copy().apply(bound);
         }
     }
@@ -197,6 +197,6 @@ public class GradientBenchmark {
      */
     @Benchmark
     public double expectation(Workload w) {
-        return Expectation.exact(w.observable, w.finalState);
+        return Expectation.of(w.observable, w.finalState);
     }
 }

@@ -1,8 +1,8 @@
 package dev.qsim.bench.stabilizer;
 
 import dev.qsim.Circuit;
+import dev.qsim.Simulator;
 import dev.qsim.Tally;
-import dev.qsim.stabilizer.CliffordRunner;
 import java.util.SplittableRandom;
 import java.util.concurrent.TimeUnit;
 import org.openjdk.jmh.annotations.Benchmark;
@@ -55,6 +55,9 @@ public class CliffordCircuitBenchmark {
 
         /** The circuit: random gates, then measure every qubit. */
         Circuit circuit;
+
+        /** The run facade on the stabilizer engine, seed 1. */
+        final Simulator tableau = Simulator.seeded(1L).withEngine(Simulator.Engine.TABLEAU);
 
         /** Creates the workload; JMH calls this and then sets the parameters. */
         public Workload() {
@@ -121,6 +124,6 @@ public class CliffordCircuitBenchmark {
      */
     @Benchmark
     public Tally run(Workload w) {
-        return CliffordRunner.run(w.circuit, w.shots, 1L);
+        return w.tableau.run(w.circuit, w.shots);
     }
 }

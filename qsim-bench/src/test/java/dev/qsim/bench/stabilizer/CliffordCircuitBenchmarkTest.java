@@ -6,7 +6,6 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import dev.qsim.Circuit;
 import dev.qsim.Instruction;
 import dev.qsim.Tally;
-import dev.qsim.stabilizer.CliffordRunner;
 import org.junit.jupiter.api.Test;
 
 /** Tests of the benchmark's workload, on a small size. */
@@ -22,7 +21,7 @@ class CliffordCircuitBenchmarkTest {
         Circuit c = w.circuit;
         assertEquals(40, c.qubits());
         assertEquals(540, c.size());
-        assertTrue(CliffordRunner.isClifford(c));
+        assertTrue(c.isClifford());
         for (int k = 0; k < 500; k++) {
             assertEquals(Instruction.Kind.GATE, c.instructions().get(k).kind());
         }
