@@ -1,8 +1,14 @@
 /**
  * qsim: a pure-Java quantum circuit simulator to embed in JVM code.
  *
- * <p>The public API is the package {@code dev.qsim}. The kernels in {@code dev.qsim.kernel}
- * are internal and not exported.
+ * <p>The public API is six packages: {@code dev.qsim} (circuits, the gate catalogue, states,
+ * tallies and the run facade {@code Simulator}), {@code dev.qsim.noise} (channels, noise models,
+ * density matrices), {@code dev.qsim.stabilizer} (the stabilizer tableau),
+ * {@code dev.qsim.observable} (Pauli products, observables, expectation values, gradients),
+ * {@code dev.qsim.stats} (comparing tallies with predictions, tally files) and
+ * {@code dev.qsim.text} (OpenQASM 3). Two packages are internal and not exported:
+ * {@code dev.qsim.kernel} (the loops over amplitudes) and {@code dev.qsim.internal} (argument
+ * checks, the heap check and the bridge between packages). See {@code docs/architecture.md}.
  */
 module dev.qsim {
     requires transitive org.apache.commons.numbers.complex;

@@ -1,7 +1,5 @@
 package dev.qsim;
 
-import java.util.ArrayList;
-import java.util.Collections;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
@@ -48,73 +46,72 @@ import dev.qsim.internal.Checks;
  */
 public enum Gate {
     /** The identity; OpenQASM {@code id}. */
-    I("i", 0, 1, 0, Shape.DIAGONAL, "id", null, a -> Gates.I, Steps.NONE, "I"),
+    I("i", 0, 1, 0, Shape.DIAGONAL, "id", null, a -> Gates.I, CliffordSteps.NONE, "I"),
     /** Hadamard. */
-    H("h", 0, 1, 0, Shape.DENSE, "h", null, a -> Gates.H, Steps.one(Steps.H), "H"),
+    H("h", 0, 1, 0, Shape.DENSE, "h", null, a -> Gates.H, CliffordSteps.one(CliffordSteps.H), "H"),
     /** Pauli X (NOT). */
-    X("x", 0, 1, 0, Shape.PERMUTATION, "x", null, a -> Gates.X, Steps.one(Steps.X), "X"),
+    X("x", 0, 1, 0, Shape.PERMUTATION, "x", null, a -> Gates.X, CliffordSteps.one(CliffordSteps.X), "X"),
     /** Pauli Y. */
-    Y("y", 0, 1, 0, Shape.PERMUTATION, "y", null, a -> Gates.Y, Steps.one(Steps.Y), "Y"),
+    Y("y", 0, 1, 0, Shape.PERMUTATION, "y", null, a -> Gates.Y, CliffordSteps.one(CliffordSteps.Y), "Y"),
     /** Pauli Z. */
-    Z("z", 0, 1, 0, Shape.DIAGONAL, "z", null, a -> Gates.Z, Steps.one(Steps.Z), "Z"),
+    Z("z", 0, 1, 0, Shape.DIAGONAL, "z", null, a -> Gates.Z, CliffordSteps.one(CliffordSteps.Z), "Z"),
     /** {@code S = diag(1, i)}. */
-    S("s", 0, 1, 0, Shape.DIAGONAL, "s", "sDagger", a -> Gates.S, Steps.one(Steps.S), "S"),
+    S("s", 0, 1, 0, Shape.DIAGONAL, "s", "sDagger", a -> Gates.S, CliffordSteps.one(CliffordSteps.S), "S"),
     /** {@code S† = diag(1, -i)}; OpenQASM {@code sdg}. */
     S_DAGGER("sDagger", 0, 1, 0, Shape.DIAGONAL, "sdg", "s", a -> Gates.S_DAGGER,
-            Steps.one(Steps.S_DAGGER), "S+"),
+            CliffordSteps.one(CliffordSteps.S_DAGGER), "S+"),
     /** {@code T = diag(1, e^{iπ/4})}. */
     T("t", 0, 1, 0, Shape.DIAGONAL, "t", "tDagger", a -> Gates.T, null, "T"),
     /** {@code T† = diag(1, e^{-iπ/4})}; OpenQASM {@code tdg}. */
     T_DAGGER("tDagger", 0, 1, 0, Shape.DIAGONAL, "tdg", "t", a -> Gates.T_DAGGER, null, "T+"),
     /** Square root of X, {@link Gates#SQRT_X}; OpenQASM {@code sx}. */
     SQRT_X("sqrtX", 0, 1, 0, Shape.DENSE, "sx", "sqrtXDagger", a -> Gates.SQRT_X,
-            Steps.fixed(Steps.H, 0, Steps.S, 0, Steps.H, 0), "SX"),
+            CliffordSteps.fixed(CliffordSteps.H, 0, CliffordSteps.S, 0, CliffordSteps.H, 0), "SX"),
     /** Inverse of {@link #SQRT_X}; written to OpenQASM as {@code inv @ sx}. */
     SQRT_X_DAGGER("sqrtXDagger", 0, 1, 0, Shape.DENSE, null, "sqrtX",
-            a -> Gates.SQRT_X_DAGGER, Steps.fixed(Steps.H, 0, Steps.S_DAGGER, 0, Steps.H, 0),
+            a -> Gates.SQRT_X_DAGGER, CliffordSteps.fixed(CliffordSteps.H, 0, CliffordSteps.S_DAGGER, 0, CliffordSteps.H, 0),
             "SX+"),
     /** {@code rx(θ) = exp(-iθX/2)}. */
-    RX("rx", 0, 1, 1, Shape.DENSE, "rx", "rx", a -> Gates.rx(a[0]), Steps::rx, "RX"),
+    RX("rx", 0, 1, 1, Shape.DENSE, "rx", "rx", a -> Gates.rx(a[0]), CliffordSteps::rx, "RX"),
     /** {@code ry(θ) = exp(-iθY/2)}. */
-    RY("ry", 0, 1, 1, Shape.DENSE, "ry", "ry", a -> Gates.ry(a[0]), Steps::ry, "RY"),
+    RY("ry", 0, 1, 1, Shape.DENSE, "ry", "ry", a -> Gates.ry(a[0]), CliffordSteps::ry, "RY"),
     /** {@code rz(θ) = exp(-iθZ/2)}. */
-    RZ("rz", 0, 1, 1, Shape.DIAGONAL, "rz", "rz", a -> Gates.rz(a[0]), Steps::rz, "RZ"),
+    RZ("rz", 0, 1, 1, Shape.DIAGONAL, "rz", "rz", a -> Gates.rz(a[0]), CliffordSteps::rz, "RZ"),
     /** {@code phase(λ) = diag(1, e^{iλ})}; OpenQASM {@code p}. */
-    PHASE("phase", 0, 1, 1, Shape.DIAGONAL, "p", "phase", a -> Gates.phase(a[0]), Steps::rz,
+    PHASE("phase", 0, 1, 1, Shape.DIAGONAL, "p", "phase", a -> Gates.phase(a[0]), CliffordSteps::rz,
             "P"),
     /**
      * The general single-qubit gate {@code u(θ, φ, λ)}, {@link Gates#u(double, double, double)};
      * OpenQASM's built-in {@code U}.
      */
-    U("u", 0, 1, 3, Shape.DENSE, "U", "u", a -> Gates.u(a[0], a[1], a[2]), Steps::u, "U"),
+    U("u", 0, 1, 3, Shape.DENSE, "U", "u", a -> Gates.u(a[0], a[1], a[2]), CliffordSteps::u, "U"),
     /** Controlled NOT on (control, target); OpenQASM {@code cx}. */
     CNOT("cnot", 1, 1, 0, Shape.PERMUTATION, "cx", null, a -> Gates.X,
-            Steps.fixed(Steps.CNOT, 0, 1), "(+)"),
+            CliffordSteps.fixed(CliffordSteps.CNOT, 0, 1), "(+)"),
     /** Controlled Y on (control, target). */
     CY("cy", 1, 1, 0, Shape.PERMUTATION, "cy", null, a -> Gates.Y,
-            Steps.fixed(Steps.S_DAGGER, 1, Steps.CNOT, 0, 1, Steps.S, 1), "Y"),
+            CliffordSteps.fixed(CliffordSteps.S_DAGGER, 1, CliffordSteps.CNOT, 0, 1, CliffordSteps.S, 1), "Y"),
     /** Controlled Z, {@code diag(1, 1, 1, -1)}, symmetric in its two qubits. */
-    CZ("cz", 0, 2, 0, Shape.DIAGONAL, "cz", null, a -> Gates.CZ, Steps.fixed(Steps.CZ, 0, 1),
+    CZ("cz", 0, 2, 0, Shape.DIAGONAL, "cz", null, a -> Gates.CZ, CliffordSteps.fixed(CliffordSteps.CZ, 0, 1),
             "@"),
     /** Controlled Hadamard on (control, target). */
     CH("ch", 1, 1, 0, Shape.DENSE, "ch", null, a -> Gates.H, null, "H"),
     /** {@code cphase(λ) = diag(1, 1, 1, e^{iλ})}, symmetric; OpenQASM {@code cp}. */
     CPHASE("cphase", 0, 2, 1, Shape.DIAGONAL, "cp", "cphase", a -> Gates.cphase(a[0]),
-            Steps::cphase, "P"),
+            CliffordSteps::cphase, "P"),
     /** {@code rx(θ)} with one control, on (control, target). */
-    CRX("crx", 1, 1, 1, Shape.DENSE, "crx", "crx", a -> Gates.rx(a[0]), Steps::controlledRotation,
-            "RX"),
+    CRX("crx", 1, 1, 1, Shape.DENSE, "crx", "crx", a -> Gates.rx(a[0]), CliffordSteps::crx, "RX"),
     /** {@code ry(θ)} with one control, on (control, target). */
-    CRY("cry", 1, 1, 1, Shape.DENSE, "cry", "cry", a -> Gates.ry(a[0]), Steps::controlledRotation,
+    CRY("cry", 1, 1, 1, Shape.DENSE, "cry", "cry", a -> Gates.ry(a[0]), CliffordSteps::cry,
             "RY"),
     /** {@code rz(θ)} with one control, on (control, target). */
     CRZ("crz", 1, 1, 1, Shape.DIAGONAL, "crz", "crz", a -> Gates.rz(a[0]),
-            Steps::controlledRotation, "RZ"),
+            CliffordSteps::crz, "RZ"),
     /** Swaps two qubits. */
     SWAP("swap", 0, 2, 0, Shape.PERMUTATION, "swap", null, a -> Gates.SWAP,
-            Steps.fixed(Steps.SWAP, 0, 1), "x"),
+            CliffordSteps.fixed(CliffordSteps.SWAP, 0, 1), "x"),
     /** The Ising coupling {@code rzz(θ) = exp(-iθ Z⊗Z/2)}; OpenQASM has no standard name. */
-    RZZ("rzz", 0, 2, 1, Shape.DIAGONAL, null, "rzz", a -> Gates.rzz(a[0]), Steps::rzz, "RZZ"),
+    RZZ("rzz", 0, 2, 1, Shape.DIAGONAL, null, "rzz", a -> Gates.rzz(a[0]), CliffordSteps::rzz, "RZZ"),
     /** Toffoli on (control1, control2, target); OpenQASM {@code ccx}. */
     TOFFOLI("toffoli", 2, 1, 0, Shape.PERMUTATION, "ccx", null, a -> Gates.X, null, "(+)"),
     /** Fredkin (controlled SWAP) on (control, a, b); OpenQASM {@code cswap}. */
@@ -411,7 +408,7 @@ public enum Gate {
      * products to Pauli products under conjugation (Gottesman 1998, "The Heisenberg
      * representation of quantum computers", arXiv:quant-ph/9807006), so the stabilizer engine
      * can run it. Rotations and phases are Clifford at multiples of π/2 (within 1e-12 of
-     * one), {@link #CPHASE} at multiples of π, the controlled rotations at multiples of 2π;
+     * one), {@link #CPHASE} and the controlled rotations at multiples of π;
      * {@link #T}, {@link #CH}, {@link #TOFFOLI}, {@link #FREDKIN} and {@link #UNITARY} never.
      *
      * @param angles the angles
@@ -438,8 +435,8 @@ public enum Gate {
         if (out == null) {
             throw new IllegalArgumentException("gate " + label(angles) + " is not a Clifford"
                     + " gate; " + (steps == null ? "it never is"
-                    : "its angles must be multiples of " + (this == CPHASE ? "pi"
-                    : this == CRX || this == CRY || this == CRZ ? "2 pi" : "pi/2")));
+                    : "its angles must be multiples of " + (this == CPHASE || this == CRX
+                    || this == CRY || this == CRZ ? "pi" : "pi/2")));
         }
         return out;
     }
@@ -591,187 +588,5 @@ public enum Gate {
         String s = String.format(Locale.ROOT, "%.4f", x);
         s = s.replaceAll("0+$", "");
         return s.endsWith(".") ? s + "0" : s;
-    }
-
-    /** Clifford decompositions (Aaronson and Gottesman 2004, Phys. Rev. A 70, 052328). */
-    private static final class Steps {
-        static final int H = 0;
-        static final int S = 1;
-        static final int S_DAGGER = 2;
-        static final int X = 3;
-        static final int Y = 4;
-        static final int Z = 5;
-        static final int CNOT = 6;
-        static final int CZ = 7;
-        static final int SWAP = 8;
-
-        static final Function<double[], List<Step>> NONE = a -> List.of();
-
-        private Steps() {
-        }
-
-        private static Gate primitive(int code) {
-            switch (code) {
-                case H:
-                    return Gate.H;
-                case S:
-                    return Gate.S;
-                case S_DAGGER:
-                    return Gate.S_DAGGER;
-                case X:
-                    return Gate.X;
-                case Y:
-                    return Gate.Y;
-                case Z:
-                    return Gate.Z;
-                case CNOT:
-                    return Gate.CNOT;
-                case CZ:
-                    return Gate.CZ;
-                default:
-                    return Gate.SWAP;
-            }
-        }
-
-        static Function<double[], List<Step>> one(int code) {
-            return fixed(code, 0);
-        }
-
-        /** Codes each followed by one position (single-qubit) or two (CNOT, CZ, SWAP). */
-        static Function<double[], List<Step>> fixed(int... program) {
-            return a -> decode(program);
-        }
-
-        static List<Step> decode(int... program) {
-            List<Step> out = new ArrayList<>();
-            int i = 0;
-            while (i < program.length) {
-                int code = program[i++];
-                if (code >= CNOT) {
-                    out.add(new Step(primitive(code), program[i], program[i + 1]));
-                    i += 2;
-                } else {
-                    out.add(new Step(primitive(code), program[i++], -1));
-                }
-            }
-            return Collections.unmodifiableList(out);
-        }
-
-        /** The multiple of {@code unit} that {@code angle} is (mod 4), or -1. */
-        static int quarter(double angle, double unit) {
-            double r = angle / unit;
-            if (!(Math.abs(r) < 1e15)) {
-                return -1;
-            }
-            long k = Math.round(r);
-            if (Math.abs(r - k) > 1e-12 * Math.max(1, Math.abs(r))) {
-                return -1;
-            }
-            return (int) Math.floorMod(k, 4L);
-        }
-
-        static List<Step> rz(double[] a) {
-            switch (quarter(a[0], Math.PI / 2)) {
-                case 0:
-                    return List.of();
-                case 1:
-                    return decode(S, 0);
-                case 2:
-                    return decode(Z, 0);
-                case 3:
-                    return decode(S_DAGGER, 0);
-                default:
-                    return null;
-            }
-        }
-
-        static List<Step> rx(double[] a) {
-            switch (quarter(a[0], Math.PI / 2)) {
-                case 0:
-                    return List.of();
-                case 1:
-                    return decode(H, 0, S, 0, H, 0);
-                case 2:
-                    return decode(X, 0);
-                case 3:
-                    return decode(H, 0, S_DAGGER, 0, H, 0);
-                default:
-                    return null;
-            }
-        }
-
-        static List<Step> ry(double[] a) {
-            // ry(pi/2) = H Z, ry(pi) is Y up to phase, ry(3pi/2) = H X (matrix products, the
-            // rightmost applied first).
-            switch (quarter(a[0], Math.PI / 2)) {
-                case 0:
-                    return List.of();
-                case 1:
-                    return decode(Z, 0, H, 0);
-                case 2:
-                    return decode(Y, 0);
-                case 3:
-                    return decode(X, 0, H, 0);
-                default:
-                    return null;
-            }
-        }
-
-        static List<Step> u(double[] a) {
-            // u(θ, φ, λ) = phase(φ) ry(θ) phase(λ) up to global phase: λ first.
-            List<Step> lambda = rz(new double[] {a[2]});
-            List<Step> theta = ry(new double[] {a[0]});
-            List<Step> phi = rz(new double[] {a[1]});
-            if (lambda == null || theta == null || phi == null) {
-                return null;
-            }
-            List<Step> out = new ArrayList<>(lambda);
-            out.addAll(theta);
-            out.addAll(phi);
-            return Collections.unmodifiableList(out);
-        }
-
-        static List<Step> cphase(double[] a) {
-            switch (quarter(a[0], Math.PI)) {
-                case 0:
-                case 2:
-                    return List.of();
-                case 1:
-                case 3:
-                    return decode(CZ, 0, 1);
-                default:
-                    return null;
-            }
-        }
-
-        static List<Step> controlledRotation(double[] a) {
-            // A rotation by 2π is -I: controlled, that is Z on the control.
-            switch (quarter(a[0], 2 * Math.PI)) {
-                case 0:
-                case 2:
-                    return List.of();
-                case 1:
-                case 3:
-                    return decode(Z, 0);
-                default:
-                    return null;
-            }
-        }
-
-        static List<Step> rzz(double[] a) {
-            // rzz(π/2) = e^{-iπ/4} diag(1, i, i, 1) = CZ (S ⊗ S) up to phase.
-            switch (quarter(a[0], Math.PI / 2)) {
-                case 0:
-                    return List.of();
-                case 1:
-                    return decode(S, 0, S, 1, CZ, 0, 1);
-                case 2:
-                    return decode(Z, 0, Z, 1);
-                case 3:
-                    return decode(S_DAGGER, 0, S_DAGGER, 1, CZ, 0, 1);
-                default:
-                    return null;
-            }
-        }
     }
 }

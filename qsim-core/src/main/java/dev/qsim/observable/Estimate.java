@@ -6,7 +6,7 @@ import java.util.Locale;
  * A shot-based estimate of an expectation value: the value, its standard error, and how it was
  * measured. Immutable and thread-safe.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class Estimate {
     private final double value;

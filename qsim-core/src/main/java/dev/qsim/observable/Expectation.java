@@ -33,7 +33,7 @@ import dev.qsim.noise.DensityMatrix;
  * {@code <ψ|P|ψ> = i^{|x∧z|} Σ_j conj(a_{j⊕x}) (-1)^{|j∧z|} a_j}. Sums run over fixed blocks in a
  * fixed order, so results are the same to the bit for every thread count.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class Expectation {
     private Expectation() {

@@ -34,7 +34,7 @@ import dev.qsim.kernel.PauliKernels;
  * A parameter used by several gates gets the sum over them, each times its gate's scale (chain
  * rule). Stateless and thread-safe; results do not depend on the thread count.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class Gradients {
     private Gradients() {

@@ -23,7 +23,7 @@ import dev.qsim.internal.Checks;
  * drops zero weights. A product given with phase -1 becomes its +1 form with the weight negated;
  * one with phase {@code ±i} is refused, as {@code i·P} is not Hermitian.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class Observable {
     private final PauliProduct[] products;

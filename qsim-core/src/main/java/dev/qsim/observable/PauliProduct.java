@@ -32,7 +32,7 @@ import java.util.Objects;
  * the phase bookkeeping is that of Aaronson and Gottesman (2004), "Improved simulation of
  * stabilizer circuits", Phys. Rev. A 70, 052328, doi:10.1103/PhysRevA.70.052328, function g.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class PauliProduct {
     /** The largest qubit index accepted in text: {@value} (as {@link dev.qsim.Circuit}). */

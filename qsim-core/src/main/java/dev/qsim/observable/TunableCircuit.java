@@ -23,7 +23,7 @@ import dev.qsim.internal.Checks;
  * generator} (rx, ry, rz, phase, cphase, rzz), with the angle conventions of
  * {@link dev.qsim}; every other catalogue gate and any unitary may appear with fixed angles.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class TunableCircuit {
     /** One recorded gate: fixed (param -1, angles or operator given) or driven by a parameter. */
@@ -196,7 +196,7 @@ public final class TunableCircuit {
      * Records the gates of a {@link TunableCircuit}; every call checks its arguments before it
      * records anything. Mutable; not thread-safe.
      *
-     * @since 0.2
+     * @since 0.1
      */
     public static final class Builder {
         private static final double[] NO_ANGLES = new double[0];

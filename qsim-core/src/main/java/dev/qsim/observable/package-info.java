@@ -18,6 +18,6 @@
  * {@code k} is bit {@code k} of a basis index, and the dense text of a Pauli product, like a
  * bitstring, has the highest qubit leftmost.
  *
- * @since 0.2
+ * @since 0.1
  */
 package dev.qsim.observable;

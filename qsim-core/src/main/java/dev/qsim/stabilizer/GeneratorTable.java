@@ -37,7 +37,7 @@ import dev.qsim.observable.PauliProduct;
  * <p><b>Pauli products</b> in and out are {@link PauliProduct}s, with the one text format of
  * {@link PauliProduct#parse(String)} and {@link PauliProduct#toDense(int)}.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class GeneratorTable {
     static {

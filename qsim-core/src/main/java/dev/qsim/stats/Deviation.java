@@ -10,7 +10,7 @@ package dev.qsim.stats;
  * @param observed the count seen
  * @param expected the expected count, {@code shots * predicted probability}
  * @param residual the standardized residual
- * @since 0.2
+ * @since 0.1
  */
 public record Deviation(String bits, long observed, double expected, double residual) {
 }

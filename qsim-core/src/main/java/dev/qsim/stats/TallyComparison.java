@@ -52,7 +52,7 @@ import org.apache.commons.statistics.inference.SignificanceResult;
  * rejects the prediction at {@code α} and no shot landed on an outcome whose predicted
  * probability is at most {@value #IMPOSSIBLE}.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class TallyComparison {
     /** The smallest expected count of a group in the chi-square and G tests: {@value}. */

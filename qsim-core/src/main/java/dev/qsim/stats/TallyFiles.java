@@ -25,7 +25,7 @@ import java.util.TreeMap;
  * <p>Bad text throws {@link IllegalArgumentException} naming the line, the bad value and what is
  * allowed. Stateless and thread-safe.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class TallyFiles {
     private TallyFiles() {

@@ -5,6 +5,6 @@
  * ({@link dev.qsim.stats.TallyFiles}). The distribution to compare with comes from the run
  * facade: {@link dev.qsim.Simulator#distribution(dev.qsim.Circuit)}, ideal or noisy.
  *
- * @since 0.2
+ * @since 0.1
  */
 package dev.qsim.stats;

@@ -72,7 +72,10 @@ public final class Main {
                     RepetitionMemory::fromArgs),
             new Entry("noisy-ghz", "[seed [shots]]",
                     "GHZ on an invented noisy 6-qubit chip: ideal, density-matrix, trajectories",
-                    NoisyGhz::fromArgs));
+                    NoisyGhz::fromArgs),
+            new Entry("engines", "[seed [shots]]",
+                    "one circuit on every engine through one call, and why each was chosen",
+                    EngineTour::fromArgs));
 
     private Main() {
     }

@@ -192,7 +192,8 @@ final class SvgCircuit {
         }
         int[] t = in.targets();
         int[] c = in.controls();
-        String name = in.name();
+        // The catalogue's drawing labels: "(+)" a NOT target, "x" a swap end, "@" a control dot.
+        String[] labels = in.gate().targetLabels(in.angles(), t.length);
         if (s[0] != s[1]) {
             out.append(Cli.f("<line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\" stroke=\"#222\""
                     + " stroke-width=\"1.5\"/>%n", x, rowY(s[0]), x, rowY(s[1])));
@@ -200,8 +201,7 @@ final class SvgCircuit {
         for (int q : c) {
             dot(out, x, rowY(q));
         }
-        boolean xTarget = name.equals("cnot") || name.equals("toffoli");
-        if (xTarget) {
+        if (labels[0].equals("(+)")) {
             int y = rowY(t[0]);
             out.append(Cli.f("<circle cx=\"%d\" cy=\"%d\" r=\"11\" fill=\"white\" stroke=\"#222\""
                     + " stroke-width=\"1.5\"/><line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\""
@@ -210,7 +210,7 @@ final class SvgCircuit {
                     x + 11, y, x, y - 11, x, y + 11));
             return;
         }
-        if (name.equals("swap") || name.equals("fredkin")) {
+        if (labels[0].equals("x")) {
             for (int q : t) {
                 int y = rowY(q);
                 out.append(Cli.f("<path d=\"M %d %d L %d %d M %d %d L %d %d\" stroke=\"#222\""
@@ -219,21 +219,18 @@ final class SvgCircuit {
             }
             return;
         }
-        if (name.equals("cz")) {
+        if (labels[0].equals("@")) {
             for (int q : t) {
                 dot(out, x, rowY(q));
             }
+            if (labels.length > 1 && !labels[1].equals("@")) {
+                int y = (rowY(t[0]) + rowY(t[1])) / 2;
+                out.append(Cli.f("<text x=\"%d\" y=\"%d\" font-size=\"10\" fill=\"#333\">%s"
+                        + "</text>%n", x + 6, y, SvgHistogram.esc(pretty(labels[1]))));
+            }
             return;
         }
-        String label = label(in);
-        if (name.equals("cphase")) {
-            dot(out, x, rowY(t[0]));
-            dot(out, x, rowY(t[1]));
-            int y = (rowY(t[0]) + rowY(t[1])) / 2;
-            out.append(Cli.f("<text x=\"%d\" y=\"%d\" font-size=\"10\" fill=\"#333\">%s</text>%n",
-                    x + 6, y, SvgHistogram.esc(label)));
-            return;
-        }
+        String label = pretty(labels[0]);
         int lo = Integer.MAX_VALUE;
         int hi = -1;
         for (int q : t) {
@@ -266,53 +263,9 @@ final class SvgCircuit {
         }
     }
 
-    private static String label(Instruction in) {
-        String base;
-        switch (in.name()) {
-            case "sDagger":
-                base = "S\u2020";
-                break;
-            case "tDagger":
-                base = "T\u2020";
-                break;
-            case "sqrtX":
-                base = "\u221aX";
-                break;
-            case "sqrtXDagger":
-                base = "\u221aX\u2020";
-                break;
-            case "phase":
-            case "cphase":
-                base = "P";
-                break;
-            case "apply":
-            case "controlled":
-                base = "U";
-                break;
-            default:
-                base = in.name().toUpperCase(java.util.Locale.ROOT);
-        }
-        double[] a = in.angles();
-        if (a.length == 0) {
-            return base;
-        }
-        StringBuilder sb = new StringBuilder(base).append('(');
-        for (int i = 0; i < a.length; i++) {
-            sb.append(i == 0 ? "" : ",").append(angle(a[i]));
-        }
-        return sb.append(')').toString();
-    }
-
-    private static String angle(double a) {
-        double k = a / Math.PI;
-        for (int d : new int[] {1, 2, 3, 4, 6, 8, 16}) {
-            double n = k * d;
-            if (Math.abs(n - Math.rint(n)) < 1e-12 && Math.rint(n) != 0) {
-                long num = (long) Math.rint(n);
-                String s = (num == 1 ? "" : num == -1 ? "-" : Long.toString(num)) + "\u03c0";
-                return d == 1 ? s : s + "/" + d;
-            }
-        }
-        return Cli.f("%.3g", a);
+    /** A catalogue label in print: daggers, square roots and pi as symbols. */
+    private static String pretty(String label) {
+        String out = label.replace("SX", "\u221aX").replace("pi", "\u03c0");
+        return out.endsWith("+") ? out.substring(0, out.length() - 1) + "\u2020" : out;
     }
 }
