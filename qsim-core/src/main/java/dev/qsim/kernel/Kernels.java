@@ -116,18 +116,6 @@ public final class Kernels {
         return q < blockLog ? 1L << (blockLog - 1 - Math.min(q, PIECE_LOG)) : -1;
     }
 
-    /**
-     * Applies a dense 2x2 matrix to qubit {@code q} with no controls.
-     *
-     * @param a amplitudes. Modified.
-     * @param q the target qubit
-     * @param m matrix, length 8. Not modified.
-     * @param threads threads to use
-     */
-    public static void dense1(Amplitudes a, int q, double[] m, int threads) {
-        new Dense1Plan(a, q, m).apply(threads);
-    }
-
     private static final class Dense1Plan extends Plan {
         final int q;
         final double[] m;
