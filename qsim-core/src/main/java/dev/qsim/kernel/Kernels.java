@@ -17,105 +17,6 @@ public final class Kernels {
     private Kernels() {
     }
 
-    /**
-     * A gate prepared for one state: its index layout and kernel chosen once. The work is
-     * {@link #units()} independent units; {@link #run(long, long)} does a range of them, so
-     * ranges may go to different threads. Internal.
-     */
-    public abstract static class Plan {
-        final Amplitudes a;
-
-        Plan(Amplitudes a) {
-            if (a.chunks == null) {
-                throw new IllegalStateException("the kernels work on double storage; single"
-                        + " precision goes through Windows");
-            }
-            this.a = a;
-        }
-
-        /**
-         * Returns the number of independent work units.
-         *
-         * @return the unit count
-         */
-        public abstract long units();
-
-        /**
-         * Does the units {@code [from, to)}.
-         *
-         * @param from first unit
-         * @param to end unit, exclusive
-         */
-        public abstract void run(long from, long to);
-
-        /**
-         * Returns the number of units in each aligned block of {@code 2^blockLog} amplitudes
-         * when every qubit the gate touches is below {@code blockLog} (units are then ordered
-         * block by block), or -1 when the gate reaches a qubit at or above it.
-         *
-         * @param blockLog log2 of the block size, at most the chunk log
-         * @return units per block, or -1
-         */
-        public abstract long unitsPerBlock(int blockLog);
-
-        /**
-         * Applies the whole gate.
-         *
-         * @param threads threads to use
-         */
-        public void apply(int threads) {
-            Parallel.forRange(threads, units(), parallel(a), this::run);
-        }
-    }
-
-    /**
-     * Applies several gates whose qubits are all below {@code blockLog}, block by block: each
-     * block of {@code 2^blockLog} amplitudes gets every gate in order while it sits in cache, so
-     * the state is streamed once for the group. Same result as applying them one by one.
-     *
-     * @param a amplitudes. Modified.
-     * @param plans plans for {@code a}, each with {@code unitsPerBlock(blockLog) > 0}
-     * @param blockLog log2 of the block size, at most the chunk log
-     * @param threads threads to use
-     */
-    public static void applyBlocked(Amplitudes a, Plan[] plans, int blockLog, int threads) {
-        final long[] per = new long[plans.length];
-        for (int i = 0; i < plans.length; i++) {
-            per[i] = plans[i].unitsPerBlock(blockLog);
-        }
-        Parallel.forRange(threads, 1L << (a.n - blockLog), parallel(a), (from, to) -> {
-            for (long b = from; b < to; b++) {
-                for (int i = 0; i < plans.length; i++) {
-                    plans[i].run(b * per[i], (b + 1) * per[i]);
-                }
-            }
-        });
-    }
-
-    /**
-     * Log2 of the pairs in one work unit of a single-qubit gate on a high target inside a
-     * chunk: a block's half is cut into pieces of this size, so even the highest target splits
-     * over threads.
-     */
-    static final int PIECE_LOG = 12;
-
-    /** Work units of a single-qubit gate: blocks, or pieces of blocks for high targets. */
-    static long singleUnits(Amplitudes a, int q) {
-        final long pairs = 1L << (a.n - 1);
-        return q < a.chunkLog ? pairs >>> Math.min(q, PIECE_LOG) : pairs;
-    }
-
-    /** First amplitude index of piece {@code u} of a single-qubit gate with q > PIECE_LOG. */
-    static long pieceBase(int q, long u) {
-        final long b = u >>> (q - PIECE_LOG);
-        final long piece = u & ((1L << (q - PIECE_LOG)) - 1);
-        return (b << (q + 1)) + (piece << PIECE_LOG);
-    }
-
-    static long singleUnitsPerBlock(int q, int blockLog) {
-        return q < blockLog ? 1L << (blockLog - 1 - Math.min(q, PIECE_LOG)) : -1;
-    }
-
     private static final class Dense1Plan extends Plan {
         final int q;
         final double[] m;
@@ -127,29 +28,29 @@ public final class Kernels {
         }
 
         @Override
-        public long units() {
-            return singleUnits(a, q);
+        long units() {
+            return Layout.singleUnits(a, q);
         }
 
         @Override
-        public void run(long from, long to) {
+        void run(long from, long to) {
             if (q >= a.chunkLog) {
                 dense1High(a, q, m, from, to);
-            } else if (q <= PIECE_LOG) {
+            } else if (q <= Layout.PIECE_LOG) {
                 dense1Low(a, q, m, from, to);
             } else {
                 for (long u = from; u < to; u++) {
-                    final long base = pieceBase(q, u);
+                    final long base = Layout.pieceBase(q, u);
                     final double[] psi = a.chunks[(int) (base >>> a.chunkLog)];
                     final int x = (int) (base & a.chunkMask) << 1;
-                    dense1Pair(psi, x, psi, x + (2 << q), 1 << PIECE_LOG, m);
+                    dense1Pair(psi, x, psi, x + (2 << q), 1 << Layout.PIECE_LOG, m);
                 }
             }
         }
 
         @Override
-        public long unitsPerBlock(int blockLog) {
-            return singleUnitsPerBlock(q, blockLog);
+        long unitsPerBlock(int blockLog) {
+            return Layout.singleUnitsPerBlock(q, blockLog);
         }
     }
 
@@ -163,18 +64,18 @@ public final class Kernels {
         }
 
         @Override
-        public long units() {
-            return singleUnits(a, q);
+        long units() {
+            return Layout.singleUnits(a, q);
         }
 
         @Override
-        public void run(long from, long to) {
-            if (q < a.chunkLog && q > PIECE_LOG) {
+        void run(long from, long to) {
+            if (q < a.chunkLog && q > Layout.PIECE_LOG) {
                 for (long u = from; u < to; u++) {
-                    final long base = pieceBase(q, u);
+                    final long base = Layout.pieceBase(q, u);
                     final double[] psi = a.chunks[(int) (base >>> a.chunkLog)];
                     final int x = (int) (base & a.chunkMask) << 1;
-                    swapRuns(psi, x, psi, x + (2 << q), 1 << PIECE_LOG);
+                    swapRuns(psi, x, psi, x + (2 << q), 1 << Layout.PIECE_LOG);
                 }
                 return;
             }
@@ -222,8 +123,8 @@ public final class Kernels {
         }
 
         @Override
-        public long unitsPerBlock(int blockLog) {
-            return singleUnitsPerBlock(q, blockLog);
+        long unitsPerBlock(int blockLog) {
+            return Layout.singleUnitsPerBlock(q, blockLog);
         }
     }
 
@@ -239,19 +140,19 @@ public final class Kernels {
         }
 
         @Override
-        public long units() {
-            return singleUnits(a, q);
+        long units() {
+            return Layout.singleUnits(a, q);
         }
 
         @Override
-        public void run(long from, long to) {
-            if (q < a.chunkLog && q > PIECE_LOG) {
+        void run(long from, long to) {
+            if (q < a.chunkLog && q > Layout.PIECE_LOG) {
                 final boolean skip0 = d[0] == 1 && d[1] == 0;
                 for (long u = from; u < to; u++) {
-                    final long base = pieceBase(q, u);
+                    final long base = Layout.pieceBase(q, u);
                     final double[] psi = a.chunks[(int) (base >>> a.chunkLog)];
                     final int x = (int) (base & a.chunkMask) << 1;
-                    final int len = 2 << PIECE_LOG;
+                    final int len = 2 << Layout.PIECE_LOG;
                     if (!skip0) {
                         scale(psi, x, x + len, d[0], d[1]);
                     }
@@ -324,8 +225,8 @@ public final class Kernels {
         }
 
         @Override
-        public long unitsPerBlock(int blockLog) {
-            return singleUnitsPerBlock(q, blockLog);
+        long unitsPerBlock(int blockLog) {
+            return Layout.singleUnitsPerBlock(q, blockLog);
         }
     }
 
@@ -514,147 +415,6 @@ public final class Kernels {
     }
 
     /**
-     * The shape of a gate's index set. The state is cut into blocks of {@code 2^blockLog}
-     * amplitudes inside one chunk. Gate positions below {@code blockLog} ("low") are handled by a
-     * table of the in-block offsets where they are 0 (and low controls are 1); positions at or
-     * above it ("high") are handled per block by bit deposit. With no low position, a block is
-     * one contiguous run and needs no table.
-     */
-    private static final class Layout {
-        /** Log2 of the block size used when some gate qubit is low. */
-        static final int TABLE_LOG = 10;
-
-        final int d;            // 2^k target combinations
-        final long[] highOff;   // high part of the offset of combination j
-        final int[] lowOff;     // low part of the offset of combination j
-        final int[] starts;     // in-block offsets where runs of visited amplitudes start
-        final int run;          // amplitudes per run (2^lowest position, or the whole block)
-        final int blockLog;
-        final int[] highPos;    // ascending positions at or above blockLog
-        final long highCtrl;    // controls at or above blockLog
-        final long outer;       // number of blocks visited
-
-        Layout(Amplitudes a, int[] targets, int[] controls) {
-            int k = targets.length;
-            d = 1 << k;
-            int[] positions = new int[k + controls.length];
-            long ctrl = 0;
-            for (int t = 0; t < k; t++) {
-                positions[t] = targets[t];
-            }
-            for (int c = 0; c < controls.length; c++) {
-                positions[k + c] = controls[c];
-                ctrl |= 1L << controls[c];
-            }
-            java.util.Arrays.sort(positions);
-            int tLog = Math.min(a.chunkLog, TABLE_LOG);
-            // Run mode keeps at least 2^6 blocks where it can, so the work splits over threads.
-            blockLog = positions[0] >= tLog
-                    ? Math.min(Math.min(positions[0], a.chunkLog),
-                            Math.max(tLog, a.n - positions.length - 6))
-                    : tLog;
-            long lowMask = (1L << blockLog) - 1;
-            int lowCount = 0;
-            for (int p : positions) {
-                if (p < blockLog) {
-                    lowCount++;
-                }
-            }
-            highPos = java.util.Arrays.copyOfRange(positions, lowCount, positions.length);
-            highCtrl = ctrl & ~lowMask;
-            highOff = new long[d];
-            lowOff = new int[d];
-            for (int j = 0; j < d; j++) {
-                long o = 0;
-                for (int t = 0; t < k; t++) {
-                    if ((j >>> t & 1) != 0) {
-                        o |= 1L << targets[t];
-                    }
-                }
-                highOff[j] = o & ~lowMask;
-                lowOff[j] = (int) (o & lowMask);
-            }
-            if (lowCount == 0) {
-                starts = new int[] {0};
-                run = 1 << blockLog;
-            } else {
-                // Runs of 2^p0 amplitudes below the lowest gate qubit p0 are contiguous.
-                int p0 = positions[0];
-                run = 1 << p0;
-                starts = new int[1 << (blockLog - lowCount - p0)];
-                long lowPosMask = 0;
-                for (int i = 0; i < lowCount; i++) {
-                    lowPosMask |= 1L << positions[i];
-                }
-                int lowCtrl = (int) (ctrl & lowMask);
-                int w = 0;
-                for (int e = 0; e < (1 << blockLog); e += run) {
-                    if ((e & lowPosMask) == 0) {
-                        starts[w++] = e | lowCtrl;
-                    }
-                }
-            }
-            outer = 1L << (a.n - highPos.length - blockLog);
-        }
-
-        /** Index of the first amplitude of block {@code o} (low bits zero). */
-        long base(long o) {
-            long x = o << blockLog;
-            for (int p : highPos) {
-                x = ((x >>> p) << (p + 1)) | (x & ((1L << p) - 1));
-            }
-            return x | highCtrl;
-        }
-
-        /** Fills the chunk and in-chunk amplitude offset of each combination for block o. */
-        void locate(Amplitudes a, long o, double[][] arr, int[] off) {
-            long base = base(o);
-            for (int j = 0; j < d; j++) {
-                long idx = base | highOff[j];
-                arr[j] = a.chunks[(int) (idx >>> a.chunkLog)];
-                off[j] = (int) (idx & a.chunkMask) + lowOff[j];
-            }
-        }
-
-    }
-
-    private static boolean parallel(Amplitudes a) {
-        return a.n >= Parallel.MIN_PARALLEL_QUBITS;
-    }
-
-    /** A plan on a {@link Layout}: one unit is one block of the layout. */
-    private abstract static class LayoutPlan extends Plan {
-        final Layout l;
-        final int maxPosition;
-
-        LayoutPlan(Amplitudes a, int[] targets, int[] controls) {
-            super(a);
-            this.l = new Layout(a, targets, controls);
-            int max = -1;
-            for (int t : targets) {
-                max = Math.max(max, t);
-            }
-            for (int c : controls) {
-                max = Math.max(max, c);
-            }
-            this.maxPosition = max;
-        }
-
-        @Override
-        public long units() {
-            return l.outer;
-        }
-
-        @Override
-        public long unitsPerBlock(int blockLog) {
-            if (maxPosition >= blockLog || l.blockLog + l.highPos.length > blockLog) {
-                return -1;
-            }
-            return 1L << (blockLog - l.highPos.length - l.blockLog);
-        }
-    }
-
-    /**
      * Prepares a dense {@code 2^k x 2^k} matrix on the given targets, where every control is 1.
      *
      * @param a amplitudes
@@ -670,7 +430,7 @@ public final class Kernels {
         if (targets.length == 1) {
             return new LayoutPlan(a, targets, controls) {
                 @Override
-                public void run(long from, long to) {
+                void run(long from, long to) {
                     dense2x2(a, l, m, from, to);
                 }
             };
@@ -678,14 +438,14 @@ public final class Kernels {
         if (targets.length == 2) {
             return new LayoutPlan(a, targets, controls) {
                 @Override
-                public void run(long from, long to) {
+                void run(long from, long to) {
                     dense4x4(a, l, m, from, to);
                 }
             };
         }
         return new LayoutPlan(a, targets, controls) {
             @Override
-            public void run(long from, long to) {
+            void run(long from, long to) {
                 denseBlocks(a, l, m, from, to);
             }
         };
@@ -844,7 +604,7 @@ public final class Kernels {
         }
         return new LayoutPlan(a, targets, controls) {
             @Override
-            public void run(long from, long to) {
+            void run(long from, long to) {
                 diagonalBlocks(a, l, diag, from, to);
             }
         };
@@ -919,7 +679,7 @@ public final class Kernels {
         if (pure && perm.length == 2 && perm[0] == 1) {
             return new LayoutPlan(a, targets, controls) {
                 @Override
-                public void run(long from, long to) {
+                void run(long from, long to) {
                     swapBlocks(a, l, from, to);
                 }
             };
@@ -936,7 +696,7 @@ public final class Kernels {
         }
         return new LayoutPlan(a, targets, controls) {
             @Override
-            public void run(long from, long to) {
+            void run(long from, long to) {
                 monomialBlocks(a, l, perm, phase, pure, from, to);
             }
         };
@@ -1039,19 +799,19 @@ public final class Kernels {
         }
 
         @Override
-        public long units() {
+        long units() {
             return 1;
         }
 
         @Override
-        public void run(long from, long to) {
+        void run(long from, long to) {
             if (from < to) {
                 permuteChunks(a.chunks, a.chunkLog, targets, controls, perm);
             }
         }
 
         @Override
-        public long unitsPerBlock(int blockLog) {
+        long unitsPerBlock(int blockLog) {
             return -1;
         }
     }

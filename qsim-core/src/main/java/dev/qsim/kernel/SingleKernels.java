@@ -8,8 +8,8 @@ package dev.qsim.kernel;
  * strided indexing (Smelyanskiy et al., arXiv:1601.07195, 2016, §3).
  */
 final class SingleKernels {
-    /** Log2 of the pairs of one work unit for targets above it, as {@link Kernels#PIECE_LOG}. */
-    private static final int PIECE_LOG = Kernels.PIECE_LOG;
+    /** Log2 of the pairs of one work unit for targets above it, as {@link Layout#PIECE_LOG}. */
+    private static final int PIECE_LOG = Layout.PIECE_LOG;
 
     /**
      * The matrix of X, used as a marker (compared by identity): pairs are swapped without
@@ -49,7 +49,7 @@ final class SingleKernels {
             final long inner = controls & varying;
             final boolean inChunk = q < cl && q <= PIECE_LOG;
             for (long u = from; u < to; u++) {
-                final long i0 = q <= PIECE_LOG ? u << (q + 1) : Kernels.pieceBase(q, u);
+                final long i0 = q <= PIECE_LOG ? u << (q + 1) : Layout.pieceBase(q, u);
                 if ((i0 & fixed) != fixed) {
                     continue;
                 }
@@ -95,7 +95,7 @@ final class SingleKernels {
             return;
         }
         for (long u = from; u < to; u++) {
-            final long i0 = Kernels.pieceBase(q, u);
+            final long i0 = Layout.pieceBase(q, u);
             span(a, i0, i0 + (1L << q), 1 << PIECE_LOG, m);
         }
     }

@@ -161,7 +161,7 @@ public final class Windows {
         Parallel.forRange(threads, 1L << (n - wl), par, (from, to) -> {
             Amplitudes s = scratch(wl);
             double[] buf = s.chunks[0];
-            Kernels.Plan[] plans = new Kernels.Plan[k];
+            Plan[] plans = new Plan[k];
             long[] units = new long[k];
             for (int x = 0; x < k; x++) {
                 plans[x] = ops.get(x).plan(s, targets[x], controls[x]);

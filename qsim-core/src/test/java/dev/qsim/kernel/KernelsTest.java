@@ -312,8 +312,8 @@ class KernelsTest {
         double[] in = randomVector(n, r);
         Amplitudes blocked = load(in, n, chunkLog);
         Amplitudes plain = load(in, n, chunkLog);
-        Kernels.Plan[] plans = new Kernels.Plan[12];
-        Kernels.Plan[] plainPlans = new Kernels.Plan[plans.length];
+        Plan[] plans = new Plan[12];
+        Plan[] plainPlans = new Plan[plans.length];
         for (int g = 0; g < plans.length; g++) {
             int k = 1 + g % 3;
             int nc = g % 2;
@@ -343,8 +343,8 @@ class KernelsTest {
             }
             assertEquals(true, plans[g].unitsPerBlock(blockLog) > 0, "seed " + seed);
         }
-        Kernels.applyBlocked(blocked, plans, blockLog, threads);
-        for (Kernels.Plan p : plainPlans) {
+        Plan.applyBlocked(blocked, plans, blockLog, threads);
+        for (Plan p : plainPlans) {
             p.apply(1);
         }
         assertArrayEquals(unload(plain), unload(blocked), 0.0, "seed " + seed);
@@ -461,9 +461,9 @@ class KernelsTest {
             // Cache blocked: the same gate twice in one group, against two passes.
             if (q < Math.min(chunkLog, 10)) {
                 a = load(in, n, chunkLog);
-                Kernels.Plan[] plans = {Kernels.densePlan(a, t, none, m),
+                Plan[] plans = {Kernels.densePlan(a, t, none, m),
                     Kernels.densePlan(a, t, none, m)};
-                Kernels.applyBlocked(a, plans, Math.min(chunkLog, 10), threads);
+                Plan.applyBlocked(a, plans, Math.min(chunkLog, 10), threads);
                 assertArrayEquals(reference(expected, n, t, none, m), unload(a), 0.0,
                         "shape " + shaped % 2 + " twice, blocked, q" + q);
             }
