@@ -22,7 +22,7 @@ public final class GateOp {
 
     /**
      * Describes a gate; see {@link Kernels#densePlan}, {@link Kernels#diagonalPlan} and
-     * {@link Kernels#monomialPlan} for the data of each shape.
+     * {@link PermutationKernels#plan} for the data of each shape.
      *
      * @param shape {@link #DENSE}, {@link #DIAGONAL} or {@link #MONOMIAL}
      * @param targets target qubits. Not copied.
@@ -117,7 +117,7 @@ public final class GateOp {
             case DIAGONAL:
                 return Kernels.diagonalPlan(a, t, c, data);
             case MONOMIAL:
-                return Kernels.monomialPlan(a, t, c, perm, data);
+                return PermutationKernels.plan(a, t, c, perm, data);
             default:
                 return Kernels.densePlan(a, t, c, data);
         }

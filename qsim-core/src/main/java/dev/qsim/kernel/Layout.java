@@ -4,15 +4,16 @@ package dev.qsim.kernel;
  * Index arithmetic shared by the kernels of every shape: how a gate's amplitudes are cut into
  * independent work units. Internal.
  *
- * <p>A single-qubit gate without controls uses the static methods: a unit is a block of
+ * <p>The single-qubit plans without controls use the static methods: a unit is a block of
  * {@code 2^(q+1)} amplitudes, or for a high target inside a chunk a piece of
- * {@code 2^PIECE_LOG} pairs of a block, or for a target at or above the chunk log one pair.
+ * {@code 2^PIECE_LOG} pairs of a block, or for a target at or above the chunk log one pair. The
+ * single-qubit loops on float storage cut high targets into the same pieces.
  *
  * <p>Any other gate uses an instance: the shape of the gate's index set. The state is cut into
- * blocks of {@code 2^blockLog} amplitudes inside one chunk. Gate positions below {@code blockLog} ("low") are handled by a
- * table of the in-block offsets where they are 0 (and low controls are 1); positions at or
- * above it ("high") are handled per block by bit deposit. With no low position, a block is
- * one contiguous run and needs no table.
+ * blocks of {@code 2^blockLog} amplitudes inside one chunk. Gate positions below
+ * {@code blockLog} ("low") are handled by a table of the in-block offsets where they are 0 (and
+ * low controls are 1); positions at or above it ("high") are handled per block by bit deposit.
+ * With no low position, a block is one contiguous run and needs no table.
  */
 final class Layout {
     /** Log2 of the block size used when some gate qubit is low. */

@@ -12,10 +12,10 @@ import java.util.List;
  * single-precision state is computed in double and rounded once per run.
  *
  * <p>A permutation without phases on qubits that select whole chunks moves chunk references
- * instead ({@link Kernels#permuteChunks}). A control qubit outside the window is fixed within it: the gate is applied to the windows
- * where that control is 1 and skipped elsewhere. Windows are disjoint, so they are shared among
- * threads without changing the result: every window gets the same operations in the same order
- * whatever the thread count.
+ * instead ({@link PermutationKernels#permuteChunks}). A control qubit outside the window is fixed
+ * within it: the gate is applied to the windows where that control is 1 and skipped elsewhere.
+ * Windows are disjoint, so they are shared among threads without changing the result: every
+ * window gets the same operations in the same order whatever the thread count.
  *
  * <p>Method: applying several gates to a part of the state while it sits in cache is the cache
  * blocking of state-vector simulators such as qHiPSTER (M. Smelyanskiy, N. P. D. Sawaya,
@@ -60,9 +60,9 @@ public final class Windows {
         int i = 0;
         while (i < ops.size()) {
             GateOp first = ops.get(i);
-            if (Kernels.movesChunks(a, first)) {
+            if (PermutationKernels.movesChunks(a, first)) {
                 Object[] table = a.singles != null ? a.singles : a.chunks;
-                Kernels.permuteChunks(table, a.chunkLog, first.targets, first.controls,
+                PermutationKernels.permuteChunks(table, a.chunkLog, first.targets, first.controls,
                         first.perm);
                 i++;
                 continue;
@@ -70,7 +70,7 @@ public final class Windows {
             long mask = first.targetMask;
             int l = lowBits(mask, w, maxLow, 0);
             int j = i + 1;
-            while (j < ops.size() && !Kernels.movesChunks(a, ops.get(j))) {
+            while (j < ops.size() && !PermutationKernels.movesChunks(a, ops.get(j))) {
                 long wider = mask | ops.get(j).targetMask;
                 int l2 = lowBits(wider, w, maxLow, Math.min(MIN_RUN_LOG, l));
                 if (l2 < 0) {

@@ -162,7 +162,7 @@ class KernelsTest {
                     pm[2 * (perm[c] * d + c) + 1] = ph[2 * c + 1];
                 }
                 a = load(in, n, chunkLog);
-                Kernels.monomial(a, targets, controls, perm, ph, threads);
+                PermutationKernels.apply(a, targets, controls, perm, ph, threads);
                 assertArrayEquals(reference(in, n, targets, controls, pm), unload(a), TOL,
                         where + (pure ? " pure" : " phased"));
             }
@@ -254,8 +254,8 @@ class KernelsTest {
             String where = "seed " + seed + " trial " + trial;
             GateOp op = new GateOp(GateOp.MONOMIAL, targets, controls, ph, perm);
             Amplitudes a = load(in, n, chunkLog);
-            assertEquals(true, Kernels.movesChunks(a, op), where);
-            Kernels.monomial(a, targets, controls, perm, ph, 1);
+            assertEquals(true, PermutationKernels.movesChunks(a, op), where);
+            PermutationKernels.apply(a, targets, controls, perm, ph, 1);
             // Moving references copies no number: equality is exact.
             assertArrayEquals(expected, unload(a), 0.0, where);
 
@@ -337,8 +337,8 @@ class KernelsTest {
                     plainPlans[g] = Kernels.diagonalPlan(plain, targets, controls, diag);
                     break;
                 default:
-                    plans[g] = Kernels.monomialPlan(blocked, targets, controls, perm, diag);
-                    plainPlans[g] = Kernels.monomialPlan(plain, targets, controls, perm, diag);
+                    plans[g] = PermutationKernels.plan(blocked, targets, controls, perm, diag);
+                    plainPlans[g] = PermutationKernels.plan(plain, targets, controls, perm, diag);
                     break;
             }
             assertEquals(true, plans[g].unitsPerBlock(blockLog) > 0, "seed " + seed);
@@ -422,7 +422,8 @@ class KernelsTest {
             Kernels.diagonal(a, t, none, diag, threads);
             assertArrayEquals(reference(in, n, t, none, dm), unload(a), TOL, "diagonal q" + q);
             a = load(in, n, chunkLog);
-            Kernels.monomial(a, t, none, new int[] {1, 0}, new double[] {1, 0, 1, 0}, threads);
+            PermutationKernels.apply(a, t, none, new int[] {1, 0}, new double[] {1, 0, 1, 0},
+                    threads);
             assertArrayEquals(reference(in, n, t, none, xm), unload(a), 0.0, "flip q" + q);
         }
     }
