@@ -21,7 +21,7 @@ public final class GateOp {
     final long targetMask;
 
     /**
-     * Describes a gate; see {@link Kernels#densePlan}, {@link Kernels#diagonalPlan} and
+     * Describes a gate; see {@link Kernels#densePlan}, {@link DiagonalKernels#plan} and
      * {@link PermutationKernels#plan} for the data of each shape.
      *
      * @param shape {@link #DENSE}, {@link #DIAGONAL} or {@link #MONOMIAL}
@@ -115,7 +115,7 @@ public final class GateOp {
     Plan plan(Amplitudes a, int[] t, int[] c) {
         switch (shape) {
             case DIAGONAL:
-                return Kernels.diagonalPlan(a, t, c, data);
+                return DiagonalKernels.plan(a, t, c, data);
             case MONOMIAL:
                 return PermutationKernels.plan(a, t, c, perm, data);
             default:

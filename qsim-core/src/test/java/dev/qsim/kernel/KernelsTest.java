@@ -147,7 +147,7 @@ class KernelsTest {
                 dm[2 * (i * d + i) + 1] = diag[2 * i + 1];
             }
             a = load(in, n, chunkLog);
-            Kernels.diagonal(a, targets, controls, diag, threads);
+            DiagonalKernels.apply(a, targets, controls, diag, threads);
             assertArrayEquals(reference(in, n, targets, controls, dm), unload(a), TOL, where);
 
             // Monomial with phases, and a pure permutation.
@@ -333,8 +333,8 @@ class KernelsTest {
                     plainPlans[g] = Kernels.densePlan(plain, targets, controls, m);
                     break;
                 case 1:
-                    plans[g] = Kernels.diagonalPlan(blocked, targets, controls, diag);
-                    plainPlans[g] = Kernels.diagonalPlan(plain, targets, controls, diag);
+                    plans[g] = DiagonalKernels.plan(blocked, targets, controls, diag);
+                    plainPlans[g] = DiagonalKernels.plan(plain, targets, controls, diag);
                     break;
                 default:
                     plans[g] = PermutationKernels.plan(blocked, targets, controls, perm, diag);
@@ -419,7 +419,7 @@ class KernelsTest {
             Kernels.dense(a, t, none, m, threads);
             assertArrayEquals(reference(in, n, t, none, m), unload(a), TOL, "dense q" + q);
             a = load(in, n, chunkLog);
-            Kernels.diagonal(a, t, none, diag, threads);
+            DiagonalKernels.apply(a, t, none, diag, threads);
             assertArrayEquals(reference(in, n, t, none, dm), unload(a), TOL, "diagonal q" + q);
             a = load(in, n, chunkLog);
             PermutationKernels.apply(a, t, none, new int[] {1, 0}, new double[] {1, 0, 1, 0},
