@@ -21,7 +21,7 @@ public final class GateOp {
     final long targetMask;
 
     /**
-     * Describes a gate; see {@link Kernels#densePlan}, {@link DiagonalKernels#plan} and
+     * Describes a gate; see {@link DenseKernels#plan}, {@link DiagonalKernels#plan} and
      * {@link PermutationKernels#plan} for the data of each shape.
      *
      * @param shape {@link #DENSE}, {@link #DIAGONAL} or {@link #MONOMIAL}
@@ -119,7 +119,7 @@ public final class GateOp {
             case MONOMIAL:
                 return PermutationKernels.plan(a, t, c, perm, data);
             default:
-                return Kernels.densePlan(a, t, c, data);
+                return DenseKernels.plan(a, t, c, data);
         }
     }
 

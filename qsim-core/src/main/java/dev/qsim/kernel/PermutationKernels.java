@@ -70,7 +70,7 @@ final class PermutationKernels {
                 m[2 * (perm[c] * 2 + c)] = phase[2 * c];
                 m[2 * (perm[c] * 2 + c) + 1] = phase[2 * c + 1];
             }
-            return Kernels.densePlan(a, targets, controls, m);
+            return DenseKernels.plan(a, targets, controls, m);
         }
         return new LayoutPlan(a, targets, controls) {
             @Override

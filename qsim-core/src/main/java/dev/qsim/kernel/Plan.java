@@ -5,11 +5,14 @@ package dev.qsim.kernel;
  * {@link #units()} independent units; {@link #run(long, long)} does a range of them, so
  * ranges may go to different threads. Internal.
  *
- * <p>The plans of each gate shape come from {@link Kernels}. Every kernel is element-wise over
- * independent groups of amplitudes, so its result does not depend on the thread count. Method:
- * M. Smelyanskiy, N. P. D. Sawaya, A. Aspuru-Guzik, "qHiPSTER: the quantum high performance
- * software testing environment", arXiv:1601.07195 (2016), §3 (pairwise amplitude updates with
- * strided indexing).
+ * <p>One kernel per gate shape, chosen once per instruction: dense single-qubit
+ * ({@link DenseSingleQubitKernels}), dense k-qubit ({@link DenseKernels}), diagonal (phases only,
+ * {@link DiagonalKernels}) and monomial (permutation with phases, {@link PermutationKernels}),
+ * each with optional control qubits that restrict the work to the subspace where every control
+ * is 1. Every kernel is element-wise over independent groups of amplitudes, so its result does
+ * not depend on the thread count. Method: M. Smelyanskiy, N. P. D. Sawaya, A. Aspuru-Guzik,
+ * "qHiPSTER: the quantum high performance software testing environment", arXiv:1601.07195
+ * (2016), §3 (pairwise amplitude updates with strided indexing).
  */
 abstract class Plan {
     final Amplitudes a;

@@ -7,7 +7,7 @@ import java.util.List;
  * under every gate of a run: the indices that share all bits outside the window's bits, which
  * are the low bits {@code [0, l)} and the gates' target qubits above them. A window is read into
  * a double-precision scratch state (in contiguous runs of {@code 2^l} amplitudes), every gate of
- * the run is applied there by the ordinary {@link Kernels} with its qubits renumbered, and the
+ * the run is applied there by its ordinary {@link Plan} with its qubits renumbered, and the
  * window is written back. So the state is streamed once for the whole run, and a
  * single-precision state is computed in double and rounded once per run.
  *

@@ -134,7 +134,7 @@ class KernelsTest {
                 m[i] = r.nextDouble(-1, 1);
             }
             Amplitudes a = load(in, n, chunkLog);
-            Kernels.dense(a, targets, controls, m, threads);
+            DenseKernels.apply(a, targets, controls, m, threads);
             assertArrayEquals(reference(in, n, targets, controls, m), unload(a), TOL, where);
 
             // Diagonal.
@@ -329,8 +329,8 @@ class KernelsTest {
             int[] perm = pickDistinct(d, d, r);
             switch (g % 3) {
                 case 0:
-                    plans[g] = Kernels.densePlan(blocked, targets, controls, m);
-                    plainPlans[g] = Kernels.densePlan(plain, targets, controls, m);
+                    plans[g] = DenseKernels.plan(blocked, targets, controls, m);
+                    plainPlans[g] = DenseKernels.plan(plain, targets, controls, m);
                     break;
                 case 1:
                     plans[g] = DiagonalKernels.plan(blocked, targets, controls, diag);
@@ -416,7 +416,7 @@ class KernelsTest {
         for (int q = 0; q < n; q++) {
             int[] t = {q};
             Amplitudes a = load(in, n, chunkLog);
-            Kernels.dense(a, t, none, m, threads);
+            DenseKernels.apply(a, t, none, m, threads);
             assertArrayEquals(reference(in, n, t, none, m), unload(a), TOL, "dense q" + q);
             a = load(in, n, chunkLog);
             DiagonalKernels.apply(a, t, none, diag, threads);
@@ -456,14 +456,14 @@ class KernelsTest {
             // The zero parts drop out exactly (x - 0 * y = x), so these loops give the bits of
             // the complex loop and of the reference, which adds the same two products: exact.
             Amplitudes a = load(in, n, chunkLog);
-            Kernels.dense(a, t, none, m, threads);
+            DenseKernels.apply(a, t, none, m, threads);
             assertArrayEquals(expected, unload(a), 0.0, "shape " + shaped % 2 + " q" + q);
 
             // Cache blocked: the same gate twice in one group, against two passes.
             if (q < Math.min(chunkLog, 10)) {
                 a = load(in, n, chunkLog);
-                Plan[] plans = {Kernels.densePlan(a, t, none, m),
-                    Kernels.densePlan(a, t, none, m)};
+                Plan[] plans = {DenseKernels.plan(a, t, none, m),
+                    DenseKernels.plan(a, t, none, m)};
                 Plan.applyBlocked(a, plans, Math.min(chunkLog, 10), threads);
                 assertArrayEquals(reference(expected, n, t, none, m), unload(a), 0.0,
                         "shape " + shaped % 2 + " twice, blocked, q" + q);
