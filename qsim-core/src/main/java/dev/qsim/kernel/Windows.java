@@ -80,14 +80,15 @@ public final class Windows {
                 l = l2;
                 j++;
             }
-            double[] m2 = j == i + 1 && a.singles != null ? SingleKernels.matrix2(first) : null;
+            double[] m2 = j == i + 1 && a.singles != null
+                    ? FloatSingleQubitKernels.matrix2(first) : null;
             if (m2 != null) {
                 // A lone single-qubit gate: one direct pass beats copying windows in and out.
                 long controls = 0;
                 for (int c : first.controls) {
                     controls |= 1L << c;
                 }
-                SingleKernels.dense1(a, first.targets[0], m2, controls, threads);
+                FloatSingleQubitKernels.dense1(a, first.targets[0], m2, controls, threads);
             } else {
                 applyGroup(a, ops.subList(i, j), mask, l, threads);
             }

@@ -8,7 +8,7 @@ package dev.qsim.kernel;
  * {@link DenseSingleQubitKernels}: pairwise updates with strided indexing (Smelyanskiy et al.,
  * arXiv:1601.07195, 2016, §3).
  */
-final class SingleKernels {
+final class FloatSingleQubitKernels {
     /** Log2 of the pairs of one work unit for targets above it, as {@link Layout#PIECE_LOG}. */
     private static final int PIECE_LOG = Layout.PIECE_LOG;
 
@@ -18,7 +18,7 @@ final class SingleKernels {
      */
     static final double[] SWAP = {0, 0, 1, 0, 1, 0, 0, 0};
 
-    private SingleKernels() {
+    private FloatSingleQubitKernels() {
     }
 
     /**
