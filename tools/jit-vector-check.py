@@ -2,8 +2,11 @@
 """Counts VEX-encoded double-precision add/mul/sub instructions in HotSpot's printed machine code,
 packed (vaddpd/vmulpd/vsubpd: vectorised) against scalar (vaddsd/vmulsd/vsubsd), per C2-compiled
 method. Usage: tools/jit-vector-check.py FILE, where FILE holds the output of a JVM run with
-  -XX:+UnlockDiagnosticVMOptions -XX:CompileCommand=print,dev.qsim.kernel.Kernels::*
-and a HotSpot disassembler plugin installed (see DEVELOPERS.md, "Is a kernel vectorised?").
+  -XX:+UnlockDiagnosticVMOptions -XX:CompileCommand=print,*Kernels::*
+(every class whose name ends in Kernels: DenseKernels, DenseSingleQubitKernels, DiagonalKernels,
+PermutationKernels, FloatSingleQubitKernels, ...; HotSpot takes a wildcard only at the start or
+end of a class name) and a HotSpot disassembler plugin installed (see DEVELOPERS.md, "Is a kernel
+vectorised?").
 Decoding: two-byte VEX prefix C5, opcode 58/59/5C, and the prefix's pp bits (01 = packed double,
 11 = scalar double), from the Intel 64 and IA-32 Architectures Software Developer's Manual,
 vol. 2, section 2.3 (VEX prefix)."""

@@ -5,9 +5,10 @@ package dev.qsim.kernel;
  * amplitudes, real and imaginary parts interleaved, so a state may exceed Java's largest array.
  * Amplitude {@code i} lives in chunk {@code i >>> chunkLog} at offset {@code 2 * (i & chunkMask)}.
  * Double precision ({@link #chunks()}) or single precision ({@link #singles()}, {@code float},
- * half the memory); exactly one of the two is present. The gate kernels of {@link Kernels} work
- * on double storage only; single storage is worked on through {@link Windows}, which widens a
- * window to double, applies the kernels there and rounds back. Mutable; not thread-safe.
+ * half the memory); exactly one of the two is present. The gate kernels (the {@link Plan}s of
+ * {@link DenseKernels}, {@link DiagonalKernels} and {@link PermutationKernels}) work on double
+ * storage only; single storage is worked on through {@link Windows}, which widens a window to
+ * double, applies the kernels there and rounds back. Mutable; not thread-safe.
  *
  * <p>One way in: the storage may carry a lazy frame (see {@link Frame}) that only the gate path
  * of this package may leave pending. Every public accessor ({@link #chunks()},

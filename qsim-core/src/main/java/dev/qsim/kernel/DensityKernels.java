@@ -50,8 +50,8 @@ public final class DensityKernels {
         for (int i = 1; i < conj.length; i += 2) {
             conj[i] = -conj[i];
         }
-        Kernels.dense(rho, targets, controls, m, threads);
-        Kernels.dense(rho, shift(targets, n), shift(controls, n), conj, threads);
+        DenseKernels.apply(rho, targets, controls, m, threads);
+        DenseKernels.apply(rho, shift(targets, n), shift(controls, n), conj, threads);
     }
 
     /**
@@ -71,7 +71,7 @@ public final class DensityKernels {
             both[j] = qubits[j];
             both[k + j] = qubits[j] + n;
         }
-        Kernels.dense(rho, both, NONE, superoperator, threads);
+        DenseKernels.apply(rho, both, NONE, superoperator, threads);
     }
 
     private static int[] shift(int[] qs, int n) {

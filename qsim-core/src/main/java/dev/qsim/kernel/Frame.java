@@ -112,9 +112,9 @@ public final class Frame {
         }
         int blockLog = Math.min(CACHE_LOG, a.chunkLog);
         boolean blocking = a.n > blockLog;
-        List<Kernels.Plan> group = new ArrayList<>();
+        List<Plan> group = new ArrayList<>();
         for (GateOp op : ops) {
-            Kernels.Plan p = op.plan(a);
+            Plan p = op.plan(a);
             if (blocking && p.unitsPerBlock(blockLog) >= 0) {
                 group.add(p);
                 continue;
@@ -126,11 +126,11 @@ public final class Frame {
     }
 
     /** Applies a group of cache-blockable plans (one alone needs no blocking), then clears it. */
-    private static void flush(Amplitudes a, List<Kernels.Plan> group, int blockLog, int threads) {
+    private static void flush(Amplitudes a, List<Plan> group, int blockLog, int threads) {
         if (group.size() == 1) {
             group.get(0).apply(threads);
         } else if (group.size() > 1) {
-            Kernels.applyBlocked(a, group.toArray(new Kernels.Plan[0]), blockLog, threads);
+            Plan.applyBlocked(a, group.toArray(new Plan[0]), blockLog, threads);
         }
         group.clear();
     }

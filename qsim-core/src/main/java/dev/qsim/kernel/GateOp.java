@@ -2,7 +2,7 @@ package dev.qsim.kernel;
 
 /**
  * One gate as the kernels see it: its shape (dense, diagonal or monomial), target and control
- * qubits, and matrix data; turned into a {@link Kernels.Plan} for a given storage. Immutable by
+ * qubits, and matrix data; turned into a {@link Plan} for a given storage. Immutable by
  * convention (arrays are shared, never modified). Internal.
  */
 public final class GateOp {
@@ -21,8 +21,8 @@ public final class GateOp {
     final long targetMask;
 
     /**
-     * Describes a gate; see {@link Kernels#densePlan}, {@link Kernels#diagonalPlan} and
-     * {@link Kernels#monomialPlan} for the data of each shape.
+     * Describes a gate; see {@link DenseKernels#plan}, {@link DiagonalKernels#plan} and
+     * {@link PermutationKernels#plan} for the data of each shape.
      *
      * @param shape {@link #DENSE}, {@link #DIAGONAL} or {@link #MONOMIAL}
      * @param targets target qubits. Not copied.
@@ -43,15 +43,6 @@ public final class GateOp {
         this.targetMask = m;
     }
 
-    /**
-     * Prepares the gate for a storage, with given qubit numbers (the gate's own, or its
-     * qubits renumbered inside a window).
-     *
-     * @param a double-precision storage
-     * @param t target qubits in {@code a}
-     * @param c control qubits in {@code a}
-     * @return the plan
-     */
     /**
      * Returns the shape: {@link #DENSE}, {@link #DIAGONAL} or {@link #MONOMIAL}.
      *
@@ -112,14 +103,23 @@ public final class GateOp {
         return new GateOp(DENSE, targets, controls, m, null);
     }
 
-    Kernels.Plan plan(Amplitudes a, int[] t, int[] c) {
+    /**
+     * Prepares the gate for a storage, with given qubit numbers (the gate's own, or its
+     * qubits renumbered inside a window).
+     *
+     * @param a double-precision storage
+     * @param t target qubits in {@code a}
+     * @param c control qubits in {@code a}
+     * @return the plan
+     */
+    Plan plan(Amplitudes a, int[] t, int[] c) {
         switch (shape) {
             case DIAGONAL:
-                return Kernels.diagonalPlan(a, t, c, data);
+                return DiagonalKernels.plan(a, t, c, data);
             case MONOMIAL:
-                return Kernels.monomialPlan(a, t, c, perm, data);
+                return PermutationKernels.plan(a, t, c, perm, data);
             default:
-                return Kernels.densePlan(a, t, c, data);
+                return DenseKernels.plan(a, t, c, data);
         }
     }
 
@@ -129,7 +129,7 @@ public final class GateOp {
      * @param a the storage
      * @return the plan
      */
-    public Kernels.Plan plan(Amplitudes a) {
+    Plan plan(Amplitudes a) {
         return plan(a, targets, controls);
     }
 }

@@ -7,15 +7,15 @@ import java.util.List;
  * under every gate of a run: the indices that share all bits outside the window's bits, which
  * are the low bits {@code [0, l)} and the gates' target qubits above them. A window is read into
  * a double-precision scratch state (in contiguous runs of {@code 2^l} amplitudes), every gate of
- * the run is applied there by the ordinary {@link Kernels} with its qubits renumbered, and the
+ * the run is applied there by its ordinary {@link Plan} with its qubits renumbered, and the
  * window is written back. So the state is streamed once for the whole run, and a
  * single-precision state is computed in double and rounded once per run.
  *
  * <p>A permutation without phases on qubits that select whole chunks moves chunk references
- * instead ({@link Kernels#permuteChunks}). A control qubit outside the window is fixed within it: the gate is applied to the windows
- * where that control is 1 and skipped elsewhere. Windows are disjoint, so they are shared among
- * threads without changing the result: every window gets the same operations in the same order
- * whatever the thread count.
+ * instead ({@link PermutationKernels#permuteChunks}). A control qubit outside the window is fixed
+ * within it: the gate is applied to the windows where that control is 1 and skipped elsewhere.
+ * Windows are disjoint, so they are shared among threads without changing the result: every
+ * window gets the same operations in the same order whatever the thread count.
  *
  * <p>Method: applying several gates to a part of the state while it sits in cache is the cache
  * blocking of state-vector simulators such as qHiPSTER (M. Smelyanskiy, N. P. D. Sawaya,
@@ -60,9 +60,9 @@ public final class Windows {
         int i = 0;
         while (i < ops.size()) {
             GateOp first = ops.get(i);
-            if (Kernels.movesChunks(a, first)) {
+            if (PermutationKernels.movesChunks(a, first)) {
                 Object[] table = a.singles != null ? a.singles : a.chunks;
-                Kernels.permuteChunks(table, a.chunkLog, first.targets, first.controls,
+                PermutationKernels.permuteChunks(table, a.chunkLog, first.targets, first.controls,
                         first.perm);
                 i++;
                 continue;
@@ -70,7 +70,7 @@ public final class Windows {
             long mask = first.targetMask;
             int l = lowBits(mask, w, maxLow, 0);
             int j = i + 1;
-            while (j < ops.size() && !Kernels.movesChunks(a, ops.get(j))) {
+            while (j < ops.size() && !PermutationKernels.movesChunks(a, ops.get(j))) {
                 long wider = mask | ops.get(j).targetMask;
                 int l2 = lowBits(wider, w, maxLow, Math.min(MIN_RUN_LOG, l));
                 if (l2 < 0) {
@@ -80,14 +80,15 @@ public final class Windows {
                 l = l2;
                 j++;
             }
-            double[] m2 = j == i + 1 && a.singles != null ? SingleKernels.matrix2(first) : null;
+            double[] m2 = j == i + 1 && a.singles != null
+                    ? FloatSingleQubitKernels.matrix2(first) : null;
             if (m2 != null) {
                 // A lone single-qubit gate: one direct pass beats copying windows in and out.
                 long controls = 0;
                 for (int c : first.controls) {
                     controls |= 1L << c;
                 }
-                SingleKernels.dense1(a, first.targets[0], m2, controls, threads);
+                FloatSingleQubitKernels.dense1(a, first.targets[0], m2, controls, threads);
             } else {
                 applyGroup(a, ops.subList(i, j), mask, l, threads);
             }
@@ -161,7 +162,7 @@ public final class Windows {
         Parallel.forRange(threads, 1L << (n - wl), par, (from, to) -> {
             Amplitudes s = scratch(wl);
             double[] buf = s.chunks[0];
-            Kernels.Plan[] plans = new Kernels.Plan[k];
+            Plan[] plans = new Plan[k];
             long[] units = new long[k];
             for (int x = 0; x < k; x++) {
                 plans[x] = ops.get(x).plan(s, targets[x], controls[x]);

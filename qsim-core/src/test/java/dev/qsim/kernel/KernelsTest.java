@@ -134,7 +134,7 @@ class KernelsTest {
                 m[i] = r.nextDouble(-1, 1);
             }
             Amplitudes a = load(in, n, chunkLog);
-            Kernels.dense(a, targets, controls, m, threads);
+            DenseKernels.apply(a, targets, controls, m, threads);
             assertArrayEquals(reference(in, n, targets, controls, m), unload(a), TOL, where);
 
             // Diagonal.
@@ -147,7 +147,7 @@ class KernelsTest {
                 dm[2 * (i * d + i) + 1] = diag[2 * i + 1];
             }
             a = load(in, n, chunkLog);
-            Kernels.diagonal(a, targets, controls, diag, threads);
+            DiagonalKernels.apply(a, targets, controls, diag, threads);
             assertArrayEquals(reference(in, n, targets, controls, dm), unload(a), TOL, where);
 
             // Monomial with phases, and a pure permutation.
@@ -162,7 +162,7 @@ class KernelsTest {
                     pm[2 * (perm[c] * d + c) + 1] = ph[2 * c + 1];
                 }
                 a = load(in, n, chunkLog);
-                Kernels.monomial(a, targets, controls, perm, ph, threads);
+                PermutationKernels.apply(a, targets, controls, perm, ph, threads);
                 assertArrayEquals(reference(in, n, targets, controls, pm), unload(a), TOL,
                         where + (pure ? " pure" : " phased"));
             }
@@ -170,9 +170,9 @@ class KernelsTest {
     }
 
     /**
-     * A lone single-qubit gate on single-precision storage goes through {@link SingleKernels}
-     * (one pass, no window): against the reference on the rounded input, every target, chunk
-     * sizes down to one amplitude. Each output part is one rounding of the exact result, so it
+     * A lone single-qubit gate on single-precision storage goes through
+     * {@link FloatSingleQubitKernels} (one pass, no window): against the reference on the rounded
+     * input, every target, chunk sizes down to one amplitude. Each output part is one rounding of the exact result, so it
      * is within 2^-24 relative of it (IEEE 754-2019 §4.3.1; Higham 2002, §2.1): 1e-6 absolute
      * on parts below 2.
      */
@@ -254,8 +254,8 @@ class KernelsTest {
             String where = "seed " + seed + " trial " + trial;
             GateOp op = new GateOp(GateOp.MONOMIAL, targets, controls, ph, perm);
             Amplitudes a = load(in, n, chunkLog);
-            assertEquals(true, Kernels.movesChunks(a, op), where);
-            Kernels.monomial(a, targets, controls, perm, ph, 1);
+            assertEquals(true, PermutationKernels.movesChunks(a, op), where);
+            PermutationKernels.apply(a, targets, controls, perm, ph, 1);
             // Moving references copies no number: equality is exact.
             assertArrayEquals(expected, unload(a), 0.0, where);
 
@@ -312,8 +312,8 @@ class KernelsTest {
         double[] in = randomVector(n, r);
         Amplitudes blocked = load(in, n, chunkLog);
         Amplitudes plain = load(in, n, chunkLog);
-        Kernels.Plan[] plans = new Kernels.Plan[12];
-        Kernels.Plan[] plainPlans = new Kernels.Plan[plans.length];
+        Plan[] plans = new Plan[12];
+        Plan[] plainPlans = new Plan[plans.length];
         for (int g = 0; g < plans.length; g++) {
             int k = 1 + g % 3;
             int nc = g % 2;
@@ -329,22 +329,22 @@ class KernelsTest {
             int[] perm = pickDistinct(d, d, r);
             switch (g % 3) {
                 case 0:
-                    plans[g] = Kernels.densePlan(blocked, targets, controls, m);
-                    plainPlans[g] = Kernels.densePlan(plain, targets, controls, m);
+                    plans[g] = DenseKernels.plan(blocked, targets, controls, m);
+                    plainPlans[g] = DenseKernels.plan(plain, targets, controls, m);
                     break;
                 case 1:
-                    plans[g] = Kernels.diagonalPlan(blocked, targets, controls, diag);
-                    plainPlans[g] = Kernels.diagonalPlan(plain, targets, controls, diag);
+                    plans[g] = DiagonalKernels.plan(blocked, targets, controls, diag);
+                    plainPlans[g] = DiagonalKernels.plan(plain, targets, controls, diag);
                     break;
                 default:
-                    plans[g] = Kernels.monomialPlan(blocked, targets, controls, perm, diag);
-                    plainPlans[g] = Kernels.monomialPlan(plain, targets, controls, perm, diag);
+                    plans[g] = PermutationKernels.plan(blocked, targets, controls, perm, diag);
+                    plainPlans[g] = PermutationKernels.plan(plain, targets, controls, perm, diag);
                     break;
             }
             assertEquals(true, plans[g].unitsPerBlock(blockLog) > 0, "seed " + seed);
         }
-        Kernels.applyBlocked(blocked, plans, blockLog, threads);
-        for (Kernels.Plan p : plainPlans) {
+        Plan.applyBlocked(blocked, plans, blockLog, threads);
+        for (Plan p : plainPlans) {
             p.apply(1);
         }
         assertArrayEquals(unload(plain), unload(blocked), 0.0, "seed " + seed);
@@ -416,13 +416,14 @@ class KernelsTest {
         for (int q = 0; q < n; q++) {
             int[] t = {q};
             Amplitudes a = load(in, n, chunkLog);
-            Kernels.dense(a, t, none, m, threads);
+            DenseKernels.apply(a, t, none, m, threads);
             assertArrayEquals(reference(in, n, t, none, m), unload(a), TOL, "dense q" + q);
             a = load(in, n, chunkLog);
-            Kernels.diagonal(a, t, none, diag, threads);
+            DiagonalKernels.apply(a, t, none, diag, threads);
             assertArrayEquals(reference(in, n, t, none, dm), unload(a), TOL, "diagonal q" + q);
             a = load(in, n, chunkLog);
-            Kernels.monomial(a, t, none, new int[] {1, 0}, new double[] {1, 0, 1, 0}, threads);
+            PermutationKernels.apply(a, t, none, new int[] {1, 0}, new double[] {1, 0, 1, 0},
+                    threads);
             assertArrayEquals(reference(in, n, t, none, xm), unload(a), 0.0, "flip q" + q);
         }
     }
@@ -431,8 +432,8 @@ class KernelsTest {
      * Real 2x2 matrices (H, RY and their products) and matrices shaped like RX (real diagonal,
      * imaginary off-diagonal) take loops with half the arithmetic; here their entries are
      * random, since the kernels are linear. Every target, in one pass and cache
-     * blocked, in double storage and (lone gates through {@link SingleKernels}) in float storage,
-     * with chunks small enough to reach the piece and chunk-pair paths. Reference as in the
+     * blocked, in double storage and (lone gates through {@link FloatSingleQubitKernels}) in float
+     * storage, with chunks small enough to reach the piece and chunk-pair paths. Reference as in the
      * tests above (Nielsen and Chuang 2010, §4.3): double results must equal it bit for bit,
      * float ones within 1e-6 (one rounding to float, IEEE 754-2019 §4.3.1).
      */
@@ -455,15 +456,15 @@ class KernelsTest {
             // The zero parts drop out exactly (x - 0 * y = x), so these loops give the bits of
             // the complex loop and of the reference, which adds the same two products: exact.
             Amplitudes a = load(in, n, chunkLog);
-            Kernels.dense(a, t, none, m, threads);
+            DenseKernels.apply(a, t, none, m, threads);
             assertArrayEquals(expected, unload(a), 0.0, "shape " + shaped % 2 + " q" + q);
 
             // Cache blocked: the same gate twice in one group, against two passes.
             if (q < Math.min(chunkLog, 10)) {
                 a = load(in, n, chunkLog);
-                Kernels.Plan[] plans = {Kernels.densePlan(a, t, none, m),
-                    Kernels.densePlan(a, t, none, m)};
-                Kernels.applyBlocked(a, plans, Math.min(chunkLog, 10), threads);
+                Plan[] plans = {DenseKernels.plan(a, t, none, m),
+                    DenseKernels.plan(a, t, none, m)};
+                Plan.applyBlocked(a, plans, Math.min(chunkLog, 10), threads);
                 assertArrayEquals(reference(expected, n, t, none, m), unload(a), 0.0,
                         "shape " + shaped % 2 + " twice, blocked, q" + q);
             }

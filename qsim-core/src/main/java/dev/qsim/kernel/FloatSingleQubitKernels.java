@@ -1,15 +1,16 @@
 package dev.qsim.kernel;
 
 /**
- * A single-qubit gate, with or without controls, applied directly to single-precision storage: each pair of amplitudes is
- * read as {@code float}, multiplied by the 2x2 matrix in double and rounded back, in one pass
- * (no window copy). {@link Windows} uses it for a gate that stands alone; runs of gates go
- * through windows. Unchecked; internal. Method as in {@link Kernels}: pairwise updates with
- * strided indexing (Smelyanskiy et al., arXiv:1601.07195, 2016, §3).
+ * A single-qubit gate, with or without controls, applied directly to single-precision storage:
+ * each pair of amplitudes is read as {@code float}, multiplied by the 2x2 matrix in double and
+ * rounded back, in one pass (no window copy). {@link Windows} uses it for a gate that stands
+ * alone; runs of gates go through windows. Unchecked; internal. Method as in
+ * {@link DenseSingleQubitKernels}: pairwise updates with strided indexing (Smelyanskiy et al.,
+ * arXiv:1601.07195, 2016, §3).
  */
-final class SingleKernels {
-    /** Log2 of the pairs of one work unit for targets above it, as {@link Kernels#PIECE_LOG}. */
-    private static final int PIECE_LOG = Kernels.PIECE_LOG;
+final class FloatSingleQubitKernels {
+    /** Log2 of the pairs of one work unit for targets above it, as {@link Layout#PIECE_LOG}. */
+    private static final int PIECE_LOG = Layout.PIECE_LOG;
 
     /**
      * The matrix of X, used as a marker (compared by identity): pairs are swapped without
@@ -17,7 +18,7 @@ final class SingleKernels {
      */
     static final double[] SWAP = {0, 0, 1, 0, 1, 0, 0, 0};
 
-    private SingleKernels() {
+    private FloatSingleQubitKernels() {
     }
 
     /**
@@ -49,7 +50,7 @@ final class SingleKernels {
             final long inner = controls & varying;
             final boolean inChunk = q < cl && q <= PIECE_LOG;
             for (long u = from; u < to; u++) {
-                final long i0 = q <= PIECE_LOG ? u << (q + 1) : Kernels.pieceBase(q, u);
+                final long i0 = q <= PIECE_LOG ? u << (q + 1) : Layout.pieceBase(q, u);
                 if ((i0 & fixed) != fixed) {
                     continue;
                 }
@@ -95,7 +96,7 @@ final class SingleKernels {
             return;
         }
         for (long u = from; u < to; u++) {
-            final long i0 = Kernels.pieceBase(q, u);
+            final long i0 = Layout.pieceBase(q, u);
             span(a, i0, i0 + (1L << q), 1 << PIECE_LOG, m);
         }
     }
@@ -150,7 +151,7 @@ final class SingleKernels {
             }
             return;
         }
-        if (Kernels.isReal(m)) {
+        if (DenseSingleQubitKernels.isReal(m)) {
             for (int x = x0; x < end; x += 4) {
                 final double ar = psi[x], ai = psi[x + 1], br = psi[x + 2], bi = psi[x + 3];
                 psi[x] = (float) (m00r * ar + m01r * br);
@@ -160,7 +161,7 @@ final class SingleKernels {
             }
             return;
         }
-        if (Kernels.isCrossImaginary(m)) {
+        if (DenseSingleQubitKernels.isCrossImaginary(m)) {
             crossPairs(psi, x0, psi, x0 + 2, count, 4, m00r, m01i, m10i, m11r);
             return;
         }
@@ -187,7 +188,7 @@ final class SingleKernels {
             }
             return;
         }
-        if (Kernels.isReal(m)) {
+        if (DenseSingleQubitKernels.isReal(m)) {
             // Re and im parts take the same real coefficients: one flat loop over floats.
             for (int k = 0; k < n2; k++) {
                 final double a = u[uo + k];
@@ -197,7 +198,7 @@ final class SingleKernels {
             }
             return;
         }
-        if (Kernels.isCrossImaginary(m)) {
+        if (DenseSingleQubitKernels.isCrossImaginary(m)) {
             crossPairs(u, uo, v, vo, count, 2, m00r, m01i, m10i, m11r);
             return;
         }
@@ -212,7 +213,10 @@ final class SingleKernels {
         }
     }
 
-    /** {@code Kernels.crossPairs} on float storage: RX-shaped matrices, half the arithmetic. */
+    /**
+     * {@code DenseSingleQubitKernels.crossPairs} on float storage: RX-shaped matrices, half the
+     * arithmetic.
+     */
     private static void crossPairs(float[] u, int uo, float[] v, int vo, int count, int step,
             double d0, double o01, double o10, double d1) {
         final int len = count * step;
