@@ -111,21 +111,6 @@ public final class QasmReader {
         double eval(Map<String, Double> env);
     }
 
-    /** The gates known without definition, by OpenQASM name: the catalogue's and aliases. */
-    static final Map<String, Gate> STANDARD = new LinkedHashMap<>();
-
-    static {
-        // Every catalogue gate with an OpenQASM 3 name, then the aliases stdgates.inc defines.
-        for (Gate g : Gate.values()) {
-            if (g.qasmName() != null && g != Gate.U) {
-                STANDARD.put(g.qasmName(), g);
-            }
-        }
-        STANDARD.put("CX", Gate.CNOT);
-        STANDARD.put("phase", Gate.PHASE);
-        STANDARD.put("cphase", Gate.CPHASE);
-    }
-
     /** The operator {@code e^{iγ} I} on one qubit. */
     static Operator globalPhase(double gamma) {
         if (!Double.isFinite(gamma)) {
@@ -389,8 +374,7 @@ public final class QasmReader {
         private void checkFree(Token name) {
             String n = name.text;
             if (qregs.containsKey(n) || cregs.containsKey(n) || gates.containsKey(n)
-                    || STANDARD.containsKey(n) || n.equals("U") || n.equals("gphase")
-                    || OUTSIDE.contains(n) || isKeyword(n)) {
+                    || QasmGates.find(n) != null || OUTSIDE.contains(n) || isKeyword(n)) {
                 throw error(name, "the name '" + Lexer.clip(n) + "' is already in use");
             }
         }
@@ -614,12 +598,14 @@ public final class QasmReader {
                         + " OpenQASM 3 (gates, measure, reset, barrier, if on one bit, gate"
                         + " definitions)");
             }
-            if (!isGate(name)) {
+            QasmGates.Entry known = QasmGates.callable(name.text, included);
+            Definition user = gates.get(name.text);
+            if (known == null && user == null) {
                 throw error(name, "unknown gate '" + Lexer.clip(name.text) + "'"
-                        + (STANDARD.containsKey(name.text)
+                        + (QasmGates.find(name.text) != null
                         ? "; standard gates need include \"stdgates.inc\"" : ""));
             }
-            if (controls > 0 && gates.containsKey(name.text)) {
+            if (controls > 0 && user != null) {
                 throw error(first, "'ctrl @' on the user gate '" + name.text + "' is outside the"
                         + " supported subset; it works on standard gates, U and gphase");
             }
@@ -643,12 +629,8 @@ public final class QasmReader {
                     args.add(qargs == null ? operand() : bodyArg(qargs));
                 }
             }
-            int wantParams = name.is("gphase") ? 1 : name.is("U") ? 3
-                    : STANDARD.containsKey(name.text) ? STANDARD.get(name.text).parameters()
-                    : gates.get(name.text).params.size();
-            int wantQubits = controls + (name.is("gphase") ? 0 : name.is("U") ? 1
-                    : STANDARD.containsKey(name.text) ? STANDARD.get(name.text).qubits()
-                    : gates.get(name.text).qubits.size());
+            int wantParams = known != null ? known.parameters() : user.params.size();
+            int wantQubits = controls + (known != null ? known.qubits() : user.qubits.size());
             if (exprs.size() != wantParams) {
                 throw error(name, "gate '" + name.text + "' takes " + wantParams
                         + " parameter(s) but " + exprs.size() + " were given");
@@ -659,11 +641,6 @@ public final class QasmReader {
                         + " were given");
             }
             return new Call(first, name.text, inverse, controls, exprs, args);
-        }
-
-        private boolean isGate(Token name) {
-            return name.is("U") || name.is("gphase") || gates.containsKey(name.text)
-                    || (included && STANDARD.containsKey(name.text));
         }
 
         private Arg bodyArg(List<String> qargs) {
@@ -754,7 +731,8 @@ public final class QasmReader {
             count(t);
             int k = call.controls;
             boolean inverse = call.inverse;
-            if (call.name.equals("gphase")) {
+            QasmGates.Entry known = QasmGates.find(call.name);
+            if (known.globalPhase()) {
                 // ctrl(k) @ gphase(γ) is phase(γ) on the last control, controlled by the rest.
                 ops.add(at(t, (b, nq, nc) -> {
                     double gamma = inverse ? -p[0] : p[0];
@@ -767,7 +745,7 @@ public final class QasmReader {
                 }));
                 return;
             }
-            Gate gate = call.name.equals("U") ? Gate.U : STANDARD.get(call.name);
+            Gate gate = known.gate();
             int[] controls = java.util.Arrays.copyOf(q, k);
             int[] own = java.util.Arrays.copyOfRange(q, k, q.length);
             ops.add(at(t, (b, nq, nc) -> {
