@@ -20,20 +20,24 @@ import java.util.Objects;
  *   <li>declarations {@code qubit[n] q;}, {@code qubit a;}, {@code bit[n] c;}, {@code bit b;}:
  *       registers take consecutive indices in the order declared (the first qubit register
  *       holds qubits 0..n-1, the next one the following indices; likewise for bits);</li>
- *   <li>the standard gates {@code h x y z s sdg t tdg sx rx ry rz p phase cx CX cy ch crx cry
- *       crz cz cp cphase swap ccx cswap}, the built-ins {@code U(θ, φ, λ)} (as
+ *   <li>the standard gates {@code id h x y z s sdg t tdg sx rx ry rz p phase cx CX cy ch crx
+ *       cry crz cz cp cphase swap ccx cswap}, the built-ins {@code U(θ, φ, λ)} (as
  *       {@link Gates#u(double, double, double)}) and {@code gphase(γ)} (a global phase, applied
  *       as the operator {@code e^{iγ} I} on qubit 0), and the modifiers {@code inv @} and
- *       {@code ctrl @} / {@code ctrl(k) @} (the latter on standard and built-in gates);</li>
+ *       {@code ctrl @} / {@code ctrl(k) @} with {@code 1 <= k <= 64} (one per call, on standard
+ *       and built-in gates);</li>
  *   <li>a whole register as an operand applies the gate to each index in turn (registers of one
  *       call must then have equal sizes);</li>
  *   <li>parameters as constant expressions: numbers, {@code pi}/{@code π}, {@code tau}/{@code τ},
- *       {@code euler}, {@code + - * /}, powers {@code ^} or {@code **}, unary minus, parentheses
- *       and the functions {@code sin cos tan arcsin arccos arctan exp ln sqrt};</li>
+ *       {@code euler}/{@code ℇ}, {@code + - * /}, powers {@code ^} or {@code **}, unary minus
+ *       and plus, parentheses and the functions
+ *       {@code sin cos tan arcsin arccos arctan exp ln sqrt};</li>
  *   <li>{@code c[0] = measure q[0];}, {@code c = measure q;}, {@code measure q[0] -> c[0];},
  *       {@code reset q[0];}, {@code barrier ...;} (accepted, nothing recorded);</li>
- *   <li>{@code if (c[0] == 1) stmt} or {@code if (c[0] == 1) { ... }} on one bit;</li>
- *   <li>{@code gate name(params) a, b { ... }} definitions, expanded where used;</li>
+ *   <li>{@code if (c[0] == 1) stmt} or {@code if (c[0] == 1) { ... }} on one bit, compared with
+ *       {@code 0}, {@code 1}, {@code true} or {@code false};</li>
+ *   <li>{@code gate name(params) a, b { ... }} definitions of gate calls and {@code barrier},
+ *       expanded where used;</li>
  *   <li>comments {@code //} to the end of the line and {@code /* ... *}{@code /}.</li>
  * </ul>
  * Everything else (classical types, loops, subroutines, timing, pulse-level code, other

@@ -46,6 +46,14 @@ class QasmReaderTest {
     }
 
     @Test
+    void theIdentityOfStdgatesReadsAsTheCatalogueIdentity() {
+        Circuit read = QasmReader.read(HEAD + "qubit[2] q;\nid q[1];\nid q;\n");
+        Circuit hand = Circuit.builder(2, 0).gate(Gate.I, 1).gate(Gate.I, 0).gate(Gate.I, 1)
+                .build();
+        assertEquals(hand, read);
+    }
+
+    @Test
     void registersTakeConsecutiveIndicesInDeclarationOrder() {
         Circuit read = QasmReader.read(HEAD + "qubit[2] a;\nqubit b;\nqubit[3] d;\n"
                 + "bit[2] c;\nbit e;\n"
