@@ -30,7 +30,9 @@ import org.junit.jupiter.api.Test;
 
 /**
  * The syntax tree the parser builds: its shape, the positions on its nodes, and the order in
- * which statements are handed on.
+ * which statements are handed on. Grammar and precedence follow the OpenQASM 3 specification
+ * (Cross et al. 2022, ACM Trans. Quantum Comput. 3(3), 12, doi:10.1145/3505636); positions are
+ * counted by hand from the test's text, 1-based (common practice for parsers).
  */
 class ParserTest {
 
@@ -119,6 +121,8 @@ class ParserTest {
 
     @Test
     void expressionsFollowTheOpenQasmPrecedence() {
+        // The power binds tighter than unary minus and groups to the right; + - * / group to
+        // the left (the specification's table of operator precedence).
         Program p = parse("include \"stdgates.inc\";\ngate g(x) a {\n"
                 + "  rx(-2^3 * (1 - .5) + sin(x) / tau) a;\n  rx(2 ^ 3 ** -+1) a;\n"
                 + "  rx(1 - 2 - 3 / 4 / x) a;\n}\n");

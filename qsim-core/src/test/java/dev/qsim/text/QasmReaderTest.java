@@ -200,7 +200,8 @@ class QasmReaderTest {
     @ParameterizedTest
     @CsvSource(delimiter = '|', value = {
         // The first problem in the text is the one reported, whether it is one of syntax or
-        // of names: a statement's registers are checked when the statement ends, a called
+        // of names (common practice for single-pass readers; the reader's behaviour before it
+        // was split): a statement's registers are checked when the statement ends, a called
         // gate and its counts as the call is read, the registers of barrier and of a
         // condition as each operand is read.
         "bit[2] c;\\nif (c[0] == 1) { h r; x x x; }|4|20|unknown qubit register 'r'",
