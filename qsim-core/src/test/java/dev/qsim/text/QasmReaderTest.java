@@ -46,6 +46,14 @@ class QasmReaderTest {
     }
 
     @Test
+    void theIdentityOfStdgatesReadsAsTheCatalogueIdentity() {
+        Circuit read = QasmReader.read(HEAD + "qubit[2] q;\nid q[1];\nid q;\n");
+        Circuit hand = Circuit.builder(2, 0).gate(Gate.I, 1).gate(Gate.I, 0).gate(Gate.I, 1)
+                .build();
+        assertEquals(hand, read);
+    }
+
+    @Test
     void registersTakeConsecutiveIndicesInDeclarationOrder() {
         Circuit read = QasmReader.read(HEAD + "qubit[2] a;\nqubit b;\nqubit[3] d;\n"
                 + "bit[2] c;\nbit e;\n"
@@ -187,5 +195,61 @@ class QasmReaderTest {
         assertEquals(column, e.column(), e.getMessage());
         assertTrue(e.getMessage().startsWith("line " + line + ", column " + column + ": "),
                 e.getMessage());
+    }
+
+    @ParameterizedTest
+    @CsvSource(delimiter = '|', value = {
+        // The first problem in the text is the one reported, whether it is one of syntax or
+        // of names (common practice for single-pass readers; the reader's behaviour before it
+        // was split): a statement's registers are checked when the statement ends, a called
+        // gate and its counts as the call is read, the registers of barrier and of a
+        // condition as each operand is read.
+        "bit[2] c;\\nif (c[0] == 1) { h r; x x x; }|4|20|unknown qubit register 'r'",
+        "bit[2] c;\\nif (c[0] == 1) h r; else x q;|4|18|unknown qubit register 'r'",
+        "qubit[3] r;\\ncx q, r;\\nh h h;|4|7|registers of one call must have equal sizes",
+        "barrier r, ;|3|9|unknown qubit register 'r'",
+        "barrier q[7] q;|3|9|index 7 is out of range [0, 1]",
+        "gate g a { foo a;|3|12|unknown gate 'foo'",
+        "U(1, 2) q[0]|3|1|takes 3 parameter(s) but 2",
+        "foo(1,, 2) q[0];|3|1|unknown gate 'foo'",
+        // What the circuit refuses is found once the whole text has been read.
+        "cx q[0], q[0];\\nh h h;|4|5|expected ';' but found 'h'",
+        "cx q[0], q[0];\\nh q, q;|4|1|gate 'h' takes 1 qubit(s) but 2",
+    })
+    void reportsTheFirstProblemInTheText(String text, int line, int column, String part) {
+        String t = HEAD.substring(HEAD.indexOf('\n') + 1) + "qubit[2] q;\n"
+                + text.replace("\\n", "\n");
+        CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                () -> QasmReader.read(t));
+        assertTrue(e.getMessage().contains(part), e.getMessage());
+        assertEquals(line, e.line(), e.getMessage());
+        assertEquals(column, e.column(), e.getMessage());
+    }
+
+    @Test
+    void refusesAProgramThatExpandsToTooManyInstructions() {
+        // Each gate doubles the one before: g20 is 2^20 > MAX_INSTRUCTIONS instructions.
+        StringBuilder sb = new StringBuilder(HEAD + "gate g0 a { x a; }\n");
+        for (int i = 1; i <= 20; i++) {
+            sb.append("gate g").append(i).append(" a { g").append(i - 1).append(" a; g")
+                    .append(i - 1).append(" a; }\n");
+        }
+        String fits = sb + "qubit q;\ng19 q;\n";
+        assertEquals(1 << 19, QasmReader.read(fits).instructions().size());
+        CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                () -> QasmReader.read(sb + "qubit q;\ng20 q;\n"));
+        assertTrue(e.getMessage().contains("expands to more than "
+                + QasmReader.MAX_INSTRUCTIONS + " instructions"), e.getMessage());
+    }
+
+    @Test
+    void whatTheCircuitRefusesInsideAGateDefinitionIsAFormatException() {
+        String def = HEAD + "gate g a, b { cx a, b; }\nqubit[2] q;\n";
+        for (String call : new String[] {"g q[0], q[0];", "inv @ g q[1], q[1];"}) {
+            CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                    () -> QasmReader.read(def + call));
+            assertTrue(e.getMessage().contains("appears twice"), e.getMessage());
+            assertEquals(IllegalArgumentException.class, e.getCause().getClass());
+        }
     }
 }
