@@ -50,13 +50,17 @@ public enum Gate {
     /** Hadamard. */
     H("h", 0, 1, 0, Shape.DENSE, "h", null, a -> Gates.H, CliffordSteps.one(CliffordSteps.H), "H"),
     /** Pauli X (NOT). */
-    X("x", 0, 1, 0, Shape.PERMUTATION, "x", null, a -> Gates.X, CliffordSteps.one(CliffordSteps.X), "X"),
+    X("x", 0, 1, 0, Shape.PERMUTATION, "x", null, a -> Gates.X,
+            CliffordSteps.one(CliffordSteps.X), "X"),
     /** Pauli Y. */
-    Y("y", 0, 1, 0, Shape.PERMUTATION, "y", null, a -> Gates.Y, CliffordSteps.one(CliffordSteps.Y), "Y"),
+    Y("y", 0, 1, 0, Shape.PERMUTATION, "y", null, a -> Gates.Y,
+            CliffordSteps.one(CliffordSteps.Y), "Y"),
     /** Pauli Z. */
-    Z("z", 0, 1, 0, Shape.DIAGONAL, "z", null, a -> Gates.Z, CliffordSteps.one(CliffordSteps.Z), "Z"),
+    Z("z", 0, 1, 0, Shape.DIAGONAL, "z", null, a -> Gates.Z, CliffordSteps.one(CliffordSteps.Z),
+            "Z"),
     /** {@code S = diag(1, i)}. */
-    S("s", 0, 1, 0, Shape.DIAGONAL, "s", "sDagger", a -> Gates.S, CliffordSteps.one(CliffordSteps.S), "S"),
+    S("s", 0, 1, 0, Shape.DIAGONAL, "s", "sDagger", a -> Gates.S,
+            CliffordSteps.one(CliffordSteps.S), "S"),
     /** {@code S† = diag(1, -i)}; OpenQASM {@code sdg}. */
     S_DAGGER("sDagger", 0, 1, 0, Shape.DIAGONAL, "sdg", "s", a -> Gates.S_DAGGER,
             CliffordSteps.one(CliffordSteps.S_DAGGER), "S+"),
@@ -69,7 +73,8 @@ public enum Gate {
             CliffordSteps.fixed(CliffordSteps.H, 0, CliffordSteps.S, 0, CliffordSteps.H, 0), "SX"),
     /** Inverse of {@link #SQRT_X}; written to OpenQASM as {@code inv @ sx}. */
     SQRT_X_DAGGER("sqrtXDagger", 0, 1, 0, Shape.DENSE, null, "sqrtX",
-            a -> Gates.SQRT_X_DAGGER, CliffordSteps.fixed(CliffordSteps.H, 0, CliffordSteps.S_DAGGER, 0, CliffordSteps.H, 0),
+            a -> Gates.SQRT_X_DAGGER, CliffordSteps.fixed(CliffordSteps.H, 0,
+                    CliffordSteps.S_DAGGER, 0, CliffordSteps.H, 0),
             "SX+"),
     /** {@code rx(θ) = exp(-iθX/2)}. */
     RX("rx", 0, 1, 1, Shape.DENSE, "rx", "rx", a -> Gates.rx(a[0]), CliffordSteps::rx, "RX"),
@@ -90,9 +95,11 @@ public enum Gate {
             CliffordSteps.fixed(CliffordSteps.CNOT, 0, 1), "(+)"),
     /** Controlled Y on (control, target). */
     CY("cy", 1, 1, 0, Shape.PERMUTATION, "cy", null, a -> Gates.Y,
-            CliffordSteps.fixed(CliffordSteps.S_DAGGER, 1, CliffordSteps.CNOT, 0, 1, CliffordSteps.S, 1), "Y"),
+            CliffordSteps.fixed(CliffordSteps.S_DAGGER, 1, CliffordSteps.CNOT, 0, 1,
+                    CliffordSteps.S, 1), "Y"),
     /** Controlled Z, {@code diag(1, 1, 1, -1)}, symmetric in its two qubits. */
-    CZ("cz", 0, 2, 0, Shape.DIAGONAL, "cz", null, a -> Gates.CZ, CliffordSteps.fixed(CliffordSteps.CZ, 0, 1),
+    CZ("cz", 0, 2, 0, Shape.DIAGONAL, "cz", null, a -> Gates.CZ,
+            CliffordSteps.fixed(CliffordSteps.CZ, 0, 1),
             "@"),
     /** Controlled Hadamard on (control, target). */
     CH("ch", 1, 1, 0, Shape.DENSE, "ch", null, a -> Gates.H, null, "H"),
@@ -111,7 +118,8 @@ public enum Gate {
     SWAP("swap", 0, 2, 0, Shape.PERMUTATION, "swap", null, a -> Gates.SWAP,
             CliffordSteps.fixed(CliffordSteps.SWAP, 0, 1), "x"),
     /** The Ising coupling {@code rzz(θ) = exp(-iθ Z⊗Z/2)}; OpenQASM has no standard name. */
-    RZZ("rzz", 0, 2, 1, Shape.DIAGONAL, null, "rzz", a -> Gates.rzz(a[0]), CliffordSteps::rzz, "RZZ"),
+    RZZ("rzz", 0, 2, 1, Shape.DIAGONAL, null, "rzz", a -> Gates.rzz(a[0]), CliffordSteps::rzz,
+            "RZZ"),
     /** Toffoli on (control1, control2, target); OpenQASM {@code ccx}. */
     TOFFOLI("toffoli", 2, 1, 0, Shape.PERMUTATION, "ccx", null, a -> Gates.X, null, "(+)"),
     /** Fredkin (controlled SWAP) on (control, a, b); OpenQASM {@code cswap}. */

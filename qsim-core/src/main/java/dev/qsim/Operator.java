@@ -3,9 +3,9 @@ package dev.qsim;
 import java.util.Arrays;
 import java.util.Objects;
 
-import dev.qsim.internal.Checks;
-
 import org.apache.commons.numbers.complex.Complex;
+
+import dev.qsim.internal.Checks;
 
 /**
  * An immutable complex square matrix of size {@code 2^k}, acting on {@code k} qubits.
@@ -27,7 +27,8 @@ import org.apache.commons.numbers.complex.Complex;
  * @since 0.1
  */
 public final class Operator {
-    /** Tolerance on the largest entry of {@code |U†U - I|} used by the circuit builder: {@value}. */
+    /** Tolerance on the largest entry of {@code |U†U - I|} used by the circuit builder: {@value}.
+     * */
     public static final double UNITARY_TOLERANCE = 1e-9;
     /** The largest number of qubits an operator may act on: {@value}. */
     public static final int MAX_QUBITS = 12;

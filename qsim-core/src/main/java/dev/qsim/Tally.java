@@ -600,7 +600,8 @@ public final class Tally {
             return false;
         }
         if (keys != null) {
-            return java.util.Arrays.equals(keys, t.keys) && java.util.Arrays.equals(counts, t.counts);
+            return java.util.Arrays.equals(keys, t.keys) && java.util.Arrays.equals(counts,
+                    t.counts);
         }
         return map.equals(t.map);
     }

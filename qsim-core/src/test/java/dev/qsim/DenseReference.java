@@ -638,35 +638,54 @@ final class DenseReference {
     /** A random instruction of the given kind on n qubits (n >= minQubits(kind)). */
     static Step randomStep(String kind, int n, UniformRandomProvider rng) {
         switch (kind) {
-            case "h": return one(kind, n, rng, DenseReference::h, Circuit.Builder::h);
-            case "x": return one(kind, n, rng, DenseReference::x, Circuit.Builder::x);
-            case "y": return one(kind, n, rng, DenseReference::y, Circuit.Builder::y);
-            case "z": return one(kind, n, rng, DenseReference::z, Circuit.Builder::z);
-            case "s": return one(kind, n, rng, DenseReference::s, Circuit.Builder::s);
+            case "h":
+                return one(kind, n, rng, DenseReference::h, Circuit.Builder::h);
+            case "x":
+                return one(kind, n, rng, DenseReference::x, Circuit.Builder::x);
+            case "y":
+                return one(kind, n, rng, DenseReference::y, Circuit.Builder::y);
+            case "z":
+                return one(kind, n, rng, DenseReference::z, Circuit.Builder::z);
+            case "s":
+                return one(kind, n, rng, DenseReference::s, Circuit.Builder::s);
             case "sDagger":
                 return one(kind, n, rng, DenseReference::sDagger, Circuit.Builder::sDagger);
-            case "t": return one(kind, n, rng, DenseReference::t, Circuit.Builder::t);
+            case "t":
+                return one(kind, n, rng, DenseReference::t, Circuit.Builder::t);
             case "tDagger":
                 return one(kind, n, rng, DenseReference::tDagger, Circuit.Builder::tDagger);
-            case "sqrtX": return one(kind, n, rng, DenseReference::sqrtX, Circuit.Builder::sqrtX);
+            case "sqrtX":
+                return one(kind, n, rng, DenseReference::sqrtX, Circuit.Builder::sqrtX);
             case "rx": case "ry": case "rz": case "phase": {
                 int q = rng.nextInt(n);
                 double a = randomAngle(rng);
                 return step(kind + "(" + q + ", " + a + ")",
                     (b, p) -> {
                         switch (kind) {
-                            case "rx": b.rx(at(p, q), a); break;
-                            case "ry": b.ry(at(p, q), a); break;
-                            case "rz": b.rz(at(p, q), a); break;
-                            default: b.phase(at(p, q), a); break;
+                            case "rx":
+                                b.rx(at(p, q), a);
+                                break;
+                            case "ry":
+                                b.ry(at(p, q), a);
+                                break;
+                            case "rz":
+                                b.rz(at(p, q), a);
+                                break;
+                            default:
+                                b.phase(at(p, q), a);
+                                break;
                         }
                     },
                     m -> {
                         switch (kind) {
-                            case "rx": return single(m, q, rx(a));
-                            case "ry": return single(m, q, ry(a));
-                            case "rz": return single(m, q, rz(a));
-                            default: return single(m, q, phase(a));
+                            case "rx":
+                                return single(m, q, rx(a));
+                            case "ry":
+                                return single(m, q, ry(a));
+                            case "rz":
+                                return single(m, q, rz(a));
+                            default:
+                                return single(m, q, phase(a));
                         }
                     });
             }

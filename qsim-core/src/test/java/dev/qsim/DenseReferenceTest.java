@@ -134,7 +134,8 @@ class DenseReferenceTest {
     /**
      * States of 22 qubits, past the engine's parallel threshold and its 2^10-amplitude kernel
      * blocks (chunk crossings are checked with small chunks in kernel.KernelsTest): random
-     * circuits act on 6 of the qubits (some of them the highest, 20 and 21) and leave the rest |0>, so the state is the 6-qubit reference state placed on those
+     * circuits act on 6 of the qubits (some of them the highest, 20 and 21) and leave the rest
+     * |0>, so the state is the 6-qubit reference state placed on those
      * qubits, with zeros elsewhere (the tensor product with |0...0>, N&C 2010 sec. 2.1.7).
      */
     @Test

@@ -109,7 +109,8 @@ class LazyFrameTest {
         try {
             for (int trial = 0; trial < 20; trial++) {
                 StateVector s = StateVector.zero(n).setThreads(2).apply(c);
-                java.util.concurrent.CyclicBarrier start = new java.util.concurrent.CyclicBarrier(2);
+                java.util.concurrent.CyclicBarrier start = new java.util.concurrent.CyclicBarrier(
+                        2);
                 java.util.concurrent.Callable<Complex[]> read = () -> {
                     start.await();
                     return new Complex[] {s.amplitude(low), s.amplitude(high)};

@@ -13,8 +13,8 @@ import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 import org.junit.jupiter.api.Test;
 
-import dev.qsim.kernel.Amplitudes;
 import dev.qsim.internal.Bridge;
+import dev.qsim.kernel.Amplitudes;
 
 /**
  * Single-precision storage: amplitudes are rounded to {@code float} (IEEE 754-2019, binary32,

@@ -1,14 +1,15 @@
 package dev.qsim.bench;
 
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+
 import dev.qsim.Circuit;
 import dev.qsim.Precision;
 import dev.qsim.Simulator;
 import dev.qsim.bench.BatchTimer.Batch;
 import dev.qsim.bench.BatchTimer.Timing;
 import dev.qsim.examples.cli.Progress;
-import java.util.ArrayList;
-import java.util.List;
-import java.util.Locale;
 
 /**
  * The fusion comparison of the scaling report: the layered circuit of

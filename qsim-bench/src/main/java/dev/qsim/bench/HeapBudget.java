@@ -1,9 +1,10 @@
 package dev.qsim.bench;
 
-import dev.qsim.Precision;
-import dev.qsim.StateVector;
 import java.util.Locale;
 import java.util.Optional;
+
+import dev.qsim.Precision;
+import dev.qsim.StateVector;
 
 /**
  * How the scaling report fits in the heap. Two questions, answered in this order before

@@ -1,9 +1,7 @@
 package dev.qsim.bench;
 
-import dev.qsim.Circuit;
-import dev.qsim.Precision;
-import dev.qsim.StateVector;
 import java.util.concurrent.TimeUnit;
+
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;
@@ -15,6 +13,10 @@ import org.openjdk.jmh.annotations.Scope;
 import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.Warmup;
+
+import dev.qsim.Circuit;
+import dev.qsim.Precision;
+import dev.qsim.StateVector;
 
 /**
  * Time of one gate of each kernel kind applied in place to a state of {@code n} qubits: the

@@ -1,13 +1,14 @@
 package dev.qsim.bench;
 
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+
 import dev.qsim.Circuit;
 import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import dev.qsim.bench.BatchTimer.Timing;
 import dev.qsim.examples.cli.Progress;
-import java.util.ArrayList;
-import java.util.List;
-import java.util.Locale;
 
 /**
  * The kernel rows of the scaling report: each selected kernel kind at each selected target on

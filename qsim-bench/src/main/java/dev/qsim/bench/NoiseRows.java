@@ -1,5 +1,10 @@
 package dev.qsim.bench;
 
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.function.DoubleSupplier;
+
 import dev.qsim.Circuit;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
@@ -10,10 +15,6 @@ import dev.qsim.examples.cli.Progress;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
-import java.util.ArrayList;
-import java.util.List;
-import java.util.Locale;
-import java.util.function.DoubleSupplier;
 
 /**
  * The noise rows of {@code --noise on}: one gate plus a depolarizing channel on a density

@@ -1,11 +1,12 @@
 package dev.qsim.bench;
 
-import dev.qsim.Precision;
-import dev.qsim.bench.BatchTimer.Timing;
-import dev.qsim.examples.cli.Progress;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+
+import dev.qsim.Precision;
+import dev.qsim.bench.BatchTimer.Timing;
+import dev.qsim.examples.cli.Progress;
 
 /**
  * The measurement loop of the scaling report: at each size the bandwidth probe, then for each

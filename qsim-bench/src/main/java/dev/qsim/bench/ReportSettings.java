@@ -1,9 +1,10 @@
 package dev.qsim.bench;
 
-import dev.qsim.Precision;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+
+import dev.qsim.Precision;
 
 /**
  * The settings of one {@link ScalingReport} run, as {@link ReportOptions} read and checked them.

@@ -1,6 +1,5 @@
 package dev.qsim.bench;
 
-import dev.qsim.Precision;
 import java.util.ArrayList;
 import java.util.EnumMap;
 import java.util.LinkedHashMap;
@@ -8,6 +7,8 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
+
+import dev.qsim.Precision;
 
 /**
  * Draws the scaling report as a self-contained SVG 1.1 document: time per gate (ns, logarithmic

@@ -1,7 +1,5 @@
 package dev.qsim.bench;
 
-import dev.qsim.Precision;
-import dev.qsim.examples.cli.Progress;
 import java.io.IOException;
 import java.io.PrintStream;
 import java.io.PrintWriter;
@@ -11,6 +9,9 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
+
+import dev.qsim.Precision;
+import dev.qsim.examples.cli.Progress;
 
 /**
  * Prints, as CSV, the time of each gate kernel against qubit count, next to a memory-bandwidth

@@ -1,8 +1,7 @@
 package dev.qsim.bench;
 
-import dev.qsim.Operator;
-import dev.qsim.StateVector;
 import java.util.concurrent.TimeUnit;
+
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;
@@ -14,6 +13,9 @@ import org.openjdk.jmh.annotations.Scope;
 import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.Warmup;
+
+import dev.qsim.Operator;
+import dev.qsim.StateVector;
 
 /**
  * Time of one single-qubit gate applied in place to a state of {@code n} qubits, against

@@ -1,14 +1,16 @@
 package dev.qsim.bench;
 
+import java.util.List;
+import java.util.Objects;
+
+import org.apache.commons.rng.UniformRandomProvider;
+import org.apache.commons.rng.simple.RandomSource;
+
 import dev.qsim.Circuit;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
 import dev.qsim.Precision;
 import dev.qsim.StateVector;
-import java.util.List;
-import java.util.Objects;
-import org.apache.commons.rng.UniformRandomProvider;
-import org.apache.commons.rng.simple.RandomSource;
 
 /**
  * The gates, target qubits, states and circuits shared by {@link SingleQubitGateBenchmark},

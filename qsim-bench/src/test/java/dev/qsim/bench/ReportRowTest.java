@@ -2,8 +2,9 @@ package dev.qsim.bench;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 
-import dev.qsim.Precision;
 import org.junit.jupiter.api.Test;
+
+import dev.qsim.Precision;
 
 /** Bytes and bandwidth of a row, and its CSV line. */
 class ReportRowTest {

@@ -6,12 +6,13 @@ import static org.junit.jupiter.api.Assertions.assertSame;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.qsim.Operator;
-import dev.qsim.StateVector;
 import org.apache.commons.numbers.complex.Complex;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
+
+import dev.qsim.Operator;
+import dev.qsim.StateVector;
 
 /** Tests of the benchmark's setup and of the workloads it shares with the scaling report. */
 class SingleQubitGateBenchmarkTest {
@@ -128,7 +129,8 @@ class SingleQubitGateBenchmarkTest {
     void badNamesAreRefused() {
         IllegalArgumentException gate = assertThrows(IllegalArgumentException.class,
             () -> workload(4, "mid", 1, "swap"));
-        assertEquals("gate 'swap' is not known; allowed: dense, h, rx, ry, t, x", gate.getMessage());
+        assertEquals("gate 'swap' is not known; allowed: dense, h, rx, ry, t, x",
+                gate.getMessage());
         IllegalArgumentException target = assertThrows(IllegalArgumentException.class,
             () -> Workloads.target("middle", 4));
         assertEquals("target 'middle' is not known; allowed: low, mid, high", target.getMessage());

@@ -5,6 +5,11 @@ import static org.junit.jupiter.api.Assertions.assertSame;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import org.apache.commons.numbers.complex.Complex;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
+
 import dev.qsim.Circuit;
 import dev.qsim.Gates;
 import dev.qsim.Instruction;
@@ -12,10 +17,6 @@ import dev.qsim.Operator;
 import dev.qsim.Precision;
 import dev.qsim.Simulator;
 import dev.qsim.StateVector;
-import org.apache.commons.numbers.complex.Complex;
-import org.junit.jupiter.api.Test;
-import org.junit.jupiter.params.ParameterizedTest;
-import org.junit.jupiter.params.provider.CsvSource;
 
 /** Tests of the kernel gates, the layered circuit and the two JMH benchmarks' set-up. */
 class WorkloadsTest {

@@ -1,9 +1,9 @@
 package dev.qsim.kernel;
 
+import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
-import java.util.concurrent.ExecutionException;
 
 /**
  * Splits an index range into contiguous pieces and runs them on a shared pool of daemon

@@ -39,7 +39,8 @@ public final class Channel {
     private final double[][] weights;
     /** The Kraus matrices, row-major re/im interleaved. */
     private final double[][] raw;
-    /** Branch probabilities if they do not depend on the state (all K^dagger K = p I), else null. */
+    /** Branch probabilities if they do not depend on the state (all K^dagger K = p I), else null.
+     * */
     private final double[] fixed;
     /** Whether Kraus operator k is a multiple of the identity. */
     private final boolean[] scalar;

@@ -45,13 +45,17 @@ import dev.qsim.kernel.ReducedStates;
 final class NoiseEngines implements Bridge.Noise {
     /** The reset channel {@code rho -> |0><0| rho |0><0| + |0><1| rho |1><0|}. */
     static final Channel RESET = Channel.of(
-            Operator.of(new Complex[][] {{Complex.ONE, Complex.ZERO}, {Complex.ZERO, Complex.ZERO}}),
-            Operator.of(new Complex[][] {{Complex.ZERO, Complex.ONE}, {Complex.ZERO, Complex.ZERO}}));
+            Operator.of(new Complex[][] {{Complex.ONE, Complex.ZERO}, {Complex.ZERO,
+                    Complex.ZERO}}),
+            Operator.of(new Complex[][] {{Complex.ZERO, Complex.ONE}, {Complex.ZERO,
+                    Complex.ZERO}}));
 
     /** An unread measurement: the projections onto |0> and |1>. */
     static final Channel MEASURE = Channel.of(
-            Operator.of(new Complex[][] {{Complex.ONE, Complex.ZERO}, {Complex.ZERO, Complex.ZERO}}),
-            Operator.of(new Complex[][] {{Complex.ZERO, Complex.ZERO}, {Complex.ZERO, Complex.ONE}}));
+            Operator.of(new Complex[][] {{Complex.ONE, Complex.ZERO}, {Complex.ZERO,
+                    Complex.ZERO}}),
+            Operator.of(new Complex[][] {{Complex.ZERO, Complex.ZERO}, {Complex.ZERO,
+                    Complex.ONE}}));
 
     private static final int[] NONE = new int[0];
 

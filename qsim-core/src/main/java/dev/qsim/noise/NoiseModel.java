@@ -235,7 +235,8 @@ public final class NoiseModel {
          * @throws IllegalArgumentException if a probability is outside [0, 1]
          */
         public Builder readoutError(double p1given0, double p0given1) {
-            readoutDefault = new double[] {Checks.requireProbability(p1given0, "readout error P(1|0)"),
+            readoutDefault = new double[] {Checks.requireProbability(p1given0,
+                    "readout error P(1|0)"),
                 Checks.requireProbability(p0given1, "readout error P(0|1)")};
             return this;
         }

@@ -4,10 +4,10 @@ import java.util.List;
 import java.util.Objects;
 
 import dev.qsim.Circuit;
+import dev.qsim.Gate;
 import dev.qsim.Instruction;
 import dev.qsim.Precision;
 import dev.qsim.StateVector;
-import dev.qsim.Gate;
 import dev.qsim.internal.Bridge;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.PauliKernels;

@@ -1,7 +1,5 @@
 package dev.qsim.stats;
 
-import dev.qsim.Tally;
-import dev.qsim.internal.Checks;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.Collections;
@@ -10,12 +8,16 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Objects;
 import java.util.TreeMap;
+
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 import org.apache.commons.statistics.distribution.BinomialDistribution;
 import org.apache.commons.statistics.inference.ChiSquareTest;
 import org.apache.commons.statistics.inference.GTest;
 import org.apache.commons.statistics.inference.SignificanceResult;
+
+import dev.qsim.Tally;
+import dev.qsim.internal.Checks;
 
 /**
  * How well a measured {@link Tally} agrees with a predicted distribution over its outcomes: an
@@ -404,7 +406,8 @@ public final class TallyComparison {
                 long massLeft = shots;
                 for (int i = 0; i < m - 1 && left > 0; i++) {
                     double prob = Math.min(1, c[i] / (double) massLeft);
-                    long x = (long) BinomialDistribution.of((int) left, prob).inverseCumulativeProbability(rng.nextDouble());
+                    long x = (long) BinomialDistribution.of((int) left,
+                            prob).inverseCumulativeProbability(rng.nextDouble());
                     draw[i] = x;
                     left -= x;
                     massLeft -= c[i];

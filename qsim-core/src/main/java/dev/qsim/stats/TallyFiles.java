@@ -1,6 +1,5 @@
 package dev.qsim.stats;
 
-import dev.qsim.Tally;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -9,6 +8,8 @@ import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.Objects;
 import java.util.TreeMap;
+
+import dev.qsim.Tally;
 
 /**
  * Reads and writes tallies as text, for example the counts a device reported.

@@ -1,5 +1,8 @@
 package dev.qsim.text;
 
+import java.util.ArrayList;
+import java.util.List;
+
 import dev.qsim.text.Lexer.Token;
 import dev.qsim.text.Lexer.Type;
 import dev.qsim.text.Syntax.Expression;
@@ -9,8 +12,6 @@ import dev.qsim.text.Syntax.Modifier;
 import dev.qsim.text.Syntax.ModifierKind;
 import dev.qsim.text.Syntax.Operand;
 import dev.qsim.text.Syntax.Position;
-import java.util.ArrayList;
-import java.util.List;
 
 /**
  * Parses gate calls (modifiers, name, parameters, operands) and gate definitions for the

@@ -5,7 +5,7 @@ package dev.qsim.text;
  * a statement the circuit refuses (such as a gate on a qubit twice). The message starts with the
  * line and column, as in {@code "line 4, column 1: ..."}.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class CircuitFormatException extends IllegalArgumentException {
     private static final long serialVersionUID = 1L;

@@ -1,5 +1,13 @@
 package dev.qsim.text;
 
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+
+import org.apache.commons.numbers.complex.Complex;
+
 import dev.qsim.Circuit;
 import dev.qsim.Gate;
 import dev.qsim.Operator;
@@ -21,12 +29,6 @@ import dev.qsim.text.Syntax.Program;
 import dev.qsim.text.Syntax.Reset;
 import dev.qsim.text.Syntax.Statement;
 import dev.qsim.text.Syntax.Variable;
-import java.util.ArrayList;
-import java.util.Arrays;
-import java.util.HashMap;
-import java.util.List;
-import java.util.Map;
-import org.apache.commons.numbers.complex.Complex;
 
 /**
  * Turns the statements of a {@link Syntax} tree into circuit instructions. The parser hands it

@@ -1,5 +1,7 @@
 package dev.qsim.text;
 
+import java.util.List;
+
 import dev.qsim.text.Lexer.Token;
 import dev.qsim.text.Lexer.Type;
 import dev.qsim.text.Syntax.Binary;
@@ -11,7 +13,6 @@ import dev.qsim.text.Syntax.MathFunction;
 import dev.qsim.text.Syntax.Negation;
 import dev.qsim.text.Syntax.Position;
 import dev.qsim.text.Syntax.Variable;
-import java.util.List;
 
 /**
  * Parses parameter expressions by recursive descent, with the OpenQASM 3 precedence (the power

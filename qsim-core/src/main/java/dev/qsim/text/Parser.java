@@ -1,5 +1,9 @@
 package dev.qsim.text;
 
+import java.util.ArrayList;
+import java.util.List;
+import java.util.function.Consumer;
+
 import dev.qsim.text.Lexer.Token;
 import dev.qsim.text.Lexer.Type;
 import dev.qsim.text.Syntax.Barrier;
@@ -13,9 +17,6 @@ import dev.qsim.text.Syntax.Position;
 import dev.qsim.text.Syntax.Program;
 import dev.qsim.text.Syntax.Reset;
 import dev.qsim.text.Syntax.Statement;
-import java.util.ArrayList;
-import java.util.List;
-import java.util.function.Consumer;
 
 /**
  * Parses the subset's statements by recursive descent into a {@link Syntax} tree; gate calls

@@ -1,9 +1,10 @@
 package dev.qsim.text;
 
-import dev.qsim.Gate;
 import java.util.Collections;
 import java.util.LinkedHashMap;
 import java.util.Map;
+
+import dev.qsim.Gate;
 
 /**
  * The gate names the reader knows without a definition in the program, read from the

@@ -1,12 +1,13 @@
 package dev.qsim.text;
 
-import dev.qsim.Circuit;
-import dev.qsim.Gates;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Objects;
+
+import dev.qsim.Circuit;
+import dev.qsim.Gates;
 
 /**
  * Reads a circuit written in a gate-level subset of OpenQASM 3 (Cross et al. 2022, ACM
@@ -49,7 +50,7 @@ import java.util.Objects;
  * {@code cphase}, {@code ccx} → {@code toffoli}, {@code cswap} → {@code fredkin}, {@code ctrl @ g}
  * → {@code controlled}.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class QasmReader {
     /** The most instructions a file may expand to: {@value}. */

@@ -1,13 +1,15 @@
 package dev.qsim.text;
 
+import java.util.List;
+import java.util.Objects;
+
+import org.apache.commons.numbers.complex.Complex;
+
 import dev.qsim.Circuit;
 import dev.qsim.Gate;
 import dev.qsim.Gates;
 import dev.qsim.Instruction;
 import dev.qsim.Operator;
-import java.util.List;
-import java.util.Objects;
-import org.apache.commons.numbers.complex.Complex;
 
 /**
  * Writes a {@link Circuit} as OpenQASM 3 text in the subset that {@link QasmReader} reads
@@ -26,7 +28,8 @@ import org.apache.commons.numbers.complex.Complex;
  * {@link Gates#T}, {@link Gates#T_DAGGER}, {@link Gates#SQRT_X} or {@link Gates#SWAP},
  * {@code QasmReader.read(QasmWriter.write(c)).equals(c)}. (A controlled gate whose operator
  * equals such a constant only in value, such as the adjoint of {@link Gates#H} with its signed
- * zeros, is written with the constant's name and so reads back equal in value.) Other instructions are written as
+ * zeros, is written with the constant's name and so reads back equal in value.) Other instructions
+ * are written as
  * equal operators but read back as different instructions:
  * <ul>
  *   <li>{@code rzz(θ)} as a {@code gate rzz} definition ({@code cx; rz(θ); cx}, Nielsen and
@@ -42,7 +45,7 @@ import org.apache.commons.numbers.complex.Complex;
  * </ul>
  * Other multi-qubit operators have no name in the subset and are refused.
  *
- * @since 0.2
+ * @since 0.1
  */
 public final class QasmWriter {
     /** The largest entry error allowed when a 1-qubit operator is written as U: {@value}. */

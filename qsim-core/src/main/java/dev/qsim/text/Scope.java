@@ -1,13 +1,14 @@
 package dev.qsim.text;
 
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.Map;
+
 import dev.qsim.Circuit;
 import dev.qsim.text.Syntax.Declaration;
 import dev.qsim.text.Syntax.GateDefinition;
 import dev.qsim.text.Syntax.Operand;
 import dev.qsim.text.Syntax.Position;
-import java.util.HashMap;
-import java.util.LinkedHashMap;
-import java.util.Map;
 
 /**
  * The names a program has declared so far, in one read: whether it included

@@ -1,9 +1,10 @@
 package dev.qsim.text;
 
-import dev.qsim.text.Lexer.Token;
 import java.util.List;
 import java.util.Set;
 import java.util.function.DoubleUnaryOperator;
+
+import dev.qsim.text.Lexer.Token;
 
 /**
  * The syntax tree of an OpenQASM 3 program as {@link Parser} builds it: plain records, each with

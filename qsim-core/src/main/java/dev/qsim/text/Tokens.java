@@ -1,9 +1,10 @@
 package dev.qsim.text;
 
+import java.util.List;
+
 import dev.qsim.Circuit;
 import dev.qsim.text.Lexer.Token;
 import dev.qsim.text.Lexer.Type;
-import java.util.List;
 
 /** A cursor over the lexer's tokens, shared by the statement and expression parsers. */
 final class Tokens {

@@ -5,6 +5,6 @@
  * {@link dev.qsim.Circuit} and {@link dev.qsim.text.QasmWriter} writes any circuit it can express
  * in that subset.
  *
- * @since 0.2
+ * @since 0.1
  */
 package dev.qsim.text;

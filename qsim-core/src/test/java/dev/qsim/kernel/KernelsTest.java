@@ -172,7 +172,8 @@ class KernelsTest {
     /**
      * A lone single-qubit gate on single-precision storage goes through
      * {@link FloatSingleQubitKernels} (one pass, no window): against the reference on the rounded
-     * input, every target, chunk sizes down to one amplitude. Each output part is one rounding of the exact result, so it
+     * input, every target, chunk sizes down to one amplitude. Each output part is one rounding of
+     * the exact result, so it
      * is within 2^-24 relative of it (IEEE 754-2019 §4.3.1; Higham 2002, §2.1): 1e-6 absolute
      * on parts below 2.
      */
@@ -433,7 +434,8 @@ class KernelsTest {
      * imaginary off-diagonal) take loops with half the arithmetic; here their entries are
      * random, since the kernels are linear. Every target, in one pass and cache
      * blocked, in double storage and (lone gates through {@link FloatSingleQubitKernels}) in float
-     * storage, with chunks small enough to reach the piece and chunk-pair paths. Reference as in the
+     * storage, with chunks small enough to reach the piece and chunk-pair paths. Reference as in
+     * the
      * tests above (Nielsen and Chuang 2010, §4.3): double results must equal it bit for bit,
      * float ones within 1e-6 (one rounding to float, IEEE 754-2019 §4.3.1).
      */

@@ -193,7 +193,8 @@ class ChannelTest {
             {Complex.ZERO, Complex.ONE}});
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
                 () -> Channel.of(half));
-        assertTrue(e.getMessage().contains("not trace preserving") && e.getMessage().contains("0.75"),
+        assertTrue(e.getMessage().contains("not trace preserving")
+                && e.getMessage().contains("0.75"),
                 e.getMessage());
         for (double p : new double[] {-0.1, 1.5, Double.NaN}) {
             e = assertThrows(IllegalArgumentException.class, () -> Channel.depolarizing(p));

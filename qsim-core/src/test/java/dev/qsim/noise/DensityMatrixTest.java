@@ -7,7 +7,6 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
-import dev.qsim.internal.Heap;
 import org.junit.jupiter.api.Test;
 
 import dev.qsim.Circuit;
@@ -15,6 +14,7 @@ import dev.qsim.Gates;
 import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
+import dev.qsim.internal.Heap;
 import dev.qsim.observable.Expectation;
 import dev.qsim.observable.Observable;
 

@@ -22,19 +22,45 @@ final class NoiseFixtures {
             int r = (q + 1 + rng.nextInt(n - 1)) % n;
             double angle = rng.nextDouble() * 2 * Math.PI;
             switch (rng.nextInt(14)) {
-                case 0: b.h(q); break;
-                case 1: b.x(q); break;
-                case 2: b.y(q); break;
-                case 3: b.s(q); break;
-                case 4: b.t(q); break;
-                case 5: b.rx(q, angle); break;
-                case 6: b.ry(q, angle); break;
-                case 7: b.rz(q, angle); break;
-                case 8: b.cnot(q, r); break;
-                case 9: b.cz(q, r); break;
-                case 10: b.swap(q, r); break;
-                case 11: b.cphase(q, r, angle); break;
-                case 12: b.sqrtX(q); break;
+                case 0:
+                    b.h(q);
+                    break;
+                case 1:
+                    b.x(q);
+                    break;
+                case 2:
+                    b.y(q);
+                    break;
+                case 3:
+                    b.s(q);
+                    break;
+                case 4:
+                    b.t(q);
+                    break;
+                case 5:
+                    b.rx(q, angle);
+                    break;
+                case 6:
+                    b.ry(q, angle);
+                    break;
+                case 7:
+                    b.rz(q, angle);
+                    break;
+                case 8:
+                    b.cnot(q, r);
+                    break;
+                case 9:
+                    b.cz(q, r);
+                    break;
+                case 10:
+                    b.swap(q, r);
+                    break;
+                case 11:
+                    b.cphase(q, r, angle);
+                    break;
+                case 12:
+                    b.sqrtX(q);
+                    break;
                 default:
                     if (n >= 3) {
                         int s = (r + 1 + rng.nextInt(n - 2)) % n;

@@ -81,7 +81,8 @@ class GradientsTest {
         TunableCircuit ry = TunableCircuit.builder(1).ry(0, "t", 3, 0).build();
         TunableCircuit ph = TunableCircuit.builder(1).h(0).phase(0, "t").h(0).build();
         for (double t = -2; t <= 2; t += 0.25) {
-            assertEquals(-3 * Math.sin(3 * t), Gradients.adjoint(ry, new double[] {t}, z)[0], 1e-14);
+            assertEquals(-3 * Math.sin(3 * t), Gradients.adjoint(ry, new double[] {t}, z)[0],
+                    1e-14);
             assertEquals(-3 * Math.sin(3 * t),
                     Gradients.parameterShift(ry, new double[] {t}, z)[0], 1e-14);
             assertEquals(-Math.sin(t), Gradients.adjoint(ph, new double[] {t}, z)[0], 1e-14);

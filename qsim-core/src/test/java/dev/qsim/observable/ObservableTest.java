@@ -95,7 +95,8 @@ class ObservableTest {
         e = assertThrows(IllegalArgumentException.class,
                 () -> Observable.of(1, "Z0").times(Double.NaN));
         assertTrue(e.getMessage().contains("NaN"), e::getMessage);
-        e = assertThrows(IllegalArgumentException.class, () -> Observable.of(1, "Z5").toOperator(3));
+        e = assertThrows(IllegalArgumentException.class, () -> Observable.of(1,
+                "Z5").toOperator(3));
         assertTrue(e.getMessage().contains("3"), e::getMessage);
     }
 }

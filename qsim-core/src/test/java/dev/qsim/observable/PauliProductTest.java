@@ -88,7 +88,8 @@ class PauliProductTest {
         "X0 Z1, Z0 Z1, -iY0",
     })
     void singleQubitProductTable(String a, String b, String product) {
-        assertEquals(PauliProduct.parse(product), PauliProduct.parse(a).times(PauliProduct.parse(b)));
+        assertEquals(PauliProduct.parse(product),
+                PauliProduct.parse(a).times(PauliProduct.parse(b)));
     }
 
     /** Dense matrix of a product from the textbook 2x2 matrices of Gates (Kronecker order). */

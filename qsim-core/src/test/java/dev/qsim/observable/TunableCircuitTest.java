@@ -23,7 +23,8 @@ class TunableCircuitTest {
 
     @Test
     void bindingGivesThePlainCircuitGateForGate() {
-        // Expected: the same gates written with dev.qsim's Circuit.Builder, angle = scale·θ + offset.
+        // Expected: the same gates written with dev.qsim's Circuit.Builder, angle = scale·θ +
+        // offset.
         double a = 0.7;
         double b = -1.1;
         double c = 2.5;

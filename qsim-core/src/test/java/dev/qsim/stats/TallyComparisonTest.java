@@ -5,19 +5,21 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.qsim.Circuit;
-import dev.qsim.Simulator;
-import dev.qsim.Tally;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import java.util.TreeMap;
+
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 import org.apache.commons.statistics.inference.ChiSquareTest;
 import org.apache.commons.statistics.inference.GTest;
 import org.junit.jupiter.api.Test;
+
+import dev.qsim.Circuit;
+import dev.qsim.Simulator;
+import dev.qsim.Tally;
 
 class TallyComparisonTest {
 

@@ -5,6 +5,12 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertInstanceOf;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.util.ArrayList;
+import java.util.List;
+import java.util.stream.Collectors;
+
+import org.junit.jupiter.api.Test;
+
 import dev.qsim.text.Syntax.Barrier;
 import dev.qsim.text.Syntax.Binary;
 import dev.qsim.text.Syntax.Constant;
@@ -23,10 +29,6 @@ import dev.qsim.text.Syntax.Program;
 import dev.qsim.text.Syntax.Reset;
 import dev.qsim.text.Syntax.Statement;
 import dev.qsim.text.Syntax.Variable;
-import java.util.ArrayList;
-import java.util.List;
-import java.util.stream.Collectors;
-import org.junit.jupiter.api.Test;
 
 /**
  * The syntax tree the parser builds: its shape, the positions on its nodes, and the order in

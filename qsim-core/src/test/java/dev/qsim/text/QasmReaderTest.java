@@ -4,14 +4,15 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.qsim.Circuit;
-import dev.qsim.Gate;
-import dev.qsim.Gates;
-import dev.qsim.Operator;
 import org.apache.commons.numbers.complex.Complex;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
+
+import dev.qsim.Circuit;
+import dev.qsim.Gate;
+import dev.qsim.Gates;
+import dev.qsim.Operator;
 
 /**
  * Each construct of the subset against the circuit built by hand. Syntax and meaning follow the
@@ -182,7 +183,8 @@ class QasmReaderTest {
         "qubit[1] q;\\n$|2|1|unexpected character '$'",
         "qubit[1] q;\\nU(1ns, 0, 0) q[0];|2|4|units such as ns",
         "qubit[1] q;\\nbit[1] c;\\nif (c[0] == 1) { U(0, 0, 0) q[0];|3|34|expected '}'",
-        "qubit[1] q;\\nU(((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((1)))))))"
+        "qubit[1] q;\\nU(((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((("
+            + "((((((1)))))))"
             + ")))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))), 0, 0) q[0];"
             + "|2|68|nested deeper",
     })

@@ -4,9 +4,6 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.qsim.Circuit;
-import dev.qsim.Gates;
-import dev.qsim.Operator;
 import net.jqwik.api.ForAll;
 import net.jqwik.api.Property;
 import net.jqwik.api.ShrinkingMode;
@@ -14,6 +11,10 @@ import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 import org.junit.jupiter.api.Test;
+
+import dev.qsim.Circuit;
+import dev.qsim.Gates;
+import dev.qsim.Operator;
 
 /** Writing then reading gives the circuit back (exactly, or as an equal operator). */
 class QasmWriterTest {
@@ -46,14 +47,30 @@ class QasmWriterTest {
         int kind = rng.nextInt(classical ? 24 : 20);
         double a = angle(rng);
         switch (kind) {
-            case 0: b.h(q[0]); break;
-            case 1: b.x(q[0]); break;
-            case 2: b.y(q[0]); break;
-            case 3: b.z(q[0]); break;
-            case 4: b.s(q[0]); break;
-            case 5: b.sDagger(q[0]); break;
-            case 6: b.t(q[0]); break;
-            case 7: b.tDagger(q[0]); break;
+            case 0:
+                b.h(q[0]);
+                break;
+            case 1:
+                b.x(q[0]);
+                break;
+            case 2:
+                b.y(q[0]);
+                break;
+            case 3:
+                b.z(q[0]);
+                break;
+            case 4:
+                b.s(q[0]);
+                break;
+            case 5:
+                b.sDagger(q[0]);
+                break;
+            case 6:
+                b.t(q[0]);
+                break;
+            case 7:
+                b.tDagger(q[0]);
+                break;
             case 8:
                 if (rng.nextBoolean()) {
                     b.sqrtX(q[0]);
@@ -61,24 +78,60 @@ class QasmWriterTest {
                     b.append(Circuit.builder(n, nc).sqrtX(q[0]).build().inverse());
                 }
                 break;
-            case 9: b.rx(q[0], a); break;
-            case 10: b.ry(q[0], a); break;
-            case 11: b.rz(q[0], rng.nextBoolean() ? a : Math.PI / 4); break;
-            case 12: b.phase(q[0], a); break;
-            case 13: if (n > 1) { b.cnot(q[0], q[1]); } break;
-            case 14: if (n > 1) { b.cz(q[0], q[1]); } break;
-            case 15: if (n > 1) { b.cphase(q[0], q[1], a); } break;
-            case 16: if (n > 1) { b.swap(q[0], q[1]); } break;
-            case 17: if (n > 2) { b.toffoli(q[0], q[1], q[2]); } break;
-            case 18: if (n > 2) { b.fredkin(q[0], q[1], q[2]); } break;
+            case 9:
+                b.rx(q[0], a);
+                break;
+            case 10:
+                b.ry(q[0], a);
+                break;
+            case 11:
+                b.rz(q[0], rng.nextBoolean() ? a : Math.PI / 4);
+                break;
+            case 12:
+                b.phase(q[0], a);
+                break;
+            case 13:
+                if (n > 1) {
+                    b.cnot(q[0], q[1]);
+                }
+                break;
+            case 14:
+                if (n > 1) {
+                    b.cz(q[0], q[1]);
+                }
+                break;
+            case 15:
+                if (n > 1) {
+                    b.cphase(q[0], q[1], a);
+                }
+                break;
+            case 16:
+                if (n > 1) {
+                    b.swap(q[0], q[1]);
+                }
+                break;
+            case 17:
+                if (n > 2) {
+                    b.toffoli(q[0], q[1], q[2]);
+                }
+                break;
+            case 18:
+                if (n > 2) {
+                    b.fredkin(q[0], q[1], q[2]);
+                }
+                break;
             case 19:
                 if (n > 1) {
                     b.controlled(CONTROLLABLE[rng.nextInt(CONTROLLABLE.length)],
                             java.util.Arrays.copyOf(q, q.length - 1), q[q.length - 1]);
                 }
                 break;
-            case 20: b.measure(q[0], rng.nextInt(nc)); break;
-            case 21: b.reset(q[0]); break;
+            case 20:
+                b.measure(q[0], rng.nextInt(nc));
+                break;
+            case 21:
+                b.reset(q[0]);
+                break;
             default:
                 if (depth < 2) {
                     b.ifBit(rng.nextInt(nc), rng.nextInt(2), inner -> {
@@ -121,12 +174,24 @@ class QasmWriterTest {
                 {u.get(0, 0).multiply(g), u.get(0, 1).multiply(g)},
                 {u.get(1, 0).multiply(g), u.get(1, 1).multiply(g)}});
             switch (rng.nextInt(6)) {
-                case 0: b.apply(phased, q[0]); break;
-                case 1: b.controlled(phased, new int[] {q[1]}, q[0]); break;
-                case 2: b.controlled(phased, new int[] {q[1], q[2]}, q[0]); break;
-                case 3: b.rzz(q[0], q[1], angle(rng)); break;
-                case 4: b.apply(Gates.CNOT, q[0], q[1]); break;
-                default: b.apply(Gates.H, q[2]); break;
+                case 0:
+                    b.apply(phased, q[0]);
+                    break;
+                case 1:
+                    b.controlled(phased, new int[] {q[1]}, q[0]);
+                    break;
+                case 2:
+                    b.controlled(phased, new int[] {q[1], q[2]}, q[0]);
+                    break;
+                case 3:
+                    b.rzz(q[0], q[1], angle(rng));
+                    break;
+                case 4:
+                    b.apply(Gates.CNOT, q[0], q[1]);
+                    break;
+                default:
+                    b.apply(Gates.H, q[2]);
+                    break;
             }
         }
         Circuit c = b.build();

@@ -1,10 +1,11 @@
 package dev.qsim.examples;
 
-import dev.qsim.examples.cli.Cli;
 import java.io.PrintStream;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Objects;
+
+import dev.qsim.examples.cli.Cli;
 
 /**
  * Command-line launcher of the qsim examples.

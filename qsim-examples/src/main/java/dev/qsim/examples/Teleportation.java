@@ -6,11 +6,12 @@ import java.util.List;
 import java.util.Map;
 import java.util.Objects;
 
+import org.apache.commons.numbers.complex.Complex;
+
 import dev.qsim.Circuit;
 import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
-import org.apache.commons.numbers.complex.Complex;
 
 /**
  * Teleporting one qubit's state with two classical bits and a shared Bell pair.

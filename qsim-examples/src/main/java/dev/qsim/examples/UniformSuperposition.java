@@ -4,11 +4,12 @@ import java.io.PrintStream;
 import java.util.Arrays;
 import java.util.Objects;
 
+import org.apache.commons.statistics.inference.ChiSquareTest;
+import org.apache.commons.statistics.inference.SignificanceResult;
+
 import dev.qsim.Circuit;
 import dev.qsim.Simulator;
 import dev.qsim.Tally;
-import org.apache.commons.statistics.inference.ChiSquareTest;
-import org.apache.commons.statistics.inference.SignificanceResult;
 
 /**
  * The main demo: a fairness check of a 32-sided quantum die.

@@ -4,12 +4,13 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.qsim.StateVector;
 import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.statistics.inference.BinomialTest;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
+
+import dev.qsim.StateVector;
 
 class BellAndGhzTest {
 

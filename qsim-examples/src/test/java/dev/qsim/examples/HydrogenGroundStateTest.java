@@ -47,7 +47,8 @@ class HydrogenGroundStateTest {
         Capture out = new Capture();
         UsageException e = assertThrows(UsageException.class,
                 () -> HydrogenGroundState.fromArgs(new String[] {"1", "1"}, out.stream()));
-        assertTrue(e.getMessage().contains("at least 2 for a standard error, got 1"), e::getMessage);
+        assertTrue(e.getMessage().contains("at least 2 for a standard error, got 1"),
+                e::getMessage);
         e = assertThrows(UsageException.class,
                 () -> HydrogenGroundState.fromArgs(new String[] {"x"}, out.stream()));
         assertTrue(e.getMessage().contains("'x'"), e::getMessage);

@@ -4,8 +4,9 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.qsim.Tally;
 import org.junit.jupiter.api.Test;
+
+import dev.qsim.Tally;
 
 class NoisyGhzTest {
 

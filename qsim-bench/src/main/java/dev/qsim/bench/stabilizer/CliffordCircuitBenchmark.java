@@ -1,10 +1,8 @@
 package dev.qsim.bench.stabilizer;
 
-import dev.qsim.Circuit;
-import dev.qsim.Simulator;
-import dev.qsim.Tally;
 import java.util.SplittableRandom;
 import java.util.concurrent.TimeUnit;
+
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;
@@ -16,6 +14,10 @@ import org.openjdk.jmh.annotations.Scope;
 import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.Warmup;
+
+import dev.qsim.Circuit;
+import dev.qsim.Simulator;
+import dev.qsim.Tally;
 
 /**
  * Time of a whole run of a random Clifford circuit on the stabilizer engine: {@code gates}

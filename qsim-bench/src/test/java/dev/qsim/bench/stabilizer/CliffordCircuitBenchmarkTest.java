@@ -3,10 +3,11 @@ package dev.qsim.bench.stabilizer;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import org.junit.jupiter.api.Test;
+
 import dev.qsim.Circuit;
 import dev.qsim.Instruction;
 import dev.qsim.Tally;
-import org.junit.jupiter.api.Test;
 
 /** Tests of the benchmark's workload, on a small size. */
 class CliffordCircuitBenchmarkTest {

@@ -1,15 +1,5 @@
 package dev.qsim.examples.cli;
 
-import dev.qsim.Circuit;
-import dev.qsim.Precision;
-import dev.qsim.Simulator;
-import dev.qsim.noise.Channel;
-import dev.qsim.noise.NoiseModel;
-import dev.qsim.StateVector;
-import dev.qsim.Tally;
-import dev.qsim.stats.TallyComparison;
-import dev.qsim.stats.TallyFiles;
-import dev.qsim.text.QasmReader;
 import java.io.IOException;
 import java.io.PrintStream;
 import java.io.PrintWriter;
@@ -23,12 +13,24 @@ import java.util.Map;
 import java.util.Objects;
 import java.util.Set;
 import java.util.concurrent.Callable;
+
 import org.apache.commons.numbers.complex.Complex;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
+
+import dev.qsim.Circuit;
+import dev.qsim.Precision;
+import dev.qsim.Simulator;
+import dev.qsim.StateVector;
+import dev.qsim.Tally;
+import dev.qsim.noise.Channel;
+import dev.qsim.noise.NoiseModel;
+import dev.qsim.stats.TallyComparison;
+import dev.qsim.stats.TallyFiles;
+import dev.qsim.text.QasmReader;
 
 /**
  * The command-line tool: runs OpenQASM 3 circuit files, prints states, draws circuits and

@@ -1,10 +1,11 @@
 package dev.qsim.examples.cli;
 
-import dev.qsim.Circuit;
-import dev.qsim.Instruction;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
+
+import dev.qsim.Circuit;
+import dev.qsim.Instruction;
 
 /**
  * Draws a circuit as an SVG picture: one horizontal wire per qubit, a double line for the
@@ -141,7 +142,8 @@ final class SvgCircuit {
                 // The condition reads a classical bit: a double line from the frame down to it.
                 int xm = (x0 + x1) / 2;
                 int yc = rowY(qubits);
-                out.append(Cli.f("<line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\" stroke=\"#c08a00\"/>"
+                out.append(Cli.f(
+                        "<line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\" stroke=\"#c08a00\"/>"
                         + "<line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\" stroke=\"#c08a00\"/>"
                         + "<circle cx=\"%d\" cy=\"%d\" r=\"4\" fill=\"#c08a00\"/>%n", xm - 2, y1,
                         xm - 2, yc, xm + 2, y1, xm + 2, yc, xm, yc));

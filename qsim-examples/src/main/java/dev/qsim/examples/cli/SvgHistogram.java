@@ -1,11 +1,12 @@
 package dev.qsim.examples.cli;
 
-import dev.qsim.Tally;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
+
+import dev.qsim.Tally;
 
 /**
  * Draws a tally as an SVG histogram: one bar per outcome for the measured frequency and, when a
@@ -46,7 +47,8 @@ final class SvgHistogram {
         List<Map.Entry<String, double[]>> list = new ArrayList<>(rows.entrySet());
         if (list.size() > MAX_BARS) {
             list.sort(Comparator.comparingDouble(
-                    (Map.Entry<String, double[]> e) -> -Math.max(e.getValue()[0], e.getValue()[1])));
+                    (Map.Entry<String, double[]> e) -> -Math.max(e.getValue()[0],
+                            e.getValue()[1])));
             list = new ArrayList<>(list.subList(0, MAX_BARS));
             list.sort(Map.Entry.comparingByKey());
         }

@@ -3,12 +3,6 @@ package dev.qsim.examples.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.qsim.Circuit;
-import dev.qsim.Simulator;
-import dev.qsim.Tally;
-import dev.qsim.examples.Main;
-import dev.qsim.stats.TallyFiles;
-import dev.qsim.text.QasmReader;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.PrintStream;
@@ -16,10 +10,18 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Map;
+
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
+
+import dev.qsim.Circuit;
+import dev.qsim.Simulator;
+import dev.qsim.Tally;
+import dev.qsim.examples.Main;
+import dev.qsim.stats.TallyFiles;
+import dev.qsim.text.QasmReader;
 
 /** The tool end to end through {@link Main#run}: outputs, files, exit codes. */
 class CliTest {
