@@ -11,7 +11,7 @@ import dev.qsim.internal.Checks;
 import dev.qsim.kernel.Parallel;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
-import dev.qsim.stabilizer.GeneratorTable;
+import dev.qsim.stabilizer.StabilizerTableau;
 
 /**
  * The one way to run a circuit, whatever the engine: an immutable configuration (seed,
@@ -478,7 +478,7 @@ public final class Simulator implements CircuitRunner {
      * with outcomes drawn from the seed, resets and conditions act as in {@link #run}. Ideal
      * circuits run on the state vector, or on the tableau when {@link Engine#TABLEAU} is set
      * (the final stabilizer state is then converted, at most
-     * {@value GeneratorTable#MAX_DENSE_QUBITS} qubits); with noise, the state is the end of
+     * {@value StabilizerTableau#MAX_DENSE_QUBITS} qubits); with noise, the state is the end of
      * one trajectory.
      *
      * @param circuit the circuit

@@ -8,13 +8,13 @@ import dev.qsim.Tally;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
-import dev.qsim.stabilizer.GeneratorTable;
+import dev.qsim.stabilizer.StabilizerTableau;
 
 /**
  * The one bridge between qsim's packages: the storage behind the public state types, and the
  * engines the run facade ({@link dev.qsim.Simulator}) reaches in other packages, without making
  * either public. Each part is registered once, by the static initialiser of the class that owns
- * it ({@link StateVector}, {@link DensityMatrix}, {@link GeneratorTable}); a second registration
+ * it ({@link StateVector}, {@link DensityMatrix}, {@link StabilizerTableau}); a second registration
  * is refused. Internal: this package is not exported, and nothing here checks arguments.
  */
 public final class Bridge {
@@ -96,7 +96,7 @@ public final class Bridge {
          * @param seed the seed
          * @return the table
          */
-        GeneratorTable stateAfter(Circuit circuit, long seed);
+        StabilizerTableau stateAfter(Circuit circuit, long seed);
     }
 
     /** The noise engines (package {@code dev.qsim.noise}). */
@@ -190,7 +190,7 @@ public final class Bridge {
     }
 
     /**
-     * Registers the stabilizer engine; called once, by {@link GeneratorTable}.
+     * Registers the stabilizer engine; called once, by {@link StabilizerTableau}.
      *
      * @param t the implementation
      * @throws IllegalStateException if one is registered already
@@ -254,7 +254,7 @@ public final class Bridge {
     public static Tableaus tableaus() {
         Tableaus t = tableaus;
         if (t == null) {
-            initialise(GeneratorTable.class);
+            initialise(StabilizerTableau.class);
             t = tableaus;
         }
         return t;

@@ -25,7 +25,7 @@ import dev.qsim.noise.DensityMatrix;
  * Expectation values of observables: exact in a state vector ({@code <ψ|H|ψ>}, variance) or a
  * density matrix ({@code Tr(ρH)}), and estimated from shots. One name for every kind of state:
  * {@code Expectation.of(h, state)}; a stabilizer table answers for one Pauli product itself
- * ({@link dev.qsim.stabilizer.GeneratorTable#expectation(PauliProduct)}). Stateless; thread-safe
+ * ({@link dev.qsim.stabilizer.StabilizerTableau#expectation(PauliProduct)}). Stateless; thread-safe
  * as long as no other thread changes the state
  * during a call.
  *

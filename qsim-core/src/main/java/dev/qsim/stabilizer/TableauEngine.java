@@ -15,7 +15,7 @@ import dev.qsim.internal.Bridge;
 
 /**
  * The stabilizer engine behind {@link dev.qsim.Simulator}: runs Clifford circuits on a
- * {@link GeneratorTable}. Each gate is applied as its catalogue decomposition into the
+ * {@link StabilizerTableau}. Each gate is applied as its catalogue decomposition into the
  * tableau's primitive gates ({@link Gate#cliffordSteps(double...)}), equal up to a global phase.
  *
  * <p><b>How shots are taken.</b> In a stabilizer circuit the generators' bits evolve the same
@@ -63,7 +63,7 @@ final class TableauEngine implements Bridge.Tableaus {
             this.body = body;
         }
 
-        void gate(GeneratorTable t) {
+        void gate(StabilizerTableau t) {
             int[] p = program;
             for (int i = 0; i < p.length; i += 3) {
                 int a = p[i + 1];
@@ -144,8 +144,8 @@ final class TableauEngine implements Bridge.Tableaus {
     }
 
     @Override
-    public GeneratorTable stateAfter(Circuit circuit, long seed) {
-        GeneratorTable t = GeneratorTable.zero(circuit.qubits());
+    public StabilizerTableau stateAfter(Circuit circuit, long seed) {
+        StabilizerTableau t = StabilizerTableau.zero(circuit.qubits());
         runShot(t, compile(circuit.instructions()), 0, new boolean[circuit.clbits()],
                 RandomSource.XO_RO_SHI_RO_128_PP.create(seed));
         return t;
@@ -159,7 +159,7 @@ final class TableauEngine implements Bridge.Tableaus {
         for (Op op : program) {
             conditioned |= op.kind == Instruction.Kind.IF_BIT;
         }
-        GeneratorTable t = GeneratorTable.zero(circuit.qubits());
+        StabilizerTableau t = StabilizerTableau.zero(circuit.qubits());
         boolean[] reg = new boolean[circuit.clbits()];
         Tally.Recorder outcomes = Tally.recorder(reg.length);
         if (!conditioned) {
@@ -181,7 +181,7 @@ final class TableauEngine implements Bridge.Tableaus {
                 program[first].gate(t);
                 first++;
             }
-            GeneratorTable work = t.copy();
+            StabilizerTableau work = t.copy();
             for (int s = 0; s < shots; s++) {
                 work.copyFrom(t);
                 Arrays.fill(reg, false);
@@ -192,7 +192,7 @@ final class TableauEngine implements Bridge.Tableaus {
         return outcomes.build();
     }
 
-    static void runShot(GeneratorTable t, Op[] program, int from, boolean[] reg,
+    static void runShot(StabilizerTableau t, Op[] program, int from, boolean[] reg,
             UniformRandomProvider rng) {
         for (int i = from; i < program.length; i++) {
             Op op = program[i];
@@ -251,7 +251,7 @@ final class TableauEngine implements Bridge.Tableaus {
         }
 
         /** Simulates the circuit once on {@code t} (changed), random outcomes taken as 0. */
-        static SignReplay record(GeneratorTable t, Op[] program) {
+        static SignReplay record(StabilizerTableau t, Op[] program) {
             final int half = t.halfWords();
             long[] snapshot = new long[half];
             List<Step> steps = new ArrayList<>();

@@ -1,7 +1,7 @@
 /**
  * The stabilizer engine: circuits of Clifford gates and measurements on thousands of qubits.
  *
- * <p>{@link dev.qsim.stabilizer.GeneratorTable} holds a stabilizer state as the tableau of
+ * <p>{@link dev.qsim.stabilizer.StabilizerTableau} holds a stabilizer state as the tableau of
  * S. Aaronson and D. Gottesman, "Improved simulation of stabilizer circuits", Phys. Rev. A 70,
  * 052328 (2004), doi:10.1103/PhysRevA.70.052328, and answers queries on it (generators and
  * expectations as Pauli products, conversion to a state vector for small n). Circuits run on

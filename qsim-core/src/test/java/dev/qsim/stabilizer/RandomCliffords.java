@@ -10,7 +10,7 @@ final class RandomCliffords {
     }
 
     /** Appends {@code count} random gates from h x y z s sDagger sqrtX cnot cz swap. */
-    static void gates(Random rnd, int n, int count, Circuit.Builder b, GeneratorTable t) {
+    static void gates(Random rnd, int n, int count, Circuit.Builder b, StabilizerTableau t) {
         for (int k = 0; k < count; k++) {
             int kind = n == 1 ? rnd.nextInt(7) : rnd.nextInt(10);
             int q = rnd.nextInt(n);

@@ -11,7 +11,7 @@ final class Tables {
     }
 
     /** The generators as {@code "+XZI"}-style text: sign, then the highest qubit leftmost. */
-    static List<String> texts(GeneratorTable t) {
+    static List<String> texts(StabilizerTableau t) {
         List<String> out = new ArrayList<>();
         for (PauliProduct p : t.generators()) {
             String dense = p.toDense(t.qubits());
@@ -21,7 +21,7 @@ final class Tables {
     }
 
     /** The expectation of a product given as text ({@link PauliProduct#parse(String)}). */
-    static int expect(GeneratorTable t, String text) {
+    static int expect(StabilizerTableau t, String text) {
         return t.expectation(PauliProduct.parse(text));
     }
 }

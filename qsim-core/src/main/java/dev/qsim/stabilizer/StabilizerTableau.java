@@ -39,7 +39,7 @@ import dev.qsim.observable.PauliProduct;
  *
  * @since 0.1
  */
-public final class GeneratorTable {
+public final class StabilizerTableau {
     static {
         Bridge.register(new TableauEngine());
     }
@@ -70,7 +70,7 @@ public final class GeneratorTable {
     private final long[] low;
     private final long[] high;
 
-    private GeneratorTable(int n) {
+    private StabilizerTableau(int n) {
         this.n = n;
         this.half = (n + 63) >>> 6;
         this.stride = 2 * half;
@@ -82,7 +82,7 @@ public final class GeneratorTable {
         this.high = new long[half];
     }
 
-    private GeneratorTable(GeneratorTable other) {
+    private StabilizerTableau(StabilizerTableau other) {
         this.n = other.n;
         this.half = other.half;
         this.stride = other.stride;
@@ -114,10 +114,10 @@ public final class GeneratorTable {
      * @throws IllegalArgumentException if {@code n} is out of range
      * @throws IllegalStateException if the heap cannot hold the table
      */
-    public static GeneratorTable zero(int n) {
+    public static StabilizerTableau zero(int n) {
         Checks.requireInRange(n, 1, MAX_QUBITS, "qubit count");
         Heap.require(bytes(n), "a " + n + "-qubit stabilizer table");
-        GeneratorTable t = new GeneratorTable(n);
+        StabilizerTableau t = new StabilizerTableau(n);
         for (int i = 0; i < n; i++) {
             int w = i >>> 6;
             long b = 1L << (i & 63);
@@ -133,9 +133,9 @@ public final class GeneratorTable {
      * @return the copy
      * @throws IllegalStateException if the heap cannot hold it
      */
-    public GeneratorTable copy() {
+    public StabilizerTableau copy() {
         Heap.require(bytes(n), "a copy of a " + n + "-qubit stabilizer table");
-        return new GeneratorTable(this);
+        return new StabilizerTableau(this);
     }
 
     /**
@@ -143,7 +143,7 @@ public final class GeneratorTable {
      *
      * @param other a table of as many qubits. Not modified.
      */
-    void copyFrom(GeneratorTable other) {
+    void copyFrom(StabilizerTableau other) {
         System.arraycopy(other.xs, 0, xs, 0, xs.length);
         System.arraycopy(other.zs, 0, zs, 0, zs.length);
         System.arraycopy(other.signs, 0, signs, 0, signs.length);
@@ -167,7 +167,7 @@ public final class GeneratorTable {
      * @return this table
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
-    public GeneratorTable h(int q) {
+    public StabilizerTableau h(int q) {
         Checks.requireQubit(q, n);
         hRaw(q);
         return this;
@@ -180,7 +180,7 @@ public final class GeneratorTable {
      * @return this table
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
-    public GeneratorTable s(int q) {
+    public StabilizerTableau s(int q) {
         Checks.requireQubit(q, n);
         sRaw(q);
         return this;
@@ -193,7 +193,7 @@ public final class GeneratorTable {
      * @return this table
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
-    public GeneratorTable sDagger(int q) {
+    public StabilizerTableau sDagger(int q) {
         Checks.requireQubit(q, n);
         sDaggerRaw(q);
         return this;
@@ -206,7 +206,7 @@ public final class GeneratorTable {
      * @return this table
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
-    public GeneratorTable sqrtX(int q) {
+    public StabilizerTableau sqrtX(int q) {
         Checks.requireQubit(q, n);
         hRaw(q);
         sRaw(q);
@@ -221,7 +221,7 @@ public final class GeneratorTable {
      * @return this table
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
-    public GeneratorTable x(int q) {
+    public StabilizerTableau x(int q) {
         Checks.requireQubit(q, n);
         xRaw(q);
         return this;
@@ -234,7 +234,7 @@ public final class GeneratorTable {
      * @return this table
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
-    public GeneratorTable y(int q) {
+    public StabilizerTableau y(int q) {
         Checks.requireQubit(q, n);
         yRaw(q);
         return this;
@@ -247,7 +247,7 @@ public final class GeneratorTable {
      * @return this table
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
-    public GeneratorTable z(int q) {
+    public StabilizerTableau z(int q) {
         Checks.requireQubit(q, n);
         zRaw(q);
         return this;
@@ -262,7 +262,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if a qubit is not in the table
      * @throws IllegalArgumentException if {@code control == target}
      */
-    public GeneratorTable cnot(int control, int target) {
+    public StabilizerTableau cnot(int control, int target) {
         requireDistinct(control, target, "cnot");
         cnotRaw(control, target);
         return this;
@@ -277,7 +277,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if a qubit is not in the table
      * @throws IllegalArgumentException if {@code a == b}
      */
-    public GeneratorTable cz(int a, int b) {
+    public StabilizerTableau cz(int a, int b) {
         requireDistinct(a, b, "cz");
         czRaw(a, b);
         return this;
@@ -292,7 +292,7 @@ public final class GeneratorTable {
      * @throws IndexOutOfBoundsException if a qubit is not in the table
      * @throws IllegalArgumentException if {@code a == b}
      */
-    public GeneratorTable swap(int a, int b) {
+    public StabilizerTableau swap(int a, int b) {
         requireDistinct(a, b, "swap");
         swapRaw(a, b);
         return this;
@@ -446,7 +446,7 @@ public final class GeneratorTable {
      * @return this table
      * @throws IndexOutOfBoundsException if {@code q} is not a qubit of the table
      */
-    public GeneratorTable reset(int q, UniformRandomProvider rng) {
+    public StabilizerTableau reset(int q, UniformRandomProvider rng) {
         Checks.requireQubit(q, n);
         Objects.requireNonNull(rng, "rng");
         if (measureRaw(q, rng) == 1) {
@@ -781,7 +781,7 @@ public final class GeneratorTable {
             throw new IllegalArgumentException("toStateVector() needs at most " + MAX_DENSE_QUBITS
                     + " qubits but the table has " + n);
         }
-        GeneratorTable t = new GeneratorTable(this);
+        StabilizerTableau t = new StabilizerTableau(this);
         long start = 0;
         for (int q = 0; q < n; q++) {
             int p = t.pivot(q);
@@ -850,12 +850,12 @@ public final class GeneratorTable {
     }
 
     /**
-     * Returns a short description such as {@code "GeneratorTable[3 qubits]"}.
+     * Returns a short description such as {@code "StabilizerTableau[3 qubits]"}.
      *
      * @return the text
      */
     @Override
     public String toString() {
-        return "GeneratorTable[" + n + " qubits]";
+        return "StabilizerTableau[" + n + " qubits]";
     }
 }

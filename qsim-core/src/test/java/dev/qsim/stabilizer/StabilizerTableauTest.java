@@ -19,18 +19,18 @@ import dev.qsim.Gates;
 import dev.qsim.Operator;
 import dev.qsim.StateVector;
 
-class GeneratorTableTest {
+class StabilizerTableauTest {
 
     @Test
     void zeroStateIsStabilizedByZOnEachQubit() {
         // |0...0> is the +1 eigenstate of each Z_i (Nielsen and Chuang 2010, sec. 10.5.1).
-        assertEquals(List.of("+IIZ", "+IZI", "+ZII"), Tables.texts(GeneratorTable.zero(3)));
+        assertEquals(List.of("+IIZ", "+IZI", "+ZII"), Tables.texts(StabilizerTableau.zero(3)));
     }
 
     @Test
     void bellStateHasGeneratorsXxAndZz() {
         // (|00> + |11>)/sqrt2 is stabilized by XX and ZZ (Nielsen and Chuang 2010, sec. 10.5.1).
-        GeneratorTable t = GeneratorTable.zero(2).h(0).cnot(0, 1);
+        StabilizerTableau t = StabilizerTableau.zero(2).h(0).cnot(0, 1);
         assertEquals(List.of("+XX", "+ZZ"), Tables.texts(t));
         assertEquals(1, Tables.expect(t, "XX"));
         assertEquals(1, Tables.expect(t, "+ZZ"));
@@ -45,10 +45,10 @@ class GeneratorTableTest {
     @Test
     void signsFollowPauliConjugation() {
         // X Z X = -Z and S X S† = Y (Pauli algebra, common practice).
-        assertEquals(List.of("-Z"), Tables.texts(GeneratorTable.zero(1).x(0)));
-        assertEquals(List.of("+Y"), Tables.texts(GeneratorTable.zero(1).h(0).s(0)));
-        assertEquals(List.of("-Y"), Tables.texts(GeneratorTable.zero(1).h(0).sDagger(0)));
-        assertEquals(List.of("-X"), Tables.texts(GeneratorTable.zero(1).x(0).h(0)));
+        assertEquals(List.of("-Z"), Tables.texts(StabilizerTableau.zero(1).x(0)));
+        assertEquals(List.of("+Y"), Tables.texts(StabilizerTableau.zero(1).h(0).s(0)));
+        assertEquals(List.of("-Y"), Tables.texts(StabilizerTableau.zero(1).h(0).sDagger(0)));
+        assertEquals(List.of("-X"), Tables.texts(StabilizerTableau.zero(1).x(0).h(0)));
     }
 
     /** Random gate sequences: the table's state vector equals the state-vector engine's. */
@@ -59,7 +59,7 @@ class GeneratorTableTest {
         for (int trial = 0; trial < 60; trial++) {
             int n = 1 + rnd.nextInt(8);
             Circuit.Builder b = Circuit.builder(n);
-            GeneratorTable t = GeneratorTable.zero(n);
+            StabilizerTableau t = StabilizerTableau.zero(n);
             RandomCliffords.gates(rnd, n, 5 + rnd.nextInt(40), b, t);
             Circuit c = b.build();
             StateVector expected = StateVector.zero(n).apply(c);
@@ -86,7 +86,7 @@ class GeneratorTableTest {
         for (int trial = 0; trial < 40; trial++) {
             int n = 1 + rnd.nextInt(6);
             Circuit.Builder b = Circuit.builder(n);
-            GeneratorTable t = GeneratorTable.zero(n);
+            StabilizerTableau t = StabilizerTableau.zero(n);
             RandomCliffords.gates(rnd, n, 30, b, t);
             StateVector psi = StateVector.zero(n).apply(b.build());
             for (int k = 0; k < 12; k++) {
@@ -139,7 +139,7 @@ class GeneratorTableTest {
         for (int trial = 0; trial < 60; trial++) {
             int n = 1 + rnd.nextInt(7);
             Circuit.Builder b = Circuit.builder(n);
-            GeneratorTable t = GeneratorTable.zero(n);
+            StabilizerTableau t = StabilizerTableau.zero(n);
             RandomCliffords.gates(rnd, n, 25, b, t);
             StateVector psi = StateVector.zero(n).apply(b.build());
             int q = rnd.nextInt(n);
@@ -180,7 +180,7 @@ class GeneratorTableTest {
     void resetGivesZeroOnTheQubit() {
         UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(5);
         for (int k = 0; k < 20; k++) {
-            GeneratorTable t = GeneratorTable.zero(3).h(1).cnot(1, 2).x(2);
+            StabilizerTableau t = StabilizerTableau.zero(3).h(1).cnot(1, 2).x(2);
             t.reset(2, rng);
             // After reset the qubit reads 0 with certainty (definition of reset, common practice).
             assertTrue(t.isDeterministic(2));
@@ -190,8 +190,8 @@ class GeneratorTableTest {
 
     @Test
     void copyIsIndependent() {
-        GeneratorTable t = GeneratorTable.zero(2).h(0);
-        GeneratorTable c = t.copy();
+        StabilizerTableau t = StabilizerTableau.zero(2).h(0);
+        StabilizerTableau c = t.copy();
         c.cnot(0, 1);
         assertEquals(List.of("+IX", "+ZI"), Tables.texts(t));
         assertEquals(List.of("+XX", "+ZZ"), Tables.texts(c));
@@ -201,7 +201,7 @@ class GeneratorTableTest {
     @Test
     void ghzAcrossWordBoundaries() {
         int n = 130;
-        GeneratorTable t = GeneratorTable.zero(n).h(0);
+        StabilizerTableau t = StabilizerTableau.zero(n).h(0);
         for (int q = 1; q < n; q++) {
             t.cnot(q - 1, q);
         }
@@ -227,13 +227,13 @@ class GeneratorTableTest {
     @CsvSource({"0", "-1", "200001"})
     void qubitCountOutOfRangeIsRefused(int n) {
         IllegalArgumentException e =
-                assertThrows(IllegalArgumentException.class, () -> GeneratorTable.zero(n));
+                assertThrows(IllegalArgumentException.class, () -> StabilizerTableau.zero(n));
         assertTrue(e.getMessage().contains(Integer.toString(n)), e.getMessage());
     }
 
     @Test
     void qubitOutOfRangeIsRefusedAndNothingChanges() {
-        GeneratorTable t = GeneratorTable.zero(3).h(0);
+        StabilizerTableau t = StabilizerTableau.zero(3).h(0);
         IndexOutOfBoundsException e =
                 assertThrows(IndexOutOfBoundsException.class, () -> t.cnot(0, 3));
         assertTrue(e.getMessage().contains("qubit 3"), e.getMessage());
@@ -248,7 +248,7 @@ class GeneratorTableTest {
 
     @Test
     void productsBeyondTheTableOrNotHermitianAreRefused() {
-        GeneratorTable t = GeneratorTable.zero(3);
+        StabilizerTableau t = StabilizerTableau.zero(3);
         // Text is read by PauliProduct, the one parser: "XZ" is X on qubit 1, Z on qubit 0.
         assertEquals(1, Tables.expect(t, "Z"));
         assertEquals(0, Tables.expect(t, "XZ"));
@@ -267,7 +267,7 @@ class GeneratorTableTest {
     @Test
     void largeTablesAreRefusedByToStateVector() {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
-                () -> GeneratorTable.zero(21).toStateVector());
+                () -> StabilizerTableau.zero(21).toStateVector());
         assertTrue(e.getMessage().contains("21"), e.getMessage());
     }
 }
