@@ -98,6 +98,47 @@ public final class Simulator implements CircuitRunner {
     }
 
     /**
+     * A predicted distribution of a circuit's classical register, exact or estimated.
+     *
+     * @param probabilities {@code 2^clbits} probabilities, index = register value (copied)
+     * @param samples 0 for an exact prediction, else the shots it was estimated from
+     * @param method how it was made, in words
+     * @since 0.1
+     */
+    public record Prediction(double[] probabilities, long samples, String method) {
+        /**
+         * Copies the probabilities and checks the fields.
+         *
+         * @param probabilities the probabilities
+         * @param samples the samples
+         * @param method the method
+         */
+        public Prediction {
+            probabilities = Objects.requireNonNull(probabilities, "probabilities").clone();
+            Objects.requireNonNull(method, "method");
+        }
+
+        /**
+         * Returns a copy of the probabilities.
+         *
+         * @return {@code 2^clbits} probabilities
+         */
+        @Override
+        public double[] probabilities() {
+            return probabilities.clone();
+        }
+
+        /**
+         * Tells whether the prediction is exact.
+         *
+         * @return {@code samples() == 0}
+         */
+        public boolean exact() {
+            return samples == 0;
+        }
+    }
+
+    /**
      * The qubit count from which {@link Engine#CHEAPEST} runs a noiseless Clifford circuit on
      * the tableau. A state-vector gate touches 2^n amplitudes; a tableau gate touches about
      * n/32 words per qubit and a measurement O(n²/64) words (Aaronson and Gottesman 2004,
@@ -425,6 +466,25 @@ public final class Simulator implements CircuitRunner {
         }
     }
 
+    /**
+     * Allocates the zero state for a circuit; when the heap cannot hold it, the refusal also
+     * names a non-Clifford gate that rules out the tableau and the largest state that fits.
+     */
+    private StateVector newState(Circuit circuit) {
+        try {
+            return StateVector.zero(circuit.qubits(), precision).setThreads(threads);
+        } catch (IllegalStateException e) {
+            OptionalInt bad = circuit.firstNonClifford();
+            long max = Runtime.getRuntime().maxMemory() / precision.bytesPerAmplitude();
+            int fits = 63 - Long.numberOfLeadingZeros(Math.max(1, max));
+            throw new IllegalStateException(e.getMessage() + (bad.isPresent() ? "; "
+                    + nonClifford(circuit, bad.getAsInt()) + ", which rules out the tableau"
+                    : "; the circuit is Clifford: the tableau (Engine.TABLEAU) runs it") + "; this"
+                    + " heap holds " + precision.name().toLowerCase(java.util.Locale.ROOT)
+                    + "-precision states of about " + fits + " qubits at most", e);
+        }
+    }
+
     private boolean fuses(Circuit circuit) {
         return fusion && circuit.qubits() >= Fusion.MIN_STATE_QUBITS;
     }
@@ -466,10 +526,8 @@ public final class Simulator implements CircuitRunner {
                 return Bridge.noise().trajectories(circuit, noise, shots, seed, threads,
                         precision);
             default:
-                StateVector state = StateVector.zero(circuit.qubits(), precision)
-                        .setThreads(threads);
-                return AmplitudeEngine.run(circuit, shots, state, rng(), fuses(circuit),
-                        threads);
+                return AmplitudeEngine.run(circuit, shots, newState(circuit), rng(),
+                        fuses(circuit), threads);
         }
     }
 
@@ -511,7 +569,7 @@ public final class Simulator implements CircuitRunner {
                     + " densityMatrixAfter");
         }
         requireStateVector(circuit);
-        StateVector state = StateVector.zero(circuit.qubits(), precision).setThreads(threads);
+        StateVector state = newState(circuit);
         java.util.List<Instruction> list = fuses(circuit)
                 ? AmplitudeEngine.fuse(circuit.instructions()) : circuit.instructions();
         AmplitudeEngine.run(state.store(), list, 0, new boolean[circuit.clbits()], rng(),
@@ -542,33 +600,120 @@ public final class Simulator implements CircuitRunner {
     }
 
     /**
-     * Returns the exact probability of each value of the classical register after the circuit:
-     * from the state vector without noise, from the density matrix with noise (readout error
-     * included). Bits never written read 0. Deterministic: no seed is used.
+     * Returns the exact probability of each value of the classical register after the circuit
+     * (readout error included). A circuit whose measurements come last is read from its final
+     * state vector, or from its density matrix with noise; any other circuit (mid-circuit
+     * measurement, reset, conditions) is summed over its measurement branches: one state vector
+     * per branch without noise, one density matrix per register value with noise or for at most
+     * {@value #DENSITY_MATRIX_UP_TO_QUBITS} qubits (Nielsen and Chuang 2010, §2.2.3 and §2.4).
+     * Bits never written read 0. Deterministic: no seed is used.
      *
-     * @param circuit a circuit whose measurements come last ({@link Circuit#measuresAtEnd()}),
-     *     with at most 26 classical bits
+     * @param circuit a circuit with at most 26 classical bits
      * @return a new array of {@code 2^clbits} probabilities; index {@code v} is the register
      *     value with clbit {@code j} as bit {@code j}
-     * @throws IllegalArgumentException if the measurements do not come last, the register is
-     *     too wide, or (with noise) the circuit has more than {@value DensityMatrix#MAX_QUBITS}
-     *     qubits
+     * @throws IllegalArgumentException if the register is too wide, the circuit is too large for
+     *     the exact engines (the message says so; {@link #predict(Circuit, int)} samples), or
+     *     (with noise) it has more than {@value DensityMatrix#MAX_QUBITS} qubits
      * @throws IllegalStateException if the heap cannot hold the state
      */
     public double[] distribution(Circuit circuit) {
         Objects.requireNonNull(circuit, "circuit");
+        requireDistributionWidth(circuit);
+        double[] exact = exactDistribution(circuit);
+        if (exact == null) {
+            throw refuse("the circuit's measurement branches do not fit the exact engines' budget"
+                    + " of " + bytes(branchBudget()) + "; use predict(circuit, samples) for an"
+                    + " estimate from sampled shots");
+        }
+        return exact;
+    }
+
+    private static void requireDistributionWidth(Circuit circuit) {
         if (circuit.clbits() > MAX_DISTRIBUTION_CLBITS) {
             throw refuse("the circuit has " + circuit.clbits() + " classical bits; an exact"
                     + " distribution has at most " + MAX_DISTRIBUTION_CLBITS);
         }
-        if (!noise.isIdeal()) {
-            requireDensityMatrix(circuit);
-            return Bridge.noise().distribution(circuit, noise, threads);
+    }
+
+    /** The bytes the branch engines may hold: a quarter of the heap, at most 1 GiB. */
+    private static long branchBudget() {
+        return Math.min(1L << 30, Runtime.getRuntime().maxMemory() / 4);
+    }
+
+    /** The exact distribution, or null when the branches do not fit the budget. */
+    private double[] exactDistribution(Circuit circuit) {
+        boolean noisy = !noise.isIdeal();
+        if (circuit.measuresAtEnd()) {
+            if (noisy) {
+                requireDensityMatrixQubits(circuit);
+                return Bridge.noise().distribution(circuit, noise, threads);
+            }
+            requireStateVector(circuit);
+            StateVector psi = StateVector.zero(circuit.qubits()).setThreads(threads)
+                    .apply(circuit.withoutMeasurements());
+            return psi.registerDistribution(circuit.clbitSources());
         }
-        Circuit gates = circuit.withoutMeasurements();
-        requireStateVector(circuit);
-        StateVector psi = StateVector.zero(circuit.qubits()).setThreads(threads).apply(gates);
-        return psi.registerDistribution(circuit.clbitSources());
+        try {
+            if (noisy || circuit.qubits() <= DENSITY_MATRIX_UP_TO_QUBITS) {
+                requireDensityMatrixQubits(circuit);
+                return Bridge.noise().branchDistribution(circuit, noise, threads,
+                        branchBudget());
+            }
+            requireStateVector(circuit);
+            return BranchEngine.distribution(circuit, threads, branchBudget());
+        } catch (BranchEngine.TooLarge | IllegalStateException e) {
+            return null;
+        }
+    }
+
+    private static void requireDensityMatrixQubits(Circuit circuit) {
+        if (circuit.qubits() > DensityMatrix.MAX_QUBITS) {
+            throw refuse("the circuit has " + circuit.qubits() + " qubits; an exact noisy"
+                    + " distribution uses a density matrix of at most " + DensityMatrix.MAX_QUBITS
+                    + " qubits (use predict(circuit, samples) for an estimate from trajectories)");
+        }
+    }
+
+    /**
+     * Predicts the distribution of the classical register: exactly where the engines can (as
+     * {@link #distribution(Circuit)}: the final state, the density matrix, or one state per
+     * measurement branch for circuits that use measured values during the shot), otherwise
+     * estimated from {@code samples} shots of {@link #run(Circuit, int)} with this simulator's
+     * seed (trajectories when there is noise). The prediction says which, so that a comparison
+     * can account for the estimate's own sampling error.
+     *
+     * @param circuit a circuit of at most 26 classical bits
+     * @param samples shots for an estimate when no exact engine fits, at least 1
+     * @return the prediction
+     * @throws IllegalArgumentException if the register is too wide, {@code samples < 1}, or no
+     *     engine can run the circuit
+     * @throws IllegalStateException if the heap cannot hold the state
+     */
+    public Prediction predict(Circuit circuit, int samples) {
+        Objects.requireNonNull(circuit, "circuit");
+        requireDistributionWidth(circuit);
+        Checks.requireShots(samples);
+        double[] exact;
+        try {
+            exact = exactDistribution(circuit);
+        } catch (IllegalArgumentException e) {
+            exact = null; // too many qubits for the exact engines: sample instead
+        }
+        if (exact != null) {
+            String how = noise.isIdeal() ? (circuit.measuresAtEnd() ? "exact, from the final"
+                    + " state" : "exact, summed over the measurement branches")
+                    : "exact, from the density matrix" + (circuit.measuresAtEnd() ? ""
+                    : " of each register value");
+            return new Prediction(exact, 0, how);
+        }
+        Tally t = run(circuit, samples);
+        double[] p = new double[1 << circuit.clbits()];
+        for (java.util.Map.Entry<String, Long> e : t.outcomes().entrySet()) {
+            p[(int) Long.parseLong(e.getKey().isEmpty() ? "0" : e.getKey(), 2)] = e.getValue()
+                    / (double) samples;
+        }
+        return new Prediction(p, samples, "estimated from " + samples + " sampled shots on "
+                + explain(circuit, samples).engine());
     }
 
     /** The widest register {@link #distribution(Circuit)} returns: {@value}. */

@@ -124,6 +124,21 @@ public final class Bridge {
         double[] distribution(Circuit circuit, NoiseModel model, int threads);
 
         /**
+         * Returns the exact distribution of the classical register of any circuit, conditions
+         * and mid-circuit measurements included, by evolving one unnormalised density matrix
+         * per value of the register.
+         *
+         * @param circuit a circuit of at most 26 classical bits
+         * @param model the noise model
+         * @param threads threads
+         * @param budgetBytes the most bytes the density matrices may hold at once
+         * @return {@code 2^clbits} probabilities, index = register value
+         * @throws IllegalStateException if the register values to track exceed the budget
+         */
+        double[] branchDistribution(Circuit circuit, NoiseModel model, int threads,
+                long budgetBytes);
+
+        /**
          * Runs Monte Carlo wave-function trajectories, one shot each.
          *
          * @param circuit any circuit with at most 63 classical bits

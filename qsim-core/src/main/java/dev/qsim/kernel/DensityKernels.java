@@ -208,4 +208,23 @@ public final class DensityKernels {
         }
         return re;
     }
+
+    /**
+     * Adds a multiple of one storage to another of the same size: {@code y += a x}.
+     *
+     * @param y the sum. Modified.
+     * @param a the factor
+     * @param x the added storage, same qubits and chunk size. Not modified.
+     */
+    public static void addScaled(Amplitudes y, double a, Amplitudes x) {
+        double[][] yc = y.chunks;
+        double[][] xc = x.chunks;
+        for (int c = 0; c < yc.length; c++) {
+            double[] yy = yc[c];
+            double[] xx = xc[c];
+            for (int i = 0; i < yy.length; i++) {
+                yy[i] += a * xx[i];
+            }
+        }
+    }
 }

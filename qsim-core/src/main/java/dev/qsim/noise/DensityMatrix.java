@@ -251,6 +251,23 @@ public final class DensityMatrix {
                 threads);
     }
 
+    /** Applies {@code P rho P} for a 2x2 matrix P on one qubit (no checks; not trace preserving). */
+    void project(int q, double[] p) {
+        DensityKernels.unitary(amps, n, new int[] {q}, new int[0], p, threads);
+    }
+
+    /** Multiplies every entry by {@code a} (no checks); returns this. */
+    DensityMatrix scale(double a) {
+        DensityKernels.addScaled(amps, a - 1, amps);
+        return this;
+    }
+
+    /** Adds {@code a} times another matrix of the same size (no checks); returns this. */
+    DensityMatrix addScaled(double a, DensityMatrix other) {
+        DensityKernels.addScaled(amps, a, other.amps);
+        return this;
+    }
+
     /** Applies a channel (no checks). */
     void channel(Channel ch, int[] qubits) {
         DensityKernels.channel(amps, n, qubits, ch.superoperator(), threads);

@@ -2,7 +2,9 @@ package dev.qsim.noise;
 
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
 
 import org.apache.commons.numbers.complex.Complex;
 import org.apache.commons.rng.UniformRandomProvider;
@@ -125,6 +127,110 @@ final class NoiseEngines implements Bridge.Noise {
             }
         }
         return out;
+    }
+
+    @Override
+    public double[] branchDistribution(Circuit circuit, NoiseModel model, int threads,
+            long budgetBytes) {
+        int n = circuit.qubits();
+        long each = DensityMatrix.bytes(n);
+        int maxEntries = (int) Math.max(1, Math.min(1 << 20, budgetBytes / each));
+        Map<Long, DensityMatrix> branches = new HashMap<>();
+        branches.put(0L, DensityMatrix.zero(n).setThreads(threads));
+        branches = branchRun(circuit.instructions(), branches, model, maxEntries);
+        double[] out = new double[1 << circuit.clbits()];
+        for (Map.Entry<Long, DensityMatrix> e : branches.entrySet()) {
+            out[(int) (long) e.getKey()] += Math.max(0, e.getValue().trace());
+        }
+        return out;
+    }
+
+    /**
+     * Evolves a classical-quantum state: for each value of the classical register, the
+     * unnormalised density matrix of the shots that gave it (its trace is their probability).
+     * Conditions act on the entries whose register matches; a measurement splits each entry
+     * into its two projections and passes the recorded bit through the readout confusion, so
+     * entries with equal registers merge exactly.
+     */
+    private static Map<Long, DensityMatrix> branchRun(List<Instruction> list,
+            Map<Long, DensityMatrix> branches, NoiseModel model, int maxEntries) {
+        Map<Long, DensityMatrix> current = branches;
+        for (Instruction in : list) {
+            switch (in.kind()) {
+                case GATE:
+                    for (DensityMatrix rho : current.values()) {
+                        rho.gate(in);
+                        for (NoiseModel.Placed p : model.noiseAfter(in)) {
+                            rho.channel(p.channel(), p.qubits());
+                        }
+                    }
+                    break;
+                case RESET:
+                    for (DensityMatrix rho : current.values()) {
+                        rho.channel(RESET, in.targets());
+                    }
+                    break;
+                case MEASURE:
+                    current = measureBranches(current, in, model, maxEntries);
+                    break;
+                default: {
+                    Map<Long, DensityMatrix> taken = new HashMap<>();
+                    Map<Long, DensityMatrix> kept = new HashMap<>();
+                    for (Map.Entry<Long, DensityMatrix> e : current.entrySet()) {
+                        boolean bit = ((e.getKey() >>> in.clbit()) & 1L) == 1;
+                        (bit == (in.value() == 1) ? taken : kept).put(e.getKey(), e.getValue());
+                    }
+                    if (!taken.isEmpty()) {
+                        kept.putAll(branchRun(in.body(), taken, model, maxEntries));
+                    }
+                    current = kept;
+                    break;
+                }
+            }
+        }
+        return current;
+    }
+
+    private static final double[] ZERO_PROJECTOR = {1, 0, 0, 0, 0, 0, 0, 0};
+    private static final double[] ONE_PROJECTOR = {0, 0, 0, 0, 0, 0, 1, 0};
+
+    private static Map<Long, DensityMatrix> measureBranches(Map<Long, DensityMatrix> current,
+            Instruction in, NoiseModel model, int maxEntries) {
+        int q = in.targets()[0];
+        long bit = 1L << in.clbit();
+        double e0 = model.readoutP1Given0(q);
+        double e1 = model.readoutP0Given1(q);
+        Map<Long, DensityMatrix> out = new HashMap<>();
+        for (Map.Entry<Long, DensityMatrix> e : current.entrySet()) {
+            DensityMatrix rho = e.getValue();
+            DensityMatrix one = rho.copy();
+            rho.project(q, ZERO_PROJECTOR);
+            one.project(q, ONE_PROJECTOR);
+            long key0 = e.getKey() & ~bit;
+            long key1 = e.getKey() | bit;
+            // Read 0: (1 - e0) of the |0> part and e1 of the |1> part; read 1: the rest.
+            DensityMatrix read0 = rho.copy().scale(1 - e0).addScaled(e1, one);
+            DensityMatrix read1 = one.scale(1 - e1).addScaled(e0, rho);
+            merge(out, key0, read0);
+            merge(out, key1, read1);
+            if (out.size() > maxEntries) {
+                throw new IllegalStateException("more than " + maxEntries + " register values"
+                        + " to track");
+            }
+        }
+        return out;
+    }
+
+    private static void merge(Map<Long, DensityMatrix> out, long key, DensityMatrix rho) {
+        if (!(rho.trace() > 1e-16)) {
+            return;
+        }
+        DensityMatrix old = out.get(key);
+        if (old == null) {
+            out.put(key, rho);
+        } else {
+            old.addScaled(1, rho);
+        }
     }
 
     /**

@@ -1,5 +1,6 @@
 package dev.qsim.noise;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertSame;
@@ -184,9 +185,11 @@ class NoisyRunsTest {
         DensityMatrix mixed = Simulator.seeded(4).densityMatrixAfter(after);
         assertEquals(0.5, mixed.purity(), TOL);
         assertEquals(0.5, mixed.probabilities()[1], TOL);
-        e = assertThrows(IllegalArgumentException.class,
-                () -> Simulator.seeded(4).distribution(after));
-        assertTrue(e.getMessage().contains("instruction 2"), e.getMessage());
+        // Its register is the one measured bit, 0 or 1 with probability 1/2 each (Born rule).
+        assertArrayEquals(new double[] {0.5, 0.5}, Simulator.seeded(4).distribution(after), TOL);
+        // With feedback the exact distribution sums the branches; the copy reads 00 or 11.
+        assertArrayEquals(new double[] {0.5, 0, 0, 0.5}, Simulator.seeded(4).distribution(copy),
+                TOL);
     }
 
     @Test
