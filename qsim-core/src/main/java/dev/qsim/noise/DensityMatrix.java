@@ -251,7 +251,7 @@ public final class DensityMatrix {
                 threads);
     }
 
-    /** Applies {@code P rho P} for a 2x2 matrix P on one qubit (no checks; not trace preserving). */
+    /** Applies {@code P rho P} for a 2x2 matrix P on one qubit (no checks; not trace-kept). */
     void project(int q, double[] p) {
         DensityKernels.unitary(amps, n, new int[] {q}, new int[0], p, threads);
     }
