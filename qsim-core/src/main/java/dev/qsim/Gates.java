@@ -143,7 +143,9 @@ public final class Gates {
     /**
      * The general single-qubit gate {@code u(θ, φ, λ) = [[cos θ/2, -e^{iλ} sin θ/2],
      * [e^{iφ} sin θ/2, e^{i(φ+λ)} cos θ/2]]}, which equals {@code phase(φ) ry(θ) phase(λ)}
-     * (Nielsen and Chuang 2010, Theorem 4.1, up to global phase).
+     * (Nielsen and Chuang 2010, Theorem 4.1, up to global phase). The phase {@code e^{i(φ+λ)}}
+     * is computed as the product {@code e^{iφ} e^{iλ}}, not from the rounded sum {@code φ+λ},
+     * so the matrix is unitary to rounding for any finite angles, however large.
      *
      * @param theta the polar angle in radians, finite
      * @param phi the first phase in radians, finite
@@ -157,10 +159,14 @@ public final class Gates {
         Checks.requireFinite(lambda, "lambda");
         double c = Math.cos(theta / 2);
         double s = Math.sin(theta / 2);
+        double cp = Math.cos(phi);
+        double sp = Math.sin(phi);
+        double cl = Math.cos(lambda);
+        double sl = Math.sin(lambda);
         return one(c, 0,
-                -Math.cos(lambda) * s, -Math.sin(lambda) * s,
-                Math.cos(phi) * s, Math.sin(phi) * s,
-                Math.cos(phi + lambda) * c, Math.sin(phi + lambda) * c);
+                -cl * s, -sl * s,
+                cp * s, sp * s,
+                (cp * cl - sp * sl) * c, (sp * cl + cp * sl) * c);
     }
 
     private static Operator one(double... reim) {

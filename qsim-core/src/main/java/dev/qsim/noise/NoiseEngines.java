@@ -17,6 +17,7 @@ import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.internal.Bridge;
+import dev.qsim.internal.Heap;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Frame;
 import dev.qsim.kernel.GateOp;
@@ -254,7 +255,8 @@ final class NoiseEngines implements Bridge.Noise {
             int threads, Precision precision) {
         int width = circuit.clbits();
         Step[] program = compile(circuit.instructions(), model);
-        long[] keys = new long[shots];
+        long[] keys = Heap.allocate(8L * shots, "the outcomes of " + shots + " trajectories",
+                () -> new long[shots]);
         int workers = Math.min(threads, shots);
         int kernelThreads = Math.max(1, threads / workers);
         int n = circuit.qubits();

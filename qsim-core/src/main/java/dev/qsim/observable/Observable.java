@@ -30,6 +30,15 @@ public final class Observable {
     private final double[] weights;
 
     private Observable(PauliProduct[] products, double[] weights) {
+        for (int k = 0; k < weights.length; k++) {
+            if (!Double.isFinite(weights[k])) {
+                // Sums and squares of finite weights can overflow; the result would be no
+                // observable.
+                throw new IllegalArgumentException("the weight of term " + k + " ("
+                        + Checks.excerpt(products[k].toString()) + ") is " + weights[k]
+                        + "; weights must stay finite (the arithmetic overflowed)");
+            }
+        }
         this.products = products;
         this.weights = weights;
     }

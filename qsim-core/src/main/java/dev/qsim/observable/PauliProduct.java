@@ -3,6 +3,8 @@ package dev.qsim.observable;
 import java.util.Arrays;
 import java.util.Objects;
 
+import dev.qsim.internal.Checks;
+
 /**
  * A Pauli product {@code i^k · σ_{n-1} ⊗ ... ⊗ σ_1 ⊗ σ_0}: a phase in {@code {+1, +i, -1, -i}}
  * and one of I, X, Y, Z on each qubit, identity on every qubit not named. Immutable and
@@ -134,7 +136,8 @@ public final class PauliProduct {
 
         private IllegalArgumentException error(String expected) {
             String found = pos < s.length() ? "'" + s.charAt(pos) + "'" : "the end of the text";
-            return new IllegalArgumentException("malformed Pauli text \"" + s + "\": at position "
+            return new IllegalArgumentException("malformed Pauli text \"" + Checks.excerpt(s)
+                    + "\": at position "
                     + pos + " expected " + expected + " but found " + found);
         }
 
@@ -220,8 +223,8 @@ public final class PauliProduct {
                     seen = Arrays.copyOf(seen, w + 1);
                 }
                 if ((seen[w] & (1L << (qi & 63))) != 0) {
-                    throw new IllegalArgumentException("malformed Pauli text \"" + s
-                            + "\": at position " + digits + " expected a qubit not named before"
+                    throw new IllegalArgumentException("malformed Pauli text \""
+                            + Checks.excerpt(s) + "\": at position " + digits + " expected a qubit not named before"
                             + " but qubit " + qi + " appears twice");
                 }
                 seen[w] |= 1L << (qi & 63);

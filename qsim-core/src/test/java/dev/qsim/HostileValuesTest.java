@@ -1,0 +1,76 @@
+package dev.qsim;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.Map;
+
+import org.junit.jupiter.api.Test;
+
+import dev.qsim.noise.Channel;
+import dev.qsim.noise.NoiseModel;
+import dev.qsim.observable.Observable;
+import dev.qsim.observable.PauliProduct;
+
+/**
+ * Values that used to overflow after validation, and sizes that used to end in an
+ * OutOfMemoryError: each is now refused with a message, or computed correctly.
+ */
+class HostileValuesTest {
+
+    @Test
+    void theGeneralGateStaysUnitaryForHugePhases() {
+        // u(θ, φ, λ) is unitary for all real angles (Nielsen and Chuang 2010, Theorem 4.1);
+        // a rounded φ + λ used to break that for large φ.
+        for (double phi : new double[] {123456789.1, 1e15, -3.7e12}) {
+            Operator u = Gates.u(1.0, phi, 0.3);
+            assertTrue(u.isUnitary(Operator.UNITARY_TOLERANCE), "phi " + phi);
+            Circuit.builder(1).apply(u, 0).build();
+        }
+    }
+
+    @Test
+    void observableWeightsThatOverflowAreRefused() {
+        Observable h = Observable.of(1e300, "Z0");
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> h.times(1e300));
+        assertTrue(e.getMessage().contains("Infinity") && e.getMessage().contains("Z0"),
+                e.getMessage());
+        Observable twice = Observable.of(1e308, "Z0").plus(1e308, "Z0");
+        e = assertThrows(IllegalArgumentException.class, twice::simplified);
+        assertTrue(e.getMessage().contains("finite"), e.getMessage());
+    }
+
+    @Test
+    void messagesQuoteABoundedExcerpt() {
+        String huge = "X0 ".repeat(3_000_000) + "?";
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> PauliProduct.parse(huge));
+        assertTrue(e.getMessage().length() < 300, "message of " + e.getMessage().length()
+                + " characters");
+    }
+
+    @Test
+    void shotTotalsThatOverflowAreRefused() {
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> Tally.of(1, Map.of("0", Long.MAX_VALUE, "1", 1L)));
+        assertTrue(e.getMessage().contains(Long.toString(Long.MAX_VALUE)), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> Tally.ofCounts(1,
+                new long[] {0, 1}, new long[] {Long.MAX_VALUE, 1}));
+        assertTrue(e.getMessage().contains("more than"), e.getMessage());
+        assertEquals(Long.MAX_VALUE, Tally.of(1, Map.of("0", Long.MAX_VALUE)).shots());
+    }
+
+    @Test
+    void hugeTrajectoryCountsAreRefusedBeforeAllocation() {
+        // 2^31 - 1 trajectories need 16 GiB of outcomes alone: a heap refusal naming -Xmx.
+        NoiseModel noise = NoiseModel.builder().afterOneQubitGates(Channel.depolarizing(0.1))
+                .build();
+        Circuit c = Circuit.builder(1).h(0).measure().build();
+        IllegalStateException e = assertThrows(IllegalStateException.class,
+                () -> Simulator.seeded(1).withNoise(noise)
+                        .withEngine(Simulator.Engine.TRAJECTORIES).run(c, Integer.MAX_VALUE));
+        assertTrue(e.getMessage().contains("-Xmx"), e.getMessage());
+    }
+}
