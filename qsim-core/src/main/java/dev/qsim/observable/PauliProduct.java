@@ -224,8 +224,9 @@ public final class PauliProduct {
                 }
                 if ((seen[w] & (1L << (qi & 63))) != 0) {
                     throw new IllegalArgumentException("malformed Pauli text \""
-                            + Checks.excerpt(s) + "\": at position " + digits + " expected a qubit not named before"
-                            + " but qubit " + qi + " appears twice");
+                            + Checks.excerpt(s) + "\": at position " + digits
+                            + " expected a qubit not named before but qubit " + qi
+                            + " appears twice");
                 }
                 seen[w] |= 1L << (qi & 63);
                 set(xs, zs, qi, bits);
