@@ -1,11 +1,12 @@
 package dev.qsim;
 
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
 
 import org.apache.commons.rng.UniformRandomProvider;
 
+import dev.qsim.internal.ClassicalState;
+import dev.qsim.internal.ShotRunner;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Frame;
 import dev.qsim.kernel.GateOp;
@@ -55,36 +56,45 @@ final class AmplitudeEngine {
         return out;
     }
 
-    /** Runs instructions from index {@code from} on, for one shot; clbits in {@code reg}. */
-    static void run(Amplitudes a, List<Instruction> list, int from, boolean[] reg,
-            UniformRandomProvider rng, int threads) {
-        int i = from;
-        while (i < list.size()) {
-            Instruction in = list.get(i);
-            switch (in.kind()) {
-                case GATE:
-                    int j = i + 1;
-                    while (j < list.size() && list.get(j).kind() == Instruction.Kind.GATE) {
-                        j++;
-                    }
-                    gates(a, list, i, j, threads);
-                    i = j;
-                    continue;
-                case MEASURE:
-                    reg[in.clbit()] = Measurement.measure(a, in.targetsRaw()[0],
-                            rng.nextDouble(), threads) == 1;
-                    break;
-                case RESET:
-                    Measurement.reset(a, in.targetsRaw()[0], rng.nextDouble(), threads);
-                    break;
-                default:
-                    if (reg[in.clbit()] == (in.value() == 1)) {
-                        run(a, in.body(), 0, reg, rng, threads);
-                    }
-                    break;
-            }
-            i++;
+    /** The state-vector side of the shot interpreter: one state, one generator. */
+    static final class Backend implements ShotRunner.Backend {
+        private final Amplitudes a;
+        private final UniformRandomProvider rng;
+        private final int threads;
+
+        Backend(Amplitudes a, UniformRandomProvider rng, int threads) {
+            this.a = a;
+            this.rng = rng;
+            this.threads = threads;
         }
+
+        @Override
+        public void gates(List<Instruction> list, int from, int to) {
+            AmplitudeEngine.gates(a, list, from, to, threads);
+        }
+
+        @Override
+        public void gate(Instruction gate, double[] angles) {
+            Frame.apply(a, List.of(GateOp.of(gate.gate().operator(angles).raw(),
+                    gate.targets(), gate.controls())), threads);
+        }
+
+        @Override
+        public boolean measure(Instruction measure) {
+            return Measurement.measure(a, measure.targetsRaw()[0], rng.nextDouble(), threads)
+                    == 1;
+        }
+
+        @Override
+        public void reset(Instruction reset) {
+            Measurement.reset(a, reset.targetsRaw()[0], rng.nextDouble(), threads);
+        }
+    }
+
+    /** Runs instructions from index {@code from} on, for one shot. */
+    static void run(Amplitudes a, Circuit circuit, List<Instruction> list, int from,
+            ClassicalState state, UniformRandomProvider rng, int threads) {
+        ShotRunner.run(list, from, state, circuit.variables(), new Backend(a, rng, threads));
     }
 
     /**
@@ -114,11 +124,14 @@ final class AmplitudeEngine {
         Amplitudes work = state.copy().store();
         int width = circuit.clbits();
         boolean[] reg = new boolean[width];
+        ClassicalState classical = new ClassicalState(width, circuit.variables().size());
+        Backend backend = new Backend(work, rng, threads);
         Tally.Recorder outcomes = Tally.recorder(width);
         for (int s = 0; s < shots; s++) {
             work.copyFrom(prefix);
-            Arrays.fill(reg, false);
-            run(work, list, first, reg, rng, threads);
+            classical.clear();
+            ShotRunner.run(list, first, classical, circuit.variables(), backend);
+            classical.copyBits(reg);
             outcomes.add(reg, 1);
         }
         return outcomes.build();

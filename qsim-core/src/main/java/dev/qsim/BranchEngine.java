@@ -3,7 +3,9 @@ package dev.qsim;
 import java.util.ArrayList;
 import java.util.List;
 
+import dev.qsim.internal.ClassicalState;
 import dev.qsim.internal.Heap;
+import dev.qsim.internal.ShotRunner;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Measurement;
 
@@ -29,24 +31,27 @@ final class BranchEngine {
         }
     }
 
-    /** One branch: a normalised state, its weight and its classical register. */
+    /** One branch: a normalised state, its weight and its classical bits and variables. */
     private static final class Branch {
         final Amplitudes state;
         final double weight;
-        final boolean[] register;
+        final ClassicalState classical;
 
-        Branch(Amplitudes state, double weight, boolean[] register) {
+        Branch(Amplitudes state, double weight, ClassicalState classical) {
             this.state = state;
             this.weight = weight;
-            this.register = register;
+            this.classical = classical;
         }
     }
 
     private final int threads;
     private final int maxBranches;
+    private final List<Circuit.Variable> variables;
 
-    private BranchEngine(int qubits, int threads, long budgetBytes) {
+    private BranchEngine(int qubits, int threads, long budgetBytes,
+            List<Circuit.Variable> variables) {
         this.threads = threads;
+        this.variables = variables;
         this.maxBranches = (int) Math.max(1, Math.min(1 << 16,
                 budgetBytes / Amplitudes.bytes(qubits)));
     }
@@ -61,24 +66,20 @@ final class BranchEngine {
      * @throws TooLarge if the branches would exceed the budget
      */
     static double[] distribution(Circuit circuit, int threads, long budgetBytes) {
-        BranchEngine engine = new BranchEngine(circuit.qubits(), threads, budgetBytes);
+        BranchEngine engine = new BranchEngine(circuit.qubits(), threads, budgetBytes,
+                circuit.variables());
         int n = circuit.qubits();
         Amplitudes zero = Heap.allocate(Amplitudes.bytes(n), "a " + n + "-qubit branch state",
                 () -> Amplitudes.allocate(n));
         zero.set(0, 1, 0);
         zero.setThreads(threads);
         List<Branch> branches = new ArrayList<>();
-        branches.add(new Branch(zero, 1, new boolean[circuit.clbits()]));
+        branches.add(new Branch(zero, 1, new ClassicalState(circuit.clbits(),
+                circuit.variables().size())));
         branches = engine.run(circuit.instructions(), branches);
         double[] out = new double[1 << circuit.clbits()];
         for (Branch b : branches) {
-            int key = 0;
-            for (int c = 0; c < b.register.length; c++) {
-                if (b.register[c]) {
-                    key |= 1 << c;
-                }
-            }
-            out[key] += b.weight;
+            out[(int) b.classical.register()] += b.weight;
         }
         return out;
     }
@@ -90,8 +91,16 @@ final class BranchEngine {
             Instruction in = list.get(i);
             switch (in.kind()) {
                 case GATE: {
+                    if (in.isDynamic()) {
+                        for (Branch b : current) {
+                            new AmplitudeEngine.Backend(b.state, null, threads).gate(in,
+                                    ShotRunner.angles(in, b.classical));
+                        }
+                        break;
+                    }
                     int j = i + 1;
-                    while (j < list.size() && list.get(j).kind() == Instruction.Kind.GATE) {
+                    while (j < list.size() && list.get(j).kind() == Instruction.Kind.GATE
+                            && !list.get(j).isDynamic()) {
                         j++;
                     }
                     for (Branch b : current) {
@@ -104,14 +113,41 @@ final class BranchEngine {
                 case RESET:
                     current = split(current, in);
                     break;
+                case DELAY:
+                    break;
+                case ASSIGN:
+                    for (Branch b : current) {
+                        ShotRunner.assign(in, b.classical, variables);
+                    }
+                    break;
+                case WHILE: {
+                    List<Branch> done = new ArrayList<>();
+                    List<Branch> active = current;
+                    for (int k = 0; k < in.maxIterations() && !active.isEmpty(); k++) {
+                        List<Branch> looping = new ArrayList<>();
+                        for (Branch b : active) {
+                            (in.condition().test(b.classical) ? looping : done).add(b);
+                        }
+                        active = looping.isEmpty() ? looping : run(in.body(), looping);
+                    }
+                    done.addAll(active);
+                    current = done;
+                    break;
+                }
                 default: {
                     List<Branch> taken = new ArrayList<>();
                     List<Branch> kept = new ArrayList<>();
                     for (Branch b : current) {
-                        (b.register[in.clbit()] == (in.value() == 1) ? taken : kept).add(b);
+                        boolean holds = in.kind() == Instruction.Kind.IF_BIT
+                                ? b.classical.bit(in.clbit()) == (in.value() == 1)
+                                : in.condition().test(b.classical);
+                        (holds ? taken : kept).add(b);
                     }
-                    kept.addAll(taken.isEmpty() ? taken : run(in.body(), taken));
-                    current = kept;
+                    List<Branch> out = new ArrayList<>(taken.isEmpty() ? taken
+                            : run(in.body(), taken));
+                    out.addAll(kept.isEmpty() || in.otherwise().isEmpty() ? kept
+                            : run(in.otherwise(), kept));
+                    current = out;
                     break;
                 }
             }
@@ -147,16 +183,16 @@ final class BranchEngine {
                     state.setThreads(threads);
                 }
                 Measurement.project(state, q, outcome, p[outcome], threads);
-                boolean[] register = b.register;
+                // Each branch owns its classical state: assignments change it in place.
+                ClassicalState classical = b.classical.copy();
                 if (reset) {
                     if (outcome == 1) {
                         Measurement.flip(state, q, threads);
                     }
                 } else {
-                    register = register.clone();
-                    register[in.clbit()] = outcome == 1;
+                    classical.setBit(in.clbit(), outcome == 1);
                 }
-                out.add(new Branch(state, w, register));
+                out.add(new Branch(state, w, classical));
             }
         }
         return out;

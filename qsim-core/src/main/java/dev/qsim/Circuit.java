@@ -35,11 +35,115 @@ public final class Circuit {
     private final int qubits;
     private final int clbits;
     private final List<Instruction> instructions;
+    private final List<Variable> variables;
+
+    /**
+     * The type of a classical variable, with OpenQASM 3's meaning (Cross et al. 2022,
+     * "Classical types"): assignments convert to it.
+     *
+     * @since 0.1
+     */
+    public enum VariableType {
+        /** true or false; a number is true when non-zero. */
+        BOOL,
+        /** A signed integer of {@code width} bits (two's complement; values wrap). */
+        INT,
+        /** An unsigned integer of {@code width} bits (values wrap modulo 2^width). */
+        UINT,
+        /** A double-precision float. */
+        FLOAT,
+        /** An angle in radians, reduced to [0, 2π) on assignment. */
+        ANGLE;
+
+        /** The expression type a variable of this type reads as. */
+        Expression.Type expressionType() {
+            switch (this) {
+                case BOOL:
+                    return Expression.Type.BOOL;
+                case INT:
+                case UINT:
+                    return Expression.Type.INT;
+                default:
+                    return Expression.Type.FLOAT;
+            }
+        }
+    }
+
+    /**
+     * A classical variable of a circuit: its name, type and width in bits ({@code 64} for
+     * floats and angles, {@code 1} for bools). Variables start at 0 in every shot.
+     *
+     * @param name the name
+     * @param type the type
+     * @param width the width, 1 to 64
+     * @since 0.1
+     */
+    public record Variable(String name, VariableType type, int width) {
+        /**
+         * Checks the fields.
+         *
+         * @param name the name
+         * @param type the type
+         * @param width the width
+         */
+        public Variable {
+            Checks.requireName(name, "a variable name");
+            Objects.requireNonNull(type, "type");
+            Checks.requireInRange(width, 1, 64, "the width of variable " + Checks.excerpt(name));
+        }
+
+        /**
+         * Converts a value to this variable's type, as an assignment does: a bool becomes 0
+         * or 1, an integer wraps to the width, an angle is reduced to [0, 2π).
+         *
+         * @param value the assigned expression's value, as the expression's type gives it
+         *     (integer bits, or a double's bits when {@code fromFloat})
+         * @param fromFloat whether {@code value} holds a double's bits
+         * @return the stored 64 bits
+         */
+        public long convert(long value, boolean fromFloat) {
+            double real = fromFloat ? Double.longBitsToDouble(value) : value;
+            long integer = fromFloat ? (long) real : value;
+            switch (type) {
+                case BOOL:
+                    return (fromFloat ? real != 0 : value != 0) ? 1 : 0;
+                case INT:
+                    return width == 64 ? integer : (integer << (64 - width)) >> (64 - width);
+                case UINT:
+                    return width == 64 ? integer : integer & ((1L << width) - 1);
+                case FLOAT:
+                    return Double.doubleToRawLongBits(real);
+                default: {
+                    double a = real % (2 * Math.PI);
+                    if (a < 0) {
+                        a += 2 * Math.PI;
+                    }
+                    return Double.doubleToRawLongBits(a);
+                }
+            }
+        }
+    }
 
     private Circuit(int qubits, int clbits, List<Instruction> instructions) {
+        this(qubits, clbits, instructions, List.of());
+    }
+
+    private Circuit(int qubits, int clbits, List<Instruction> instructions,
+            List<Variable> variables) {
         this.qubits = qubits;
         this.clbits = clbits;
         this.instructions = List.copyOf(instructions);
+        this.variables = List.copyOf(variables);
+    }
+
+    /**
+     * Returns the classical variables, in declaration order; an expression's variable slot is
+     * its index here.
+     *
+     * @return an unmodifiable list
+     */
+    public List<Variable> variables() {
+        return variables;
     }
 
     /**
@@ -105,14 +209,16 @@ public final class Circuit {
     }
 
     /**
-     * Tells whether this circuit holds only gates (no measurement, reset or condition), so that
-     * {@link StateVector#apply(Circuit)}, {@link #inverse()} and {@link #toOperator()} accept it.
+     * Tells whether this circuit holds only gates with angles known before the shot, and
+     * perhaps delays (no measurement, reset, classical control or assignment), so that
+     * {@link StateVector#apply(Circuit)}, {@link #inverse()} and {@link #toOperator()} accept
+     * it. A delay does nothing to an ideal state.
      *
      * @return whether the circuit is gates only
      */
     public boolean isGatesOnly() {
         for (Instruction in : instructions) {
-            if (in.isClassical()) {
+            if (in.isClassical() && in.kind() != Instruction.Kind.DELAY) {
                 return false;
             }
         }
@@ -143,7 +249,12 @@ public final class Circuit {
                 case MEASURE:
                     measured.set(in.targetsRaw()[0]);
                     break;
+                case DELAY:
+                    break;
                 case GATE:
+                    if (in.isDynamic()) {
+                        return i;
+                    }
                     for (int q : in.targetsRaw()) {
                         if (measured.get(q)) {
                             return i;
@@ -171,6 +282,20 @@ public final class Circuit {
             case IF_BIT:
                 return "instruction " + stop + " is a block conditioned on clbit " + in.clbit()
                         + " (" + Checks.excerpt(in.toString()) + ")";
+            case IF:
+            case WHILE:
+                return "instruction " + stop + " is a block conditioned on "
+                        + Checks.excerpt(in.condition().toString());
+            case ASSIGN:
+                return "instruction " + stop + " assigns a classical value ("
+                        + Checks.excerpt(in.toString()) + ")";
+            case GATE:
+                if (in.isDynamic()) {
+                    return "instruction " + stop + " is a gate whose angles are read during the"
+                            + " shot (" + Checks.excerpt(in.toString()) + ")";
+                }
+                return "instruction " + stop + " (" + in + ") acts on a qubit after it was"
+                        + " measured";
             default:
                 return "instruction " + stop + " (" + in + ") acts on a qubit after it was"
                         + " measured";
@@ -218,7 +343,7 @@ public final class Circuit {
                 gates.add(in);
             }
         }
-        return new Circuit(qubits, clbits, gates);
+        return new Circuit(qubits, clbits, gates, variables);
     }
 
     /**
@@ -291,7 +416,26 @@ public final class Circuit {
         if (in.clbit() >= 0) {
             cs.add(in.clbit());
         }
+        BitSet read = new BitSet();
+        if (in.condition() != null) {
+            in.condition().collectClbits(read);
+        }
+        if (in.assignedValue() != null) {
+            in.assignedValue().collectClbits(read);
+        }
+        for (Expression e : in.angleExpressions()) {
+            e.collectClbits(read);
+        }
+        for (int c : in.assignedClbits()) {
+            read.set(c);
+        }
+        for (int c = read.nextSetBit(0); c >= 0; c = read.nextSetBit(c + 1)) {
+            cs.add(c);
+        }
         for (Instruction b : in.body()) {
+            touched(b, qs, cs);
+        }
+        for (Instruction b : in.otherwise()) {
             touched(b, qs, cs);
         }
     }
@@ -310,10 +454,13 @@ public final class Circuit {
         for (int i = instructions.size() - 1; i >= 0; i--) {
             out.add(inverseOf(instructions.get(i)));
         }
-        return new Circuit(qubits, clbits, out);
+        return new Circuit(qubits, clbits, out, variables);
     }
 
     private static Instruction inverseOf(Instruction in) {
+        if (in.kind() == Instruction.Kind.DELAY) {
+            return in;
+        }
         Gate g = in.gate();
         if (g == Gate.UNITARY) {
             Operator op = in.operator();
@@ -345,7 +492,9 @@ public final class Circuit {
         requireGatesOnly("toOperator()");
         List<GateOp> plans = new ArrayList<>(instructions.size());
         for (Instruction in : instructions) {
-            plans.add(in.plan());
+            if (in.kind() == Instruction.Kind.GATE) {
+                plans.add(in.plan());
+            }
         }
         double[] m = Matrices.ofGates(qubits, plans);
         return Operator.ofRaw(qubits, m);
@@ -354,10 +503,11 @@ public final class Circuit {
     void requireGatesOnly(String what) {
         for (int i = 0; i < instructions.size(); i++) {
             Instruction in = instructions.get(i);
-            if (in.isClassical()) {
+            if (in.isClassical() && in.kind() != Instruction.Kind.DELAY) {
                 throw new IllegalArgumentException(what + " needs a circuit of gates only, but"
-                        + " instruction " + i + " is '" + in + "'; run circuits with measurement,"
-                        + " reset or conditions with Simulator");
+                        + " instruction " + i + " is '" + Checks.excerpt(in.toString())
+                        + "'; run circuits with measurement, reset or classical control with"
+                        + " Simulator");
             }
         }
     }
@@ -390,7 +540,8 @@ public final class Circuit {
             return false;
         }
         Circuit c = (Circuit) o;
-        return qubits == c.qubits && clbits == c.clbits && instructions.equals(c.instructions);
+        return qubits == c.qubits && clbits == c.clbits && instructions.equals(c.instructions)
+                && variables.equals(c.variables);
     }
 
     /**
@@ -400,7 +551,7 @@ public final class Circuit {
      */
     @Override
     public int hashCode() {
-        return Objects.hash(qubits, clbits, instructions);
+        return Objects.hash(qubits, clbits, instructions, variables);
     }
 
     /**
@@ -433,10 +584,328 @@ public final class Circuit {
         private final int qubits;
         private final int clbits;
         private final List<Instruction> list = new ArrayList<>();
+        /** The circuit's variables, shared with the builders of its blocks. */
+        private final Variables variables;
+
+        /** The variable table of a circuit being built: declaration order and names. */
+        private static final class Variables {
+            final List<Variable> list = new ArrayList<>();
+            final java.util.Map<String, Integer> index = new java.util.HashMap<>();
+
+            void truncate(int size) {
+                while (list.size() > size) {
+                    index.remove(list.remove(list.size() - 1).name());
+                }
+            }
+        }
 
         private Builder(int qubits, int clbits) {
+            this(qubits, clbits, new Variables());
+        }
+
+        private Builder(int qubits, int clbits, Variables variables) {
             this.qubits = qubits;
             this.clbits = clbits;
+            this.variables = variables;
+        }
+
+        /**
+         * Records a block with a new builder sharing the variables; if the block's recorder
+         * throws, variables it declared are forgotten and nothing is recorded.
+         */
+        private List<Instruction> block(Consumer<Circuit.Builder> recorder) {
+            Objects.requireNonNull(recorder, "block");
+            Builder body = new Builder(qubits, clbits, variables);
+            int declared = variables.list.size();
+            try {
+                recorder.accept(body);
+            } catch (RuntimeException | Error e) {
+                variables.truncate(declared);
+                throw e;
+            }
+            return body.list;
+        }
+
+        /** Checks that an expression reads only this circuit's clbits and variables. */
+        private void requireExpression(Expression e, String what) {
+            Objects.requireNonNull(e, what);
+            int c = e.maxClbit();
+            if (c >= clbits) {
+                throw new IndexOutOfBoundsException("clbit " + c + " read by " + what + " is out"
+                        + " of range [0, " + (clbits - 1) + "] for " + clbits
+                        + " classical bit(s)");
+            }
+            if (e.maxSlot() >= variables.list.size()) {
+                throw new IllegalArgumentException(what + " reads a variable of another circuit;"
+                        + " use the expressions this builder's declare and variable return");
+            }
+        }
+
+        private void requireCondition(Expression e, String what) {
+            requireExpression(e, what);
+            if (e.type() == Expression.Type.FLOAT) {
+                throw new IllegalArgumentException(what + " " + Checks.excerpt(e.toString())
+                        + " is a float; a condition is a bool or an integer (true when"
+                        + " non-zero)");
+            }
+        }
+
+        /**
+         * Declares a classical variable and returns the expression that reads it. The variable
+         * starts at 0 in every shot; with an {@code initial} value, an assignment is recorded
+         * here. Variables belong to the whole circuit, also when declared inside a block.
+         *
+         * @param name a new name: not blank, no whitespace
+         * @param type the type
+         * @param width the width in bits for {@code INT} and {@code UINT}, 1 to 64 (ignored for
+         *     the other types)
+         * @param initial the value to assign now, or {@code null} to leave it 0
+         * @return the expression of the variable
+         * @throws IllegalArgumentException if the name is in use or bad, the width is out of
+         *     range, or the initial value reads unknown clbits or variables
+         */
+        public Expression declare(String name, VariableType type, int width, Expression initial) {
+            Objects.requireNonNull(type, "type");
+            int w = type == VariableType.INT || type == VariableType.UINT ? width
+                    : type == VariableType.BOOL ? 1 : 64;
+            Variable v = new Variable(name, type, w);
+            if (variables.index.containsKey(name)) {
+                throw new IllegalArgumentException("variable '" + Checks.excerpt(name)
+                        + "' is declared already");
+            }
+            if (initial != null) {
+                requireExpression(initial, "the initial value of " + Checks.excerpt(name));
+            }
+            int slot = variables.list.size();
+            variables.list.add(v);
+            variables.index.put(name, slot);
+            if (initial != null) {
+                list.add(Instruction.assignVariable(slot, type, initial));
+            }
+            return Expression.variable(slot, name, type.expressionType());
+        }
+
+        /**
+         * Returns the expression that reads a declared variable.
+         *
+         * @param name the variable's name
+         * @return the expression
+         * @throws IllegalArgumentException if no variable has this name
+         */
+        public Expression variable(String name) {
+            Objects.requireNonNull(name, "name");
+            Integer slot = variables.index.get(name);
+            if (slot == null) {
+                throw new IllegalArgumentException("no variable is named '"
+                        + Checks.excerpt(name) + "'; declare it first");
+            }
+            Variable v = variables.list.get(slot);
+            return Expression.variable(slot, name, v.type().expressionType());
+        }
+
+        /**
+         * Assigns a value to a variable, converted to its type (see
+         * {@link Variable#convert(long, boolean)}).
+         *
+         * @param name a declared variable
+         * @param value the value
+         * @return this builder
+         * @throws IllegalArgumentException if the variable is unknown or the value reads unknown
+         *     clbits or variables
+         */
+        public Builder assign(String name, Expression value) {
+            Expression target = variable(name);
+            requireExpression(value, "the value assigned to " + Checks.excerpt(name));
+            int slot = target.maxSlot();
+            list.add(Instruction.assignVariable(slot, variables.list.get(slot).type(), value));
+            return this;
+        }
+
+        /**
+         * Writes an integer value into classical bits: bit {@code j} of the value goes to
+         * {@code clbits[j]} (the others of the value are dropped).
+         *
+         * @param clbits distinct classical bits, 1 to 63
+         * @param value an integer or bool expression
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a clbit is out of range
+         * @throws IllegalArgumentException if a clbit repeats, there are none or too many, or
+         *     the value is a float
+         */
+        public Builder assignClbits(int[] clbits, Expression value) {
+            Objects.requireNonNull(clbits, "clbits");
+            if (clbits.length < 1 || clbits.length > 63) {
+                throw new IllegalArgumentException("an assignment writes 1 to 63 clbits but "
+                        + clbits.length + " were given");
+            }
+            for (int c : clbits) {
+                Checks.requireClbit(c, this.clbits);
+            }
+            Checks.requireDistinctQubits(clbits, this.clbits, "the assigned clbits");
+            requireCondition(value, "the value assigned to clbits");
+            list.add(Instruction.assignClbits(clbits.clone(), value));
+            return this;
+        }
+
+        /**
+         * Appends a block run only when {@code condition} holds at that point of a shot.
+         *
+         * @param condition a bool or integer expression (true when non-zero)
+         * @param then records the block
+         * @return this builder
+         * @throws IllegalArgumentException if the condition is a float or reads unknown clbits
+         *     or variables
+         */
+        public Builder ifThen(Expression condition, Consumer<Circuit.Builder> then) {
+            return ifThenElse(condition, then, b -> { });
+        }
+
+        /**
+         * Appends a choice between two blocks on a condition evaluated during the shot.
+         *
+         * @param condition a bool or integer expression (true when non-zero)
+         * @param then records the block run when it holds
+         * @param otherwise records the block run when it does not
+         * @return this builder
+         * @throws IllegalArgumentException if the condition is a float or reads unknown clbits
+         *     or variables
+         */
+        public Builder ifThenElse(Expression condition, Consumer<Circuit.Builder> then,
+                Consumer<Circuit.Builder> otherwise) {
+            requireCondition(condition, "the condition");
+            Objects.requireNonNull(then, "then");
+            Objects.requireNonNull(otherwise, "otherwise");
+            int declared = variables.list.size();
+            List<Instruction> a = block(then);
+            List<Instruction> b;
+            try {
+                b = block(otherwise);
+            } catch (RuntimeException | Error e) {
+                variables.truncate(declared);
+                throw e;
+            }
+            list.add(Instruction.ifThen(condition, a, b));
+            return this;
+        }
+
+        /** The most iterations a loop may be given: {@value}. */
+        public static final int MAX_ITERATIONS = 1 << 20;
+
+        /**
+         * Appends a block run again and again while {@code condition} holds, checked before each
+         * run, at most {@code maxIterations} times in one shot (the loop then stops, as a
+         * device's control system would).
+         *
+         * @param condition a bool or integer expression (true when non-zero)
+         * @param maxIterations 1 to {@value #MAX_ITERATIONS}
+         * @param body records the block
+         * @return this builder
+         * @throws IllegalArgumentException if the condition is a float or reads unknown clbits
+         *     or variables, or the bound is out of range
+         */
+        public Builder whileLoop(Expression condition, int maxIterations,
+                Consumer<Circuit.Builder> body) {
+            requireCondition(condition, "the loop condition");
+            Checks.requireInRange(maxIterations, 1, MAX_ITERATIONS, "the loop's iteration bound");
+            list.add(Instruction.whileLoop(condition, maxIterations, block(body)));
+            return this;
+        }
+
+        /**
+         * Appends a wait on some qubits: no gate, but its duration is kept for noise models
+         * that make qubits decay while they wait.
+         *
+         * @param duration the duration, finite and at least 0 (seconds when read from
+         *     OpenQASM)
+         * @param qubits distinct qubits; none means all
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is out of range
+         * @throws IllegalArgumentException if the duration is negative or not finite, or a qubit
+         *     repeats
+         */
+        public Builder delay(double duration, int... qubits) {
+            Checks.requireFiniteTime(duration, "the delay");
+            Objects.requireNonNull(qubits, "qubits");
+            int[] qs = qubits;
+            if (qs.length == 0) {
+                qs = new int[this.qubits];
+                for (int q = 0; q < qs.length; q++) {
+                    qs[q] = q;
+                }
+            }
+            Checks.requireDistinctQubits(qs, this.qubits, "the qubits of the delay");
+            list.add(Instruction.delay(duration, qs.clone()));
+            return this;
+        }
+
+        /**
+         * Appends a catalogue gate whose angles are expressions; angles that read clbits or
+         * variables are evaluated during each shot (gates with constant angles are recorded as
+         * with {@link #gate(Gate, double[], int...)}).
+         *
+         * @param gate the gate
+         * @param angles {@code gate.parameters()} expressions, in radians
+         * @param qubits the gate's qubits
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException as for {@link #gate(Gate, double[], int...)}, or if an
+         *     angle reads unknown clbits or variables
+         */
+        public Builder gate(Gate gate, Expression[] angles, int... qubits) {
+            return controlled(gate, angles, NONE, qubits);
+        }
+
+        /**
+         * Appends a controlled catalogue gate whose angles are expressions (see
+         * {@link #gate(Gate, Expression[], int...)} and
+         * {@link #controlled(Gate, double[], int[], int...)}).
+         *
+         * @param gate the gate
+         * @param angles {@code gate.parameters()} expressions, in radians
+         * @param controls the added controls
+         * @param qubits the gate's own qubits
+         * @return this builder
+         * @throws IndexOutOfBoundsException if a qubit is not in the circuit
+         * @throws IllegalArgumentException as for the other forms
+         */
+        public Builder controlled(Gate gate, Expression[] angles, int[] controls,
+                int... qubits) {
+            Objects.requireNonNull(gate, "gate");
+            Objects.requireNonNull(angles, "angles");
+            boolean constant = true;
+            double[] values = new double[angles.length];
+            for (int i = 0; i < angles.length; i++) {
+                requireExpression(angles[i], "angle " + i + " of " + gate.id());
+                constant &= angles[i].isConstant();
+                if (angles[i].isConstant()) {
+                    values[i] = angles[i].constantValue();
+                }
+            }
+            if (constant) {
+                return record(gate, values, controls, qubits);
+            }
+            Objects.requireNonNull(controls, "controls");
+            Objects.requireNonNull(qubits, "qubits");
+            if (gate == Gate.UNITARY) {
+                throw new IllegalArgumentException("unitary has no angles");
+            }
+            if (angles.length != gate.parameters()) {
+                throw new IllegalArgumentException("gate " + gate.id() + " takes "
+                        + gate.parameters() + " angle(s) but " + angles.length + " were given");
+            }
+            if (qubits.length != gate.qubits()) {
+                throw new IllegalArgumentException("gate " + gate.id() + " acts on "
+                        + gate.qubits() + " qubit(s) but " + qubits.length
+                        + " qubit index(es) were given");
+            }
+            int[] all = concat(controls, qubits);
+            Checks.requireDistinctQubits(all, this.qubits, "the qubits of " + gate.id());
+            Gate named = gate.withControls(controls.length).orElse(null);
+            Gate use = named != null ? named : gate;
+            int own = named != null ? named.controls() : controls.length + gate.controls();
+            list.add(Instruction.dynamicGate(use, angles.clone(),
+                    Arrays.copyOfRange(all, own, all.length), Arrays.copyOf(all, own)));
+            return this;
         }
 
         /**
@@ -919,9 +1388,7 @@ public final class Circuit {
             Checks.requireClbit(clbit, clbits);
             Checks.requireBit(value, "the condition value");
             Objects.requireNonNull(then, "then");
-            Builder body = new Builder(qubits, clbits);
-            then.accept(body);
-            list.add(Instruction.ifBit(clbit, value, body.list));
+            list.add(Instruction.ifBit(clbit, value, block(then)));
             return this;
         }
 
@@ -940,7 +1407,24 @@ public final class Circuit {
                         + " qubits and " + other.clbits + " clbits to one of " + qubits
                         + " qubits and " + clbits + " clbits");
             }
-            list.addAll(other.instructions);
+            if (other.variables.isEmpty()) {
+                list.addAll(other.instructions);
+                return this;
+            }
+            for (Variable v : other.variables) {
+                if (variables.index.containsKey(v.name())) {
+                    throw new IllegalArgumentException("cannot append: variable '"
+                            + Checks.excerpt(v.name()) + "' is declared in both circuits");
+                }
+            }
+            int offset = variables.list.size();
+            for (Variable v : other.variables) {
+                variables.index.put(v.name(), variables.list.size());
+                variables.list.add(v);
+            }
+            for (Instruction in : other.instructions) {
+                list.add(in.withSlotOffset(offset));
+            }
             return this;
         }
 
@@ -950,7 +1434,7 @@ public final class Circuit {
          * @return an immutable circuit
          */
         public Circuit build() {
-            return new Circuit(qubits, clbits, list);
+            return new Circuit(qubits, clbits, list, variables.list);
         }
     }
 }

@@ -8,6 +8,7 @@ import org.apache.commons.rng.simple.RandomSource;
 
 import dev.qsim.internal.Bridge;
 import dev.qsim.internal.Checks;
+import dev.qsim.internal.ClassicalState;
 import dev.qsim.kernel.Parallel;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
@@ -411,16 +412,31 @@ public final class Simulator implements CircuitRunner {
     private static String nonClifford(Circuit circuit, int index) {
         StringBuilder where = new StringBuilder("instruction " + index);
         Instruction in = circuit.instructions().get(index);
-        while (in.kind() == Instruction.Kind.IF_BIT) {
-            java.util.List<Instruction> body = in.body();
+        while (in.kind() == Instruction.Kind.IF_BIT || in.kind() == Instruction.Kind.IF
+                || in.kind() == Instruction.Kind.WHILE) {
+            java.util.List<Instruction> block = in.body();
+            String part = " (" + in.name() + "), step ";
+            if (allClifford(block)) {
+                block = in.otherwise();
+                part = " (else), step ";
+            }
             int step = 0;
-            while (body.get(step).isClifford()) {
+            while (block.get(step).isClifford()) {
                 step++;
             }
-            where.append(" (if), step ").append(step);
-            in = body.get(step);
+            where.append(part).append(step);
+            in = block.get(step);
         }
         return where + " (" + in.name() + ", " + in + ") is not a Clifford gate";
+    }
+
+    private static boolean allClifford(java.util.List<Instruction> block) {
+        for (Instruction in : block) {
+            if (!in.isClifford()) {
+                return false;
+            }
+        }
+        return true;
     }
 
     private void requireStateVector(Circuit circuit) {
@@ -572,8 +588,8 @@ public final class Simulator implements CircuitRunner {
         StateVector state = newState(circuit);
         java.util.List<Instruction> list = fuses(circuit)
                 ? AmplitudeEngine.fuse(circuit.instructions()) : circuit.instructions();
-        AmplitudeEngine.run(state.store(), list, 0, new boolean[circuit.clbits()], rng(),
-                threads);
+        AmplitudeEngine.run(state.store(), circuit, list, 0, new ClassicalState(circuit.clbits(),
+                circuit.variables().size()), rng(), threads);
         return state;
     }
 

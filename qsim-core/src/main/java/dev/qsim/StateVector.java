@@ -502,7 +502,9 @@ public final class StateVector {
         circuit.requireGatesOnly("StateVector.apply(Circuit)");
         List<GateOp> plans = new ArrayList<>(circuit.size());
         for (Instruction in : circuit.instructions()) {
-            plans.add(in.plan());
+            if (in.kind() == Instruction.Kind.GATE) {
+                plans.add(in.plan());
+            }
         }
         Frame.apply(amps, plans, threads);
         return this;

@@ -211,10 +211,11 @@ public final class DensityMatrix {
      * is the channel {@code |0><0|, |0><1|}, a measurement (its outcome not kept) the channel
      * {@code |0><0|, |1><1|}. For noisy runs use {@link dev.qsim.Simulator#withNoise}.
      *
-     * @param circuit a circuit on {@link #qubits()} qubits without conditioned blocks
+     * @param circuit a circuit on {@link #qubits()} qubits that uses no measured values: no
+     *     conditions, loops, assignments or gates with angles computed during the shot; delays
+     *     do nothing
      * @return this
-     * @throws IllegalArgumentException if the sizes differ or the circuit has a conditioned
-     *     block
+     * @throws IllegalArgumentException if the sizes differ or the circuit uses measured values
      */
     public DensityMatrix apply(Circuit circuit) {
         Objects.requireNonNull(circuit, "circuit");
@@ -223,10 +224,11 @@ public final class DensityMatrix {
                     + " qubits but the density matrix has " + n);
         }
         for (Instruction in : circuit.instructions()) {
-            if (in.kind() == Instruction.Kind.IF_BIT) {
-                throw new IllegalArgumentException("a density matrix applies gates, resets and"
-                        + " measurements, not the conditioned block '" + in + "'; run"
-                        + " conditioned circuits with Simulator (trajectories)");
+            String why = whyNotUnconditional(in);
+            if (why != null) {
+                throw new IllegalArgumentException("a density matrix applies gates, resets,"
+                        + " delays and measurements, not " + why + "; run circuits that use"
+                        + " measured values with Simulator");
             }
         }
         for (Instruction in : circuit.instructions()) {
@@ -237,18 +239,48 @@ public final class DensityMatrix {
                 case RESET:
                     channel(NoiseEngines.RESET, in.targets());
                     break;
-                default:
+                case MEASURE:
                     channel(NoiseEngines.MEASURE, in.targets());
+                    break;
+                default:
                     break;
             }
         }
         return this;
     }
 
-    /** Applies a gate instruction (no checks). */
+    /**
+     * Says why an instruction needs the shot's classical values (a condition, loop, assignment
+     * or gate with angles computed during the shot), or returns null if it does not.
+     */
+    static String whyNotUnconditional(Instruction in) {
+        switch (in.kind()) {
+            case GATE:
+                return in.isDynamic() ? "the gate '" + in + "' whose angles are computed during"
+                        + " the shot" : null;
+            case MEASURE:
+            case RESET:
+            case DELAY:
+                return null;
+            case ASSIGN:
+                return "the assignment '" + in + "'";
+            case WHILE:
+                return "the loop '" + in + "'";
+            default:
+                return "the conditioned block '" + in + "'";
+        }
+    }
+
+    /** Applies a gate instruction with angles known before the shot (no checks). */
     void gate(Instruction in) {
         DensityKernels.unitary(amps, n, in.targets(), in.controls(), raw(in.operator()),
                 threads);
+    }
+
+    /** Applies a gate whose angles were evaluated during the shot (no checks). */
+    void gate(Instruction in, double[] angles) {
+        DensityKernels.unitary(amps, n, in.targets(), in.controls(),
+                raw(in.gate().operator(angles)), threads);
     }
 
     /** Applies {@code P rho P} for a 2x2 matrix P on one qubit (no checks; not trace-kept). */

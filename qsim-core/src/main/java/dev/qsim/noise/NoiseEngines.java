@@ -1,8 +1,7 @@
 package dev.qsim.noise;
 
-import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.HashMap;
+import java.util.IdentityHashMap;
 import java.util.List;
 import java.util.Map;
 
@@ -17,7 +16,9 @@ import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.internal.Bridge;
+import dev.qsim.internal.ClassicalState;
 import dev.qsim.internal.Heap;
+import dev.qsim.internal.ShotRunner;
 import dev.qsim.kernel.Amplitudes;
 import dev.qsim.kernel.Frame;
 import dev.qsim.kernel.GateOp;
@@ -72,10 +73,11 @@ final class NoiseEngines implements Bridge.Noise {
             boolean measurements) {
         List<Instruction> list = circuit.instructions();
         for (int i = 0; i < list.size(); i++) {
-            if (list.get(i).kind() == Instruction.Kind.IF_BIT) {
-                throw new IllegalArgumentException("instruction " + i + " is a conditioned"
-                        + " block (on clbit " + list.get(i).clbit() + "); the density-matrix"
-                        + " engine does not run conditions (use trajectories)");
+            String why = DensityMatrix.whyNotUnconditional(list.get(i));
+            if (why != null) {
+                throw new IllegalArgumentException("instruction " + i + " is " + why + "; the"
+                        + " density matrix of the whole ensemble cannot follow measured values"
+                        + " (use distribution() or trajectories)");
             }
         }
         DensityMatrix rho = DensityMatrix.zero(circuit.qubits()).setThreads(threads);
@@ -90,10 +92,13 @@ final class NoiseEngines implements Bridge.Noise {
                 case RESET:
                     rho.channel(RESET, in.targets());
                     break;
-                default:
+                case MEASURE:
                     if (measurements) {
                         rho.channel(MEASURE, in.targets());
                     }
+                    break;
+                default:
+                    // A delay: no noise is tied to waiting in a NoiseModel.
                     break;
             }
         }
@@ -136,93 +141,162 @@ final class NoiseEngines implements Bridge.Noise {
         int n = circuit.qubits();
         long each = DensityMatrix.bytes(n);
         int maxEntries = (int) Math.max(1, Math.min(1 << 20, budgetBytes / each));
-        Map<Long, DensityMatrix> branches = new HashMap<>();
-        branches.put(0L, DensityMatrix.zero(n).setThreads(threads));
-        branches = branchRun(circuit.instructions(), branches, model, maxEntries);
+        Map<ClassicalState, DensityMatrix> branches = new HashMap<>();
+        branches.put(new ClassicalState(circuit.clbits(), circuit.variables().size()),
+                DensityMatrix.zero(n).setThreads(threads));
+        branches = new Branches(model, maxEntries, circuit.variables())
+                .run(circuit.instructions(), branches);
         double[] out = new double[1 << circuit.clbits()];
-        for (Map.Entry<Long, DensityMatrix> e : branches.entrySet()) {
-            out[(int) (long) e.getKey()] += Math.max(0, e.getValue().trace());
+        for (Map.Entry<ClassicalState, DensityMatrix> e : branches.entrySet()) {
+            out[(int) e.getKey().register()] += Math.max(0, e.getValue().trace());
         }
         return out;
     }
 
     /**
-     * Evolves a classical-quantum state: for each value of the classical register, the
-     * unnormalised density matrix of the shots that gave it (its trace is their probability).
-     * Conditions act on the entries whose register matches; a measurement splits each entry
-     * into its two projections and passes the recorded bit through the readout confusion, so
-     * entries with equal registers merge exactly.
+     * Evolves a classical-quantum state: for each value of the classical bits and variables,
+     * the unnormalised density matrix of the shots that reach it (its trace is their
+     * probability). Conditions and loops act on the entries whose values satisfy them; a
+     * measurement splits each entry into its two projections and passes the recorded bit
+     * through the readout confusion; entries that come to hold equal values merge exactly.
      */
-    private static Map<Long, DensityMatrix> branchRun(List<Instruction> list,
-            Map<Long, DensityMatrix> branches, NoiseModel model, int maxEntries) {
-        Map<Long, DensityMatrix> current = branches;
-        for (Instruction in : list) {
-            switch (in.kind()) {
-                case GATE:
-                    for (DensityMatrix rho : current.values()) {
-                        rho.gate(in);
-                        for (NoiseModel.Placed p : model.noiseAfter(in)) {
-                            rho.channel(p.channel(), p.qubits());
+    private static final class Branches {
+        private final NoiseModel model;
+        private final int maxEntries;
+        private final List<Circuit.Variable> variables;
+
+        Branches(NoiseModel model, int maxEntries, List<Circuit.Variable> variables) {
+            this.model = model;
+            this.maxEntries = maxEntries;
+            this.variables = variables;
+        }
+
+        Map<ClassicalState, DensityMatrix> run(List<Instruction> list,
+                Map<ClassicalState, DensityMatrix> branches) {
+            Map<ClassicalState, DensityMatrix> current = branches;
+            for (Instruction in : list) {
+                if (current.isEmpty()) {
+                    return current;
+                }
+                switch (in.kind()) {
+                    case GATE:
+                        for (Map.Entry<ClassicalState, DensityMatrix> e : current.entrySet()) {
+                            DensityMatrix rho = e.getValue();
+                            if (in.isDynamic()) {
+                                rho.gate(in, ShotRunner.angles(in, e.getKey()));
+                            } else {
+                                rho.gate(in);
+                            }
+                            for (NoiseModel.Placed p : model.noiseAfter(in)) {
+                                rho.channel(p.channel(), p.qubits());
+                            }
                         }
+                        break;
+                    case RESET:
+                        for (DensityMatrix rho : current.values()) {
+                            rho.channel(RESET, in.targets());
+                        }
+                        break;
+                    case MEASURE:
+                        current = measureBranches(current, in, model, maxEntries);
+                        break;
+                    case DELAY:
+                        break;
+                    case ASSIGN: {
+                        Map<ClassicalState, DensityMatrix> out = new HashMap<>();
+                        for (Map.Entry<ClassicalState, DensityMatrix> e : current.entrySet()) {
+                            ClassicalState c = e.getKey().copy();
+                            ShotRunner.assign(in, c, variables);
+                            merge(out, c, e.getValue());
+                        }
+                        current = out;
+                        break;
                     }
-                    break;
-                case RESET:
-                    for (DensityMatrix rho : current.values()) {
-                        rho.channel(RESET, in.targets());
+                    case WHILE: {
+                        Map<ClassicalState, DensityMatrix> done = new HashMap<>();
+                        Map<ClassicalState, DensityMatrix> active = current;
+                        for (int k = 0; k < in.maxIterations() && !active.isEmpty(); k++) {
+                            Map<ClassicalState, DensityMatrix> looping = new HashMap<>();
+                            for (Map.Entry<ClassicalState, DensityMatrix> e
+                                    : active.entrySet()) {
+                                if (in.condition().test(e.getKey())) {
+                                    looping.put(e.getKey(), e.getValue());
+                                } else {
+                                    merge(done, e.getKey(), e.getValue());
+                                }
+                            }
+                            active = looping.isEmpty() ? looping : run(in.body(), looping);
+                        }
+                        for (Map.Entry<ClassicalState, DensityMatrix> e : active.entrySet()) {
+                            merge(done, e.getKey(), e.getValue());
+                        }
+                        current = done;
+                        break;
                     }
-                    break;
-                case MEASURE:
-                    current = measureBranches(current, in, model, maxEntries);
-                    break;
-                default: {
-                    Map<Long, DensityMatrix> taken = new HashMap<>();
-                    Map<Long, DensityMatrix> kept = new HashMap<>();
-                    for (Map.Entry<Long, DensityMatrix> e : current.entrySet()) {
-                        boolean bit = ((e.getKey() >>> in.clbit()) & 1L) == 1;
-                        (bit == (in.value() == 1) ? taken : kept).put(e.getKey(), e.getValue());
+                    default: {
+                        Map<ClassicalState, DensityMatrix> taken = new HashMap<>();
+                        Map<ClassicalState, DensityMatrix> kept = new HashMap<>();
+                        for (Map.Entry<ClassicalState, DensityMatrix> e : current.entrySet()) {
+                            ClassicalState c = e.getKey();
+                            boolean holds = in.kind() == Instruction.Kind.IF_BIT
+                                    ? c.bit(in.clbit()) == (in.value() == 1)
+                                    : in.condition().test(c);
+                            (holds ? taken : kept).put(c, e.getValue());
+                        }
+                        Map<ClassicalState, DensityMatrix> out = new HashMap<>();
+                        Map<ClassicalState, DensityMatrix> a = taken.isEmpty() ? taken
+                                : run(in.body(), taken);
+                        Map<ClassicalState, DensityMatrix> b = kept.isEmpty()
+                                || in.otherwise().isEmpty() ? kept : run(in.otherwise(), kept);
+                        for (Map.Entry<ClassicalState, DensityMatrix> e : a.entrySet()) {
+                            merge(out, e.getKey(), e.getValue());
+                        }
+                        for (Map.Entry<ClassicalState, DensityMatrix> e : b.entrySet()) {
+                            merge(out, e.getKey(), e.getValue());
+                        }
+                        current = out;
+                        break;
                     }
-                    if (!taken.isEmpty()) {
-                        kept.putAll(branchRun(in.body(), taken, model, maxEntries));
-                    }
-                    current = kept;
-                    break;
                 }
             }
+            return current;
         }
-        return current;
     }
 
     private static final double[] ZERO_PROJECTOR = {1, 0, 0, 0, 0, 0, 0, 0};
     private static final double[] ONE_PROJECTOR = {0, 0, 0, 0, 0, 0, 1, 0};
 
-    private static Map<Long, DensityMatrix> measureBranches(Map<Long, DensityMatrix> current,
-            Instruction in, NoiseModel model, int maxEntries) {
+    private static Map<ClassicalState, DensityMatrix> measureBranches(
+            Map<ClassicalState, DensityMatrix> current, Instruction in, NoiseModel model,
+            int maxEntries) {
         int q = in.targets()[0];
-        long bit = 1L << in.clbit();
         double e0 = model.readoutP1Given0(q);
         double e1 = model.readoutP0Given1(q);
-        Map<Long, DensityMatrix> out = new HashMap<>();
-        for (Map.Entry<Long, DensityMatrix> e : current.entrySet()) {
+        Map<ClassicalState, DensityMatrix> out = new HashMap<>();
+        for (Map.Entry<ClassicalState, DensityMatrix> e : current.entrySet()) {
             DensityMatrix rho = e.getValue();
             DensityMatrix one = rho.copy();
             rho.project(q, ZERO_PROJECTOR);
             one.project(q, ONE_PROJECTOR);
-            long key0 = e.getKey() & ~bit;
-            long key1 = e.getKey() | bit;
+            ClassicalState key0 = e.getKey().copy();
+            key0.setBit(in.clbit(), false);
+            ClassicalState key1 = e.getKey().copy();
+            key1.setBit(in.clbit(), true);
             // Read 0: (1 - e0) of the |0> part and e1 of the |1> part; read 1: the rest.
             DensityMatrix read0 = rho.copy().scale(1 - e0).addScaled(e1, one);
             DensityMatrix read1 = one.scale(1 - e1).addScaled(e0, rho);
             merge(out, key0, read0);
             merge(out, key1, read1);
             if (out.size() > maxEntries) {
-                throw new IllegalStateException("more than " + maxEntries + " register values"
+                throw new IllegalStateException("more than " + maxEntries + " classical values"
                         + " to track");
             }
         }
         return out;
     }
 
-    private static void merge(Map<Long, DensityMatrix> out, long key, DensityMatrix rho) {
+    private static void merge(Map<ClassicalState, DensityMatrix> out, ClassicalState key,
+            DensityMatrix rho) {
         if (!(rho.trace() > 1e-16)) {
             return;
         }
@@ -254,7 +328,7 @@ final class NoiseEngines implements Bridge.Noise {
     public Tally trajectories(Circuit circuit, NoiseModel model, int shots, long seed,
             int threads, Precision precision) {
         int width = circuit.clbits();
-        Step[] program = compile(circuit.instructions(), model);
+        Compiled compiled = new Compiled(circuit.instructions(), model);
         long[] keys = Heap.allocate(8L * shots, "the outcomes of " + shots + " trajectories",
                 () -> new long[shots]);
         int workers = Math.min(threads, shots);
@@ -263,16 +337,18 @@ final class NoiseEngines implements Bridge.Noise {
         Parallel.forRange(workers, shots, workers > 1, (from, to) -> {
             StateVector sv = StateVector.zero(n, precision).setThreads(kernelThreads);
             Amplitudes a = Bridge.states().store(sv);
-            boolean[] reg = new boolean[width];
-            double[] work = new double[32];
+            ClassicalState classical = new ClassicalState(width, circuit.variables().size());
+            Trajectory backend = new Trajectory(a, compiled, kernelThreads);
             for (long t = from; t < to; t++) {
                 a.clear();
                 a.set(0, 1, 0);
-                Arrays.fill(reg, false);
-                execute(a, program, reg, trajectoryRng(seed, t), kernelThreads, work);
+                classical.clear();
+                backend.rng = trajectoryRng(seed, t);
+                ShotRunner.run(circuit.instructions(), 0, classical, circuit.variables(),
+                        backend);
                 long key = 0;
                 for (int c = 0; c < width; c++) {
-                    if (reg[c]) {
+                    if (classical.bit(c)) {
                         key |= 1L << c;
                     }
                 }
@@ -285,10 +361,13 @@ final class NoiseEngines implements Bridge.Noise {
     @Override
     public StateVector trajectoryState(Circuit circuit, NoiseModel model, long seed, int threads,
             Precision precision) {
-        Step[] program = compile(circuit.instructions(), model);
         StateVector sv = StateVector.zero(circuit.qubits(), precision).setThreads(threads);
-        execute(Bridge.states().store(sv), program, new boolean[circuit.clbits()],
-                trajectoryRng(seed, 0), threads, new double[32]);
+        Trajectory backend = new Trajectory(Bridge.states().store(sv),
+                new Compiled(circuit.instructions(), model), threads);
+        backend.rng = trajectoryRng(seed, 0);
+        ShotRunner.run(circuit.instructions(), 0,
+                new ClassicalState(circuit.clbits(), circuit.variables().size()),
+                circuit.variables(), backend);
         return sv;
     }
 
@@ -306,102 +385,86 @@ final class NoiseEngines implements Bridge.Noise {
         return z ^ (z >>> 31);
     }
 
-    /** One compiled step of a trajectory program. */
-    private static final class Step {
-        final Instruction.Kind kind;
-        final GateOp gate;
-        final NoiseModel.Placed[] noise;
-        final int qubit;
-        final int clbit;
-        final int value;
-        final double e0;
-        final double e1;
-        final Step[] body;
+    /**
+     * The kernel forms of a circuit's gates and the noise after each, prepared once and shared
+     * read-only by all trajectories; keyed by instruction identity, nested blocks included.
+     */
+    private static final class Compiled {
+        final Map<Instruction, GateOp> plans = new IdentityHashMap<>();
+        final Map<Instruction, NoiseModel.Placed[]> noise = new IdentityHashMap<>();
+        final NoiseModel model;
 
-        Step(Instruction.Kind kind, GateOp gate, NoiseModel.Placed[] noise, int qubit,
-                int clbit, int value, double e0, double e1, Step[] body) {
-            this.kind = kind;
-            this.gate = gate;
-            this.noise = noise;
-            this.qubit = qubit;
-            this.clbit = clbit;
-            this.value = value;
-            this.e0 = e0;
-            this.e1 = e1;
-            this.body = body;
+        Compiled(List<Instruction> list, NoiseModel model) {
+            this.model = model;
+            add(list);
         }
-    }
 
-    private static Step[] compile(List<Instruction> list, NoiseModel model) {
-        List<Step> out = new ArrayList<>();
-        for (Instruction in : list) {
-            switch (in.kind()) {
-                case GATE:
-                    out.add(new Step(in.kind(), planOf(in),
-                            model.noiseAfter(in).toArray(new NoiseModel.Placed[0]), -1, -1, -1, 0,
-                            0, null));
-                    break;
-                case MEASURE: {
-                    int q = in.targets()[0];
-                    out.add(new Step(in.kind(), null, null, q, in.clbit(), -1,
-                            model.readoutP1Given0(q), model.readoutP0Given1(q), null));
-                    break;
+        private void add(List<Instruction> list) {
+            for (Instruction in : list) {
+                if (in.kind() == Instruction.Kind.GATE) {
+                    if (!in.isDynamic()) {
+                        plans.put(in, GateOp.of(DensityMatrix.raw(in.operator()), in.targets(),
+                                in.controls()));
+                    }
+                    noise.put(in, model.noiseAfter(in).toArray(new NoiseModel.Placed[0]));
                 }
-                case RESET:
-                    out.add(new Step(in.kind(), null, null, in.targets()[0], -1, -1, 0, 0, null));
-                    break;
-                default:
-                    out.add(new Step(in.kind(), null, null, -1, in.clbit(), in.value(), 0, 0,
-                            compile(in.body(), model)));
-                    break;
+                add(in.body());
+                add(in.otherwise());
             }
         }
-        return out.toArray(new Step[0]);
     }
 
-    /** The kernel description of a gate instruction, built from its public parts. */
-    private static GateOp planOf(Instruction in) {
-        Operator op = in.operator();
-        int d = op.dimension();
-        double[] m = new double[2 * d * d];
-        for (int r = 0; r < d; r++) {
-            for (int c = 0; c < d; c++) {
-                Complex z = op.get(r, c);
-                m[2 * (r * d + c)] = z.getReal();
-                m[2 * (r * d + c) + 1] = z.getImaginary();
+    /** One trajectory's quantum side: its state, its generator, the shared compiled gates. */
+    private static final class Trajectory implements ShotRunner.Backend {
+        private final Amplitudes a;
+        private final Compiled compiled;
+        private final int threads;
+        private final double[] work = new double[32];
+        UniformRandomProvider rng;
+
+        Trajectory(Amplitudes a, Compiled compiled, int threads) {
+            this.a = a;
+            this.compiled = compiled;
+            this.threads = threads;
+        }
+
+        @Override
+        public void gates(List<Instruction> list, int from, int to) {
+            for (int i = from; i < to; i++) {
+                Instruction in = list.get(i);
+                Frame.apply(a, List.of(compiled.plans.get(in)), threads);
+                noise(in);
             }
         }
-        return GateOp.of(m, in.targets(), in.controls());
-    }
 
-    private static void execute(Amplitudes a, Step[] program, boolean[] reg,
-            UniformRandomProvider rng, int threads, double[] work) {
-        for (Step s : program) {
-            switch (s.kind) {
-                case GATE:
-                    Frame.apply(a, List.of(s.gate), threads);
-                    for (NoiseModel.Placed p : s.noise) {
-                        kraus(a, p.channel(), p.qubits(), rng, threads, work);
-                    }
-                    break;
-                case MEASURE: {
-                    int outcome = Measurement.measure(a, s.qubit, rng.nextDouble(), threads);
-                    double u = rng.nextDouble();
-                    if (outcome == 0 ? u < s.e0 : u < s.e1) {
-                        outcome ^= 1;
-                    }
-                    reg[s.clbit] = outcome == 1;
-                    break;
-                }
-                case RESET:
-                    Measurement.reset(a, s.qubit, rng.nextDouble(), threads);
-                    break;
-                default:
-                    if (reg[s.clbit] == (s.value == 1)) {
-                        execute(a, s.body, reg, rng, threads, work);
-                    }
-                    break;
+        @Override
+        public void gate(Instruction gate, double[] angles) {
+            Frame.apply(a, List.of(GateOp.of(DensityMatrix.raw(gate.gate().operator(angles)),
+                    gate.targets(), gate.controls())), threads);
+            noise(gate);
+        }
+
+        private void noise(Instruction in) {
+            for (NoiseModel.Placed p : compiled.noise.get(in)) {
+                kraus(a, p.channel(), p.qubits(), rng, threads, work);
             }
+        }
+
+        @Override
+        public boolean measure(Instruction measure) {
+            int q = measure.targets()[0];
+            int outcome = Measurement.measure(a, q, rng.nextDouble(), threads);
+            double u = rng.nextDouble();
+            if (outcome == 0 ? u < compiled.model.readoutP1Given0(q)
+                    : u < compiled.model.readoutP0Given1(q)) {
+                outcome ^= 1;
+            }
+            return outcome == 1;
+        }
+
+        @Override
+        public void reset(Instruction reset) {
+            Measurement.reset(a, reset.targets()[0], rng.nextDouble(), threads);
         }
     }
 

@@ -2,7 +2,9 @@ package dev.qsim.stabilizer;
 
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.IdentityHashMap;
 import java.util.List;
+import java.util.Map;
 
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
@@ -12,6 +14,8 @@ import dev.qsim.Gate;
 import dev.qsim.Instruction;
 import dev.qsim.Tally;
 import dev.qsim.internal.Bridge;
+import dev.qsim.internal.ClassicalState;
+import dev.qsim.internal.ShotRunner;
 
 /**
  * The stabilizer engine behind {@link dev.qsim.Simulator}: runs Clifford circuits on a
@@ -26,8 +30,9 @@ import dev.qsim.internal.Bridge;
  * outcome, or the rows whose product gives a deterministic outcome. Each shot then replays only
  * the sign column with fresh random outcomes, 64 shots at a time in bit-sliced form (one
  * {@code long} per stabilizer holds its sign in 64 shots), so a shot costs about the number of
- * rows each measurement touches divided by 64. A circuit with {@code if} blocks is simulated
- * shot by shot, the gates before its first measurement or reset once and copied per shot.
+ * rows each measurement touches divided by 64. A circuit with classical control (conditions,
+ * loops, assignments) is simulated shot by shot, the gates before its first other instruction
+ * once and copied per shot.
  * Randomness: the XoRoShiRo128++ generator of Commons RNG (Blackman and Vigna, "Scrambled
  * linear pseudorandom number generators", ACM TOMS 47 (2021), doi:10.1145/3460772), one bit per
  * random outcome.
@@ -44,59 +49,59 @@ final class TableauEngine implements Bridge.Tableaus {
     private static final int CZ = 7;
     private static final int SWAP = 8;
 
-    /** One compiled instruction. */
+    /** One compiled instruction of a circuit without classical control. */
     static final class Op {
         final Instruction.Kind kind;
         /** Gates: triples (code, a, b). */
         final int[] program;
         final int qubit;
         final int clbit;
-        final int value;
-        final Op[] body;
 
-        Op(Instruction.Kind kind, int[] program, int qubit, int clbit, int value, Op[] body) {
+        Op(Instruction.Kind kind, int[] program, int qubit, int clbit) {
             this.kind = kind;
             this.program = program;
             this.qubit = qubit;
             this.clbit = clbit;
-            this.value = value;
-            this.body = body;
         }
 
         void gate(StabilizerTableau t) {
-            int[] p = program;
-            for (int i = 0; i < p.length; i += 3) {
-                int a = p[i + 1];
-                int b = p[i + 2];
-                switch (p[i]) {
-                    case H:
-                        t.hRaw(a);
-                        break;
-                    case S:
-                        t.sRaw(a);
-                        break;
-                    case S_DAGGER:
-                        t.sDaggerRaw(a);
-                        break;
-                    case X:
-                        t.xRaw(a);
-                        break;
-                    case Y:
-                        t.yRaw(a);
-                        break;
-                    case Z:
-                        t.zRaw(a);
-                        break;
-                    case CNOT:
-                        t.cnotRaw(a, b);
-                        break;
-                    case CZ:
-                        t.czRaw(a, b);
-                        break;
-                    default:
-                        t.swapRaw(a, b);
-                        break;
-                }
+            apply(t, program);
+        }
+    }
+
+    /** Applies a compiled gate program: triples (code, a, b). */
+    static void apply(StabilizerTableau t, int[] p) {
+        for (int i = 0; i < p.length; i += 3) {
+            int a = p[i + 1];
+            int b = p[i + 2];
+            switch (p[i]) {
+                case H:
+                    t.hRaw(a);
+                    break;
+                case S:
+                    t.sRaw(a);
+                    break;
+                case S_DAGGER:
+                    t.sDaggerRaw(a);
+                    break;
+                case X:
+                    t.xRaw(a);
+                    break;
+                case Y:
+                    t.yRaw(a);
+                    break;
+                case Z:
+                    t.zRaw(a);
+                    break;
+                case CNOT:
+                    t.cnotRaw(a, b);
+                    break;
+                case CZ:
+                    t.czRaw(a, b);
+                    break;
+                default:
+                    t.swapRaw(a, b);
+                    break;
             }
         }
     }
@@ -111,59 +116,117 @@ final class TableauEngine implements Bridge.Tableaus {
         return c;
     }
 
-    /** Compiles instructions (checked Clifford by the caller) into tableau programs. */
+    /** Compiles one Clifford gate (checked by the caller) into primitive triples. */
+    static int[] compileGate(Instruction in) {
+        List<Gate.Step> steps = in.gate().cliffordSteps(in.angles());
+        int[] qs = in.qubits();
+        int[] p = new int[3 * steps.size()];
+        for (int s = 0; s < steps.size(); s++) {
+            Gate.Step st = steps.get(s);
+            p[3 * s] = code(st.gate());
+            p[3 * s + 1] = qs[st.first()];
+            p[3 * s + 2] = st.second() < 0 ? -1 : qs[st.second()];
+        }
+        return p;
+    }
+
+    /**
+     * Compiles the gates, measurements and resets of a circuit without classical control into
+     * tableau programs; delays are dropped (a tableau has no notion of time).
+     */
     static Op[] compile(List<Instruction> list) {
-        Op[] out = new Op[list.size()];
-        for (int i = 0; i < out.length; i++) {
-            Instruction in = list.get(i);
+        List<Op> out = new ArrayList<>(list.size());
+        for (Instruction in : list) {
             switch (in.kind()) {
-                case GATE: {
-                    List<Gate.Step> steps = in.gate().cliffordSteps(in.angles());
-                    int[] qs = in.qubits();
-                    int[] p = new int[3 * steps.size()];
-                    for (int s = 0; s < steps.size(); s++) {
-                        Gate.Step st = steps.get(s);
-                        p[3 * s] = code(st.gate());
-                        p[3 * s + 1] = qs[st.first()];
-                        p[3 * s + 2] = st.second() < 0 ? -1 : qs[st.second()];
-                    }
-                    out[i] = new Op(in.kind(), p, -1, -1, -1, null);
+                case GATE:
+                    out.add(new Op(in.kind(), compileGate(in), -1, -1));
                     break;
-                }
                 case MEASURE:
                 case RESET:
-                    out[i] = new Op(in.kind(), null, in.targets()[0], in.clbit(), -1, null);
+                    out.add(new Op(in.kind(), null, in.targets()[0], in.clbit()));
+                    break;
+                case DELAY:
                     break;
                 default:
-                    out[i] = new Op(in.kind(), null, -1, in.clbit(), in.value(),
-                            compile(in.body()));
-                    break;
+                    throw new IllegalStateException("internal error: " + in.kind()
+                            + " needs the shot-by-shot path");
             }
         }
-        return out;
+        return out.toArray(new Op[0]);
+    }
+
+    /** Tells whether any instruction reads or writes classical values during the shot. */
+    private static boolean controlled(List<Instruction> list) {
+        for (Instruction in : list) {
+            switch (in.kind()) {
+                case GATE:
+                case MEASURE:
+                case RESET:
+                case DELAY:
+                    break;
+                default:
+                    return true;
+            }
+        }
+        return false;
+    }
+
+    /** The tableau side of the shot interpreter; compiled gates are cached per instruction. */
+    private static final class Backend implements ShotRunner.Backend {
+        private final Map<Instruction, int[]> compiled = new IdentityHashMap<>();
+        private final UniformRandomProvider rng;
+        private StabilizerTableau t;
+
+        Backend(UniformRandomProvider rng) {
+            this.rng = rng;
+        }
+
+        @Override
+        public void gates(List<Instruction> list, int from, int to) {
+            for (int i = from; i < to; i++) {
+                apply(t, compiled.computeIfAbsent(list.get(i), TableauEngine::compileGate));
+            }
+        }
+
+        @Override
+        public void gate(Instruction gate, double[] angles) {
+            throw new IllegalStateException("internal error: a gate with angles known only"
+                    + " during the shot reached the stabilizer engine");
+        }
+
+        @Override
+        public boolean measure(Instruction measure) {
+            return t.measureRaw(measure.targets()[0], rng) == 1;
+        }
+
+        @Override
+        public void reset(Instruction reset) {
+            int q = reset.targets()[0];
+            if (t.measureRaw(q, rng) == 1) {
+                t.xRaw(q);
+            }
+        }
     }
 
     @Override
     public StabilizerTableau stateAfter(Circuit circuit, long seed) {
-        StabilizerTableau t = StabilizerTableau.zero(circuit.qubits());
-        runShot(t, compile(circuit.instructions()), 0, new boolean[circuit.clbits()],
-                RandomSource.XO_RO_SHI_RO_128_PP.create(seed));
-        return t;
+        Backend backend = new Backend(RandomSource.XO_RO_SHI_RO_128_PP.create(seed));
+        backend.t = StabilizerTableau.zero(circuit.qubits());
+        ShotRunner.run(circuit.instructions(), 0,
+                new ClassicalState(circuit.clbits(), circuit.variables().size()),
+                circuit.variables(), backend);
+        return backend.t;
     }
 
     @Override
     public Tally run(Circuit circuit, int shots, long seed) {
         UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(seed);
-        Op[] program = compile(circuit.instructions());
-        boolean conditioned = false;
-        for (Op op : program) {
-            conditioned |= op.kind == Instruction.Kind.IF_BIT;
-        }
+        List<Instruction> list = circuit.instructions();
         StabilizerTableau t = StabilizerTableau.zero(circuit.qubits());
         boolean[] reg = new boolean[circuit.clbits()];
         Tally.Recorder outcomes = Tally.recorder(reg.length);
-        if (!conditioned) {
-            SignReplay replay = SignReplay.record(t, program);
+        if (!controlled(list)) {
+            SignReplay replay = SignReplay.record(t, compile(list));
             long[] bits = new long[reg.length];
             for (int done = 0; done < shots; done += 64) {
                 int batch = Math.min(64, shots - done);
@@ -175,46 +238,26 @@ final class TableauEngine implements Bridge.Tableaus {
                     outcomes.add(reg, 1);
                 }
             }
-        } else {
-            int first = 0;
-            while (first < program.length && program[first].kind == Instruction.Kind.GATE) {
-                program[first].gate(t);
-                first++;
-            }
-            StabilizerTableau work = t.copy();
-            for (int s = 0; s < shots; s++) {
-                work.copyFrom(t);
-                Arrays.fill(reg, false);
-                runShot(work, program, first, reg, rng);
-                outcomes.add(reg, 1);
-            }
+            return outcomes.build();
+        }
+        Backend backend = new Backend(rng);
+        backend.t = t;
+        int first = 0;
+        while (first < list.size() && list.get(first).kind() == Instruction.Kind.GATE) {
+            first++;
+        }
+        backend.gates(list, 0, first);
+        StabilizerTableau work = t.copy();
+        backend.t = work;
+        ClassicalState classical = new ClassicalState(reg.length, circuit.variables().size());
+        for (int s = 0; s < shots; s++) {
+            work.copyFrom(t);
+            classical.clear();
+            ShotRunner.run(list, first, classical, circuit.variables(), backend);
+            classical.copyBits(reg);
+            outcomes.add(reg, 1);
         }
         return outcomes.build();
-    }
-
-    static void runShot(StabilizerTableau t, Op[] program, int from, boolean[] reg,
-            UniformRandomProvider rng) {
-        for (int i = from; i < program.length; i++) {
-            Op op = program[i];
-            switch (op.kind) {
-                case GATE:
-                    op.gate(t);
-                    break;
-                case MEASURE:
-                    reg[op.clbit] = t.measureRaw(op.qubit, rng) == 1;
-                    break;
-                case RESET:
-                    if (t.measureRaw(op.qubit, rng) == 1) {
-                        t.xRaw(op.qubit);
-                    }
-                    break;
-                default:
-                    if (reg[op.clbit] == (op.value == 1)) {
-                        runShot(t, op.body, 0, reg, rng);
-                    }
-                    break;
-            }
-        }
     }
 
     /**
