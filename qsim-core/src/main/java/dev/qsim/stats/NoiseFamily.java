@@ -14,7 +14,7 @@ import dev.qsim.noise.NoiseModel;
 /**
  * Noise models indexed by a small vector of parameters: a function from {@code θ} to a
  * {@link NoiseModel}, with a name and a closed range {@code [lower, upper]} per parameter. This
- * is what {@code NoiseFit} fits to a tally. Immutable, provided the function always gives the
+ * is what {@link NoiseFit} fits to a tally. Immutable, provided the function always gives the
  * same model for the same parameters; thread-safe if the function is.
  *
  * <p>Two ready-made families build their models from {@link ErrorRates}:

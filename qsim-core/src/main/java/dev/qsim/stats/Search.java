@@ -4,7 +4,7 @@ import java.util.function.DoubleUnaryOperator;
 import java.util.function.ToDoubleFunction;
 
 /**
- * The searches behind {@code NoiseFit}, on functions to maximise that may be {@code -∞} (a
+ * The searches behind {@link NoiseFit}, on functions to maximise that may be {@code -∞} (a
  * log-likelihood where the model forbids an observed outcome) but never NaN: golden-section
  * search in one dimension, Nelder-Mead in a box, and a bracketed root of a decreasing function.
  * Each returns the best point it evaluated, so a {@code -∞} value never wins over a finite one.
