@@ -50,10 +50,13 @@ import dev.qsim.noise.NoiseModel;
  * quantile with one degree of freedom at the confidence level (Apache Commons Statistics
  * {@link ChiSquaredDistribution}; 3.84 at 95 %). Each end is found by the Illinois variant of
  * regula falsi between the estimate and the range's end, each profile value by maximising over
- * the other parameters as above. An end that reaches the range's end is flagged
- * ({@link FittedParameter#lowAtRangeEnd()}). The interval is taken to be the one stretch around
- * the estimate where the profile is above the cut-off; a profile with several peaks could give
- * a set that is not an interval, of which only this stretch is reported.
+ * the other parameters as above; after the value at the range's end, a single other parameter is
+ * first searched within 2 % of its range around the previous profile value's maximum (with the
+ * full scan if that is not a peak), and several start from the previous maximum. An end that
+ * reaches the range's end is flagged ({@link FittedParameter#lowAtRangeEnd()}). The interval is
+ * taken to be the one stretch around the estimate where the profile is above the cut-off; a
+ * profile with several peaks could give a set that is not an interval, of which only this
+ * stretch is reported.
  *
  * <p>Deterministic: the distributions do not depend on the thread count and the searches use no
  * randomness, so equal inputs give equal results.
@@ -69,6 +72,8 @@ public final class NoiseFit {
 
     /** Golden-section stop: the bracket is narrower than this fraction of the range. */
     private static final double GOLDEN_TOLERANCE = 1e-9;
+    /** Half-width, as a fraction of the range, of the first bracket around a start. */
+    private static final double NEAR = 0.02;
     /** Golden-section stop inside a profile value. */
     private static final double INNER_TOLERANCE = 1e-6;
     /** Nelder-Mead stop: values within this of each other (log-likelihood units). */
@@ -255,18 +260,16 @@ public final class NoiseFit {
         if (free.length == 1) {
             int j = free[0];
             double[] x = theta.clone();
-            double a = lo[j];
-            double b = hi[j];
-            if (start != null && !inner) {
-                // A restart: search near the better point a later step found.
-                double w = 0.02 * (hi[j] - lo[j]);
-                a = Math.max(lo[j], start[j] - w);
-                b = Math.min(hi[j], start[j] + w);
-            }
-            double[] r = Search.golden(t -> {
+            DoubleUnaryOperator along = t -> {
                 x[j] = Math.min(hi[j], t);
                 return like.at(x);
-            }, a, b, (inner ? INNER_TOLERANCE : GOLDEN_TOLERANCE) * (hi[j] - lo[j]));
+            };
+            double range = hi[j] - lo[j];
+            double tolerance = (inner ? INNER_TOLERANCE : GOLDEN_TOLERANCE) * range;
+            // With a start (a profile value next to the last one, or a restart near a better
+            // point), search near it first.
+            double[] r = start == null ? Search.golden(along, lo[j], hi[j], tolerance)
+                    : Search.goldenNear(along, lo[j], hi[j], start[j], NEAR * range, tolerance);
             out[j] = r[0];
             out[k] = r[1];
             return out;
@@ -330,8 +333,10 @@ public final class NoiseFit {
             double[] estimate, double best, int j, double quantile) {
         double root = Math.sqrt(quantile);
         double[] warm = estimate.clone();
+        boolean[] near = {false};
         DoubleUnaryOperator g = t -> {
-            double[] r = maximise(like, lo, hi, warm, new int[] {j}, new double[] {t});
+            double[] r = maximise(like, lo, hi, near[0] ? warm : null, new int[] {j},
+                    new double[] {t});
             double profile = r[lo.length];
             if (profile == Double.NEGATIVE_INFINITY) {
                 return Double.NEGATIVE_INFINITY;
@@ -343,10 +348,11 @@ public final class NoiseFit {
         double high = hi[j];
         boolean highAtEnd = true;
         if (estimate[j] < hi[j]) {
-            System.arraycopy(estimate, 0, warm, 0, lo.length);
+            near[0] = false;
             double atEnd = g.applyAsDouble(hi[j]);
             if (atEnd < 0) {
                 System.arraycopy(estimate, 0, warm, 0, lo.length);
+                near[0] = true;
                 high = Search.crossing(g, estimate[j], root, hi[j], atEnd,
                         END_TOLERANCE * range, END_VALUE_TOLERANCE);
                 highAtEnd = false;
@@ -355,10 +361,11 @@ public final class NoiseFit {
         double low = lo[j];
         boolean lowAtEnd = true;
         if (estimate[j] > lo[j]) {
-            System.arraycopy(estimate, 0, warm, 0, lo.length);
+            near[0] = false;
             double atEnd = g.applyAsDouble(lo[j]);
             if (atEnd < 0) {
                 System.arraycopy(estimate, 0, warm, 0, lo.length);
+                near[0] = true;
                 low = Search.crossing(g, estimate[j], root, lo[j], atEnd,
                         END_TOLERANCE * range, END_VALUE_TOLERANCE);
                 lowAtEnd = false;

@@ -49,8 +49,39 @@ final class Search {
                 bestI = i;
             }
         }
-        double lo = xs[Math.max(0, bestI - 1)];
-        double hi = xs[Math.min(SCAN - 1, bestI + 1)];
+        return section(f, xs[Math.max(0, bestI - 1)], xs[Math.min(SCAN - 1, bestI + 1)],
+                tolerance, bestX, bestF);
+    }
+
+    /**
+     * Maximises {@code f} on {@code [a, b]} from a guess {@code w} in it, such as the maximum of
+     * a nearby function: if {@code f(w)} is finite and at least {@code f} at {@code w - delta}
+     * and {@code w + delta} (each kept in {@code [a, b]}), golden-section search between those
+     * two, which brackets the maximum of a function with one peak; otherwise
+     * {@link #golden(DoubleUnaryOperator, double, double, double)} on all of {@code [a, b]}.
+     *
+     * @return {x, f(x)} of the best point evaluated
+     */
+    static double[] goldenNear(DoubleUnaryOperator f, double a, double b, double w, double delta,
+            double tolerance) {
+        double left = Math.max(a, w - delta);
+        double right = Math.min(b, w + delta);
+        double fw = f.applyAsDouble(w);
+        double fl = left < w ? f.applyAsDouble(left) : fw;
+        double fr = right > w ? f.applyAsDouble(right) : fw;
+        if (fw > Double.NEGATIVE_INFINITY && fw >= fl && fw >= fr) {
+            return section(f, left, right, tolerance, w, fw);
+        }
+        double[] r = golden(f, a, b, tolerance);
+        return r[1] >= fw ? r : new double[] {w, fw};
+    }
+
+    /**
+     * Golden-section search (Kiefer 1953, Proc. AMS 4, 502) on {@code [lo, hi]} down to
+     * {@code tolerance}; returns the best of its points and {@code (bestX, bestF)}.
+     */
+    private static double[] section(DoubleUnaryOperator f, double lo, double hi,
+            double tolerance, double bestX, double bestF) {
         double c = hi - GOLDEN * (hi - lo);
         double d = lo + GOLDEN * (hi - lo);
         double fc = f.applyAsDouble(c);

@@ -38,6 +38,27 @@ class SearchTest {
     }
 
     @Test
+    void goldenSectionNearAGuessSearchesLocallyOnlyAtAPeak() {
+        // -(x - 0.31)^2 has its vertex at 0.31 (closed form). From the guess 0.3 (a peak at the
+        // scale 0.02) the search stays within [0.28, 0.32]: few evaluations. From the guess 0.8
+        // (not a peak) it falls back to the full scan and still finds 0.31.
+        int[] calls = new int[1];
+        java.util.function.DoubleUnaryOperator f = x -> {
+            calls[0]++;
+            return -(x - 0.31) * (x - 0.31);
+        };
+        double[] r = Search.goldenNear(f, 0, 1, 0.3, 0.02, 1e-10);
+        assertEquals(0.31, r[0], 1e-9);
+        int near = calls[0];
+        calls[0] = 0;
+        r = Search.goldenNear(f, 0, 1, 0.8, 0.02, 1e-10);
+        assertEquals(0.31, r[0], 1e-9);
+        assertTrue(near < calls[0], near + " evaluations near, " + calls[0] + " with the scan");
+        // A guess at the end of the range: the bracket is cut there.
+        assertEquals(0.0, Search.goldenNear(x -> -x, 0, 1, 0, 0.02, 1e-10)[0]);
+    }
+
+    @Test
     void nelderMeadFindsTheMinimumOfRosenbrocksValley() {
         // Rosenbrock (1960, "An automatic method for finding the greatest or least value of a
         // function", Computer Journal 3, 175): (1 - x)^2 + 100 (y - x^2)^2 has its minimum 0
