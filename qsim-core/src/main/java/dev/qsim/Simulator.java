@@ -619,9 +619,10 @@ public final class Simulator implements CircuitRunner {
      * Returns the exact probability of each value of the classical register after the circuit
      * (readout error included). A circuit whose measurements come last is read from its final
      * state vector, or from its density matrix with noise; any other circuit (mid-circuit
-     * measurement, reset, conditions) is summed over its measurement branches: one state vector
-     * per branch without noise, one density matrix per register value with noise or for at most
-     * {@value #DENSITY_MATRIX_UP_TO_QUBITS} qubits (Nielsen and Chuang 2010, §2.2.3 and §2.4).
+     * measurement, reset, classical control) is summed over its measurement branches: one state
+     * vector per branch without noise, one density matrix per value of the classical bits and
+     * variables with noise or for at most {@value #DENSITY_MATRIX_UP_TO_QUBITS} qubits (Nielsen
+     * and Chuang 2010, §2.2.3 and §2.4). Loops are followed up to their iteration bound.
      * Bits never written read 0. Deterministic: no seed is used.
      *
      * @param circuit a circuit with at most 26 classical bits

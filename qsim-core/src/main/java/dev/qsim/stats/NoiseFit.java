@@ -2,7 +2,6 @@ package dev.qsim.stats;
 
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.BitSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
@@ -12,7 +11,6 @@ import java.util.function.ToDoubleFunction;
 import org.apache.commons.statistics.distribution.ChiSquaredDistribution;
 
 import dev.qsim.Circuit;
-import dev.qsim.Instruction;
 import dev.qsim.Simulator;
 import dev.qsim.Tally;
 import dev.qsim.internal.Checks;
@@ -30,11 +28,11 @@ import dev.qsim.noise.NoiseModel;
  * matrix, readout error included), and {@code ℓ(θ) = Σ count · log p_θ(outcome)} over the
  * outcomes seen. An outcome seen whose probability is 0 (or below 0 by rounding) makes
  * {@code ℓ(θ) = -∞}; the searches below treat such parameters as worse than any other, and a
- * tally that no parameters found by the search can produce is refused. Hence the circuits:
- * measurements at the end ({@link Circuit#measuresAtEnd()}: no reset, no condition, no gate on
- * a measured qubit), at most {@value #MAX_QUBITS} qubits (the density matrix is
- * {@code 16·4^n} bytes and is computed once per parameter vector tried), and a tally as wide as
- * the circuit's classical register.
+ * tally that no parameters found by the search can produce is refused. Hence the circuits: at
+ * most {@value #MAX_QUBITS} qubits (the density matrix is {@code 16·4^n} bytes and is computed
+ * once per parameter vector tried), and a tally as wide as the circuit's classical register.
+ * Mid-circuit measurements, resets and classical control are allowed: their distribution sums
+ * one density matrix per classical value, which costs more per evaluation.
  *
  * <p><b>Maximisation</b>, within the family's ranges: for one parameter, a scan of 11 points and
  * then golden-section search between the best one's neighbours (Kiefer 1953, Proc. AMS 4, 502);
@@ -184,8 +182,8 @@ public final class NoiseFit {
      * Fits the family to a tally: the maximum-likelihood estimates, their profile-likelihood
      * intervals at this fit's confidence level, and the comparison with the ideal model.
      *
-     * @param circuit the circuit the tally came from: measurements at the end, at most
-     *     {@value #MAX_QUBITS} qubits, at least one classical bit
+     * @param circuit the circuit the tally came from: at most {@value #MAX_QUBITS} qubits, at
+     *     least one classical bit
      * @param tally the device's counts, as wide as the circuit's classical register
      * @return the fit
      * @throws IllegalArgumentException if the circuit or tally is refused (the message names the
@@ -479,34 +477,5 @@ public final class NoiseFit {
                     + " classical bits; an exact distribution has at most "
                     + Simulator.MAX_DISTRIBUTION_CLBITS);
         }
-        if (!circuit.measuresAtEnd()) {
-            throw new IllegalArgumentException(firstObstacle(circuit) + "; a fit needs the"
-                    + " measurements at the end (no reset, no condition, no gate on a measured"
-                    + " qubit), whose exact noisy distribution a density matrix gives");
-        }
-    }
-
-    /** Describes the first instruction that keeps the measurements from coming last. */
-    private static String firstObstacle(Circuit circuit) {
-        BitSet measured = new BitSet();
-        List<Instruction> list = circuit.instructions();
-        for (int i = 0; i < list.size(); i++) {
-            Instruction in = list.get(i);
-            if (in.kind() == Instruction.Kind.MEASURE) {
-                measured.set(in.targets()[0]);
-            } else if (in.kind() != Instruction.Kind.GATE) {
-                return "instruction " + i + " is a " + (in.kind() == Instruction.Kind.RESET
-                        ? "reset" : "conditioned block") + " (" + Checks.excerpt(in.toString())
-                        + ")";
-            } else {
-                for (int q : in.qubits()) {
-                    if (measured.get(q)) {
-                        return "instruction " + i + " (" + Checks.excerpt(in.toString())
-                                + ") acts on qubit " + q + " after it was measured";
-                    }
-                }
-            }
-        }
-        return "the circuit's measurements do not come last";
     }
 }
