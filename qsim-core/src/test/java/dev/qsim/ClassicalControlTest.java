@@ -265,4 +265,41 @@ class ClassicalControlTest {
         assertTrue(e.getMessage().contains("rx") && e.getMessage().contains("Infinity"),
                 e.getMessage());
     }
+
+    @Test
+    void delaysRelaxUnderAModelWithIdleTimes() {
+        // T1 experiment: X, wait t, measure gives P(1) = exp(-t/T1); Ramsey experiment: H, wait
+        // t, H gives P(1) = (1 - exp(-t/T2)) / 2 (Krantz et al. 2019, "A quantum engineer's
+        // guide to superconducting qubits", Appl. Phys. Rev. 6, 021318, the T1 and Ramsey
+        // measurements; from memory for the section).
+        double t1 = 50e-6;
+        double t2 = 30e-6;
+        double wait = 20e-6;
+        NoiseModel idle = NoiseModel.builder().relaxationWhileIdle(t1, t2).build();
+        Circuit decay = Circuit.builder(1).x(0).delay(wait, 0).measure().build();
+        Circuit ramsey = Circuit.builder(1).h(0).delay(wait, 0).h(0).measure().build();
+        Simulator noisy = Simulator.seeded(8).withNoise(idle);
+        assertEquals(Math.exp(-wait / t1), noisy.distribution(decay)[1], 1e-12);
+        assertEquals((1 - Math.exp(-wait / t2)) / 2, noisy.distribution(ramsey)[1], 1e-12);
+        // A delay inside a loop body relaxes on every pass (branch engine), and trajectories
+        // agree with the exact distribution.
+        Circuit.Builder b = Circuit.builder(1, 2).x(0);
+        b.declare("n", Circuit.VariableType.UINT, 2, Expression.constant(0));
+        b.whileLoop(Expression.of(Expression.Op.LT, b.variable("n"), Expression.constant(3)), 8,
+                body -> body.delay(wait / 3, 0).assign("n", Expression.of(Expression.Op.ADD,
+                        body.variable("n"), Expression.constant(1))));
+        Circuit looped = b.measure(0, 0).build();
+        double[] p = noisy.distribution(looped);
+        assertEquals(Math.exp(-wait / t1), p[1], 1e-12);
+        assertFits(p, noisy.withEngine(Simulator.Engine.TRAJECTORIES).run(looped, 3000),
+                "trajectories");
+        assertFits(noisy.distribution(ramsey), noisy.withEngine(Simulator.Engine.TRAJECTORIES)
+                .run(ramsey, 3000), "ramsey trajectories");
+        // Idle times alone make a model noisy; bad times are refused.
+        assertTrue(!idle.isIdeal());
+        assertThrows(IllegalArgumentException.class,
+                () -> NoiseModel.builder().relaxationWhileIdle(10e-6, 30e-6));
+        assertThrows(IllegalArgumentException.class,
+                () -> NoiseModel.builder().relaxationWhileIdle(-1, 0, 1));
+    }
 }

@@ -98,7 +98,9 @@ final class NoiseEngines implements Bridge.Noise {
                     }
                     break;
                 default:
-                    // A delay: no noise is tied to waiting in a NoiseModel.
+                    for (NoiseModel.Placed p : model.noiseDuring(in)) {
+                        rho.channel(p.channel(), p.qubits());
+                    }
                     break;
             }
         }
@@ -200,8 +202,15 @@ final class NoiseEngines implements Bridge.Noise {
                     case MEASURE:
                         current = measureBranches(current, in, model, maxEntries);
                         break;
-                    case DELAY:
+                    case DELAY: {
+                        List<NoiseModel.Placed> idle = model.noiseDuring(in);
+                        for (DensityMatrix rho : current.values()) {
+                            for (NoiseModel.Placed p : idle) {
+                                rho.channel(p.channel(), p.qubits());
+                            }
+                        }
                         break;
+                    }
                     case ASSIGN: {
                         Map<ClassicalState, DensityMatrix> out = new HashMap<>();
                         for (Map.Entry<ClassicalState, DensityMatrix> e : current.entrySet()) {
@@ -401,7 +410,9 @@ final class NoiseEngines implements Bridge.Noise {
 
         private void add(List<Instruction> list) {
             for (Instruction in : list) {
-                if (in.kind() == Instruction.Kind.GATE) {
+                if (in.kind() == Instruction.Kind.DELAY) {
+                    noise.put(in, model.noiseDuring(in).toArray(new NoiseModel.Placed[0]));
+                } else if (in.kind() == Instruction.Kind.GATE) {
                     if (!in.isDynamic()) {
                         plans.put(in, GateOp.of(DensityMatrix.raw(in.operator()), in.targets(),
                                 in.controls()));
@@ -448,6 +459,11 @@ final class NoiseEngines implements Bridge.Noise {
             for (NoiseModel.Placed p : compiled.noise.get(in)) {
                 kraus(a, p.channel(), p.qubits(), rng, threads, work);
             }
+        }
+
+        @Override
+        public void delay(Instruction delay) {
+            noise(delay);
         }
 
         @Override

@@ -40,6 +40,10 @@ import dev.qsim.internal.Checks;
  * mitigation of measurement errors on quantum computers", PRX Quantum 2, 040326,
  * doi:10.1103/PRXQuantum.2.040326).
  *
+ * <p>Waiting: a {@linkplain Instruction.Kind#DELAY delay} is ideal unless the model gives its
+ * qubits relaxation times ({@link Builder#relaxationWhileIdle(double, double)}); each delayed
+ * qubit then decays for the delay's duration ({@link Channel#decay(double, double, double)}).
+ *
  * @since 0.1
  */
 public final class NoiseModel {
@@ -55,6 +59,9 @@ public final class NoiseModel {
     private final Map<String, Channel> byCountOn;
     private final double[] readoutDefault;
     private final Map<Integer, double[]> readout;
+    /** {T1, T2} in seconds while idle, for qubits without their own; null for none. */
+    private final double[] idleDefault;
+    private final Map<Integer, double[]> idle;
 
     private NoiseModel(Builder b) {
         byName = Map.copyOf(b.byName);
@@ -67,6 +74,12 @@ public final class NoiseModel {
             r.put(e.getKey(), e.getValue().clone());
         }
         readout = Map.copyOf(r);
+        idleDefault = b.idleDefault == null ? null : b.idleDefault.clone();
+        Map<Integer, double[]> w = new HashMap<>();
+        for (Map.Entry<Integer, double[]> e : b.idle.entrySet()) {
+            w.put(e.getKey(), e.getValue().clone());
+        }
+        idle = Map.copyOf(w);
     }
 
     /**
@@ -95,8 +108,46 @@ public final class NoiseModel {
         private final Map<String, Channel> byCountOn = new HashMap<>();
         private double[] readoutDefault = {0, 0};
         private final Map<Integer, double[]> readout = new HashMap<>();
+        private double[] idleDefault;
+        private final Map<Integer, double[]> idle = new HashMap<>();
 
         private Builder() {
+        }
+
+        /**
+         * Lets every qubit without its own times relax while it waits in a
+         * {@linkplain Instruction.Kind#DELAY delay}: the channel
+         * {@link Channel#decay(double, double, double) decay(duration, t1, t2)} on each
+         * delayed qubit. Times are in the unit of the circuit's delays (seconds for circuits
+         * read from OpenQASM).
+         *
+         * @param t1 the relaxation time, positive (infinity allowed)
+         * @param t2 the coherence time, positive, at most {@code 2 t1}
+         * @return this builder
+         * @throws IllegalArgumentException if a time is out of range or {@code t2 > 2 t1}
+         */
+        public Builder relaxationWhileIdle(double t1, double t2) {
+            Channel.decay(0, t1, t2);
+            idleDefault = new double[] {t1, t2};
+            return this;
+        }
+
+        /**
+         * Lets one qubit relax while it waits in a delay (see
+         * {@link #relaxationWhileIdle(double, double)}).
+         *
+         * @param qubit the qubit, at least 0
+         * @param t1 the relaxation time, positive (infinity allowed)
+         * @param t2 the coherence time, positive, at most {@code 2 t1}
+         * @return this builder
+         * @throws IllegalArgumentException if the qubit is negative, a time is out of range or
+         *     {@code t2 > 2 t1}
+         */
+        public Builder relaxationWhileIdle(int qubit, double t1, double t2) {
+            requireQubits(new int[] {qubit});
+            Channel.decay(0, t1, t2);
+            idle.put(qubit, new double[] {t1, t2});
+            return this;
         }
 
         /**
@@ -362,8 +413,30 @@ public final class NoiseModel {
     }
 
     /**
+     * Returns the relaxation of each waiting qubit during a delay; empty if no qubit of the
+     * delay has relaxation times or the delay lasts no time.
+     */
+    List<Placed> noiseDuring(Instruction delay) {
+        List<Placed> out = new ArrayList<>();
+        double duration = delay.duration();
+        if (!(duration > 0)) {
+            return out;
+        }
+        for (int q : delay.targets()) {
+            double[] times = idle.getOrDefault(q, idleDefault);
+            if (times != null) {
+                Channel c = Channel.decay(duration, times[0], times[1]);
+                if (!c.isIdentity()) {
+                    out.add(new Placed(c, new int[] {q}));
+                }
+            }
+        }
+        return out;
+    }
+
+    /**
      * Tells whether this model adds no noise: no gate rule with a channel other than the
-     * identity, and no readout error.
+     * identity, no readout error, and no finite relaxation time while idle.
      *
      * @return whether runs under this model are ideal
      */
@@ -396,7 +469,12 @@ public final class NoiseModel {
                 return false;
             }
         }
-        return true;
+        return !relaxes(idleDefault) && idle.values().stream().noneMatch(NoiseModel::relaxes);
+    }
+
+    /** Whether idle times describe any decay: a finite T1 or T2. */
+    private static boolean relaxes(double[] times) {
+        return times != null && (Double.isFinite(times[0]) || Double.isFinite(times[1]));
     }
 
     /**
@@ -430,6 +508,7 @@ public final class NoiseModel {
     public String toString() {
         return "NoiseModel[" + (byName.size() + byNameOn.size() + byCount.size()
                 + byCountOn.size()) + " gate rule(s), " + readout.size()
-                + " per-qubit readout error(s)]";
+                + " per-qubit readout error(s)" + (idleDefault != null || !idle.isEmpty()
+                ? ", relaxation while idle" : "") + "]";
     }
 }
