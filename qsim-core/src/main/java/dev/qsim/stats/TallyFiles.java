@@ -60,10 +60,12 @@ public final class TallyFiles {
      *
      * @param text the text
      * @return the tally
-     * @throws IllegalArgumentException if the text is not a valid tally in either format
+     * @throws IllegalArgumentException if the text is longer than {@value #MAX_CHARS} characters
+     *     (checked first) or is not a valid tally in either format
      */
     public static Tally read(String text) {
         Objects.requireNonNull(text, "text");
+        requireLength(text);
         String t = TextFiles.withoutBom(text);
         int i = 0;
         while (i < t.length() && Character.isWhitespace(t.charAt(i))) {
