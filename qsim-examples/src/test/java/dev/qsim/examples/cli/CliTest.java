@@ -203,7 +203,7 @@ class CliTest {
         Path badTally = dir.resolve("bad.csv");
         Files.writeString(badTally, "bits,count\n00,5\n0x,3\n");
         Path wide = dir.resolve("wide.json");
-        Files.writeString(wide, "{\"width\": 3, \"counts\": {\"000\": 5}}");
+        Files.writeString(wide, "{\"width\": 3, \"outcomes\": {\"000\": 5}}");
         Object[][] cases = {
             {new String[] {"run", "missing.qasm"}, "file not found"},
             {new String[] {"run", bad.toString()}, "line 4, column 1: unknown gate 'foo'"},
