@@ -116,8 +116,10 @@ import dev.qsim.internal.TextFiles;
  * </ul>
  * Readout errors are set per qubit ({@link NoiseModel.Builder#readoutError(int, double,
  * double)}). The measurement duration is recorded but adds no decay: the stated readout errors
- * are the measured confusion and already include it. Idle qubits do not decay (a
- * {@link NoiseModel} places noise only after gates, on the gate's qubits), and gates on pairs
+ * are the measured confusion and already include it. A qubit waiting in a delay decays with
+ * its own T1 and T2 for the delay's duration, in seconds
+ * ({@link NoiseModel.Builder#relaxationWhileIdle(int, double, double)}); a qubit idle while
+ * others run gates does not (noise follows instructions, on their qubits), and gates on pairs
  * without a coupling or on three or more qubits get no noise: check circuits with
  * {@link #requireCouplings(Circuit)} first.
  *
@@ -701,7 +703,7 @@ public final class DeviceProfile {
      * Returns the noise model the profile implies (see the class description): after each
      * one-qubit gate on any qubit and each two-qubit gate on a coupled pair, relaxation and
      * dephasing for the gate's duration, then depolarizing up to the stated average gate
-     * error; readout errors per qubit. Built once.
+     * error; relaxation of delayed qubits; readout errors per qubit. Built once.
      *
      * @return the noise model
      */
@@ -718,6 +720,8 @@ public final class DeviceProfile {
         NoiseModel.Builder b = NoiseModel.builder();
         for (int q = 0; q < qubitCount; q++) {
             b.readoutError(q, p1Given0[q], p0Given1[q]);
+            // Delays are in seconds (OpenQASM durations); the profile's times in nanoseconds.
+            b.relaxationWhileIdle(q, t1[q] * 1e-9, t2[q] * 1e-9);
             b.afterOneQubitGatesOn(q, oneQubitChannel(q, oneQubitDuration, qubitError(q)));
             for (Gate g : gates.keySet()) {
                 if (g.qubits() == 1) {

@@ -271,6 +271,12 @@ class DeviceProfileTest {
         DensityMatrix h = sim.densityMatrixAfter(Circuit.builder(1).h(0).build());
         assertEquals(Math.exp(-t / t2) / 2, h.get(0, 1).abs(), 1e-12);
         assertEquals(Math.exp(-t / t1) / 2, h.get(1, 1).getReal(), 1e-12);
+        // A delay of d seconds (OpenQASM's unit) decays with the profile's times in ns.
+        double d = 3e-6;
+        DensityMatrix waited = sim.densityMatrixAfter(Circuit.builder(1).x(0).delay(d, 0)
+                .build());
+        assertEquals(Math.exp(-t / t1) * Math.exp(-d * 1e9 / t1), waited.get(1, 1).getReal(),
+                1e-12);
     }
 
     @Test
