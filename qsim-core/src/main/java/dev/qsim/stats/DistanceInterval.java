@@ -67,9 +67,9 @@ import dev.qsim.kernel.Parallel;
  */
 final class DistanceInterval {
     /**
-     * The searches stop at a bracket of a 32nd of the spread of the reference distance at 0
-     * (well below the Monte Carlo error of the bounds), at most {@value} and at least a 50th of
-     * it.
+     * The searches stop at a bracket of a 16th of the spread of the reference distance at 0
+     * (half the Monte Carlo error of the bounds with 400 draws, about an 8th), at most
+     * {@value} and at least a 50th of it.
      */
     static final double PRECISION = 5e-4;
     private static final double TIE = 1e-12;
@@ -215,7 +215,7 @@ final class DistanceInterval {
             sumSq += (t - mean) * (t - mean);
         }
         spread0 = Math.sqrt(sumSq / resamples);
-        tolerance = Math.max(PRECISION / 50, Math.min(PRECISION, spread0 / 32));
+        tolerance = Math.max(PRECISION / 50, Math.min(PRECISION, spread0 / 16));
         // Estimate: where T is the median of T*; below T unless T lies below its own median.
         Gap median = d -> tails(d)[1] - 0.5;
         double est;

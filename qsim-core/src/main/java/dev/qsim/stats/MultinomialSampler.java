@@ -39,6 +39,8 @@ final class MultinomialSampler {
     private final int split;
     private final double[] aliasCut;
     private final int[] alias;
+    /** Per alias column {@code j}: {@code [2j]} its alias's cell, {@code [2j + 1]} its own. */
+    private final int[] target;
     private final long shots;
 
     /**
@@ -82,9 +84,15 @@ final class MultinomialSampler {
             aliasCut = new double[k - s];
             alias = new int[k - s];
             buildAlias();
+            target = new int[2 * (k - s)];
+            for (int j = 0; j < k - s; j++) {
+                target[2 * j] = cells[s + alias[j]];
+                target[2 * j + 1] = cells[s + j];
+            }
         } else {
             aliasCut = null;
             alias = null;
+            target = null;
         }
     }
 
@@ -162,7 +170,10 @@ final class MultinomialSampler {
             if (c >= width) {
                 c = width - 1;
             }
-            out[cells[split + (u - c < aliasCut[c] ? c : alias[c])]]++;
+            // Branch-free choice (the comparison is a coin flip the processor cannot predict):
+            // the sign bit of (fraction - cut) is 1 exactly when the column keeps its own cell.
+            int own = (int) (Double.doubleToRawLongBits(u - c - aliasCut[c]) >>> 63);
+            out[target[(c << 1) | own]]++;
         }
     }
 
