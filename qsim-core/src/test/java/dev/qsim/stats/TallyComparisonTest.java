@@ -38,12 +38,32 @@ class TallyComparisonTest {
     @Test
     void distancesMatchTheirDefinitionsOnASmallTally() {
         // 3 of 4 shots read 0 against a fair coin. TVD = 1/2 (|3/4 - 1/2| + |1/4 - 1/2|) = 1/4
-        // (definition, Levin, Peres and Wilmer 2017, sec. 4.1); Hellinger fidelity
-        // (sqrt(3/8) + sqrt(1/8))^2 = 1/2 + 2 sqrt(3/64) = 1/2 + sqrt(3)/4 (closed form).
+        // (definition, Levin, Peres and Wilmer 2017, sec. 4.1). Bhattacharyya coefficient
+        // (Bhattacharyya 1943) BC = sqrt(3/8) + sqrt(1/8) = (sqrt 3 + 1) / (2 sqrt 2); classical
+        // fidelity BC^2 = 1/2 + 2 sqrt(3/64) = 1/2 + sqrt(3)/4 (Nielsen and Chuang 2010,
+        // sec. 9.2.2); Hellinger distance sqrt(1 - BC) (Le Cam and Yang 2000), closed forms.
         TallyComparison c = TallyComparison.of(tally(1, 3, 1), new double[] {0.5, 0.5});
-        assertEquals(0.25, c.totalVariation(), 1e-15);
-        assertEquals(0.5 + Math.sqrt(3) / 4, c.hellingerFidelity(), 1e-15);
+        double bc = (Math.sqrt(3) + 1) / (2 * Math.sqrt(2));
+        assertEquals(0.25, c.observedDistance(), 1e-15);
+        assertEquals(bc, c.bhattacharyyaCoefficient(), 1e-15);
+        assertEquals(0.5 + Math.sqrt(3) / 4, c.classicalFidelity(), 1e-15);
+        assertEquals(Math.sqrt(1 - bc), c.hellingerDistance(), 1e-12);
         assertEquals(4, c.shots());
+    }
+
+    @Test
+    void hellingerDistanceIsHalfTheEuclideanDistanceOfRootProbabilities() {
+        // Textbook identity (Le Cam and Yang 2000, from memory): 1 - BC = 1/2 sum (sqrt f -
+        // sqrt p)^2, so H^2 = 1/2 ||sqrt f - sqrt p||^2.
+        long[] counts = {130, 95, 110, 65};
+        double[] p = {0.3, 0.25, 0.25, 0.2};
+        TallyComparison c = TallyComparison.of(tally(2, counts), p);
+        double s = 0;
+        for (int i = 0; i < 4; i++) {
+            double d = Math.sqrt(counts[i] / 400.0) - Math.sqrt(p[i]);
+            s += d * d;
+        }
+        assertEquals(0.5 * s, c.hellingerDistance() * c.hellingerDistance(), 1e-12);
     }
 
     @Test
@@ -94,7 +114,6 @@ class TallyComparisonTest {
         assertEquals(new org.apache.commons.math3.stat.inference.ChiSquareTest().chiSquareTest(
                 new double[] {312.75, 104.25, 104.25, 34.75}, new long[] {315, 108, 101, 32}),
                 c.chiSquarePValue(), 1e-10);
-        assertTrue(c.passes(0.05));
     }
 
     /**
@@ -189,10 +208,17 @@ class TallyComparisonTest {
         double[] uniform = new double[32];
         java.util.Arrays.fill(uniform, 1 / 32.0);
         TallyComparison c = TallyComparison.of(t, uniform);
-        assertTrue(c.passes(0.01), () -> "seed " + seed + ": " + c);
+        // A noiseless simulation is at distance 0 from its own prediction; 5,000 shots over 32
+        // outcomes resolve distances of about 0.02 (binomial noise of sqrt(p / n) per outcome,
+        // common practice), well inside the default tolerance.
+        assertTrue(c.passes(), () -> "seed " + seed + ": " + c);
         assertEquals(32, c.groups());
-        assertTrue(c.totalVariationLow() <= c.totalVariationHigh(), c::toString);
-        assertTrue(c.totalVariation() < 0.1, c::toString);
+        assertTrue(c.distanceLow() <= c.distance() && c.distance() <= c.distanceHigh(),
+                c::toString);
+        assertEquals(0, c.distanceLow(), c::toString);
+        // The observed distance of a sample from the prediction itself is pure sampling noise,
+        // which the estimate removes (E|X| >= |E X|, Jensen's inequality).
+        assertTrue(c.distance() < c.observedDistance(), c::toString);
     }
 
     @Test
@@ -210,26 +236,81 @@ class TallyComparisonTest {
         double[] uniform = new double[32];
         java.util.Arrays.fill(uniform, 1 / 32.0);
         TallyComparison c = TallyComparison.of(tally(5, counts), uniform);
-        assertFalse(c.passes(0.01), () -> "seed " + seed + ": " + c);
+        // True distance: the two heavy outcomes carry 3/36 each instead of 1/32, so
+        // TVD = 2 (3/36 - 1/32) = 0.1042 (definition), twice the default tolerance; 5,000 shots
+        // put the whole interval above it.
+        double truth = 2 * (3 / 36.0 - 1 / 32.0);
+        assertFalse(c.passes(), () -> "seed " + seed + ": " + c);
+        assertTrue(c.distanceLow() > 0.05 && c.distanceLow() < truth
+                && truth < c.distanceHigh(), c::toString);
+        assertTrue(c.reason().contains("lower end"), c::reason);
         List<Deviation> d = c.deviations();
         assertEquals(Set.of("00000", "11111"), Set.of(d.get(0).bits(), d.get(1).bits()),
                 () -> "seed " + seed + ": " + d.subList(0, 4));
         assertTrue(d.get(0).residual() > 0);
-        assertTrue(c.report(0.01, 3).contains("FAIL"));
+        assertTrue(c.report(3).contains("FAIL"));
     }
 
     @Test
-    void anOutcomePredictedImpossibleFailsTheComparison() {
+    void shotsOnImpossibleOutcomesAreARateWithAnExactIntervalNotAFailure() {
         // A Bell pair never reads 01 or 10 (Nielsen and Chuang 2010, sec. 1.3.6).
         Map<String, Double> bell = Map.of("00", 0.5, "11", 0.5);
-        TallyComparison c = TallyComparison.of(Tally.of(2, Map.of("00", 480L, "11", 517L,
-                "01", 3L)), bell);
-        assertEquals(3, c.impossible());
+        TallyComparison c = TallyComparison.of(Tally.of(2, Map.of("00", 4800L, "11", 5170L,
+                "01", 30L)), bell);
+        assertEquals(30, c.impossible());
         assertEquals("01", c.deviations().get(0).bits());
         assertEquals(Double.POSITIVE_INFINITY, c.deviations().get(0).residual());
-        assertFalse(c.passes(0.01));
-        TallyComparison ok = TallyComparison.of(Tally.of(2, Map.of("00", 480L, "11", 520L)), bell);
-        assertTrue(ok.passes(0.01), ok::toString);
+        assertEquals(0.003, c.impossibleRate(), 1e-15);
+        // Reference: Commons Math 3.6.1 ClopperPearsonInterval (Clopper and Pearson 1934).
+        org.apache.commons.math3.stat.interval.ConfidenceInterval cp =
+                new org.apache.commons.math3.stat.interval.ClopperPearsonInterval()
+                        .createInterval(10_000, 30, 0.95);
+        assertEquals(cp.getLowerBound(), c.impossibleRateLow(), 1e-9);
+        assertEquals(cp.getUpperBound(), c.impossibleRateHigh(), 1e-9);
+        // TVD = 1/2 (0.02 + 0.017 + 0.003) = 0.02 (definition) with sampling noise of
+        // sqrt(0.25 / 10000) = 0.005 per frequency (binomial variance): within the tolerance
+        // 0.05 although 30 shots landed where none should.
+        assertEquals(0.02, c.observedDistance(), 1e-12);
+        assertTrue(c.passes(), c::toString);
+        assertTrue(c.report(0).contains(String.format(java.util.Locale.ROOT,
+                "shots on impossible        30 of 10000, rate 0.0030 (95%% interval %.4f to"
+                + " %.4f)", cp.getLowerBound(), cp.getUpperBound())), () -> c.report(0));
+    }
+
+    @Test
+    void noShotOnAnImpossibleOutcomeGivesTheExactUpperBound() {
+        // With 0 of n events the Clopper-Pearson interval is [0, 1 - (alpha/2)^(1/n)]
+        // (closed form of the beta quantile, Clopper and Pearson 1934).
+        TallyComparison c = TallyComparison.of(Tally.of(2, Map.of("00", 480L, "11", 520L)),
+                Map.of("00", 0.5, "11", 0.5));
+        assertEquals(0, c.impossible());
+        assertEquals(0, c.impossibleRateLow());
+        assertEquals(1 - Math.pow(0.025, 1 / 1000.0), c.impossibleRateHigh(), 1e-12);
+    }
+
+    @Test
+    void oneStrayShotInABellTallyPassesAndTheIntervalHoldsItsEstimate() {
+        // 10,000 shots: 5000 x 00, 4999 x 11, 1 x 01. TVD = 1/2 (0 + 1e-4 + 1e-4) = 1e-4
+        // (definition). The frequencies' sampling noise is sqrt(0.25 / 10000) = 0.005 (binomial
+        // variance, common practice), so a valid 95 % interval sits within a few times that of
+        // 0, far inside the tolerance 0.05.
+        TallyComparison c = TallyComparison.of(Tally.of(2, Map.of("00", 5000L, "11", 4999L,
+                "01", 1L)), Map.of("00", 0.5, "11", 0.5));
+        assertEquals(1e-4, c.observedDistance(), 1e-15);
+        assertTrue(c.distanceLow() <= c.distance() && c.distance() <= c.distanceHigh(),
+                c::toString);
+        assertEquals(0, c.distanceLow());
+        assertTrue(c.distanceHigh() < 0.02, c::toString);
+        assertTrue(c.passes(), c::toString);
+        String report = c.report(4);
+        assertTrue(report.contains("tolerance                  0.05\n"), report);
+        assertTrue(report.contains("verdict                    PASS: the 95% interval's upper"
+                + " end "), report);
+        assertTrue(report.contains(String.format(java.util.Locale.ROOT,
+                "95%% interval %.4f to %.4f", c.distanceLow(), c.distanceHigh())), report);
+        // Sensible precision: no number in the report carries more than six decimals.
+        assertFalse(java.util.regex.Pattern.compile("\\d\\.\\d{7,}").matcher(report).find(),
+                report);
     }
 
     @Test
@@ -244,34 +325,77 @@ class TallyComparisonTest {
         TallyComparison a = TallyComparison.of(tally(2, counts), p, 5, 200, 0.9);
         TallyComparison b = TallyComparison.of(tally(2, counts), m, 5, 200, 0.9);
         assertEquals(a.toString(), b.toString());
-        assertEquals(a.totalVariationLow(), b.totalVariationLow());
-        assertEquals(a.totalVariationHigh(), b.totalVariationHigh());
+        assertEquals(a.distanceLow(), b.distanceLow());
+        assertEquals(a.distanceHigh(), b.distanceHigh());
     }
 
     @Test
-    void bootstrapIntervalIsSeededAndCoversTheEstimate() {
+    void resultsDependOnTheSeedButNotOnTheThreadCount() {
+        // Each Monte Carlo draw has its own generator (common practice for reproducible
+        // parallel simulation), so splitting the draws over threads changes nothing.
         long[] counts = new long[16];
         for (int i = 0; i < 16; i++) {
             counts[i] = 20 + (i % 3);
         }
         double[] uniform = new double[16];
         java.util.Arrays.fill(uniform, 1 / 16.0);
-        TallyComparison a = TallyComparison.of(tally(4, counts), uniform, 42, 500, 0.95);
-        TallyComparison b = TallyComparison.of(tally(4, counts), uniform, 42, 500, 0.95);
-        assertEquals(a.totalVariationLow(), b.totalVariationLow());
-        assertEquals(a.totalVariationHigh(), b.totalVariationHigh());
-        assertTrue(a.totalVariationLow() <= a.totalVariationHigh());
-        // A percentile interval of a plug-in TVD sits around the estimate (Efron and Tibshirani
-        // 1993, sec. 13.3): the observed distance lies between its ends or near the low end.
-        assertTrue(a.totalVariationHigh() >= a.totalVariation(), a::toString);
-        // With many shots per outcome the binomial-splitting resampler is used; it must give
-        // an interval of the same kind: TVD of 1e5 shots drawn from the prediction is small.
+        ComparisonSettings s = ComparisonSettings.defaults().withSeed(42).withResamples(300);
+        TallyComparison one = TallyComparison.of(tally(4, counts), uniform, s.withThreads(1));
+        TallyComparison two = TallyComparison.of(tally(4, counts), uniform, s.withThreads(2));
+        TallyComparison three = TallyComparison.of(tally(4, counts), uniform, s.withThreads(3));
+        assertEquals(one.toString(), two.toString());
+        assertEquals(one.toString(), three.toString());
+        assertEquals(one.distanceHigh(), three.distanceHigh());
+        TallyComparison other = TallyComparison.of(tally(4, counts), uniform, s.withSeed(43));
+        assertTrue(other.distanceHigh() != one.distanceHigh()
+                || other.distance() != one.distance(), other::toString);
+    }
+
+    @Test
+    void manyShotsGiveANarrowIntervalAtZero() {
+        // 100,000 shots exactly on the prediction: each frequency's noise is
+        // sqrt(0.25 * 0.75 / 1e5) = 0.0014 (binomial variance, common practice), so the upper
+        // end lies within a few of those of 0.
         long[] big = new long[4];
         java.util.Arrays.fill(big, 25_000);
         TallyComparison c = TallyComparison.of(tally(2, big),
                 new double[] {0.25, 0.25, 0.25, 0.25}, 3, 300, 0.95);
-        assertEquals(0, c.totalVariation());
-        assertTrue(c.totalVariationHigh() > 0 && c.totalVariationHigh() < 0.01, c::toString);
+        assertEquals(0, c.observedDistance());
+        assertEquals(0, c.distance());
+        assertTrue(c.distanceHigh() > 0 && c.distanceHigh() < 0.01, c::toString);
+    }
+
+    @Test
+    void aSampledPredictionWidensTheInterval() {
+        // The difference of two independent samples varies more than one sample's departure
+        // from a fixed distribution (variances add, textbook), so allowing for a prediction
+        // from 500 shots must widen the interval of the same tally.
+        long[] counts = {230, 18, 22, 230};
+        double[] p = {0.46, 0.04, 0.04, 0.46};
+        ComparisonSettings s = ComparisonSettings.defaults().withResamples(300);
+        TallyComparison exact = TallyComparison.of(tally(2, counts), p, s);
+        TallyComparison sampled = TallyComparison.of(tally(2, counts), p,
+                s.withPredictionShots(500));
+        assertEquals(exact.observedDistance(), sampled.observedDistance());
+        assertTrue(sampled.distanceHigh() - sampled.distanceLow()
+                > exact.distanceHigh() - exact.distanceLow(), () -> exact + "\n" + sampled);
+        assertTrue(sampled.report(0).contains("prediction                 sampled, 500 shots"));
+    }
+
+    @Test
+    void theToleranceDecidesTheVerdict() {
+        // The same tally passes a tolerance above its interval's upper end and fails one
+        // below (definition of the verdict, Wellek 2010).
+        long[] counts = {460, 40, 40, 460};
+        double[] p = {0.5, 0, 0, 0.5};
+        TallyComparison loose = TallyComparison.of(tally(2, counts), p,
+                ComparisonSettings.defaults().withTolerance(0.2));
+        assertTrue(loose.passes(), loose::toString);
+        TallyComparison tight = TallyComparison.of(tally(2, counts), p,
+                ComparisonSettings.defaults().withTolerance(loose.distanceHigh() / 2));
+        assertFalse(tight.passes(), tight::toString);
+        assertEquals(loose.distanceHigh(), tight.distanceHigh());
+        assertEquals(0.2, loose.tolerance());
     }
 
     @Test
@@ -293,10 +417,23 @@ class TallyComparisonTest {
                 () -> TallyComparison.of(t, new double[] {1, 0, 0, 0}, 1, 0, 0.9));
         assertTrue(e.getMessage().contains("was 0"), e.getMessage());
         e = assertThrows(IllegalArgumentException.class,
-                () -> TallyComparison.of(t, new double[] {1, 0, 0, 0}, 1, 10, 1.5));
+                () -> TallyComparison.of(t, new double[] {1, 0, 0, 0}, 1, 100, 1.5));
         assertTrue(e.getMessage().contains("1.5"), e.getMessage());
+        ComparisonSettings d = ComparisonSettings.defaults();
+        e = assertThrows(IllegalArgumentException.class, () -> d.withTolerance(0));
+        assertTrue(e.getMessage().contains("(0, 1] but was 0.0"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> d.withTolerance(1.5));
+        assertTrue(e.getMessage().contains("was 1.5"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> d.withPredictionShots(-1));
+        assertTrue(e.getMessage().contains("was -1"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> d.withThreads(0));
+        assertTrue(e.getMessage().contains("was 0"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> d.withResamples(19));
+        assertTrue(e.getMessage().contains("at least 20 but was 19"), e.getMessage());
+        // A refused change leaves the settings as they were (immutable values).
+        assertEquals(ComparisonSettings.DEFAULT_TOLERANCE, d.tolerance());
         TallyComparison c = TallyComparison.of(t, new double[] {0.25, 0.25, 0.25, 0.25});
-        e = assertThrows(IllegalArgumentException.class, () -> c.passes(0));
-        assertTrue(e.getMessage().contains("was 0.0"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> c.report(-1));
+        assertTrue(e.getMessage().contains("was -1"), e.getMessage());
     }
 }

@@ -394,7 +394,7 @@ public final class Cli implements Callable<Integer> {
     @Command(name = "compare", mixinStandardHelpOptions = true,
             description = "Compares a tally file (CSV 'bits,count' or JSON) with the ideal"
                     + " outcome probabilities of a circuit file: total variation distance with a"
-                    + " bootstrap interval, Hellinger fidelity, chi-square and G-test p-values,"
+                    + " bootstrap interval, Hellinger distance, chi-square and G-test p-values,"
                     + " and the outcomes that deviate most.",
             footerHeading = "%nExamples:%n",
             footer = {
@@ -457,21 +457,21 @@ public final class Cli implements Callable<Integer> {
             TallyComparison cmp;
             Progress progress = Progress.start(spec.commandLine().getErr(), "comparing");
             try {
-                cmp = TallyComparison.of(tally, predicted, seed, resamples, 0.95);
+                cmp = TallyComparison.of(tally, predicted, seed, resamples, 1 - 2 * alpha);
             } finally {
                 progress.close();
             }
             PrintWriter out = spec.commandLine().getOut();
             out.println("tally    " + tallyFile);
             out.println("circuit  " + circuitFile);
-            out.print(cmp.report(alpha, top));
+            out.print(cmp.report(top));
             out.flush();
             if (svg != null) {
                 write(svg, SvgHistogram.draw(tally, predicted, tallyFileName() + " vs "
                         + circuitFile.getFileName() + f(" (TVD %.3f, %s at alpha %s)",
-                        cmp.totalVariation(), cmp.passes(alpha) ? "pass" : "fail", alpha)));
+                        cmp.distance(), cmp.passes() ? "pass" : "fail", alpha)));
             }
-            return requireMatch && !cmp.passes(alpha) ? EXIT_MISMATCH : EXIT_OK;
+            return requireMatch && !cmp.passes() ? EXIT_MISMATCH : EXIT_OK;
         }
 
         private String tallyFileName() {
