@@ -398,7 +398,7 @@ public final class Cli implements Callable<Integer> {
                     + " and the outcomes that deviate most.",
             footerHeading = "%nExamples:%n",
             footer = {
-                "  java -jar qsim-examples.jar compare qsim-examples/demo/ghz5-marlin.csv"
+                "  java -jar qsim-examples.jar compare qsim-examples/demo/ghz5-pallet.csv"
                         + " --circuit qsim-examples/demo/ghz5.qasm",
                 "  java -jar qsim-examples.jar compare tally.json --circuit c.qasm --alpha 0.05"
                         + " --require-match",

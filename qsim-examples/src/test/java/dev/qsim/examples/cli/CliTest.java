@@ -131,15 +131,15 @@ class CliTest {
 
     @Test
     void compareGatesOnTheResultOnlyWhenAsked() {
-        Run fail = new Run("compare", DEMO + "ghz5-marlin.csv", "--circuit", DEMO + "ghz5.qasm",
+        Run fail = new Run("compare", DEMO + "ghz5-pallet.csv", "--circuit", DEMO + "ghz5.qasm",
                 "--require-match");
         assertEquals(Cli.EXIT_MISMATCH, fail.code, fail::toString);
         assertTrue(fail.out.contains("FAIL"), fail::toString);
         assertTrue(fail.out.contains("shots on impossible        335"), fail::toString);
-        Run report = new Run("compare", DEMO + "ghz5-marlin.csv", "--circuit",
+        Run report = new Run("compare", DEMO + "ghz5-pallet.csv", "--circuit",
                 DEMO + "ghz5.qasm");
         assertEquals(0, report.code, report::toString);
-        Run pass = new Run("compare", DEMO + "bell-marlin.json", "--circuit", DEMO + "bell.qasm",
+        Run pass = new Run("compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm",
                 "--require-match", "--alpha", "0.05");
         assertEquals(0, pass.code, pass::toString);
         assertTrue(pass.out.contains("PASS"), pass::toString);
@@ -148,7 +148,7 @@ class CliTest {
     @Test
     void compareWritesTheFitPicture() throws IOException {
         Path svg = dir.resolve("fit.svg");
-        Run r = new Run("compare", DEMO + "ghz5-marlin.csv", "--circuit", DEMO + "ghz5.qasm",
+        Run r = new Run("compare", DEMO + "ghz5-pallet.csv", "--circuit", DEMO + "ghz5.qasm",
                 "--svg", svg.toString());
         assertEquals(0, r.code, r::toString);
         String text = Files.readString(svg);
@@ -216,10 +216,10 @@ class CliTest {
                 "'0x'"},
             {new String[] {"compare", wide.toString(), "--circuit", DEMO + "bell.qasm"},
                 "3 bits"},
-            {new String[] {"compare", DEMO + "bell-marlin.json"}, "--circuit"},
-            {new String[] {"compare", DEMO + "bell-marlin.json", "--circuit",
+            {new String[] {"compare", DEMO + "bell-pallet.json"}, "--circuit"},
+            {new String[] {"compare", DEMO + "bell-pallet.json", "--circuit",
                 DEMO + "teleport.qasm"}, "conditioned"},
-            {new String[] {"compare", DEMO + "bell-marlin.json", "--circuit", DEMO + "bell.qasm",
+            {new String[] {"compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm",
                 "--alpha", "1.5"}, "1.5"},
             {new String[] {"state", DEMO + "bell.qasm", "--cutoff", "-1"}, "-1"},
             {new String[] {"scale", "--from", "9", "--to", "3"}, "--from 9"},
