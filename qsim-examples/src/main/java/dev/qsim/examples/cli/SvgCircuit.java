@@ -194,7 +194,8 @@ final class SvgCircuit {
         }
         int[] t = in.targets();
         int[] c = in.controls();
-        // The catalogue's drawing labels: "(+)" a NOT target, "x" a swap end, "@" a control dot.
+        // The catalogue's drawing labels: "\u2295" a NOT target, "\u00d7" a swap end, "\u25cf" a
+        // control dot.
         String[] labels = in.gate().targetLabels(in.angles(), t.length);
         if (s[0] != s[1]) {
             out.append(Cli.f("<line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\" stroke=\"#222\""
@@ -203,7 +204,7 @@ final class SvgCircuit {
         for (int q : c) {
             dot(out, x, rowY(q));
         }
-        if (labels[0].equals("(+)")) {
+        if (labels[0].equals("\u2295")) {
             int y = rowY(t[0]);
             out.append(Cli.f("<circle cx=\"%d\" cy=\"%d\" r=\"11\" fill=\"white\" stroke=\"#222\""
                     + " stroke-width=\"1.5\"/><line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\""
@@ -212,7 +213,7 @@ final class SvgCircuit {
                     x + 11, y, x, y - 11, x, y + 11));
             return;
         }
-        if (labels[0].equals("x")) {
+        if (labels[0].equals("\u00d7")) {
             for (int q : t) {
                 int y = rowY(q);
                 out.append(Cli.f("<path d=\"M %d %d L %d %d M %d %d L %d %d\" stroke=\"#222\""
@@ -221,11 +222,11 @@ final class SvgCircuit {
             }
             return;
         }
-        if (labels[0].equals("@")) {
+        if (labels[0].equals("\u25cf")) {
             for (int q : t) {
                 dot(out, x, rowY(q));
             }
-            if (labels.length > 1 && !labels[1].equals("@")) {
+            if (labels.length > 1 && !labels[1].equals("\u25cf")) {
                 int y = (rowY(t[0]) + rowY(t[1])) / 2;
                 out.append(Cli.f("<text x=\"%d\" y=\"%d\" font-size=\"10\" fill=\"#333\">%s"
                         + "</text>%n", x + 6, y, SvgHistogram.esc(pretty(labels[1]))));
