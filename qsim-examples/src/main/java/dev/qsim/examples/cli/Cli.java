@@ -132,8 +132,26 @@ public final class Cli implements Callable<Integer> {
         Files.writeString(file, text, StandardCharsets.UTF_8);
     }
 
+    /** Writes an SVG picture and says on standard error what was written. */
+    static void writePicture(CommandLine.Model.CommandSpec spec, Path file, String svg,
+            String what) throws IOException {
+        write(file, svg);
+        spec.commandLine().getErr().println("wrote " + file + " (" + what + ")");
+        spec.commandLine().getErr().flush();
+    }
+
     static String f(String format, Object... args) {
         return String.format(Locale.ROOT, format, args);
+    }
+
+    /** A count with its noun, plural when the count is not 1: "1 outcome", "2 outcomes". */
+    static String count(long n, String noun) {
+        return f("%,d %s", n, n == 1 ? noun : noun + "s");
+    }
+
+    /** A number as typed: {@code 0.01}, not {@code 1.0E-2}. */
+    static String plain(double x) {
+        return java.math.BigDecimal.valueOf(x).stripTrailingZeros().toPlainString();
     }
 
     /** Output formats of a tally. */
@@ -182,8 +200,9 @@ public final class Cli implements Callable<Integer> {
                 "%nWith noise, circuits of up to 10 qubits that measure only at the end run on"
                         + " a density matrix, others by trajectories, one per shot.",
                 "%nThe same seed gives the same tally. With --svg, bars of the ideal"
-                        + " probabilities stand beside the measured frequencies when the circuit"
-                        + " measures only at the end."})
+                        + " probabilities stand beside the simulated frequencies when the"
+                        + " circuit measures only at the end; the picture's title gives the"
+                        + " file, the seed and the noise."})
     static final class Run implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
@@ -263,8 +282,12 @@ public final class Cli implements Callable<Integer> {
                 } catch (IllegalArgumentException e) {
                     predicted = null; // mid-circuit measurement: no exact prediction to draw
                 }
-                write(svg, SvgHistogram.draw(tally, predicted, file.getFileName()
-                        + ", " + shots + " shots, seed " + seed));
+                boolean noisy = depolarizing != 0 || readoutError != 0;
+                String noise = noisy ? f(", depolarizing %s, readout error %s",
+                        plain(depolarizing), plain(readoutError)) : ", noiseless";
+                SvgHistogram.Picture picture = SvgHistogram.draw(tally, predicted,
+                        file.getFileName() + ", seed " + seed + noise, "simulated");
+                writePicture(spec, svg, picture.svg(), picture.summary());
             }
             return EXIT_OK;
         }
@@ -365,7 +388,15 @@ public final class Cli implements Callable<Integer> {
             footerHeading = "%nExamples:%n",
             footer = {
                 "  java -jar qsim-examples.jar draw qsim-examples/demo/teleport.qasm",
-                "  java -jar qsim-examples.jar draw qsim-examples/demo/teleport.qasm --svg t.svg"})
+                "  java -jar qsim-examples.jar draw qsim-examples/demo/teleport.qasm --svg t.svg",
+                "%nSymbols: a control is a filled dot, a NOT target a circled plus, the ends of"
+                        + " a swap two crosses (Nielsen and Chuang 2010, section 4.3). In the SVG"
+                        + " picture each classical bit has a thin line of its own; a measurement"
+                        + " is a gauge on its qubit tagged with the bit it writes (->c2), and"
+                        + " gates run only when a bit has a value stand in a dashed frame tagged"
+                        + " with the condition (if c1=1).",
+                "%nThe text uses UTF-8 symbols. barrier statements are read but not kept: the"
+                        + " circuit model has no barrier, so no drawing shows one."})
     static final class Draw implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
@@ -380,8 +411,8 @@ public final class Cli implements Callable<Integer> {
             Circuit c = readCircuit(file);
             PrintWriter out = spec.commandLine().getOut();
             if (svg != null) {
-                write(svg, SvgCircuit.draw(c, file.getFileName().toString()));
-                out.println("wrote " + svg);
+                writePicture(spec, svg, SvgCircuit.draw(c, file.getFileName().toString()),
+                        "circuit of " + SvgCircuit.summary(c));
             } else {
                 out.println(c.diagram());
             }
@@ -467,9 +498,11 @@ public final class Cli implements Callable<Integer> {
             out.print(cmp.report(alpha, top));
             out.flush();
             if (svg != null) {
-                write(svg, SvgHistogram.draw(tally, predicted, tallyFileName() + " vs "
-                        + circuitFile.getFileName() + f(" (TVD %.3f, %s at alpha %s)",
-                        cmp.totalVariation(), cmp.passes(alpha) ? "pass" : "fail", alpha)));
+                SvgHistogram.Picture picture = SvgHistogram.draw(tally, predicted,
+                        tallyFileName() + " vs " + circuitFile.getFileName()
+                        + f(" (TVD %.3f, %s at alpha %s)", cmp.totalVariation(),
+                        cmp.passes(alpha) ? "pass" : "fail", alpha), "measured");
+                writePicture(spec, svg, picture.svg(), picture.summary());
             }
             return requireMatch && !cmp.passes(alpha) ? EXIT_MISMATCH : EXIT_OK;
         }
