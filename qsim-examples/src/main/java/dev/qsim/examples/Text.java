@@ -6,8 +6,9 @@ import java.util.Locale;
 import org.apache.commons.numbers.complex.Complex;
 
 /**
- * Small text helpers shared by the examples: bars, bitstrings and number formats. Everything is
- * plain ASCII so the output reads the same in any terminal encoding.
+ * Small text helpers shared by the examples: bars, bitstrings and number formats, all plain
+ * ASCII. (Circuit drawings, {@code Circuit.diagram()}, use the textbook symbols ●, ⊕ and ×;
+ * {@link Main#main} writes UTF-8 unless the console can show them in its own encoding.)
  */
 final class Text {
 
