@@ -179,8 +179,8 @@ public final class NoisyGhz {
                 + "(two-qubit depolarizing %.3f)", ONE_QUBIT_TIME * 1000, ONE_QUBIT_ERROR,
                 CNOT_TIME * 1000, CNOT_ERROR));
 
-        Text.heading(out, Text.f("Predictions: %,d shots and %,d trajectories, seed %d", shots,
-                shots, seed));
+        Text.heading(out, Text.f("Predictions: %s and %s, seed %d", Text.count(shots, "shot"),
+                shots == 1 ? "1 trajectory" : Text.f("%,d trajectories", shots), seed));
         out.println(Text.f("%-7s  %6s  %15s  %9s  %13s", "outcome", "ideal", "density matrix",
                 "dm tally", "trajectories"));
         for (int i = 0; i < exact.length; i++) {

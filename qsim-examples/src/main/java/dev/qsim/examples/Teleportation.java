@@ -242,8 +242,8 @@ public final class Teleportation {
         out.println(Text.f("Branches seen: %d of 4; worst fidelity %.12f.", branches.size(),
                 result.worstFidelity()));
 
-        Text.heading(out, Text.f("Tally of qubit 2 read at the end: %,d shots, seed %d", shots,
-                seed));
+        Text.heading(out, Text.f("Tally of qubit 2 read at the end: %s, seed %d",
+                Text.count(shots, "shot"), seed));
         double measured = (double) result.receivedOnes() / shots;
         double expected = result.expectedOne();
         double error = Math.sqrt(expected * (1 - expected) / shots);

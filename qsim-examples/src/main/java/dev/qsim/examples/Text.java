@@ -44,6 +44,14 @@ final class Text {
         return String.format(Locale.ROOT, "%+.6f %+.6fi", z.getReal(), z.getImaginary());
     }
 
+    /**
+     * A count with its noun, plural unless the count is 1, digits grouped: {@code "1 shot"},
+     * {@code "2,000 shots"}.
+     */
+    static String count(long n, String noun) {
+        return f("%,d %s", n, n == 1 ? noun : noun + "s");
+    }
+
     /** Formats with {@link Locale#ROOT}, so decimal points never depend on the machine. */
     static String f(String format, Object... args) {
         return String.format(Locale.ROOT, format, args);

@@ -140,8 +140,8 @@ public final class UniformSuperposition {
                 test.getPValue());
 
         Text.title(out, "Saltmarsh Lane instrument lab: morning fairness check of the Fusee chip");
-        out.println(Text.f("H on each of %d qubits, then read all %d out; %,d shots, seed %d.",
-                QUBITS, QUBITS, shots, seed));
+        out.println(Text.f("H on each of %d qubits, then read all %d out; %s, seed %d.",
+                QUBITS, QUBITS, Text.count(shots, "shot"), seed));
         out.println(Text.f("Ideal: each of the %d outcomes has probability 1/%d (%,.1f shots).",
                 outcomes, outcomes, (double) shots / outcomes));
 
