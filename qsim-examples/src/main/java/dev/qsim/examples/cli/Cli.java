@@ -133,7 +133,11 @@ public final class Cli implements Callable<Integer> {
             what = label + ": " + ex.getCause().getMessage();
         } else if (ex instanceof CommandLine.UnmatchedArgumentException) {
             List<String> close = ((CommandLine.UnmatchedArgumentException) ex).getSuggestions();
-            if (!close.isEmpty()) {
+            List<String> unmatched = ((CommandLine.UnmatchedArgumentException) ex).getUnmatched();
+            if (name.equals("scale") && (unmatched.contains("--from")
+                    || unmatched.contains("--to"))) {
+                what += " (scale takes --min and --max, as the scaling report does)";
+            } else if (!close.isEmpty()) {
                 what += " (did you mean " + String.join(" or ", close) + "?)";
             }
         }

@@ -204,7 +204,7 @@ class CliTest {
                 "--alpha", "1.5"}, "1.5"},
             {new String[] {"state", DEMO + "bell.qasm", "--cutoff", "-1"}, "-1"},
             {new String[] {"scale", "--min", "9", "--max", "3"}, "--min 9 is greater than"},
-            {new String[] {"scale", "--from", "2"}, "Unknown options: '--from'"},
+            {new String[] {"scale", "--from", "2"}, "(scale takes --min and --max"},
         };
         for (Object[] c : cases) {
             String[] args = (String[]) c[0];
