@@ -1,4 +1,4 @@
-// Five-qubit GHZ state, as run on the Marlin-5 test chip of the (invented) Fernhill
+// Five-qubit GHZ state, as run on the Pallet-5 test chip of the (invented) Fernhill
 // Quantum Lab: ideally only 00000 and 11111, half the time each.
 OPENQASM 3.0;
 include "stdgates.inc";

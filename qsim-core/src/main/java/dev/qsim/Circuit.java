@@ -514,10 +514,11 @@ public final class Circuit {
 
     /**
      * Draws the circuit as text: one line per qubit with time running left to right, and
-     * connector lines between them. Controls are {@code @}, a controlled NOT's target is
-     * {@code (+)}, swaps are {@code x}, a measurement into clbit {@code c} is {@code M>c}, a
-     * reset is {@code |0>}, and a conditioned gate carries its condition, as in
-     * {@code X[c0=1]}.
+     * connector lines between them, in the symbols of Nielsen and Chuang 2010, §4.3: a control
+     * is a filled dot {@code ●}, a controlled NOT's target {@code ⊕}, the ends of a swap
+     * {@code ×}; a measurement into clbit {@code c} is {@code M>c}, a reset is {@code |0>}, and a
+     * conditioned gate carries its condition, as in {@code X[c0=1]}. The symbols are not ASCII:
+     * print the drawing to a UTF-8 terminal or file.
      *
      * @return the drawing, lines separated by {@code '\n'}
      */

@@ -3,8 +3,15 @@ package dev.qsim;
 import java.util.ArrayList;
 import java.util.List;
 
-/** Draws a circuit as text, one line per qubit, time left to right. */
+/**
+ * Draws a circuit as text, one line per qubit, time left to right, in the textbook symbols of
+ * Nielsen and Chuang 2010, §4.3: a filled dot for a control, ⊕ for the target of a NOT, × for
+ * the ends of a swap (the labels come from {@link Gate#targetLabels(double[], int)}).
+ */
 final class Diagram {
+    /** A control qubit: a filled dot. */
+    static final String CONTROL = "\u25cf";
+
     private Diagram() {
     }
 
@@ -132,7 +139,7 @@ final class Diagram {
         }
         col.span(lo, hi);
         for (int q : ctl) {
-            col.put(q, "@");
+            col.put(q, CONTROL);
         }
         String[] labels = labels(in);
         for (int j = 0; j < t.length; j++) {

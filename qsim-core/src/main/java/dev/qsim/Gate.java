@@ -92,7 +92,7 @@ public enum Gate {
     U("u", 0, 1, 3, Shape.DENSE, "U", "u", a -> Gates.u(a[0], a[1], a[2]), CliffordSteps::u, "U"),
     /** Controlled NOT on (control, target); OpenQASM {@code cx}. */
     CNOT("cnot", 1, 1, 0, Shape.PERMUTATION, "cx", null, a -> Gates.X,
-            CliffordSteps.fixed(CliffordSteps.CNOT, 0, 1), "(+)"),
+            CliffordSteps.fixed(CliffordSteps.CNOT, 0, 1), "\u2295"),
     /** Controlled Y on (control, target). */
     CY("cy", 1, 1, 0, Shape.PERMUTATION, "cy", null, a -> Gates.Y,
             CliffordSteps.fixed(CliffordSteps.S_DAGGER, 1, CliffordSteps.CNOT, 0, 1,
@@ -100,7 +100,7 @@ public enum Gate {
     /** Controlled Z, {@code diag(1, 1, 1, -1)}, symmetric in its two qubits. */
     CZ("cz", 0, 2, 0, Shape.DIAGONAL, "cz", null, a -> Gates.CZ,
             CliffordSteps.fixed(CliffordSteps.CZ, 0, 1),
-            "@"),
+            "\u25cf"),
     /** Controlled Hadamard on (control, target). */
     CH("ch", 1, 1, 0, Shape.DENSE, "ch", null, a -> Gates.H, null, "H"),
     /** {@code cphase(λ) = diag(1, 1, 1, e^{iλ})}, symmetric; OpenQASM {@code cp}. */
@@ -116,14 +116,14 @@ public enum Gate {
             CliffordSteps::crz, "RZ"),
     /** Swaps two qubits. */
     SWAP("swap", 0, 2, 0, Shape.PERMUTATION, "swap", null, a -> Gates.SWAP,
-            CliffordSteps.fixed(CliffordSteps.SWAP, 0, 1), "x"),
+            CliffordSteps.fixed(CliffordSteps.SWAP, 0, 1), "\u00d7"),
     /** The Ising coupling {@code rzz(θ) = exp(-iθ Z⊗Z/2)}; OpenQASM has no standard name. */
     RZZ("rzz", 0, 2, 1, Shape.DIAGONAL, null, "rzz", a -> Gates.rzz(a[0]), CliffordSteps::rzz,
             "RZZ"),
     /** Toffoli on (control1, control2, target); OpenQASM {@code ccx}. */
-    TOFFOLI("toffoli", 2, 1, 0, Shape.PERMUTATION, "ccx", null, a -> Gates.X, null, "(+)"),
+    TOFFOLI("toffoli", 2, 1, 0, Shape.PERMUTATION, "ccx", null, a -> Gates.X, null, "\u2295"),
     /** Fredkin (controlled SWAP) on (control, a, b); OpenQASM {@code cswap}. */
-    FREDKIN("fredkin", 1, 2, 0, Shape.PERMUTATION, "cswap", null, a -> Gates.SWAP, null, "x"),
+    FREDKIN("fredkin", 1, 2, 0, Shape.PERMUTATION, "cswap", null, a -> Gates.SWAP, null, "\u00d7"),
     /**
      * Any unitary given as a matrix, on as many targets as the matrix acts on. It has no fixed
      * matrix, angles, OpenQASM name or Clifford decomposition; its inverse is its adjoint.
@@ -466,9 +466,13 @@ public enum Gate {
     }
 
     /**
-     * Returns the drawing label of each target, such as {@code {"(+)"}} for {@link #CNOT}'s
-     * target, {@code {"RZ(pi/2)"}} or {@code {"x", "x"}} for {@link #SWAP}; controls are drawn
-     * by the drawing itself.
+     * Returns the drawing label of each target, in the textbook symbols of Nielsen and Chuang
+     * 2010, §4.3: {@code {"⊕"}} for the target of {@link #CNOT} and {@link #TOFFOLI},
+     * {@code {"×", "×"}} for the two ends of {@link #SWAP} and {@link #FREDKIN}, a filled dot
+     * {@code "●"} for each qubit of {@link #CZ} and for the first qubit of {@link #CPHASE}
+     * (whose second carries {@code "P(λ)"}); otherwise the name with its angles, such as
+     * {@code {"RZ(pi/2)"}}, and {@code "U"} (or {@code "U0"}, {@code "U1"}, ... for several
+     * targets) for {@link #UNITARY}. Controls are drawn by the drawing itself, as {@code "●"}.
      *
      * @param angles the angles
      * @param count the number of targets (used by {@link #UNITARY})
@@ -487,7 +491,7 @@ public enum Gate {
             out[j] = full;
         }
         if (this == CPHASE) {
-            out[0] = "@";
+            out[0] = "\u25cf";
         }
         return out;
     }

@@ -220,6 +220,45 @@ public final class Operator {
     }
 
     /**
+     * Returns this operator times a complex number, {@code z · M}: every entry multiplied by
+     * {@code z} (scalar multiplication, Nielsen and Chuang 2010, §2.1). A global phase
+     * ({@code scaled(Complex.ofCis(γ))}) keeps a unitary unitary; any other factor of modulus
+     * other than 1 makes an operator that the circuit builder refuses as a gate but that
+     * serves as an observable or a Kraus operator. Each entry is the product of two complex
+     * numbers, {@code (a + bi)(c + di) = (ac - bd) + (ad + bc)i}.
+     *
+     * @param z a finite complex number
+     * @return the scaled operator
+     * @throws IllegalArgumentException if {@code z} is not finite, or an entry of the product
+     *     is not (it overflows); the message names the entry, its value and {@code z}
+     */
+    public Operator scaled(Complex z) {
+        Objects.requireNonNull(z, "z");
+        double zr = z.getReal();
+        double zi = z.getImaginary();
+        if (!Double.isFinite(zr) || !Double.isFinite(zi)) {
+            throw new IllegalArgumentException("the factor must be finite but was " + z);
+        }
+        int d = dim;
+        double[] r = new double[2 * d * d];
+        for (int i = 0; i < d * d; i++) {
+            double ar = m[2 * i];
+            double ai = m[2 * i + 1];
+            double re = ar * zr - ai * zi;
+            double im = ar * zi + ai * zr;
+            if (!Double.isFinite(re) || !Double.isFinite(im)) {
+                throw new IllegalArgumentException("entry (" + i / d + ", " + i % d + ") "
+                        + Complex.ofCartesian(ar, ai) + " times " + z + " is not finite ("
+                        + Complex.ofCartesian(re, im) + "); an operator's entries must be"
+                        + " finite");
+            }
+            r[2 * i] = re;
+            r[2 * i + 1] = im;
+        }
+        return new Operator(qubits, r);
+    }
+
+    /**
      * Returns the conjugate transpose {@code U†}.
      *
      * @return the adjoint operator

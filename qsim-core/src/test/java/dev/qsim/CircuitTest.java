@@ -95,11 +95,16 @@ class CircuitTest {
         assertTrue(lines.get(2).startsWith("q1: "), d);
         assertTrue(lines.get(4).startsWith("q2: "), d);
         String q0 = lines.get(0);
-        assertTrue(q0.indexOf("H") < q0.indexOf("@") && q0.indexOf("@") < q0.indexOf("X[c2=1]"),
-                d);
+        // Textbook symbols (Nielsen and Chuang 2010, §4.3, Figure 4.2 and the figures of
+        // §4.3): a filled dot for the control, ⊕ for the NOT target.
+        assertTrue(q0.indexOf("H") < q0.indexOf("\u25cf")
+                && q0.indexOf("\u25cf") < q0.indexOf("X[c2=1]"), d);
         assertTrue(lines.get(2).contains("RZ(pi/4)"), d);
         assertTrue(lines.get(2).contains("|"), "the CNOT line crosses qubit 1: " + d);
-        assertTrue(lines.get(4).contains("(+)") && lines.get(4).contains("M>c2"), d);
+        assertTrue(lines.get(4).contains("\u2295") && lines.get(4).contains("M>c2"), d);
+        for (String old : new String[] {"@", "(+)"}) {
+            assertTrue(!d.contains(old), d);
+        }
         // Two one-qubit measurements in one column draw no line between them.
         String m = Circuit.builder(2).h(0).cnot(0, 1).measure().build().diagram();
         List<String> ml = m.lines().collect(java.util.stream.Collectors.toList());
@@ -109,6 +114,24 @@ class CircuitTest {
         assertEquals("3pi/4", Gate.angleText(3 * Math.PI / 4));
         assertEquals("-pi/2", Gate.angleText(-Math.PI / 2));
         assertEquals("0.3", Gate.angleText(0.3));
+    }
+
+    @Test
+    void diagramUsesTheTextbookSymbolsForControlsNotsAndSwaps() {
+        // Nielsen and Chuang 2010, §4.3: a control is a filled dot, the target of a NOT is ⊕
+        // (CNOT, Toffoli), the two ends of a swap are × joined by a line (SWAP, Fredkin);
+        // controlled-Z has a dot on both qubits. The drawing layout is the one of diagram().
+        Circuit c = Circuit.builder(3).cnot(0, 1).swap(1, 2).cz(0, 2).toffoli(0, 1, 2)
+                .fredkin(2, 0, 1).cphase(0, 1, Math.PI / 2).build();
+        // Read column by column: CNOT(0, 1), SWAP(1, 2), CZ(0, 2), Toffoli(0, 1 -> 2),
+        // Fredkin(2 -> 0, 1), cphase(0, 1).
+        assertEquals(String.join("\n",
+                "q0: --\u25cf-----\u25cf--\u25cf--\u00d7-----\u25cf-----",
+                "      |     |  |  |     |",
+                "q1: --\u2295--\u00d7--|--\u25cf--\u00d7--P(pi/2)--",
+                "         |  |  |  |",
+                "q2: -----\u00d7--\u25cf--\u2295--\u25cf-----------"),
+                c.diagram());
     }
 
     @Test

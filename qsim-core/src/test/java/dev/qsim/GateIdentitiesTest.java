@@ -44,6 +44,31 @@ class GateIdentitiesTest {
     }
 
     @Test
+    void scaledMultipliesEveryEntry() {
+        // Products of Pauli matrices, N&C 2010 eq. 2.40 (X Y = i Z and its cyclic forms): the
+        // scalar multiple of Z by i against the product computed by times().
+        Complex i = Complex.I;
+        same(Gates.X.times(Gates.Y), Gates.Z.scaled(i), 0, "XY = iZ");
+        same(Gates.Y.times(Gates.Z), Gates.X.scaled(i), 0, "YZ = iX");
+        same(Gates.Z.times(Gates.X), Gates.Y.scaled(i), 0, "ZX = iY");
+        // A global phase: S = e^{iπ/4} rz(π/2) (N&C 2010, sec. 4.2, S as a phase times a
+        // rotation about z).
+        same(Gates.S, Gates.rz(Math.PI / 2).scaled(Complex.ofCis(Math.PI / 4)), EXACT,
+                "S = e^{i pi/4} rz(pi/2)");
+        // Definition of scalar multiplication (N&C 2010, sec. 2.1): entry by entry.
+        Complex z = Complex.ofCartesian(0.3, -1.7);
+        Operator h = Gates.H.scaled(z);
+        for (int r = 0; r < 2; r++) {
+            for (int c = 0; c < 2; c++) {
+                Complex expected = Gates.H.get(r, c).multiply(z);
+                assertEquals(expected.getReal(), h.get(r, c).getReal(), 0.0);
+                assertEquals(expected.getImaginary(), h.get(r, c).getImaginary(), 0.0);
+            }
+        }
+        assertTrue(Gates.CNOT.scaled(Complex.ONE).equals(Gates.CNOT));
+    }
+
+    @Test
     void singleQubitConstantsHaveTheirTextbookMatrices() {
         // N&C 2010 sec. 4.2: I, X, Y, Z, H, S, T.
         same(DenseReference.i2(), Gates.I, 0, "I (N&C sec. 4.2)");

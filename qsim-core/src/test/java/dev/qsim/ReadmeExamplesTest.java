@@ -26,7 +26,10 @@ class ReadmeExamplesTest {
         StateVector psi = StateVector.zero(2).apply(bell.withoutMeasurements());
         assertEquals(Math.sqrt(0.5), psi.amplitude(3).getReal(), 1e-15);
         assertEquals(0.0, psi.amplitude(3).getImaginary(), 0.0);
-        assertTrue(bell.diagram().contains("(+)"), bell.diagram());
+        // The CNOT drawn as in Nielsen and Chuang 2010, §4.3: a dot on the control, ⊕ on the
+        // target.
+        assertTrue(bell.diagram().contains("\u25cf") && bell.diagram().contains("\u2295"),
+                bell.diagram());
     }
 
     @Test

@@ -25,6 +25,21 @@ class ValidationTest {
     }
 
     @Test
+    void scaledRefusesNonFiniteFactorsAndProducts() {
+        fails(IllegalArgumentException.class, () -> Gates.X.scaled(Complex.ofCartesian(
+                Double.NaN, 0)), "factor must be finite", "NaN");
+        fails(IllegalArgumentException.class, () -> Gates.X.scaled(Complex.ofCartesian(0,
+                Double.POSITIVE_INFINITY)), "Infinity");
+        Operator big = Operator.of(new Complex[][] {{Complex.ONE, Complex.ZERO},
+            {Complex.ZERO, Complex.ofCartesian(1e300, 0)}});
+        // 1e300 * 1e10 overflows a double (IEEE 754 binary64, largest finite about 1.8e308).
+        fails(IllegalArgumentException.class, () -> big.scaled(Complex.ofCartesian(1e10, 0)),
+                "entry (1, 1)", "(1.0E300,0.0)", "not finite");
+        assertEquals(1e300, big.get(1, 1).getReal(), 0.0, "the operator is unchanged");
+        assertThrows(NullPointerException.class, () -> Gates.X.scaled(null));
+    }
+
+    @Test
     void builderRefusesBadQubitsAndKeepsItsInstructions() {
         Circuit.Builder b = Circuit.builder(4).h(0);
         fails(IndexOutOfBoundsException.class, () -> b.h(5), "qubit 5", "[0, 3]");

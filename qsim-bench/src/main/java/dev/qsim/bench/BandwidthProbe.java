@@ -63,6 +63,22 @@ final class BandwidthProbe implements AutoCloseable {
         return a.length;
     }
 
+    /**
+     * The length the probe runs at next to a vector of {@code vectorQubits} qubits: the
+     * doubles of that vector, {@code 2^(vectorQubits+1)}, but at least
+     * {@link HeapBudget#MIN_PROBE_LENGTH} so that it measures main memory and not a cache, and
+     * at most {@link #capacity()}.
+     */
+    int lengthFor(int vectorQubits) {
+        return (int) lengthFor(vectorQubits, capacity());
+    }
+
+    /** {@link #lengthFor(int)} for a probe of {@code capacity} doubles. */
+    static long lengthFor(int vectorQubits, long capacity) {
+        final long state = vectorQubits >= 62 ? Long.MAX_VALUE : 2L << vectorQubits;
+        return Math.min(Math.max(state, HeapBudget.MIN_PROBE_LENGTH), capacity);
+    }
+
     /** Bytes one copy over {@code len} doubles moves: {@code 2 * 8 * len} (McCalpin 1995). */
     static long copyBytes(long len) {
         return 2 * Double.BYTES * len;

@@ -67,8 +67,8 @@ final class CircuitRows {
             final ReportRow row = new ReportRow(n, kernel, "all", settings.threads(), perGate[f],
                     bandwidth.copyGbps(), bandwidth.triadGbps(), precision);
             ReportRunner.finished(progress, String.format(Locale.ROOT, "%sn=%d %s (%s): %d gates,"
-                    + " %d runs in %.3f s, %.1f ns per gate", prefix, n, kernel, label, c.size(),
-                    t.reps(), t.nanos() / 1e9, perGate[f]), !warmUp);
+                    + " %s in %.3f s, %.1f ns per gate", prefix, n, kernel, label, c.size(),
+                    ReportRunner.count(t.reps(), "run"), t.nanos() / 1e9, perGate[f]), !warmUp);
             rows.add(row);
         }
         progress.note(String.format(Locale.ROOT, "%sn=%d fusion speed-up (%s): %.2fx"

@@ -13,9 +13,13 @@ import java.util.Locale;
  * measured.
  */
 final class CsvOutput implements AutoCloseable {
+    /** The first columns of {@link #HEADER} (for a help text of limited width). */
+    static final String HEADER_START = "n,kernel,target,threads,ns_per_gate,ns_per_amplitude,"
+            + "gb_per_s,copy_gb_per_s,";
+    /** The last columns of {@link #HEADER}. */
+    static final String HEADER_END = "triad_gb_per_s,fraction_of_copy,precision,ns_per_pass";
     /** The CSV header, exactly; the columns of {@link #line(ReportRow)} in this order. */
-    static final String HEADER = "n,kernel,target,threads,ns_per_gate,ns_per_amplitude,gb_per_s,"
-            + "copy_gb_per_s,triad_gb_per_s,fraction_of_copy,precision";
+    static final String HEADER = HEADER_START + HEADER_END;
 
     private final PrintStream stream;
     private final Path file;
@@ -76,15 +80,15 @@ final class CsvOutput implements AutoCloseable {
     }
 
     /**
-     * Formats a row in the order of {@link #HEADER}: {@code ns_per_gate} with one decimal,
-     * {@code ns_per_amplitude} with five, the bandwidths and {@code fraction_of_copy} with
-     * three, {@code Locale.ROOT} (a point for decimals).
+     * Formats a row in the order of {@link #HEADER}: {@code ns_per_gate} and
+     * {@code ns_per_pass} with one decimal, {@code ns_per_amplitude} with five, the bandwidths
+     * and {@code fraction_of_copy} with three, {@code Locale.ROOT} (a point for decimals).
      */
     static String line(ReportRow r) {
         final double gbps = r.gbps();
-        return String.format(Locale.ROOT, "%d,%s,%s,%d,%.1f,%.5f,%.3f,%.3f,%.3f,%.3f,%s", r.n(),
-                r.kernel(), r.target(), r.threads(), r.nanosPerGate(), r.nanosPerAmplitude(),
-                gbps, r.copyGbps(), r.triadGbps(), gbps / r.copyGbps(),
-                Workloads.precisionName(r.precision()));
+        return String.format(Locale.ROOT, "%d,%s,%s,%d,%.1f,%.5f,%.3f,%.3f,%.3f,%.3f,%s,%.1f",
+                r.n(), r.kernel(), r.target(), r.threads(), r.nanosPerGate(),
+                r.nanosPerAmplitude(), gbps, r.copyGbps(), r.triadGbps(), gbps / r.copyGbps(),
+                Workloads.precisionName(r.precision()), r.passNanos());
     }
 }

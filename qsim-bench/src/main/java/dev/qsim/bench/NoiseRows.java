@@ -76,8 +76,8 @@ final class NoiseRows {
             final ReportRow row = new ReportRow(n, "density-matrix", "mid", settings.threads(),
                     t.perRep(), bandwidth.copyGbps(), bandwidth.triadGbps(), vector, 2);
             progress.done(String.format(Locale.ROOT, "# n=%d density-matrix: gate and channel"
-                    + " %.1f ns (%d repetitions), %.3f GB/s", n, t.perRep(), t.reps(),
-                    row.gbps()));
+                    + " %.1f ns (%s), %.3f GB/s", n, t.perRep(),
+                    ReportRunner.count(t.reps(), "repetition"), row.gbps()));
             rows.add(row);
         }
         for (int n = Math.max(NOISE_TRAJECTORY_MIN, settings.min()); n <= settings.max(); n++) {
@@ -89,8 +89,8 @@ final class NoiseRows {
             final ReportRow row = new ReportRow(n, "trajectory", "ghz", settings.threads(),
                     t.perRep(), bandwidth.copyGbps(), bandwidth.triadGbps(), n, n);
             progress.done(String.format(Locale.ROOT, "# n=%d trajectory: %.3f s per trajectory"
-                    + " of a %d-gate noisy GHZ chain (%d trajectories)", n, t.perRep() / 1e9, n,
-                    t.reps()));
+                    + " of a %d-gate noisy GHZ chain (%s)", n, t.perRep() / 1e9, n,
+                    t.reps() == 1 ? "1 trajectory" : t.reps() + " trajectories"));
             rows.add(row);
         }
         return rows;
@@ -103,7 +103,7 @@ final class NoiseRows {
 
     /** Copy and triad of the probe over the bytes of a {@code vectorQubits} state (no line). */
     private ReportRunner.Bandwidth probe(int vectorQubits) {
-        final int len = (int) Math.min(2L << vectorQubits, probe.capacity());
+        final int len = probe.lengthFor(vectorQubits);
         final long targetNanos = settings.targetNanos();
         final double copyGbps = BandwidthProbe.copyBytes(len)
                 / BatchTimer.measure(r -> probe.timeCopy(len, r), targetNanos).perRep();

@@ -33,7 +33,8 @@ import dev.qsim.Precision;
         description = {
             "Times each gate kernel on states of min..max qubits next to a memory-bandwidth probe",
             "(copy and triad) measured in the same run.",
-            "CSV (" + CsvOutput.HEADER + ")",
+            "CSV (" + CsvOutput.HEADER_START,
+            "     " + CsvOutput.HEADER_END + ")",
             "on standard output or --csv FILE; progress on standard error."},
         optionListHeading = "",
         sortOptions = false,

@@ -49,6 +49,11 @@ final class ReportRunner {
         this.noise = new NoiseRows(settings, probe, progress);
     }
 
+    /** A count with its noun, plural unless the count is 1: "1 run", "3 runs". */
+    static String count(long n, String noun) {
+        return n + " " + (n == 1 ? noun : noun + "s");
+    }
+
     /**
      * Prints a measurement's line; a reported step ({@code counts}) advances the bar, a warm-up
      * line does not.
@@ -68,18 +73,18 @@ final class ReportRunner {
     List<ReportRow> size(int n, boolean warmUp) {
         final String prefix = warmUp ? "# warm-up (not reported) " : "# ";
         final long targetNanos = settings.targetNanos();
-        final int len = (int) Math.min(2L << n, probe.capacity());
+        final int len = probe.lengthFor(n);
         progress.show("n=" + n + " probe copy");
         final Timing copy = BatchTimer.measure(r -> probe.timeCopy(len, r), targetNanos);
         final double copyGbps = BandwidthProbe.copyBytes(len) / copy.perRep();
-        finished(progress, String.format(Locale.ROOT, "%sn=%d probe copy: %d doubles, %d"
-                + " repetitions in %.3f s, %.3f GB/s", prefix, n, len, copy.reps(),
+        finished(progress, String.format(Locale.ROOT, "%sn=%d probe copy: %d doubles, %s in"
+                + " %.3f s, %.3f GB/s", prefix, n, len, count(copy.reps(), "repetition"),
                 copy.nanos() / 1e9, copyGbps), !warmUp);
         progress.show("n=" + n + " probe triad");
         final Timing triad = BatchTimer.measure(r -> probe.timeTriad(len, r), targetNanos);
         final double triadGbps = BandwidthProbe.triadBytes(len) / triad.perRep();
-        finished(progress, String.format(Locale.ROOT, "%sn=%d probe triad: %d doubles, %d"
-                + " repetitions in %.3f s, %.3f GB/s", prefix, n, len, triad.reps(),
+        finished(progress, String.format(Locale.ROOT, "%sn=%d probe triad: %d doubles, %s in"
+                + " %.3f s, %.3f GB/s", prefix, n, len, count(triad.reps(), "repetition"),
                 triad.nanos() / 1e9, triadGbps), !warmUp);
         sink += probe.sample(len - 1);
 

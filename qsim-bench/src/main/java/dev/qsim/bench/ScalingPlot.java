@@ -13,7 +13,7 @@ import dev.qsim.Precision;
 /**
  * Draws the scaling report as a self-contained SVG 1.1 document: time per gate (ns, logarithmic
  * y axis with a tick per decade) against qubit count, one polyline per kernel and precision, and
- * the bandwidth floor as a dashed line. Hand-written markup, no dependencies.
+ * the main-memory floor as a dashed line. Hand-written markup, no dependencies.
  *
  * <p>A kernel's point at {@code n} is its row for target {@code mid} if there is one, else the
  * arithmetic mean of {@code ns_per_gate} over the targets measured at that {@code n}. Rows in
@@ -21,7 +21,9 @@ import dev.qsim.Precision;
  * in the colour of the kernel's double-precision series but dashed, with hollow markers. The
  * floor at {@code n} is the time to move {@code 2 * 16 * 2^n} bytes at the copy bandwidth
  * measured at that {@code n}: {@code 32 * 2^n / copy_gb_per_s} nanoseconds (GB/s is bytes per
- * ns); when there are single-precision rows, a dotted second floor does the same for
+ * ns). The probe's arrays are always beyond the caches ({@link HeapBudget#MIN_PROBE_LENGTH}),
+ * so this is a main-memory floor at every {@code n}: a kernel whose state fits in a cache can
+ * run below it. When there are single-precision rows, a dotted second floor does the same for
  * {@code 2 * 8 * 2^n} bytes. Only state-vector gate rows (one pass over {@code 2^n}
  * amplitudes) set the floor; the noise rows' probe is measured at other sizes.
  */
@@ -219,8 +221,8 @@ final class ScalingPlot {
                     floorDashes(p)));
             // The single floor's label is shorter so it stays inside the legend box.
             sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\">%s</text>%n", lx + 40,
-                    ly + 10, p == Precision.SINGLE ? "bandwidth floor (single)"
-                    : "copy-bandwidth floor"));
+                    ly + 10, p == Precision.SINGLE ? "memory floor (single)"
+                    : "main-memory floor"));
             ly += 28;
         }
         sb.append("</g>\n");
@@ -228,9 +230,9 @@ final class ScalingPlot {
                 ? floors.containsKey(Precision.DOUBLE) ? "32 \u00b7 2^n bytes (16 \u00b7 2^n in"
                 + " single precision)" : "16 \u00b7 2^n bytes" : "32 \u00b7 2^n bytes";
         sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" font-size=\"11\""
-                + " fill=\"#666666\">floor: %s at the copy GB/s measured at each n; points:"
-                + " target mid, else the mean over targets</text>%n", LEFT, HEIGHT - 12,
-                floorBytes));
+                + " fill=\"#666666\">floor: %s at the main-memory copy GB/s of each n; a state"
+                + " in a cache can run below it; points: target mid, else the mean</text>%n",
+                LEFT - 80, HEIGHT - 12, floorBytes));
         sb.append("</svg>\n");
         return sb.toString();
     }

@@ -142,6 +142,20 @@ final class Workloads {
      * @throws IndexOutOfBoundsException if {@code target} is not a qubit of {@code n}
      */
     static Circuit kernelCircuit(String name, int n, int target) {
+        return kernelCircuitOf(name, n, target);
+    }
+
+    /**
+     * Whether the core keeps a kernel kind's gate in its lazy frame instead of applying it:
+     * {@code diagonal} ({@code rz}, a single-qubit phase) and {@code permutation} (X), which
+     * cost no pass over the state until a read settles the frame (docs/architecture.md, "The
+     * path of a gate", step 5). Their bandwidth is that of the settling read.
+     */
+    static boolean keptInFrame(String kernel) {
+        return kernel.equals("diagonal") || kernel.equals("permutation");
+    }
+
+    private static Circuit kernelCircuitOf(String name, int n, int target) {
         final Circuit.Builder b = Circuit.builder(n);
         if (name.equals("controlled")) {
             if (n < 2) {

@@ -45,6 +45,22 @@ class BandwidthProbeTest {
     }
 
     @ParameterizedTest
+    @CsvSource({
+        // capacity, vector qubits, length: the state's doubles 2^(n+1), but at least 2^24
+        // (beyond the caches, McCalpin 1995), at most the capacity
+        "16777216, 4, 16777216",
+        "16777216, 23, 16777216",
+        "33554432, 24, 33554432",
+        "67108864, 24, 33554432",
+        "1000, 4, 1000",
+        "16777216, 62, 16777216",
+    })
+    void lengthRunsBeyondTheCachesWithinTheCapacity(long capacity, int qubits, long length) {
+        // Only the length arithmetic: a probe of 2^24 doubles would allocate 384 MiB.
+        assertEquals(length, BandwidthProbe.lengthFor(qubits, capacity));
+    }
+
+    @ParameterizedTest
     @CsvSource({"0", "11"})
     void lengthOutOfRangeIsNamed(int len) {
         try (BandwidthProbe probe = new BandwidthProbe(10, 1)) {

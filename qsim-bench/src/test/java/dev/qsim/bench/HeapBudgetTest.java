@@ -41,11 +41,13 @@ class HeapBudgetTest {
         assertEquals(1216 * MIB, HeapBudget.heapNeeded(26, 1L << 24, 8));
         assertTrue(HeapBudget.roomy(26, 1L << 24, 1216 * MIB, 8));
         assertFalse(HeapBudget.roomy(26, 1L << 24, 1215 * MIB, 8));
-        // Small states are never shortened: 2^11 doubles at n = 10; the 256 MiB of room do not
-        // fit in a 256 MiB heap next to the state.
-        assertEquals(1L << 11, HeapBudget.probeLength(10, 512 * MIB, 16));
-        assertEquals(1L << 11, HeapBudget.probeLength(10, 256 * MIB, 16));
-        assertFalse(HeapBudget.roomy(10, 1L << 11, 256 * MIB, 16));
+        // Small states get the floor too, 2^24 doubles (not the 2^11 of a 10-qubit state), so
+        // the probe measures main memory and not a cache; 16 KiB + 2 KiB + 256 + 384 MiB fit in
+        // 1 GiB, not in 512 MiB.
+        assertEquals(1L << 24, HeapBudget.probeLength(10, 1024 * MIB, 16));
+        assertTrue(HeapBudget.roomy(10, 1L << 24, 1024 * MIB, 16));
+        assertEquals(1L << 24, HeapBudget.probeLength(10, 512 * MIB, 16));
+        assertFalse(HeapBudget.roomy(10, 1L << 24, 512 * MIB, 16));
         // The longest arrays Java allows: 2^30 doubles from n = 30 up.
         assertEquals(1L << 30, HeapBudget.probeLength(32, 1L << 50, 16));
     }

@@ -157,7 +157,9 @@ class ReportOptionsTest {
         String help = out.toString(StandardCharsets.UTF_8);
         assertTrue(help.startsWith("usage: java -Xmx8g -cp qsim-bench.jar"
             + " dev.qsim.bench.ScalingReport [options]"), help);
-        assertTrue(help.contains(CsvOutput.HEADER), help);
+        assertTrue(help.contains(CsvOutput.HEADER_START) && help.contains(CsvOutput.HEADER_END),
+                help);
+        assertEquals(CsvOutput.HEADER, CsvOutput.HEADER_START + CsvOutput.HEADER_END);
         // Every option with its default and range, and the exit status.
         for (String text : List.of("--min=N", "(default 10; 1..40)", "--max=N",
                 "(default 26; 1..40)", "--threads=T", "(default: available processors; 1..256)",

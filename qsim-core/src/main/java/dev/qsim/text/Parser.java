@@ -206,16 +206,22 @@ final class Parser {
             throw bit.at().error("a condition must test one bit, but '" + bit.name() + "' has "
                     + c.length);
         }
-        tokens.expect("==");
-        Token v = tokens.next();
         int value;
-        if (v.is("true") || (v.type == Type.NUMBER && v.text.equals("1"))) {
+        if (tokens.peek().is(")")) {
+            // A bit alone is a condition: true when it is 1 (OpenQASM 3, a bit converts to
+            // bool as bit != 0).
             value = 1;
-        } else if (v.is("false") || (v.type == Type.NUMBER && v.text.equals("0"))) {
-            value = 0;
         } else {
-            throw Tokens.error(v, "a bit can be compared only with 0, 1, true or false, not "
-                    + v.show());
+            tokens.expect("==");
+            Token v = tokens.next();
+            if (v.is("true") || (v.type == Type.NUMBER && v.text.equals("1"))) {
+                value = 1;
+            } else if (v.is("false") || (v.type == Type.NUMBER && v.text.equals("0"))) {
+                value = 0;
+            } else {
+                throw Tokens.error(v, "a bit can be compared only with 0, 1, true or false, not "
+                        + v.show());
+            }
         }
         tokens.expect(")");
         List<Statement> body = new ArrayList<>();

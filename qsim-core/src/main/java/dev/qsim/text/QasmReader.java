@@ -3,11 +3,14 @@ package dev.qsim.text;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
+import java.nio.file.InvalidPathException;
 import java.nio.file.Path;
+import java.util.Locale;
 import java.util.Objects;
 
 import dev.qsim.Circuit;
 import dev.qsim.Gates;
+import dev.qsim.internal.Checks;
 
 /**
  * Reads a circuit written in a gate-level subset of OpenQASM 3 (Cross et al. 2022, ACM
@@ -36,7 +39,8 @@ import dev.qsim.Gates;
  *   <li>{@code c[0] = measure q[0];}, {@code c = measure q;}, {@code measure q[0] -> c[0];},
  *       {@code reset q[0];}, {@code barrier ...;} (accepted, nothing recorded);</li>
  *   <li>{@code if (c[0] == 1) stmt} or {@code if (c[0] == 1) { ... }} on one bit, compared with
- *       {@code 0}, {@code 1}, {@code true} or {@code false};</li>
+ *       {@code 0}, {@code 1}, {@code true} or {@code false}, or alone, {@code if (c[0]) stmt},
+ *       which means {@code == 1} (a bit used as a condition is true when it is 1);</li>
  *   <li>{@code gate name(params) a, b { ... }} definitions of gate calls and {@code barrier},
  *       expanded where used;</li>
  *   <li>comments {@code //} to the end of the line and {@code /* ... *}{@code /}.</li>
@@ -67,17 +71,48 @@ public final class QasmReader {
      * @param text the program
      * @return the circuit, with as many qubits and clbits as the declarations add up to
      * @throws CircuitFormatException if the text is not in the subset or the circuit refuses a
-     *     statement; the message gives line and column
+     *     statement; the message gives line and column, and when the text is one line that
+     *     names an existing file or ends in {@code .qasm}, says to call {@link #read(Path)}
      */
     public static Circuit read(String text) {
         Objects.requireNonNull(text, "text");
-        // The lexer reads the whole text first; then the parser hands each statement to the
-        // expander as it ends, so that every problem is reported in text order.
-        Scope scope = new Scope();
-        Expander expander = new Expander(scope);
-        Syntax.Program program = new Parser(Lexer.tokens(text), scope, expander::ended)
-                .program();
-        return expander.build(program);
+        try {
+            // The lexer reads the whole text first; then the parser hands each statement to the
+            // expander as it ends, so that every problem is reported in text order.
+            Scope scope = new Scope();
+            Expander expander = new Expander(scope);
+            Syntax.Program program = new Parser(Lexer.tokens(text), scope, expander::ended)
+                    .program();
+            return expander.build(program);
+        } catch (CircuitFormatException e) {
+            if (looksLikeAFileName(text)) {
+                throw new CircuitFormatException(e.line(), e.column(), e.getMessage()
+                        .substring(e.getMessage().indexOf(": ") + 2) + "; the text '"
+                        + Checks.excerpt(text.strip()) + "' looks like a file name, but"
+                        + " read(String) reads program text: to read a file, call"
+                        + " QasmReader.read(Path.of(...))", e);
+            }
+            throw e;
+        }
+    }
+
+    /**
+     * Whether text that failed to read is one line naming a file: one that exists, or any
+     * name ending in {@code .qasm}.
+     */
+    static boolean looksLikeAFileName(String text) {
+        String t = text.strip();
+        if (t.isEmpty() || t.contains("\n") || t.contains(";")) {
+            return false;
+        }
+        if (t.toLowerCase(Locale.ROOT).endsWith(".qasm")) {
+            return true;
+        }
+        try {
+            return Files.isRegularFile(Path.of(t));
+        } catch (InvalidPathException e) {
+            return false;
+        }
     }
 
     /**

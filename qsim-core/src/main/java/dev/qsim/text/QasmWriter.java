@@ -17,16 +17,17 @@ import dev.qsim.Operator;
  * Stateless and thread-safe.
  *
  * <p>The qubits form one register {@code q}, the classical bits one register {@code c}. Angles
- * are written with {@link Double#toString(double)} (or as {@code pi}, {@code pi/2},
- * {@code pi/4}, {@code pi/8} and their negatives when exactly those doubles), so they read back
- * bitwise equal.
+ * are written exactly, as a multiple of pi ({@code 3*pi/4}) when they are exactly that double,
+ * else with {@link Double#toString(double)}, so they read back bitwise equal; the one exception
+ * is {@code -0.0}, written {@code 0} (see {@link #angle(double)}).
  *
  * <p>Round trip: for circuits of the builder's named gates ({@code h x y z s sDagger t tDagger
  * sqrtX sqrtXDagger rx ry rz phase cnot cz cphase swap toffoli fredkin}), measurements, resets,
  * conditioned blocks, and {@code controlled} gates whose operator is one of {@link Gates#X},
  * {@link Gates#Y}, {@link Gates#Z}, {@link Gates#H}, {@link Gates#S}, {@link Gates#S_DAGGER},
  * {@link Gates#T}, {@link Gates#T_DAGGER}, {@link Gates#SQRT_X} or {@link Gates#SWAP},
- * {@code QasmReader.read(QasmWriter.write(c)).equals(c)}. (A controlled gate whose operator
+ * {@code QasmReader.read(QasmWriter.write(c)).equals(c)} (an angle of {@code -0.0} reads back
+ * as {@code +0.0}). (A controlled gate whose operator
  * equals such a constant only in value, such as the adjoint of {@link Gates#H} with its signed
  * zeros, is written with the constant's name and so reads back equal in value.) Other instructions
  * are written as
@@ -205,18 +206,51 @@ public final class QasmWriter {
         return sb.append(')').toString();
     }
 
-    /** An angle that reads back bitwise equal. */
+    /** The largest denominator of a multiple of pi written as a fraction: {@value}. */
+    static final int PI_DENOMINATOR = 16;
+    /** The largest multiple of pi written as a fraction, in either sign: {@value}. */
+    static final int PI_MULTIPLE = 4;
+
+    /**
+     * Writes an angle so that it reads back as the same double, in the shortest exact form:
+     *
+     * <ul>
+     *   <li>{@code 0} for both zeros. {@code -0.0} reads back as {@code +0.0}: the one change
+     *       the writer makes, since the two give the same rotation and {@code -0.0} in a
+     *       program only puzzles its reader;</li>
+     *   <li>a multiple of pi, {@code k*pi/d} with {@code d <= }{@value #PI_DENOMINATOR} and
+     *       {@code |k/d| <= }{@value #PI_MULTIPLE} in lowest terms ({@code pi}, {@code -pi/2},
+     *       {@code 3*pi/4}, {@code 2*pi}), when {@code x} is exactly the double the reader
+     *       computes from that text (left to right: {@code 3*pi} first, then {@code /4});</li>
+     *   <li>otherwise {@link Double#toString(double)}, which reads back as the same double.
+     *       No shorter decimal is chosen when it would be a different double: an angle of
+     *       {@code 0.39999999999999997} (as a decomposition into {@code U} can produce for an
+     *       operator made with 0.4) is not 0.4, and writing 0.4 would change the circuit. The
+     *       writer keeps every circuit exact and leaves rounding to the caller.</li>
+     * </ul>
+     */
     static String angle(double x) {
-        String[] names = {"pi", "pi/2", "pi/4", "pi/8"};
-        double[] values = {Math.PI, Math.PI / 2, Math.PI / 4, Math.PI / 8};
-        for (int i = 0; i < names.length; i++) {
-            if (x == values[i]) {
-                return names[i];
-            }
-            if (x == -values[i]) {
-                return "-" + names[i];
+        if (x == 0) {
+            return "0";
+        }
+        for (int den = 1; den <= PI_DENOMINATOR; den++) {
+            for (int num = 1; num <= PI_MULTIPLE * den; num++) {
+                if (gcd(num, den) != 1) {
+                    continue;
+                }
+                // The value the reader computes from the text, operations left to right.
+                double v = num == 1 ? Math.PI : num * Math.PI;
+                v = den == 1 ? v : v / den;
+                if (Math.abs(x) == v) {
+                    String text = (num == 1 ? "" : num + "*") + "pi" + (den == 1 ? "" : "/" + den);
+                    return x < 0 ? "-" + text : text;
+                }
             }
         }
         return Double.toString(x);
+    }
+
+    private static int gcd(int a, int b) {
+        return b == 0 ? a : gcd(b, a % b);
     }
 }

@@ -121,6 +121,40 @@ class QasmReaderTest {
     }
 
     @Test
+    void aBitAloneIsAConditionOnOne() {
+        // OpenQASM 3 specification, "Classical types": a bit converts to bool as bit != 0, so
+        // if (c[0]) means if (c[0] == 1).
+        Circuit read = QasmReader.read(HEAD + "qubit[2] q;\nbit[2] c;\nc[0] = measure q[0];\n"
+                + "if (c[0]) x q[1];\nif (c[1]) { z q[1]; h q[0]; }\n");
+        Circuit hand = Circuit.builder(2).measure(0, 0).ifBit(0, 1, b -> b.x(1))
+                .ifBit(1, 1, b -> b.z(1).h(0)).build();
+        assertEquals(hand, read);
+        CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                () -> QasmReader.read(HEAD + "qubit[1] q;\nbit[1] c;\nif (c[0] x q[0];\n"));
+        assertTrue(e.getMessage().contains("expected '=='"), e.getMessage());
+    }
+
+    @Test
+    void aFileNameGivenAsTextSaysToReadThePath(@org.junit.jupiter.api.io.TempDir
+            java.nio.file.Path dir) throws java.io.IOException {
+        java.nio.file.Path file = dir.resolve("bell.txt");
+        java.nio.file.Files.writeString(file, HEAD + "qubit[2] q;\nh q[0];\n");
+        for (String text : new String[] {file.toString(), "circuits/bell.qasm",
+            "  circuits\\bell.QASM  "}) {
+            CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                    () -> QasmReader.read(text));
+            assertTrue(e.getMessage().contains("looks like a file name")
+                    && e.getMessage().contains("QasmReader.read(Path.of(...))"), e.getMessage());
+            assertTrue(e.getMessage().startsWith("line 1, column "), e.getMessage());
+        }
+        assertEquals(QasmReader.read(file), QasmReader.read(java.nio.file.Files.readString(file)));
+        // Program text that fails for another reason gets no such hint.
+        CircuitFormatException other = assertThrows(CircuitFormatException.class,
+                () -> QasmReader.read(HEAD + "qubit[2] q;\nfoo q[0];\n"));
+        assertTrue(!other.getMessage().contains("file name"), other.getMessage());
+    }
+
+    @Test
     void userGatesExpandWithTheirParameters() {
         Circuit read = QasmReader.read(HEAD + "gate bell a, b { h a; cx a, b; }\n"
                 + "gate turn(theta, phi) a { rz(theta / 2) a; ry(phi - theta) a; }\n"

@@ -228,12 +228,67 @@ class QasmWriterTest {
 
     @Test
     void angleTextReadsBackBitwise() {
-        // Double.toString gives the shortest decimal that reads back to the same double
-        // (Java SE 17 API, Double.toString); pi fractions are exact halvings.
-        double[] xs = {Math.PI, -Math.PI / 8, 1e-300, -0.0, 0.1 + 0.2, Math.nextUp(1.0)};
+        // Double.toString gives a decimal that reads back to the same double (Java SE 17 API,
+        // Double.toString); multiples of pi are written only when the reader's left-to-right
+        // arithmetic on the text gives the same double.
+        double[] xs = {Math.PI, -Math.PI / 8, 1e-300, 0.1 + 0.2, Math.nextUp(1.0),
+            0.39999999999999997, 3 * Math.PI / 4, Math.nextUp(Math.PI / 2)};
         for (double x : xs) {
             Circuit c = Circuit.builder(1, 0).rz(0, x).build();
             assertEquals(c, QasmReader.read(QasmWriter.write(c)), () -> "angle " + x);
+        }
+        // 0.39999999999999997 is a different double from 0.4 (IEEE 754: 0.4 is the nearest
+        // double to 2/5 and this is the one below it), so it stays as written.
+        assertEquals("0.39999999999999997", QasmWriter.angle(Math.nextDown(0.4)));
+        assertEquals("0.4", QasmWriter.angle(0.4));
+    }
+
+    @Test
+    void everyWrittenMultipleOfPiReadsBackAsTheSameDouble() {
+        // Each k*pi/d in lowest terms, d <= 16 and |k/d| <= 4, as the writer's own arithmetic
+        // and as the naive product k * (pi / d): whichever the writer prints must read back
+        // bitwise (the reader's arithmetic is the reference).
+        int pi = 0;
+        for (int den = 1; den <= QasmWriter.PI_DENOMINATOR; den++) {
+            for (int num = -QasmWriter.PI_MULTIPLE * den; num <= QasmWriter.PI_MULTIPLE * den;
+                    num++) {
+                for (double x : new double[] {num * Math.PI / den, num * (Math.PI / den)}) {
+                    String text = QasmWriter.angle(x);
+                    Circuit c = Circuit.builder(1, 0).rz(0, x).build();
+                    assertEquals(c, QasmReader.read(QasmWriter.write(c)), text);
+                    if (text.contains("pi")) {
+                        pi++;
+                    }
+                }
+            }
+        }
+        assertTrue(pi > 500, "multiples of pi written as such: " + pi);
+        assertEquals("pi", QasmWriter.angle(Math.PI));
+        assertEquals("-pi/2", QasmWriter.angle(-Math.PI / 2));
+        assertEquals("3*pi/4", QasmWriter.angle(3 * Math.PI / 4));
+        assertEquals("2*pi", QasmWriter.angle(2 * Math.PI));
+    }
+
+    @Test
+    void negativeZeroIsWrittenAsZero() {
+        // -0.0 and +0.0 give the same rotation: rz(0) is the identity (Nielsen and Chuang
+        // 2010, eq. 4.6), so the writer prints 0 for both and the angle reads back as +0.0.
+        assertEquals("0", QasmWriter.angle(-0.0));
+        assertEquals("0", QasmWriter.angle(0.0));
+        Circuit c = Circuit.builder(1, 0).u(0, 0.4, 0.0, -0.0).build();
+        String text = QasmWriter.write(c);
+        assertTrue(text.contains("U(0.4, 0, 0) q[0];"), text);
+        Circuit back = QasmReader.read(text);
+        assertEquals(0.0, back.instructions().get(0).angles()[2], 0.0);
+        assertEquals(Double.doubleToLongBits(0.0),
+                Double.doubleToLongBits(back.instructions().get(0).angles()[2]));
+        for (int r = 0; r < 2; r++) {
+            for (int col = 0; col < 2; col++) {
+                assertEquals(c.instructions().get(0).operator().get(r, col).getReal(),
+                        back.instructions().get(0).operator().get(r, col).getReal(), 0.0);
+                assertEquals(c.instructions().get(0).operator().get(r, col).getImaginary(),
+                        back.instructions().get(0).operator().get(r, col).getImaginary(), 0.0);
+            }
         }
     }
 }

@@ -180,7 +180,7 @@ public final class BellAndGhz {
             }
         }
 
-        Text.heading(out, Text.f("Tally: %,d shots, seed %d", shots, seed));
+        Text.heading(out, Text.f("Tally: %s, seed %d", Text.count(shots, "shot"), seed));
         long max = 0;
         for (long count : tally.outcomes().values()) {
             max = Math.max(max, count);
@@ -193,11 +193,12 @@ public final class BellAndGhz {
         }
         out.println();
         if (report.mixed() == 0) {
-            out.println(Text.f("All %,d shots read all zeros or all ones: the %s always agree.",
-                    shots, qubits == 2 ? "two huts" : "nodes"));
+            out.println(Text.f("%s all zeros or all ones: the %s always agree.", shots == 1
+                    ? "The one shot read" : Text.f("All %,d shots read", shots),
+                    qubits == 2 ? "two huts" : "nodes"));
         } else {
-            out.println(Text.f("%,d shots read a mixed outcome: the nodes disagreed.",
-                    report.mixed()));
+            out.println(Text.f("%s read a mixed outcome: the nodes disagreed.",
+                    Text.count(report.mixed(), "shot")));
         }
         return report;
     }

@@ -118,8 +118,8 @@ public final class EngineTour {
         Circuit small = lanterns(QUBITS);
         NoiseModel noise = labNoise();
         Text.title(out, "Orchard Street lab: the lantern circuit on every engine");
-        out.println(Text.f("%d qubits, %,d shots, seed %d; noise: depolarizing 0.01 / 0.02,"
-                + " readout 0.02 / 0.03", QUBITS, shots, seed));
+        out.println(Text.f("%d qubits, %s, seed %d; noise: depolarizing 0.01 / 0.02,"
+                + " readout 0.02 / 0.03", QUBITS, Text.count(shots, "shot"), seed));
         out.println(Text.f("%-15s  %-8s  %9s  %8s  %s", "engine", "noise", "all-same", "ms",
                 "why this engine"));
         Map<Simulator.Engine, Tally> tallies = new EnumMap<>(Simulator.Engine.class);
@@ -146,8 +146,8 @@ public final class EngineTour {
         Tally wideTally = cheapest.run(wide, shots);
         Text.heading(out, Text.f("%d lanterns, engine left to choose", WIDE_QUBITS));
         out.println(choice);
-        out.println(Text.f("all-same fraction: %.4f over %,d shots", agreement(wideTally),
-                wideTally.shots()));
+        out.println(Text.f("all-same fraction: %.4f over %s", agreement(wideTally),
+                Text.count(wideTally.shots(), "shot")));
         try {
             cheapest.run(Circuit.builder(WIDE_QUBITS).t(7).append(wide).build(), 1);
         } catch (IllegalArgumentException ex) {

@@ -263,8 +263,8 @@ public final class GroverSearch {
                     k == best ? "  <- best" : "").stripTrailing());
         }
 
-        Text.heading(out, Text.f("Tally after %d rounds: %,d shots, seed %d", best, shots,
-                seed));
+        Text.heading(out, Text.f("Tally after %s: %s, seed %d", Text.count(best, "round"),
+                Text.count(shots, "shot"), seed));
         List<Map.Entry<String, Long>> rows = new ArrayList<>(tally.outcomes().entrySet());
         rows.sort((a, b) -> Long.compare(b.getValue(), a.getValue()));
         long max = rows.isEmpty() ? 0 : rows.get(0).getValue();
@@ -283,12 +283,13 @@ public final class GroverSearch {
             }
         }
         if (rows.size() > TALLY_ROWS) {
-            out.println(Text.f("(%d other settings: %d shots in all)", rows.size() - TALLY_ROWS,
-                    rest));
+            out.println(Text.f("(%s: %s in all)", Text.count(rows.size() - TALLY_ROWS,
+                    "other setting"), Text.count(rest, "shot")));
         }
         out.println();
-        out.println(Text.f("Right setting read in %,d of %,d shots (%.2f%%); predicted %.2f%%.",
-                result.hits(), shots, 100.0 * result.hits() / shots, 100 * success[best]));
+        out.println(Text.f("Right setting read in %,d of %s (%.2f%%); predicted %.2f%%.",
+                result.hits(), Text.count(shots, "shot"), 100.0 * result.hits() / shots,
+                100 * success[best]));
         return result;
     }
 

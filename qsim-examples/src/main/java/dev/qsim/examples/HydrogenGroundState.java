@@ -89,6 +89,27 @@ public final class HydrogenGroundState {
     }
 
     /**
+     * Writes a Hamiltonian for the report: each weight to six decimals with trailing zeros
+     * dropped (the integrals have four), signs between the terms, as in
+     * {@code -0.339289 I - 0.394325 Z0 + 0.1813 X0 X1}. ({@link Observable#toString()} writes
+     * every digit of each double, such as {@code 0.01122500000000004}.)
+     *
+     * @param h the observable
+     * @return the text
+     */
+    static String terms(Observable h) {
+        StringBuilder sb = new StringBuilder();
+        for (int k = 0; k < h.size(); k++) {
+            double w = h.weight(k);
+            String digits = new java.math.BigDecimal(Text.f("%.6f", Math.abs(w)))
+                    .stripTrailingZeros().toPlainString();
+            sb.append(k == 0 ? (w < 0 ? "-" : "") : (w < 0 ? " - " : " + ")).append(digits)
+                    .append(' ').append(h.product(k));
+        }
+        return sb.length() == 0 ? "0" : sb.toString();
+    }
+
+    /**
      * Returns the one-parameter ansatz {@code CNOT(0→1)·ry(θ) on qubit 0}; θ = 0 is the
      * Hartree-Fock determinant {@code |00>}.
      *
@@ -128,7 +149,7 @@ public final class HydrogenGroundState {
         Observable h = hamiltonian();
         TunableCircuit ansatz = ansatz();
         Text.title(out, "H2 ground state, STO-3G, R = 1.4 bohr, two qubits");
-        out.println("H = " + h);
+        out.println("H = " + terms(h));
         out.println();
         out.println(" iter   energy (Ha)        |gradient|");
         SteepestDescent.Objective f = new SteepestDescent.Objective() {
@@ -154,9 +175,11 @@ public final class HydrogenGroundState {
                 r.value()));
         out.println(Text.f("correlation energy         %.6f Ha   (textbook -0.0206)",
                 r.value() - hf));
-        out.println(Text.f("theta = %.6f after %d iterations", r.x()[0], r.iterations()));
-        out.println(Text.f("from %d shots per setting  %.6f ± %.6f Ha (%d settings, seed %d)",
-                shots, estimate.value(), estimate.standardError(), estimate.settings(), seed));
+        out.println(Text.f("theta = %.6f after %s", r.x()[0], Text.count(r.iterations(),
+                "iteration")));
+        out.println(Text.f("from %s per setting  %.6f ± %.6f Ha (%s, seed %d)",
+                Text.count(shots, "shot"), estimate.value(), estimate.standardError(),
+                Text.count(estimate.settings(), "setting"), seed));
         return new Result(r.value(), r.x()[0], r.iterations(), hf, estimate);
     }
 

@@ -1,6 +1,11 @@
 package dev.qsim.examples;
 
+import java.io.Console;
+import java.io.FileDescriptor;
+import java.io.FileOutputStream;
 import java.io.PrintStream;
+import java.nio.charset.Charset;
+import java.nio.charset.StandardCharsets;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Objects;
@@ -13,6 +18,7 @@ import dev.qsim.examples.cli.Cli;
  * <p>{@code java -jar qsim-examples.jar} runs the main demo ({@link UniformSuperposition});
  * {@code java -jar qsim-examples.jar NAME [ARGS...]} runs one example by its short name;
  * {@code list} prints the names with a line on each; {@code --help} prints the usage;
+ * {@code --version} the version ({@link Version#text()});
  * {@code run}, {@code state}, {@code draw}, {@code compare} and {@code scale} are the
  * subcommands of the circuit-file tool ({@link Cli}), each with its own {@code --help}. An unknown
  * name or a bad argument prints a message on standard error and ends with exit code
@@ -87,11 +93,30 @@ public final class Main {
      * @param args an example name and its arguments, {@code list}, {@code --help}, or nothing
      */
     public static void main(String[] args) {
-        int code = run(args, System.out, System.err);
-        System.out.flush();
+        Charset charset = outputCharset();
+        PrintStream out = new PrintStream(new FileOutputStream(FileDescriptor.out), true,
+                charset);
+        PrintStream err = new PrintStream(new FileOutputStream(FileDescriptor.err), true,
+                charset);
+        int code = run(args, out, err);
+        out.flush();
+        err.flush();
         if (code != EXIT_OK) {
             System.exit(code);
         }
+    }
+
+    /**
+     * The encoding of the output: the console's when it can write the drawings' symbols (a
+     * filled dot, a circled plus, a cross), otherwise UTF-8 (output to a file or pipe, or a
+     * console whose locale claims plain ASCII, as a POSIX "C" locale does).
+     */
+    static Charset outputCharset() {
+        Console console = System.console();
+        if (console != null && console.charset().newEncoder().canEncode("\u25cf\u2295\u00d7")) {
+            return console.charset();
+        }
+        return StandardCharsets.UTF_8;
     }
 
     /**
@@ -121,6 +146,10 @@ public final class Main {
                 return EXIT_OK;
             case "list":
                 list(out);
+                return EXIT_OK;
+            case "--version":
+            case "-V":
+                out.println(Version.text());
                 return EXIT_OK;
             default:
                 break;
@@ -192,7 +221,7 @@ public final class Main {
     private static void usage(PrintStream out) {
         out.println("Usage: java -jar qsim-examples.jar [NAME [ARGS...]]");
         out.println("       java -jar qsim-examples.jar list");
-        out.println("       java -jar qsim-examples.jar --help");
+        out.println("       java -jar qsim-examples.jar --help | --version");
         out.println("       java -jar qsim-examples.jar COMMAND [OPTIONS] (COMMAND --help for"
                 + " details)");
         out.println();
@@ -213,7 +242,7 @@ public final class Main {
         out.println("  state    print the state vector or probabilities of a small circuit");
         out.println("  draw     draw a circuit as text or SVG");
         out.println("  compare  compare a tally file with a circuit's ideal prediction");
-        out.println("  scale    time per gate against qubit count");
+        out.println("  scale    time per gate against qubit count (--min, --max)");
         out.println();
         out.println("Exit codes: " + EXIT_OK + " success, " + Cli.EXIT_MISMATCH
                 + " comparison failed (compare --require-match), " + EXIT_USAGE

@@ -184,7 +184,8 @@ public final class MaxCutQaoa {
         out.println(Text.f("expected cut at the optimum  %.6f of %d links", -r.value(),
                 EDGES.length));
         out.println(Text.f("best sampled cut             %d (split %s, shift bit k = hut k),"
-                + " seen in %d of %d shots, seed %d", best, bestSplit, hits, shots, seed));
+                + " seen in %d of %s, seed %d", best, bestSplit, hits, Text.count(shots, "shot"),
+                seed));
         out.println(Text.f("brute-force maximum cut      %d (all %d splits)", max, 1 << NODES));
         out.println(best == max ? "the sampled best is a maximum cut"
                 : "the sampled best falls short of the maximum");

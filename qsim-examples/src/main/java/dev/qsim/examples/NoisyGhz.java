@@ -15,7 +15,7 @@ import dev.qsim.noise.NoiseModel;
  * A GHZ preparation on a noisy six-qubit chip: the ideal prediction, the exact density-matrix
  * prediction and the Monte Carlo trajectory prediction side by side.
  *
- * <p><b>Scenario (invented).</b> The Fernhollow test bench holds "Wren-6", a six-qubit chip on
+ * <p><b>Scenario (invented).</b> The Fernhollow test bench holds "Verge-6", a six-qubit chip on
  * a line. Before booking bench time, its team wants to know how often a GHZ preparation will
  * read all zeros or all ones, given the chip's data sheet: per-qubit relaxation time T1,
  * coherence time T2 and readout errors, 40 ns single-qubit gates and 320 ns CNOTs with a
@@ -169,7 +169,7 @@ public final class NoisyGhz {
         Tally traj = noisy.withEngine(Simulator.Engine.TRAJECTORIES).run(measured, shots);
         Report report = new Report(ideal, exact, dm, traj, rho.fidelity(ghz));
 
-        Text.title(out, "Wren-6 on the Fernhollow bench: a noisy GHZ preparation");
+        Text.title(out, "Verge-6 on the Fernhollow bench: a noisy GHZ preparation");
         out.println("qubit   T1 us   T2 us   P(1|0)   P(0|1)");
         for (int q = 0; q < QUBITS; q++) {
             out.println(Text.f("%5d  %6.1f  %6.1f  %7.3f  %7.3f", q, T1[q], T2[q],
@@ -179,8 +179,8 @@ public final class NoisyGhz {
                 + "(two-qubit depolarizing %.3f)", ONE_QUBIT_TIME * 1000, ONE_QUBIT_ERROR,
                 CNOT_TIME * 1000, CNOT_ERROR));
 
-        Text.heading(out, Text.f("Predictions: %,d shots and %,d trajectories, seed %d", shots,
-                shots, seed));
+        Text.heading(out, Text.f("Predictions: %s and %s, seed %d", Text.count(shots, "shot"),
+                shots == 1 ? "1 trajectory" : Text.f("%,d trajectories", shots), seed));
         out.println(Text.f("%-7s  %6s  %15s  %9s  %13s", "outcome", "ideal", "density matrix",
                 "dm tally", "trajectories"));
         for (int i = 0; i < exact.length; i++) {

@@ -14,7 +14,7 @@ import dev.qsim.Tally;
 /**
  * A repetition-code memory experiment on 801 qubits, run on the stabilizer engine.
  *
- * <p><b>Scenario (invented).</b> The Wrenfield lab's "Longboat" chip is a single line of 801
+ * <p><b>Scenario (invented).</b> The Hollybank lab's "Mainspring" chip is a single line of 801
  * qubits: 401 data qubits (even positions) with a check qubit between each neighbouring pair
  * (odd positions). The lab stores one logical qubit in the data line for ten rounds of checks
  * and wants to see where its checks fire when a few bit flips are planted on purpose.
@@ -240,9 +240,10 @@ public final class RepetitionMemory {
 
     private static void print(PrintStream out, Report report, long seed, int shots,
             double seconds) {
-        Text.title(out, "Longboat chip: repetition-code memory on " + QUBITS + " qubits");
-        out.println(Text.f("%d data qubits, %d check qubits, %d rounds, %,d shots, seed %d;"
-                + " stabilizer engine, %.2f s.", DATA, CHECKS, ROUNDS, shots, seed, seconds));
+        Text.title(out, "Mainspring chip: repetition-code memory on " + QUBITS + " qubits");
+        out.println(Text.f("%d data qubits, %d check qubits, %d rounds, %s, seed %d;"
+                + " stabilizer engine, %.2f s.", DATA, CHECKS, ROUNDS, Text.count(shots, "shot"),
+                seed, seconds));
 
         Text.heading(out, "Planted bit flips (round, data qubit)");
         StringBuilder list = new StringBuilder();
@@ -287,9 +288,9 @@ public final class RepetitionMemory {
                 quiet, CHECKS, total / (double) (shots * (long) ROUNDS * CHECKS)));
 
         Text.heading(out, "Data readout with the planted flips undone");
-        out.println(Text.f("all zeros: %,d shots, all ones: %,d shots, anything else: %,d.",
-                report.decodedZeros(), report.decodedOnes(),
-                shots - report.decodedZeros() - report.decodedOnes()));
+        out.println(Text.f("all zeros: %s, all ones: %s, anything else: %,d.",
+                Text.count(report.decodedZeros(), "shot"), Text.count(report.decodedOnes(),
+                "shot"), shots - report.decodedZeros() - report.decodedOnes()));
     }
 
     /** Reads {@code [seed [shots]]} and runs the experiment; for the launcher. */

@@ -16,10 +16,10 @@ import dev.qsim.Tally;
 /**
  * Teleporting one qubit's state with two classical bits and a shared Bell pair.
  *
- * <p><b>Scenario (invented).</b> In the Hollin Vale optics lab, the "Wick" bench prepares a
- * polarisation setting on its qubit and must hand it to the "Marram" bench across the room. The
+ * <p><b>Scenario (invented).</b> In the Hollin Vale optics lab, the "Arbor" bench prepares a
+ * polarisation setting on its qubit and must hand it to the "Bezel" bench across the room. The
  * two benches share one entangled pair and a two-wire signal cable, but no way to carry the qubit
- * itself. Wick measures twice and sends two bits; Marram applies X and/or Z depending on them.
+ * itself. Arbor measures twice and sends two bits; Bezel applies X and/or Z depending on them.
  *
  * <p><b>Method.</b> Quantum teleportation (C. H. Bennett, G. Brassard, C. Cr&eacute;peau,
  * R. Jozsa, A. Peres and W. K. Wootters, "Teleporting an unknown quantum state via dual classical
@@ -182,11 +182,11 @@ public final class Teleportation {
         requireFinite(theta, "theta");
         requireFinite(phi, "phi");
         Circuit.Builder builder = Circuit.builder(3, 3)
-                .ry(0, theta).rz(0, phi)          // Wick's message
+                .ry(0, theta).rz(0, phi)          // Arbor's message
                 .h(1).cnot(1, 2)                  // the shared pair
-                .cnot(0, 1).h(0)                  // Wick's Bell-basis rotation
+                .cnot(0, 1).h(0)                  // Arbor's Bell-basis rotation
                 .measure(0, 0).measure(1, 1)      // the two bits on the cable
-                .ifBit(1, 1, b -> b.x(2))         // Marram's corrections
+                .ifBit(1, 1, b -> b.x(2))         // Bezel's corrections
                 .ifBit(0, 1, b -> b.z(2));
         if (readReceiver) {
             builder.measure(2, 2);
@@ -227,7 +227,7 @@ public final class Teleportation {
         }
         Result result = new Result(theta, phi, tally, branches);
 
-        Text.title(out, "Hollin Vale optics lab: teleporting a setting from Wick to Marram");
+        Text.title(out, "Hollin Vale optics lab: teleporting a setting from Arbor to Bezel");
         out.println(Text.f("Message on qubit 0: rz(%.4f) ry(%.4f)|0>", phi, theta));
         out.println(Text.f("  = (%s)|0> + (%s)|1>", Text.complex(message[0]),
                 Text.complex(message[1])));
@@ -242,8 +242,8 @@ public final class Teleportation {
         out.println(Text.f("Branches seen: %d of 4; worst fidelity %.12f.", branches.size(),
                 result.worstFidelity()));
 
-        Text.heading(out, Text.f("Tally of qubit 2 read at the end: %,d shots, seed %d", shots,
-                seed));
+        Text.heading(out, Text.f("Tally of qubit 2 read at the end: %s, seed %d",
+                Text.count(shots, "shot"), seed));
         double measured = (double) result.receivedOnes() / shots;
         double expected = result.expectedOne();
         double error = Math.sqrt(expected * (1 - expected) / shots);

@@ -6,8 +6,9 @@ import java.util.Locale;
 import org.apache.commons.numbers.complex.Complex;
 
 /**
- * Small text helpers shared by the examples: bars, bitstrings and number formats. Everything is
- * plain ASCII so the output reads the same in any terminal encoding.
+ * Small text helpers shared by the examples: bars, bitstrings and number formats, all plain
+ * ASCII. (Circuit drawings, {@code Circuit.diagram()}, use the textbook symbols ●, ⊕ and ×;
+ * {@link Main#main} writes UTF-8 unless the console can show them in its own encoding.)
  */
 final class Text {
 
@@ -41,6 +42,14 @@ final class Text {
     /** Formats a complex number as {@code +0.707107 -0.000000i}, fixed width. */
     static String complex(Complex z) {
         return String.format(Locale.ROOT, "%+.6f %+.6fi", z.getReal(), z.getImaginary());
+    }
+
+    /**
+     * A count with its noun, plural unless the count is 1, digits grouped: {@code "1 shot"},
+     * {@code "2,000 shots"}.
+     */
+    static String count(long n, String noun) {
+        return f("%,d %s", n, n == 1 ? noun : noun + "s");
     }
 
     /** Formats with {@link Locale#ROOT}, so decimal points never depend on the machine. */

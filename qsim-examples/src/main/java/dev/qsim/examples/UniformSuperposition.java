@@ -15,7 +15,7 @@ import dev.qsim.Tally;
  * The main demo: a fairness check of a 32-sided quantum die.
  *
  * <p><b>Scenario (invented).</b> At the Saltmarsh Lane instrument lab, every morning begins with
- * the same check of the five-qubit "Wren" test chip: put each qubit into an equal superposition,
+ * the same check of the five-qubit "Fusee" test chip: put each qubit into an equal superposition,
  * read all five out a few thousand times, and ask whether the 32 outcomes turn up equally often.
  * A chip with a stuck or biased readout line fails the check.
  *
@@ -139,9 +139,9 @@ public final class UniformSuperposition {
         Result result = new Result(seed, shots, counts, test.getStatistic(), outcomes - 1,
                 test.getPValue());
 
-        Text.title(out, "Saltmarsh Lane instrument lab: morning fairness check of the Wren chip");
-        out.println(Text.f("H on each of %d qubits, then read all %d out; %,d shots, seed %d.",
-                QUBITS, QUBITS, shots, seed));
+        Text.title(out, "Saltmarsh Lane instrument lab: morning fairness check of the Fusee chip");
+        out.println(Text.f("H on each of %d qubits, then read all %d out; %s, seed %d.",
+                QUBITS, QUBITS, Text.count(shots, "shot"), seed));
         out.println(Text.f("Ideal: each of the %d outcomes has probability 1/%d (%,.1f shots).",
                 outcomes, outcomes, (double) shots / outcomes));
 

@@ -39,6 +39,12 @@ class HydrogenGroundStateTest {
         assertTrue(Math.abs(r.estimate().value() - r.energy())
                 <= 4 * r.estimate().standardError(), r.estimate()::toString);
         assertTrue(out.text().contains("    0  -1.116"), out.text());
+        // The weights by hand from the integrals above (Szabo and Ostlund 1996, §3.5.2):
+        // E00 = 2 h11 + J11 = -1.831, E11 = 2 h22 + J22 = -0.2537, E01 = h11 + h22 + J12 =
+        // -1.0648; c0 = ((E00 + E11)/2 + E01)/2 + 1/R = -0.3392893, c1 = (E00 - E11)/4 =
+        // -0.394325, c2 = ((E00 + E11)/2 - E01)/2 = 0.011225; printed to six decimals.
+        assertTrue(out.text().contains("H = -0.339289 I - 0.394325 Z0 - 0.394325 Z1"
+                + " + 0.011225 Z0 Z1 + 0.1813 X0 X1\n"), out.text());
         assertTrue(out.text().contains("variational minimum        -1.1372"), out.text());
     }
 

@@ -108,6 +108,28 @@ class MainTest {
         assertEquals("", r.err.text());
     }
 
+    @ParameterizedTest
+    @CsvSource({"uniform", "bell", "ghz", "teleport", "grover", "memory", "noisy-ghz",
+        "engines"})
+    void oneShotIsSingular(String name) {
+        // English plurals (common practice): "1 shot", never "1 shots".
+        Run r = new Run(name, "1", "1");
+        assertEquals(0, r.code, r.err.text());
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile("\\b1 (shots|settings|runs"
+                + "|rounds|trajectories|iterations|outcomes)\\b").matcher(r.out.text());
+        assertTrue(!m.find(), () -> m.group() + " in " + r.out.text());
+        assertTrue(r.out.text().contains("1 shot"), r.out.text());
+    }
+
+    @Test
+    void versionIsPrintedAtTheTop() {
+        Run r = new Run("--version");
+        assertEquals(0, r.code, r.err.text());
+        assertEquals(Version.text() + "\n", r.out.text());
+        assertTrue(r.out.text().matches("qsim \\d+\\.\\d+\\.\\d+(-SNAPSHOT)?\\n"),
+                r.out.text());
+    }
+
     @Test
     void bellRunsThePairThenTheRing() {
         Run r = new Run("bell", "5", "300");

@@ -43,7 +43,7 @@ class RepetitionMemoryTest {
                 .getPValue();
         assertTrue(p > 1e-3, "p = " + p);
         String text = out.text();
-        assertTrue(text.contains("Longboat") && text.contains("Planted bit flips"), text);
+        assertTrue(text.contains("Mainspring") && text.contains("Planted bit flips"), text);
         assertTrue(text.contains("anything else: 0."), text);
     }
 

@@ -8,6 +8,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Objects;
@@ -26,6 +27,7 @@ import dev.qsim.Precision;
 import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
+import dev.qsim.examples.Version;
 import dev.qsim.noise.Channel;
 import dev.qsim.noise.NoiseModel;
 import dev.qsim.stats.TallyComparison;
@@ -37,12 +39,19 @@ import dev.qsim.text.QasmReader;
  * compares a device's tally file with a circuit's ideal prediction. {@code Main} hands it the
  * arguments when the first one is a subcommand name ({@link #COMMANDS}).
  *
+ * <p>Every option value is checked as the command line is read ({@link OptionValues}) and every
+ * file before any work ({@link FileChecks}); a bad one is refused with one line on standard
+ * error that names it, says what is allowed and where to read more, such as
+ * {@code qsim-examples run: --shots: '0' is not a whole number from 1 to 10,000,000; see 'run
+ * --help'}. Results go to standard output; progress and what a command wrote to a file
+ * ({@code wrote h.svg (histogram of 2 outcomes)}) go to standard error.
+ *
  * <p>Exit codes: {@value #EXIT_OK} success, {@value #EXIT_MISMATCH} a comparison failed and
  * {@code --require-match} was given, {@value #EXIT_BAD_INPUT} bad input (unknown option, bad
- * value, unreadable or malformed file).
+ * value, unreadable or malformed file, a circuit too large to run).
  */
 @Command(name = "java -jar qsim-examples.jar", mixinStandardHelpOptions = true,
-        version = "qsim-examples tool 0.2",
+        versionProvider = Cli.VersionText.class,
         description = "Runs, draws and checks circuits written in OpenQASM 3.",
         subcommands = {Cli.Run.class, Cli.State.class, Cli.Draw.class, Cli.Compare.class,
             Cli.Scale.class})
@@ -60,11 +69,27 @@ public final class Cli implements Callable<Integer> {
     public static final int MAX_SHOTS = 10_000_000;
     /** The most qubits whose state {@code state} prints. */
     public static final int MAX_STATE_QUBITS = 16;
+    /** The most threads {@code --threads} takes (the core's limit). */
+    static final int MAX_THREADS = 256;
+    /** The most bootstrap resamples {@code compare --resamples} takes. */
+    static final int MAX_RESAMPLES = 1_000_000;
+    /** The most deviating outcomes {@code compare --top} lists. */
+    static final int MAX_TOP = 1_000;
+    /** The largest qubit count {@code scale} times. */
+    static final int MAX_SCALE_QUBITS = 30;
 
     @Spec
     private CommandLine.Model.CommandSpec spec;
 
     private Cli() {
+    }
+
+    /** The version every command prints for {@code --version}: {@link Version#text()}. */
+    static final class VersionText implements CommandLine.IVersionProvider {
+        @Override
+        public String[] getVersion() {
+            return new String[] {Version.text()};
+        }
     }
 
     /**
@@ -81,9 +106,9 @@ public final class Cli implements Callable<Integer> {
         PrintWriter e = new PrintWriter(err, true);
         CommandLine cl = new CommandLine(new Cli());
         cl.setOut(o).setErr(e);
+        cl.setParameterExceptionHandler(Cli::badOption);
         cl.setExecutionExceptionHandler((ex, line, parsed) -> {
-            String name = line.getCommandName();
-            line.getErr().println("qsim-examples " + name + ": " + message(ex));
+            line.getErr().println("qsim-examples " + line.getCommandName() + ": " + message(ex));
             line.getErr().flush();
             return EXIT_BAD_INPUT;
         });
@@ -91,6 +116,36 @@ public final class Cli implements Callable<Integer> {
         o.flush();
         e.flush();
         return code;
+    }
+
+    /**
+     * One line for a bad option or value: what is wrong, and the command's help to read; never
+     * the whole usage.
+     */
+    private static int badOption(CommandLine.ParameterException ex, String[] args) {
+        CommandLine line = ex.getCommandLine();
+        String name = line.getCommandName();
+        String what = ex.getMessage();
+        CommandLine.Model.ArgSpec arg = ex.getArgSpec();
+        if (ex.getCause() instanceof CommandLine.TypeConversionException && arg != null) {
+            String label = arg.isOption() ? ((CommandLine.Model.OptionSpec) arg).longestName()
+                    : arg.paramLabel();
+            what = label + ": " + ex.getCause().getMessage();
+        } else if (ex instanceof CommandLine.UnmatchedArgumentException) {
+            List<String> close = ((CommandLine.UnmatchedArgumentException) ex).getSuggestions();
+            List<String> unmatched = ((CommandLine.UnmatchedArgumentException) ex).getUnmatched();
+            if (name.equals("scale") && (unmatched.contains("--from")
+                    || unmatched.contains("--to"))) {
+                what += " (scale takes --min and --max, as the scaling report does)";
+            } else if (!close.isEmpty()) {
+                what += " (did you mean " + String.join(" or ", close) + "?)";
+            }
+        }
+        boolean top = line.getParent() == null;
+        line.getErr().println("qsim-examples" + (top ? "" : " " + name) + ": " + what
+                + "; see '" + (top ? "" : name + " ") + "--help'");
+        line.getErr().flush();
+        return EXIT_BAD_INPUT;
     }
 
     private static String message(Exception ex) {
@@ -121,6 +176,7 @@ public final class Cli implements Callable<Integer> {
     }
 
     static Circuit readCircuit(Path file) throws IOException {
+        FileChecks.requireInput(file, "a circuit file (OpenQASM 3, .qasm)");
         try {
             return QasmReader.read(file);
         } catch (IllegalArgumentException e) {
@@ -132,8 +188,26 @@ public final class Cli implements Callable<Integer> {
         Files.writeString(file, text, StandardCharsets.UTF_8);
     }
 
+    /** Writes an SVG picture and says on standard error what was written. */
+    static void writePicture(CommandLine.Model.CommandSpec spec, Path file, String svg,
+            String what) throws IOException {
+        write(file, svg);
+        spec.commandLine().getErr().println("wrote " + file + " (" + what + ")");
+        spec.commandLine().getErr().flush();
+    }
+
     static String f(String format, Object... args) {
         return String.format(Locale.ROOT, format, args);
+    }
+
+    /** A count with its noun, plural when the count is not 1: "1 outcome", "2 outcomes". */
+    static String count(long n, String noun) {
+        return f("%,d %s", n, n == 1 ? noun : noun + "s");
+    }
+
+    /** The library's thread count: every available processor. */
+    static int defaultThreads() {
+        return Simulator.seeded(0).threads();
     }
 
     /** Output formats of a tally. */
@@ -161,97 +235,114 @@ public final class Cli implements Callable<Integer> {
                             e.getValue() / (double) tally.shots(),
                             "#".repeat(Math.max(1, len))));
                 }
-                out.println(f("%d shots, %d distinct outcomes", tally.shots(),
-                        tally.outcomes().size()));
+                out.println(count(tally.shots(), "shot") + ", "
+                        + count(tally.outcomes().size(), "distinct outcome"));
         }
         out.flush();
     }
 
     /** {@code run}: simulate a circuit file. */
     @Command(name = "run", mixinStandardHelpOptions = true,
+            versionProvider = Cli.VersionText.class,
             description = "Runs an OpenQASM 3 circuit file for a number of shots and prints the"
                     + " tally of its classical bits.",
             footerHeading = "%nExamples:%n",
             footer = {
-                "  java -jar qsim-examples.jar run qsim-examples/demo/bell.qasm --shots 2000"
-                        + " --seed 7",
+                "  java -jar qsim-examples.jar run qsim-examples/demo/bell.qasm \\",
+                "      --shots 2000 --seed 7",
                 "  java -jar qsim-examples.jar run circuit.qasm --format json > tally.json",
                 "  java -jar qsim-examples.jar run circuit.qasm --svg histogram.svg",
-                "  java -jar qsim-examples.jar run qsim-examples/demo/ghz5.qasm --depolarizing"
-                        + " 0.01 --readout-error 0.02",
+                "  java -jar qsim-examples.jar run qsim-examples/demo/ghz5.qasm \\",
+                "      --depolarizing 0.01 --readout-error 0.02",
                 "%nWith noise, circuits of up to 10 qubits that measure only at the end run on"
                         + " a density matrix, others by trajectories, one per shot.",
                 "%nThe same seed gives the same tally. With --svg, bars of the ideal"
-                        + " probabilities stand beside the measured frequencies when the circuit"
-                        + " measures only at the end."})
+                        + " probabilities stand beside the simulated frequencies when the"
+                        + " circuit measures only at the end; the picture's title gives the"
+                        + " file, the seed and the noise."})
     static final class Run implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
         @Parameters(paramLabel = "FILE", description = "the OpenQASM 3 circuit file")
         Path file;
-        @Option(names = "--shots", defaultValue = "1000",
+        @Option(names = "--shots", defaultValue = "1000", paramLabel = "N",
+                converter = OptionValues.Shots.class,
                 description = "number of shots, 1 to 10,000,000 (default ${DEFAULT-VALUE})")
         int shots;
-        @Option(names = "--seed", defaultValue = "1",
-                description = "seed of the simulation (default ${DEFAULT-VALUE})")
+        @Option(names = "--seed", defaultValue = "1", converter = OptionValues.Seed.class,
+                description = "seed of the simulation, any 64-bit whole number (default"
+                        + " ${DEFAULT-VALUE})")
         long seed;
-        @Option(names = "--format", defaultValue = "table",
+        @Option(names = "--format", defaultValue = "table", paramLabel = "F",
+                converter = OptionValues.TallyFormat.class,
                 description = "table, csv or json (default ${DEFAULT-VALUE})")
         Format format;
         @Option(names = "--svg", paramLabel = "OUT.svg",
                 description = "also write the tally as an SVG histogram")
         Path svg;
-        @Option(names = "--threads", defaultValue = "1",
-                description = "threads of the simulation (default ${DEFAULT-VALUE})")
-        int threads;
+        @Option(names = "--threads", paramLabel = "T", converter = OptionValues.Threads.class,
+                description = "threads of the simulation, 1 to 256 (default: every available"
+                        + " processor, as the library)")
+        Integer threads;
         @Option(names = "--depolarizing", defaultValue = "0", paramLabel = "P",
+                converter = OptionValues.Probability.class,
                 description = "noise: a depolarizing channel of probability P after every one-"
-                        + "and two-qubit gate (default ${DEFAULT-VALUE}: none)")
+                        + " and two-qubit gate (default ${DEFAULT-VALUE}: none)")
         double depolarizing;
         @Option(names = "--readout-error", defaultValue = "0", paramLabel = "P",
+                converter = OptionValues.Probability.class,
                 description = "noise: each measured bit reads wrong with probability P"
                         + " (default ${DEFAULT-VALUE}: none)")
         double readoutError;
-        @Option(names = "--precision", defaultValue = "double",
-                description = "double or single: how amplitudes are stored; single halves the"
-                        + " memory (31 qubits in 16 GiB) at about seven digits (default"
-                        + " ${DEFAULT-VALUE}; noiseless runs only)")
-        String precision;
+        @Option(names = "--precision", defaultValue = "double", paramLabel = "double|single",
+                converter = OptionValues.Storage.class,
+                description = "how amplitudes are stored; single halves the memory (31 qubits"
+                        + " in 16 GiB) at about seven digits (default ${DEFAULT-VALUE};"
+                        + " noiseless runs only)")
+        Precision precision;
+
+        /** The thread count of the run: {@code --threads}, or the library's default. */
+        int threads() {
+            return threads == null ? defaultThreads() : threads;
+        }
 
         @Override
         public Integer call() throws IOException {
-            final Precision storage;
-            if (precision.equals("double")) {
-                storage = Precision.DOUBLE;
-            } else if (precision.equals("single")) {
-                storage = Precision.SINGLE;
-            } else {
-                throw new IllegalArgumentException("--precision must be double or single but was '"
-                        + precision + "'");
-            }
-            if (storage == Precision.SINGLE && (depolarizing != 0 || readoutError != 0)) {
+            boolean noisy = depolarizing != 0 || readoutError != 0;
+            if (precision == Precision.SINGLE && noisy) {
                 throw new IllegalArgumentException("--precision single applies to noiseless runs;"
                         + " noisy runs (--depolarizing, --readout-error) are in double precision");
             }
-            if (shots < 1 || shots > MAX_SHOTS) {
-                throw new IllegalArgumentException("--shots must be from 1 to " + MAX_SHOTS
-                        + " but was " + shots);
+            FileChecks.requireInput(file, "a circuit file (OpenQASM 3, .qasm)");
+            if (svg != null) {
+                FileChecks.requireOutput(svg, "--svg");
             }
             Circuit c = readCircuit(file);
             if (c.clbits() == 0) {
                 throw new IllegalArgumentException(file + ": the circuit declares no bit to"
                         + " measure into; add 'bit[n] c;' and 'c = measure q;'");
             }
+            int t = threads();
+            Simulator sim = Simulator.seeded(seed).withThreads(t);
+            if (noisy) {
+                sim = sim.withNoise(NoiseModel.builder()
+                        .afterOneQubitGates(Channel.depolarizing(depolarizing))
+                        .afterTwoQubitGates(Channel.twoQubitDepolarizing(depolarizing))
+                        .readoutError(readoutError, readoutError)
+                        .build());
+            } else {
+                sim = sim.withPrecision(precision);
+            }
             Tally tally;
-            Progress progress = Progress.start(spec.commandLine().getErr(), "running " + shots
-                    + " shots");
+            Progress progress = Progress.start(spec.commandLine().getErr(), "running "
+                    + count(shots, "shot"));
             try {
-                if (depolarizing != 0 || readoutError != 0) {
-                    tally = noisyRun(c, depolarizing, readoutError, seed, threads, shots);
-                } else {
-                    tally = Simulator.seeded(seed).withThreads(threads).withPrecision(storage)
-                            .run(c, shots);
-                }
+                tally = sim.run(c, shots);
+            } catch (IllegalArgumentException e) {
+                throw new IllegalArgumentException(file + ": " + e.getMessage(), e);
+            } catch (IllegalStateException e) {
+                throw new IllegalArgumentException(file + ": " + HeapAdvice.message(c, sim, shots,
+                        e), e);
             } finally {
                 progress.close();
             }
@@ -259,33 +350,28 @@ public final class Cli implements Callable<Integer> {
             if (svg != null) {
                 double[] predicted = null;
                 try {
-                    predicted = Simulator.seeded(seed).withThreads(threads).distribution(c);
+                    predicted = Simulator.seeded(seed).withThreads(t).distribution(c);
                 } catch (IllegalArgumentException e) {
                     predicted = null; // mid-circuit measurement: no exact prediction to draw
                 }
-                write(svg, SvgHistogram.draw(tally, predicted, file.getFileName()
-                        + ", " + shots + " shots, seed " + seed));
+                String noise = noisy ? f(", depolarizing %s, readout error %s",
+                        plain(depolarizing), plain(readoutError)) : ", noiseless";
+                SvgHistogram.Picture picture = SvgHistogram.draw(tally, predicted,
+                        file.getFileName() + ", seed " + seed + noise, "simulated");
+                writePicture(spec, svg, picture.svg(), picture.summary());
             }
             return EXIT_OK;
         }
     }
 
-    /**
-     * Runs with the noise options on the engine the simulator picks (a density matrix when the
-     * circuit is small and measures only at the end, otherwise Monte Carlo trajectories).
-     */
-    private static Tally noisyRun(Circuit c, double depolarizing, double readoutError, long seed,
-            int threads, int shots) {
-        NoiseModel model = NoiseModel.builder()
-                .afterOneQubitGates(Channel.depolarizing(depolarizing))
-                .afterTwoQubitGates(Channel.twoQubitDepolarizing(depolarizing))
-                .readoutError(readoutError, readoutError)
-                .build();
-        return Simulator.seeded(seed).withThreads(threads).withNoise(model).run(c, shots);
+    /** A number as typed: {@code 0.01}, not {@code 1.0E-2}. */
+    static String plain(double x) {
+        return java.math.BigDecimal.valueOf(x).stripTrailingZeros().toPlainString();
     }
 
     /** {@code state}: amplitudes or probabilities. */
     @Command(name = "state", mixinStandardHelpOptions = true,
+            versionProvider = Cli.VersionText.class,
             description = "Prints the state vector (or the probabilities) that a circuit's"
                     + " gates make from |0...0>, leaving out measurements at its end.",
             footerHeading = "%nExamples:%n",
@@ -301,17 +387,14 @@ public final class Cli implements Callable<Integer> {
         Path file;
         @Option(names = {"-p", "--probabilities"}, description = "print probabilities only")
         boolean probabilities;
-        @Option(names = "--cutoff", defaultValue = "1e-12",
-                description = "hide basis states of smaller probability (default"
-                        + " ${DEFAULT-VALUE})")
+        @Option(names = "--cutoff", defaultValue = "1e-12", paramLabel = "P",
+                converter = OptionValues.Cutoff.class,
+                description = "hide basis states of this probability or less, from 0 up to"
+                        + " (not including) 1 (default ${DEFAULT-VALUE})")
         double cutoff;
 
         @Override
         public Integer call() throws IOException {
-            if (!(cutoff >= 0 && cutoff < 1)) {
-                throw new IllegalArgumentException("--cutoff must be in [0, 1) but was "
-                        + cutoff);
-            }
             Circuit c = readCircuit(file);
             if (c.qubits() > MAX_STATE_QUBITS) {
                 throw new IllegalArgumentException(file + ": 'state' prints circuits of at most "
@@ -345,7 +428,7 @@ public final class Cli implements Callable<Integer> {
                             a.getImaginary(), p));
                 }
             }
-            out.println(f("%d of %d basis states shown", shown, s.dimension()));
+            out.println(f("%d of %s shown", shown, count(s.dimension(), "basis state")));
             out.flush();
             return EXIT_OK;
         }
@@ -361,11 +444,21 @@ public final class Cli implements Callable<Integer> {
 
     /** {@code draw}: text or SVG diagram. */
     @Command(name = "draw", mixinStandardHelpOptions = true,
+            versionProvider = Cli.VersionText.class,
             description = "Draws a circuit file as text, or as an SVG picture with --svg.",
             footerHeading = "%nExamples:%n",
             footer = {
                 "  java -jar qsim-examples.jar draw qsim-examples/demo/teleport.qasm",
-                "  java -jar qsim-examples.jar draw qsim-examples/demo/teleport.qasm --svg t.svg"})
+                "  java -jar qsim-examples.jar draw qsim-examples/demo/teleport.qasm \\",
+                "      --svg teleport.svg",
+                "%nSymbols: a control is a filled dot, a NOT target a circled plus, the ends of"
+                        + " a swap two crosses (Nielsen and Chuang 2010, section 4.3). In the SVG"
+                        + " picture each classical bit has a thin line of its own; a measurement"
+                        + " is a gauge on its qubit tagged with the bit it writes (->c2), and"
+                        + " gates run only when a bit has a value stand in a dashed frame tagged"
+                        + " with the condition (if c1=1).",
+                "%nThe text uses UTF-8 symbols. barrier statements are read but not kept: the"
+                        + " circuit model has no barrier, so no drawing shows one."})
     static final class Draw implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
@@ -377,32 +470,37 @@ public final class Cli implements Callable<Integer> {
 
         @Override
         public Integer call() throws IOException {
-            Circuit c = readCircuit(file);
-            PrintWriter out = spec.commandLine().getOut();
+            FileChecks.requireInput(file, "a circuit file (OpenQASM 3, .qasm)");
             if (svg != null) {
-                write(svg, SvgCircuit.draw(c, file.getFileName().toString()));
-                out.println("wrote " + svg);
-            } else {
-                out.println(c.diagram());
+                FileChecks.requireOutput(svg, "--svg");
             }
-            out.flush();
+            Circuit c = readCircuit(file);
+            if (svg != null) {
+                writePicture(spec, svg, SvgCircuit.draw(c, file.getFileName().toString()),
+                        "circuit of " + SvgCircuit.summary(c));
+            } else {
+                spec.commandLine().getOut().println(c.diagram());
+                spec.commandLine().getOut().flush();
+            }
             return EXIT_OK;
         }
     }
 
     /** {@code compare}: a tally file against a circuit's prediction. */
     @Command(name = "compare", mixinStandardHelpOptions = true,
+            versionProvider = Cli.VersionText.class,
             description = "Compares a tally file (CSV 'bits,count' or JSON) with the ideal"
                     + " outcome probabilities of a circuit file: total variation distance with a"
                     + " bootstrap interval, Hellinger distance, chi-square and G-test p-values,"
                     + " and the outcomes that deviate most.",
             footerHeading = "%nExamples:%n",
             footer = {
-                "  java -jar qsim-examples.jar compare qsim-examples/demo/ghz5-marlin.csv"
-                        + " --circuit qsim-examples/demo/ghz5.qasm",
-                "  java -jar qsim-examples.jar compare tally.json --circuit c.qasm --alpha 0.05"
-                        + " --require-match",
-                "  java -jar qsim-examples.jar compare tally.csv --circuit c.qasm --svg fit.svg",
+                "  java -jar qsim-examples.jar compare qsim-examples/demo/ghz5-pallet.csv \\",
+                "      --circuit qsim-examples/demo/ghz5.qasm",
+                "  java -jar qsim-examples.jar compare tally.json --circuit c.qasm \\",
+                "      --alpha 0.05 --require-match",
+                "  java -jar qsim-examples.jar compare tally.csv --circuit c.qasm \\",
+                "      --svg fit.svg",
                 "%nWith --require-match the exit code is 1 when the tally does not agree with"
                         + " the prediction at --alpha."})
     static final class Compare implements Callable<Integer> {
@@ -413,17 +511,21 @@ public final class Cli implements Callable<Integer> {
         @Option(names = "--circuit", required = true, paramLabel = "FILE",
                 description = "the OpenQASM 3 circuit whose prediction to compare with")
         Path circuitFile;
-        @Option(names = "--alpha", defaultValue = "0.01",
-                description = "significance level of the tests (default ${DEFAULT-VALUE})")
+        @Option(names = "--alpha", defaultValue = "0.01", converter = OptionValues.Alpha.class,
+                description = "significance level of the tests, between 0 and 1 (default"
+                        + " ${DEFAULT-VALUE})")
         double alpha;
-        @Option(names = "--seed", defaultValue = "1",
+        @Option(names = "--seed", defaultValue = "1", converter = OptionValues.Seed.class,
                 description = "seed of the bootstrap (default ${DEFAULT-VALUE})")
         long seed;
-        @Option(names = "--resamples", defaultValue = "1000",
-                description = "bootstrap resamples (default ${DEFAULT-VALUE})")
+        @Option(names = "--resamples", defaultValue = "1000", paramLabel = "N",
+                converter = OptionValues.Resamples.class,
+                description = "bootstrap resamples, 1 to 1,000,000 (default ${DEFAULT-VALUE})")
         int resamples;
-        @Option(names = "--top", defaultValue = "8",
-                description = "how many deviating outcomes to list (default ${DEFAULT-VALUE})")
+        @Option(names = "--top", defaultValue = "8", paramLabel = "K",
+                converter = OptionValues.Top.class,
+                description = "how many deviating outcomes to list, 0 to 1,000 (default"
+                        + " ${DEFAULT-VALUE})")
         int top;
         @Option(names = "--require-match",
                 description = "exit with code 1 when the comparison fails")
@@ -434,11 +536,10 @@ public final class Cli implements Callable<Integer> {
 
         @Override
         public Integer call() throws IOException {
-            if (!(alpha > 0 && alpha < 1)) {
-                throw new IllegalArgumentException("--alpha must be in (0, 1) but was " + alpha);
-            }
-            if (top < 0) {
-                throw new IllegalArgumentException("--top must be at least 0 but was " + top);
+            FileChecks.requireInput(tallyFile, "a tally file (CSV 'bits,count' or JSON)");
+            FileChecks.requireInput(circuitFile, "a circuit file (OpenQASM 3, .qasm)");
+            if (svg != null) {
+                FileChecks.requireOutput(svg, "--svg");
             }
             Tally tally = TallyFiles.read(tallyFile);
             Circuit c = readCircuit(circuitFile);
@@ -467,67 +568,72 @@ public final class Cli implements Callable<Integer> {
             out.print(cmp.report(top));
             out.flush();
             if (svg != null) {
-                write(svg, SvgHistogram.draw(tally, predicted, tallyFileName() + " vs "
-                        + circuitFile.getFileName() + f(" (TVD %.3f, %s at alpha %s)",
-                        cmp.distance(), cmp.passes() ? "pass" : "fail", alpha)));
+                SvgHistogram.Picture picture = SvgHistogram.draw(tally, predicted,
+                        tallyFile.getFileName() + " vs " + circuitFile.getFileName()
+                        + f(" (TVD %.3f, %s at alpha %s)", cmp.distance(),
+                        cmp.passes() ? "pass" : "fail", alpha), "measured");
+                writePicture(spec, svg, picture.svg(), picture.summary());
             }
             return requireMatch && !cmp.passes() ? EXIT_MISMATCH : EXIT_OK;
-        }
-
-        private String tallyFileName() {
-            return String.valueOf(tallyFile.getFileName());
         }
     }
 
     /** {@code scale}: time per gate against qubit count. */
     @Command(name = "scale", mixinStandardHelpOptions = true,
+            versionProvider = Cli.VersionText.class,
             description = "Times Hadamard layers on states of growing size and prints the time"
                     + " per gate against the qubit count (a quick scaling report; qsim-bench has"
-                    + " the careful JMH one).",
+                    + " the careful one, ScalingReport, with the same --min and --max).",
             footerHeading = "%nExamples:%n",
             footer = {
                 "  java -jar qsim-examples.jar scale",
-                "  java -jar qsim-examples.jar scale --from 10 --to 24 --threads 2"})
+                "  java -jar qsim-examples.jar scale --min 10 --max 24 --threads 2"})
     static final class Scale implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
-        @Option(names = "--from", defaultValue = "4",
-                description = "smallest qubit count (default ${DEFAULT-VALUE})")
-        int from;
-        @Option(names = "--to", defaultValue = "20",
-                description = "largest qubit count, at most 30 (default ${DEFAULT-VALUE})")
-        int to;
-        @Option(names = "--threads", defaultValue = "1",
-                description = "threads of the state (default ${DEFAULT-VALUE})")
-        int threads;
-        @Option(names = "--format", defaultValue = "table",
+        @Option(names = "--min", defaultValue = "4", paramLabel = "N",
+                converter = OptionValues.ScaleQubits.class,
+                description = "smallest qubit count, 1 to 30 (default ${DEFAULT-VALUE})")
+        int min;
+        @Option(names = "--max", defaultValue = "20", paramLabel = "N",
+                converter = OptionValues.ScaleQubits.class,
+                description = "largest qubit count, 1 to 30 (default ${DEFAULT-VALUE})")
+        int max;
+        @Option(names = "--threads", paramLabel = "T", converter = OptionValues.Threads.class,
+                description = "threads of the state, 1 to 256 (default: every available"
+                        + " processor, as the library)")
+        Integer threads;
+        @Option(names = "--format", defaultValue = "table", paramLabel = "F",
+                converter = OptionValues.TableFormat.class,
                 description = "table or csv (default ${DEFAULT-VALUE})")
         String format;
 
+        /** The thread count of the states: {@code --threads}, or the library's default. */
+        int threads() {
+            return threads == null ? defaultThreads() : threads;
+        }
+
         @Override
         public Integer call() {
-            if (from < 1 || to > 30 || from > to) {
-                throw new IllegalArgumentException("need 1 <= --from <= --to <= 30 but got"
-                        + " --from " + from + " --to " + to);
+            if (min > max) {
+                throw new IllegalArgumentException("--min " + min + " is greater than --max "
+                        + max + "; give --min at most --max");
             }
-            if (!format.equals("table") && !format.equals("csv")) {
-                throw new IllegalArgumentException("--format must be table or csv but was '"
-                        + format + "'");
-            }
-            PrintWriter out = spec.commandLine().getOut();
+            int t = threads();
             boolean csv = format.equals("csv");
+            PrintWriter out = spec.commandLine().getOut();
             out.println(csv ? "qubits,gates,ns_per_gate,ns_per_amplitude"
                     : f("%6s %8s %14s %18s", "qubits", "gates", "ns per gate",
                     "ns per amplitude"));
-            try (Progress p = Progress.start(spec.commandLine().getErr(), "timing", to - from
+            try (Progress p = Progress.start(spec.commandLine().getErr(), "timing", max - min
                     + 1)) {
-                for (int n = from; n <= to; n++) {
+                for (int n = min; n <= max; n++) {
                     Circuit.Builder b = Circuit.builder(n, 0);
                     for (int q = 0; q < n; q++) {
                         b.h(q);
                     }
                     Circuit layer = b.build();
-                    StateVector s = StateVector.zero(n).setThreads(threads);
+                    StateVector s = StateVector.zero(n).setThreads(t);
                     long warm = System.nanoTime();
                     do {
                         s.apply(layer); // warm-up, so the timing sees compiled code

@@ -3,10 +3,7 @@ package dev.qsim.examples.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.io.ByteArrayOutputStream;
 import java.io.IOException;
-import java.io.PrintStream;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Map;
@@ -19,7 +16,6 @@ import org.junit.jupiter.params.provider.ValueSource;
 import dev.qsim.Circuit;
 import dev.qsim.Simulator;
 import dev.qsim.Tally;
-import dev.qsim.examples.Main;
 import dev.qsim.stats.TallyFiles;
 import dev.qsim.text.QasmReader;
 
@@ -31,30 +27,13 @@ class CliTest {
     @TempDir
     Path dir;
 
-    /** One run of the launcher with captured streams. */
-    private static final class Run {
-        final int code;
-        final String out;
-        final String err;
-
-        Run(String... args) {
-            ByteArrayOutputStream o = new ByteArrayOutputStream();
-            ByteArrayOutputStream e = new ByteArrayOutputStream();
-            code = Main.run(args, new PrintStream(o, true, StandardCharsets.UTF_8),
-                    new PrintStream(e, true, StandardCharsets.UTF_8));
-            out = o.toString(StandardCharsets.UTF_8);
-            err = e.toString(StandardCharsets.UTF_8);
-        }
-
-        @Override
-        public String toString() {
-            return "exit " + code + "\nout:\n" + out + "\nerr:\n" + err;
-        }
+    private static ToolRun tool(String... args) {
+        return new ToolRun(args);
     }
 
     @Test
     void runPrintsTheSeededTallyInEveryFormat() throws IOException {
-        Run csv = new Run("run", DEMO + "bell.qasm", "--shots", "500", "--seed", "7", "--format",
+        ToolRun csv = tool("run", DEMO + "bell.qasm", "--shots", "500", "--seed", "7", "--format",
                 "csv");
         assertEquals(0, csv.code, csv::toString);
         Tally fromCsv = TallyFiles.read(csv.out);
@@ -63,10 +42,10 @@ class CliTest {
         Circuit bell = QasmReader.read(Path.of(DEMO + "bell.qasm"));
         assertEquals(Simulator.seeded(7).run(bell, 500), fromCsv);
         assertEquals(500, fromCsv.count("00") + fromCsv.count("11"));
-        Run json = new Run("run", DEMO + "bell.qasm", "--shots", "500", "--seed", "7",
+        ToolRun json = tool("run", DEMO + "bell.qasm", "--shots", "500", "--seed", "7",
                 "--format", "json");
         assertEquals(fromCsv, TallyFiles.read(json.out), json::toString);
-        Run table = new Run("run", DEMO + "bell.qasm", "--shots", "500", "--seed", "7");
+        ToolRun table = tool("run", DEMO + "bell.qasm", "--shots", "500", "--seed", "7");
         assertTrue(table.out.contains("500 shots, 2 distinct outcomes"), table::toString);
         assertTrue(table.out.contains(String.valueOf(fromCsv.count("00"))), table::toString);
         assertEquals("", table.err);
@@ -79,17 +58,17 @@ class CliTest {
                 + "bit[2] c;\nx q[0];\nc = measure q;\n");
         // Readout error 1 misreads every bit: |01> ("01") always reads "10" (definition of the
         // readout confusion matrix, common practice); on a density matrix and on trajectories.
-        Run flipped = new Run("run", file.toString(), "--shots", "300", "--readout-error", "1",
+        ToolRun flipped = tool("run", file.toString(), "--shots", "300", "--readout-error", "1",
                 "--format", "csv");
         assertEquals(0, flipped.code, flipped::toString);
         assertEquals(300, TallyFiles.read(flipped.out).count("10"), flipped::toString);
         // Depolarizing noise spreads the Bell outcomes beyond 00 and 11 (N&C 2010, sec. 8.3.4).
-        Run noisy = new Run("run", DEMO + "bell.qasm", "--shots", "4000", "--depolarizing",
+        ToolRun noisy = tool("run", DEMO + "bell.qasm", "--shots", "4000", "--depolarizing",
                 "0.2", "--format", "csv");
         assertEquals(0, noisy.code, noisy::toString);
         Tally t = TallyFiles.read(noisy.out);
         assertTrue(t.count("01") + t.count("10") > 0, noisy::toString);
-        Run bad = new Run("run", DEMO + "bell.qasm", "--depolarizing", "1.5");
+        ToolRun bad = tool("run", DEMO + "bell.qasm", "--depolarizing", "1.5");
         assertEquals(2, bad.code, bad::toString);
         assertTrue(bad.err.contains("1.5"), bad::toString);
     }
@@ -98,7 +77,7 @@ class CliTest {
     void runInSinglePrecision() throws IOException {
         // A Bell pair reads only 00 or 11 (Nielsen and Chuang 2010, sec. 1.3.6), whatever the
         // storage; the tally equals the library's for the same seed and precision.
-        Run single = new Run("run", DEMO + "bell.qasm", "--shots", "400", "--seed", "3",
+        ToolRun single = tool("run", DEMO + "bell.qasm", "--shots", "400", "--seed", "3",
                 "--precision", "single", "--format", "csv");
         assertEquals(0, single.code, single::toString);
         Tally t = TallyFiles.read(single.out);
@@ -106,11 +85,11 @@ class CliTest {
         Circuit bell = QasmReader.read(Path.of(DEMO + "bell.qasm"));
         assertEquals(Simulator.seeded(3).withPrecision(dev.qsim.Precision.SINGLE).run(bell, 400),
                 t);
-        Run bad = new Run("run", DEMO + "bell.qasm", "--precision", "half");
+        ToolRun bad = tool("run", DEMO + "bell.qasm", "--precision", "half");
         assertEquals(2, bad.code, bad::toString);
         assertTrue(bad.err.contains("'half'") && bad.err.contains("double or single"),
                 bad::toString);
-        Run noisy = new Run("run", DEMO + "bell.qasm", "--precision", "single",
+        ToolRun noisy = tool("run", DEMO + "bell.qasm", "--precision", "single",
                 "--depolarizing", "0.1");
         assertEquals(2, noisy.code, noisy::toString);
         assertTrue(noisy.err.contains("noiseless"), noisy::toString);
@@ -119,7 +98,7 @@ class CliTest {
     @Test
     void runWritesAHistogramWithThePrediction() throws IOException {
         Path svg = dir.resolve("h.svg");
-        Run r = new Run("run", DEMO + "ghz5.qasm", "--shots", "400", "--svg", svg.toString());
+        ToolRun r = tool("run", DEMO + "ghz5.qasm", "--shots", "400", "--svg", svg.toString());
         assertEquals(0, r.code, r::toString);
         String text = Files.readString(svg);
         assertTrue(text.startsWith("<?xml") && text.trim().endsWith("</svg>"), text);
@@ -131,15 +110,15 @@ class CliTest {
 
     @Test
     void compareGatesOnTheResultOnlyWhenAsked() {
-        Run fail = new Run("compare", DEMO + "ghz5-marlin.csv", "--circuit", DEMO + "ghz5.qasm",
+        ToolRun fail = tool("compare", DEMO + "ghz5-pallet.csv", "--circuit", DEMO + "ghz5.qasm",
                 "--require-match");
         assertEquals(Cli.EXIT_MISMATCH, fail.code, fail::toString);
         assertTrue(fail.out.contains("FAIL"), fail::toString);
         assertTrue(fail.out.contains("shots on impossible        335"), fail::toString);
-        Run report = new Run("compare", DEMO + "ghz5-marlin.csv", "--circuit",
+        ToolRun report = tool("compare", DEMO + "ghz5-pallet.csv", "--circuit",
                 DEMO + "ghz5.qasm");
         assertEquals(0, report.code, report::toString);
-        Run pass = new Run("compare", DEMO + "bell-marlin.json", "--circuit", DEMO + "bell.qasm",
+        ToolRun pass = tool("compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm",
                 "--require-match", "--alpha", "0.05");
         assertEquals(0, pass.code, pass::toString);
         assertTrue(pass.out.contains("PASS"), pass::toString);
@@ -148,7 +127,7 @@ class CliTest {
     @Test
     void compareWritesTheFitPicture() throws IOException {
         Path svg = dir.resolve("fit.svg");
-        Run r = new Run("compare", DEMO + "ghz5-marlin.csv", "--circuit", DEMO + "ghz5.qasm",
+        ToolRun r = tool("compare", DEMO + "ghz5-pallet.csv", "--circuit", DEMO + "ghz5.qasm",
                 "--svg", svg.toString());
         assertEquals(0, r.code, r::toString);
         String text = Files.readString(svg);
@@ -158,19 +137,19 @@ class CliTest {
 
     @Test
     void stateAndDraw() throws IOException {
-        Run s = new Run("state", DEMO + "bell.qasm");
+        ToolRun s = tool("state", DEMO + "bell.qasm");
         assertEquals(0, s.code, s::toString);
         // (|00> + |11>)/sqrt 2: amplitudes 1/sqrt 2 = 0.70710678 (Nielsen and Chuang 2010,
         // eq. 1.23).
         assertTrue(s.out.contains("00     +0.70710678  +0.00000000   0.50000000"), s::toString);
         assertTrue(s.out.contains("2 of 4 basis states shown"), s::toString);
-        Run p = new Run("state", DEMO + "bell.qasm", "--probabilities");
+        ToolRun p = tool("state", DEMO + "bell.qasm", "--probabilities");
         assertTrue(p.out.matches("(?s).*\\n11 +0\\.50000000\\n.*"), p::toString);
-        Run d = new Run("draw", DEMO + "teleport.qasm");
+        ToolRun d = tool("draw", DEMO + "teleport.qasm");
         assertEquals(0, d.code, d::toString);
         assertEquals(QasmReader.read(Path.of(DEMO + "teleport.qasm")).diagram() + "\n", d.out);
         Path svg = dir.resolve("c.svg");
-        Run ds = new Run("draw", DEMO + "teleport.qasm", "--svg", svg.toString());
+        ToolRun ds = tool("draw", DEMO + "teleport.qasm", "--svg", svg.toString());
         assertEquals(0, ds.code, ds::toString);
         String text = Files.readString(svg);
         assertTrue(text.contains("if c1=1") && text.contains("if c0=1"), text);
@@ -179,7 +158,8 @@ class CliTest {
 
     @Test
     void scalePrintsOneRowPerQubitCount() {
-        Run r = new Run("scale", "--from", "2", "--to", "4", "--format", "csv");
+        // --min and --max, the names the scaling report of qsim-bench uses.
+        ToolRun r = tool("scale", "--min", "2", "--max", "4", "--format", "csv");
         assertEquals(0, r.code, r::toString);
         String[] lines = r.out.split("\n");
         assertEquals(4, lines.length, r::toString);
@@ -190,7 +170,7 @@ class CliTest {
     @ParameterizedTest
     @ValueSource(strings = {"run", "state", "draw", "compare", "scale"})
     void everyCommandHasHelpWithExamples(String command) {
-        Run r = new Run(command, "--help");
+        ToolRun r = tool(command, "--help");
         assertEquals(0, r.code, r::toString);
         assertTrue(r.out.contains("Usage: java -jar qsim-examples.jar " + command), r::toString);
         assertTrue(r.out.contains("Examples:"), r::toString);
@@ -207,7 +187,8 @@ class CliTest {
         Object[][] cases = {
             {new String[] {"run", "missing.qasm"}, "file not found"},
             {new String[] {"run", bad.toString()}, "line 4, column 1: unknown gate 'foo'"},
-            {new String[] {"run", DEMO + "bell.qasm", "--shots", "0"}, "was 0"},
+            {new String[] {"run", DEMO + "bell.qasm", "--shots", "0"},
+                "--shots: '0' is not a whole number from 1 to 10,000,000"},
             {new String[] {"run", DEMO + "bell.qasm", "--shots", "many"}, "'many'"},
             {new String[] {"run", DEMO + "bell.qasm", "--format", "xml"}, "xml"},
             {new String[] {"run", DEMO + "bell.qasm", "--colour"}, "--colour"},
@@ -216,17 +197,18 @@ class CliTest {
                 "'0x'"},
             {new String[] {"compare", wide.toString(), "--circuit", DEMO + "bell.qasm"},
                 "3 bits"},
-            {new String[] {"compare", DEMO + "bell-marlin.json"}, "--circuit"},
-            {new String[] {"compare", DEMO + "bell-marlin.json", "--circuit",
+            {new String[] {"compare", DEMO + "bell-pallet.json"}, "--circuit"},
+            {new String[] {"compare", DEMO + "bell-pallet.json", "--circuit",
                 DEMO + "teleport.qasm"}, "predicts outcomes of 3 bits"},
-            {new String[] {"compare", DEMO + "bell-marlin.json", "--circuit", DEMO + "bell.qasm",
+            {new String[] {"compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm",
                 "--alpha", "1.5"}, "1.5"},
             {new String[] {"state", DEMO + "bell.qasm", "--cutoff", "-1"}, "-1"},
-            {new String[] {"scale", "--from", "9", "--to", "3"}, "--from 9"},
+            {new String[] {"scale", "--min", "9", "--max", "3"}, "--min 9 is greater than"},
+            {new String[] {"scale", "--from", "2"}, "(scale takes --min and --max"},
         };
         for (Object[] c : cases) {
             String[] args = (String[]) c[0];
-            Run r = new Run(args);
+            ToolRun r = tool(args);
             assertEquals(Cli.EXIT_BAD_INPUT, r.code, () -> String.join(" ", args) + "\n" + r);
             assertTrue(r.err.contains((String) c[1]), () -> String.join(" ", args) + "\n" + r);
         }
@@ -235,11 +217,11 @@ class CliTest {
     @Test
     void runReadsTalliesWrittenByItselfBackForCompare() throws IOException {
         Path json = dir.resolve("t.json");
-        Run r = new Run("run", DEMO + "ghz5.qasm", "--shots", "3000", "--seed", "3", "--format",
+        ToolRun r = tool("run", DEMO + "ghz5.qasm", "--shots", "3000", "--seed", "3", "--format",
                 "json");
         Files.writeString(json, r.out);
         // A noiseless simulated GHZ tally agrees with its own ideal prediction.
-        Run c = new Run("compare", json.toString(), "--circuit", DEMO + "ghz5.qasm",
+        ToolRun c = tool("compare", json.toString(), "--circuit", DEMO + "ghz5.qasm",
                 "--require-match");
         assertEquals(0, c.code, c::toString);
         assertEquals(Map.of("00000", true, "11111", true), Map.of(

@@ -1,4 +1,4 @@
-// A tilted 31-qubit cat state for the (invented) Fernhill Quantum Lab's 31-qubit Kestrel
+// A tilted 31-qubit cat state for the (invented) Fernhill Quantum Lab's 31-qubit Detent
 // register: ry(2 pi / 3) on qubit 0, then a CNOT chain. Ideally only all zeros (probability
 // cos^2(pi / 3) = 0.25) and all ones (0.75). 31 qubits need single precision on a 24 GiB
 // machine: run with --precision single and java -Xmx20g.

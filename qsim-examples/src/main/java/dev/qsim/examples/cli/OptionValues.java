@@ -1,0 +1,176 @@
+package dev.qsim.examples.cli;
+
+import java.math.BigInteger;
+import java.util.Locale;
+
+import picocli.CommandLine.ITypeConverter;
+import picocli.CommandLine.TypeConversionException;
+
+import dev.qsim.Precision;
+
+/**
+ * The tool's option values, read and checked as the command line is parsed, before any work:
+ * a value outside its range is refused with a message that names it and the range, such as
+ * {@code "99999999999 is not a whole number from 1 to 10,000,000"}; {@link Cli} puts the
+ * option's name in front.
+ */
+final class OptionValues {
+    private OptionValues() {
+    }
+
+    /** A whole number in {@code [min, max]}, refused with the range in words. */
+    static long whole(String text, long min, long max) {
+        String t = text.strip();
+        if (t.matches("[+-]?\\d+")) {
+            BigInteger v = new BigInteger(t);
+            if (v.compareTo(BigInteger.valueOf(min)) >= 0
+                    && v.compareTo(BigInteger.valueOf(max)) <= 0) {
+                return v.longValueExact();
+            }
+        }
+        throw new TypeConversionException("'" + text + "' is not a whole number from "
+                + grouped(min) + " to " + grouped(max));
+    }
+
+    /**
+     * A number from {@code min} to {@code max}, each end included unless {@code openBottom} or
+     * {@code openTop}; {@code what} names it in the refusal ("a probability").
+     */
+    static double decimal(String text, double min, double max, boolean openBottom,
+            boolean openTop, String what) {
+        double v;
+        try {
+            v = Double.parseDouble(text.strip());
+        } catch (NumberFormatException e) {
+            v = Double.NaN;
+        }
+        boolean ok = (openBottom ? v > min : v >= min) && (openTop ? v < max : v <= max);
+        if (!ok) {
+            String range = openBottom && openTop ? "between " + plain(min) + " and "
+                    + plain(max) + ", both excluded" : openTop ? "from " + plain(min)
+                    + " up to (not including) " + plain(max) : "from " + plain(min) + " to "
+                    + plain(max);
+            throw new TypeConversionException("'" + text + "' is not " + what + " " + range);
+        }
+        return v;
+    }
+
+    private static String grouped(long v) {
+        return String.format(Locale.ROOT, "%,d", v);
+    }
+
+    private static String plain(double v) {
+        return v == Math.rint(v) ? Long.toString((long) v) : Double.toString(v);
+    }
+
+    /** {@code --shots}: 1 to {@link Cli#MAX_SHOTS}. */
+    static final class Shots implements ITypeConverter<Integer> {
+        @Override
+        public Integer convert(String value) {
+            return (int) whole(value, 1, Cli.MAX_SHOTS);
+        }
+    }
+
+    /** {@code --seed}: any 64-bit whole number. */
+    static final class Seed implements ITypeConverter<Long> {
+        @Override
+        public Long convert(String value) {
+            return whole(value, Long.MIN_VALUE, Long.MAX_VALUE);
+        }
+    }
+
+    /** {@code --threads}: 1 to {@link Cli#MAX_THREADS}. */
+    static final class Threads implements ITypeConverter<Integer> {
+        @Override
+        public Integer convert(String value) {
+            return (int) whole(value, 1, Cli.MAX_THREADS);
+        }
+    }
+
+    /** A probability of noise, 0 to 1. */
+    static final class Probability implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return decimal(value, 0, 1, false, false, "a probability");
+        }
+    }
+
+    /** {@code --cutoff}: 0 up to but not including 1. */
+    static final class Cutoff implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return decimal(value, 0, 1, false, true, "a probability");
+        }
+    }
+
+    /** {@code --alpha}: strictly between 0 and 1. */
+    static final class Alpha implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return decimal(value, 0, 1, true, true, "a significance level");
+        }
+    }
+
+    /** {@code --resamples}: 1 to {@link Cli#MAX_RESAMPLES}. */
+    static final class Resamples implements ITypeConverter<Integer> {
+        @Override
+        public Integer convert(String value) {
+            return (int) whole(value, 1, Cli.MAX_RESAMPLES);
+        }
+    }
+
+    /** {@code --top}: 0 to {@link Cli#MAX_TOP}. */
+    static final class Top implements ITypeConverter<Integer> {
+        @Override
+        public Integer convert(String value) {
+            return (int) whole(value, 0, Cli.MAX_TOP);
+        }
+    }
+
+    /** {@code scale --min} and {@code --max}: 1 to {@link Cli#MAX_SCALE_QUBITS}. */
+    static final class ScaleQubits implements ITypeConverter<Integer> {
+        @Override
+        public Integer convert(String value) {
+            return (int) whole(value, 1, Cli.MAX_SCALE_QUBITS);
+        }
+    }
+
+    /** {@code --precision}: {@code double} or {@code single}. */
+    static final class Storage implements ITypeConverter<Precision> {
+        @Override
+        public Precision convert(String value) {
+            switch (value) {
+                case "double":
+                    return Precision.DOUBLE;
+                case "single":
+                    return Precision.SINGLE;
+                default:
+                    throw new TypeConversionException("'" + value + "' is not double or single");
+            }
+        }
+    }
+
+    /** {@code --format} of {@code run}: {@code table}, {@code csv} or {@code json}. */
+    static final class TallyFormat implements ITypeConverter<Cli.Format> {
+        @Override
+        public Cli.Format convert(String value) {
+            for (Cli.Format f : Cli.Format.values()) {
+                if (f.name().equals(value)) {
+                    return f;
+                }
+            }
+            throw new TypeConversionException("'" + value + "' is not table, csv or json");
+        }
+    }
+
+    /** {@code --format} of {@code scale}: {@code table} or {@code csv}. */
+    static final class TableFormat implements ITypeConverter<String> {
+        @Override
+        public String convert(String value) {
+            if (value.equals("table") || value.equals("csv")) {
+                return value;
+            }
+            throw new TypeConversionException("'" + value + "' is not table or csv");
+        }
+    }
+}
