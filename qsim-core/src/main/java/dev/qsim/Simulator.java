@@ -427,7 +427,7 @@ public final class Simulator implements CircuitRunner {
             where.append(part).append(step);
             in = block.get(step);
         }
-        return where + " (" + in.name() + ", " + in + ") is not a Clifford gate";
+        return where + " (" + in + ") is not a Clifford gate";
     }
 
     private static boolean allClifford(java.util.List<Instruction> block) {

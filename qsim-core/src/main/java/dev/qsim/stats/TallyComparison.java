@@ -742,8 +742,10 @@ public final class TallyComparison {
                     "expected", "residual"));
             for (int i = 0; i < shown; i++) {
                 Deviation d = deviations.get(i);
-                sb.append(f("  %-" + Math.max(4, width) + "s %10d %12.2f %+10.2f%n", d.bits(),
-                        d.observed(), d.expected(), d.residual()));
+                String residual = Double.isInfinite(d.residual()) ? "impossible"
+                        : f("%+.2f", d.residual());
+                sb.append(f("  %-" + Math.max(4, width) + "s %10d %12.2f %10s%n", d.bits(),
+                        d.observed(), d.expected(), residual));
             }
         }
         return sb.toString();

@@ -28,8 +28,12 @@ import dev.qsim.Simulator;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.examples.Version;
-import dev.qsim.noise.Channel;
 import dev.qsim.noise.NoiseModel;
+import dev.qsim.stats.ComparisonSettings;
+import dev.qsim.stats.ErrorKind;
+import dev.qsim.stats.FittedNoise;
+import dev.qsim.stats.NoiseFamily;
+import dev.qsim.stats.NoiseFit;
 import dev.qsim.stats.TallyComparison;
 import dev.qsim.stats.TallyFiles;
 import dev.qsim.text.QasmReader;
@@ -69,6 +73,12 @@ public final class Cli implements Callable<Integer> {
     public static final int MAX_SHOTS = 10_000_000;
     /** The most qubits whose state {@code state} prints. */
     public static final int MAX_STATE_QUBITS = 16;
+
+    /** The widest register whose exact prediction a histogram draws beside the bars. */
+    static final int MAX_PICTURE_CLBITS = 20;
+
+    /** The most shots a sampled prediction may take. */
+    static final int MAX_PREDICTION_SHOTS = 10_000_000;
     /** The most threads {@code --threads} takes (the core's limit). */
     static final int MAX_THREADS = 256;
     /** The most bootstrap resamples {@code compare --resamples} takes. */
@@ -196,6 +206,11 @@ public final class Cli implements Callable<Integer> {
         spec.commandLine().getErr().flush();
     }
 
+    /** At most 60 characters of a user's text, for messages. */
+    static String excerpt(String text) {
+        return text.length() <= 60 ? text : text.substring(0, 57) + "...";
+    }
+
     static String f(String format, Object... args) {
         return String.format(Locale.ROOT, format, args);
     }
@@ -254,11 +269,13 @@ public final class Cli implements Callable<Integer> {
                 "  java -jar qsim-examples.jar run circuit.qasm --svg histogram.svg",
                 "  java -jar qsim-examples.jar run qsim-examples/demo/ghz5.qasm \\",
                 "      --depolarizing 0.01 --readout-error 0.02",
+                "  java -jar qsim-examples.jar run qsim-examples/demo/bell.qasm \\",
+                "      --device qsim-examples/demo/longstone-pair.json",
                 "%nWith noise, circuits of up to 10 qubits that measure only at the end run on"
                         + " a density matrix, others by trajectories, one per shot.",
-                "%nThe same seed gives the same tally. With --svg, bars of the ideal"
-                        + " probabilities stand beside the simulated frequencies when the"
-                        + " circuit measures only at the end; the picture's title gives the"
+                "%nThe same seed gives the same tally. With --svg, bars of the exact"
+                        + " prediction (with the same noise) stand beside the simulated"
+                        + " frequencies where it can be computed; the picture's title gives the"
                         + " file, the seed and the noise."})
     static final class Run implements Callable<Integer> {
         @Spec
@@ -284,16 +301,8 @@ public final class Cli implements Callable<Integer> {
                 description = "threads of the simulation, 1 to 256 (default: every available"
                         + " processor, as the library)")
         Integer threads;
-        @Option(names = "--depolarizing", defaultValue = "0", paramLabel = "P",
-                converter = OptionValues.Probability.class,
-                description = "noise: a depolarizing channel of probability P after every one-"
-                        + " and two-qubit gate (default ${DEFAULT-VALUE}: none)")
-        double depolarizing;
-        @Option(names = "--readout-error", defaultValue = "0", paramLabel = "P",
-                converter = OptionValues.Probability.class,
-                description = "noise: each measured bit reads wrong with probability P"
-                        + " (default ${DEFAULT-VALUE}: none)")
-        double readoutError;
+        @CommandLine.Mixin
+        NoiseOptions noise = new NoiseOptions();
         @Option(names = "--precision", defaultValue = "double", paramLabel = "double|single",
                 converter = OptionValues.Storage.class,
                 description = "how amplitudes are stored; single halves the memory (31 qubits"
@@ -308,11 +317,13 @@ public final class Cli implements Callable<Integer> {
 
         @Override
         public Integer call() throws IOException {
-            boolean noisy = depolarizing != 0 || readoutError != 0;
+            boolean noisy = noise.noisy();
             if (precision == Precision.SINGLE && noisy) {
                 throw new IllegalArgumentException("--precision single applies to noiseless runs;"
-                        + " noisy runs (--depolarizing, --readout-error) are in double precision");
+                        + " noisy runs (--depolarizing, --readout-error, --device) are in double"
+                        + " precision");
             }
+            noise.check();
             FileChecks.requireInput(file, "a circuit file (OpenQASM 3, .qasm)");
             if (svg != null) {
                 FileChecks.requireOutput(svg, "--svg");
@@ -323,13 +334,10 @@ public final class Cli implements Callable<Integer> {
                         + " measure into; add 'bit[n] c;' and 'c = measure q;'");
             }
             int t = threads();
+            NoiseModel model = noise.model(c, file);
             Simulator sim = Simulator.seeded(seed).withThreads(t);
             if (noisy) {
-                sim = sim.withNoise(NoiseModel.builder()
-                        .afterOneQubitGates(Channel.depolarizing(depolarizing))
-                        .afterTwoQubitGates(Channel.twoQubitDepolarizing(depolarizing))
-                        .readoutError(readoutError, readoutError)
-                        .build());
+                sim = sim.withNoise(model);
             } else {
                 sim = sim.withPrecision(precision);
             }
@@ -349,15 +357,17 @@ public final class Cli implements Callable<Integer> {
             printTally(spec.commandLine().getOut(), tally, format);
             if (svg != null) {
                 double[] predicted = null;
-                try {
-                    predicted = Simulator.seeded(seed).withThreads(t).distribution(c);
-                } catch (IllegalArgumentException e) {
-                    predicted = null; // mid-circuit measurement: no exact prediction to draw
+                if (c.clbits() <= MAX_PICTURE_CLBITS) {
+                    try {
+                        predicted = Simulator.seeded(seed).withThreads(t).withNoise(model)
+                                .distribution(c);
+                    } catch (IllegalArgumentException e) {
+                        predicted = null; // too large for an exact prediction: bars alone
+                    }
                 }
-                String noise = noisy ? f(", depolarizing %s, readout error %s",
-                        plain(depolarizing), plain(readoutError)) : ", noiseless";
                 SvgHistogram.Picture picture = SvgHistogram.draw(tally, predicted,
-                        file.getFileName() + ", seed " + seed + noise, "simulated");
+                        file.getFileName() + ", seed " + seed + ", " + noise.describe(),
+                        "simulated", noisy ? "noisy" : "ideal");
                 writePicture(spec, svg, picture.svg(), picture.summary());
             }
             return EXIT_OK;
@@ -378,8 +388,11 @@ public final class Cli implements Callable<Integer> {
             footer = {
                 "  java -jar qsim-examples.jar state qsim-examples/demo/bell.qasm",
                 "  java -jar qsim-examples.jar state qsim-examples/demo/bell.qasm -p",
+                "  java -jar qsim-examples.jar state qsim-examples/demo/teleport.qasm",
                 "%nOnly basis states whose probability exceeds --cutoff are listed; circuits of"
-                        + " up to 16 qubits."})
+                        + " up to 16 qubits. A circuit that uses measured values during the"
+                        + " shot (mid-circuit measurement, reset, conditions) has no one final"
+                        + " state: its classical bits' exact distribution is printed instead."})
     static final class State implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
@@ -400,13 +413,16 @@ public final class Cli implements Callable<Integer> {
                 throw new IllegalArgumentException(file + ": 'state' prints circuits of at most "
                         + MAX_STATE_QUBITS + " qubits but this one has " + c.qubits());
             }
+            PrintWriter out = spec.commandLine().getOut();
+            if (!c.measuresAtEnd()) {
+                return printRegister(out, c);
+            }
             StateVector s;
             try {
                 s = StateVector.zero(c.qubits()).apply(c.withoutMeasurements());
             } catch (IllegalArgumentException e) {
                 throw new IllegalArgumentException(file + ": " + e.getMessage(), e);
             }
-            PrintWriter out = spec.commandLine().getOut();
             int n = c.qubits();
             int w = Math.max(n, 5);
             out.println(probabilities ? f("%-" + w + "s %12s", "basis", "probability")
@@ -429,6 +445,34 @@ public final class Cli implements Callable<Integer> {
                 }
             }
             out.println(f("%d of %s shown", shown, count(s.dimension(), "basis state")));
+            out.flush();
+            return EXIT_OK;
+        }
+
+        /**
+         * A circuit that uses measured values has no one final state: prints the exact
+         * distribution of its classical register instead.
+         */
+        private int printRegister(PrintWriter out, Circuit c) {
+            double[] p;
+            try {
+                p = Simulator.seeded(0).distribution(c);
+            } catch (IllegalArgumentException e) {
+                throw new IllegalArgumentException(file + ": " + e.getMessage(), e);
+            }
+            int w = Math.max(c.clbits(), 8);
+            out.println("The circuit uses measured values during the shot, so its final state"
+                    + " depends on the outcomes. The exact distribution of its classical bits,"
+                    + " summed over the measurement branches:");
+            out.println(f("%-" + w + "s %12s", "register", "probability"));
+            int shown = 0;
+            for (int v = 0; v < p.length; v++) {
+                if (p[v] > cutoff) {
+                    shown++;
+                    out.println(f("%-" + w + "s %12.8f", bits(v, c.clbits()), p[v]));
+                }
+            }
+            out.println(f("%d of %s shown", shown, count(p.length, "register value")));
             out.flush();
             return EXIT_OK;
         }
@@ -489,46 +533,85 @@ public final class Cli implements Callable<Integer> {
     /** {@code compare}: a tally file against a circuit's prediction. */
     @Command(name = "compare", mixinStandardHelpOptions = true,
             versionProvider = Cli.VersionText.class,
-            description = "Compares a tally file (CSV 'bits,count' or JSON) with the ideal"
-                    + " outcome probabilities of a circuit file: total variation distance with a"
-                    + " bootstrap interval, Hellinger distance, chi-square and G-test p-values,"
-                    + " and the outcomes that deviate most.",
+            description = "Checks a device's tally file (CSV 'bits,count' or JSON) against what"
+                    + " a circuit file should give on a device like it: the distance between"
+                    + " the tally and the prediction (ideal, or with the noise given), its"
+                    + " confidence interval, and a verdict against a tolerance; with --fit, the"
+                    + " device's error rates fitted to the tally.",
             footerHeading = "%nExamples:%n",
             footer = {
+                "  java -jar qsim-examples.jar compare qsim-examples/demo/bell-pallet.json \\",
+                "      --circuit qsim-examples/demo/bell.qasm",
                 "  java -jar qsim-examples.jar compare qsim-examples/demo/ghz5-pallet.csv \\",
-                "      --circuit qsim-examples/demo/ghz5.qasm",
-                "  java -jar qsim-examples.jar compare tally.json --circuit c.qasm \\",
-                "      --alpha 0.05 --require-match",
+                "      --circuit qsim-examples/demo/ghz5.qasm \\",
+                "      --device qsim-examples/demo/skerryvore-line5.json",
+                "  java -jar qsim-examples.jar compare qsim-examples/demo/ghz5-pallet.csv \\",
+                "      --circuit qsim-examples/demo/ghz5.qasm --fit depolarizing2,readout",
                 "  java -jar qsim-examples.jar compare tally.csv --circuit c.qasm \\",
-                "      --svg fit.svg",
-                "%nWith --require-match the exit code is 1 when the tally does not agree with"
-                        + " the prediction at --alpha."})
+                "      --tolerance 0.02 --require-match --svg check.svg",
+                "%nThe distance is the total variation distance: the largest difference, over"
+                        + " all sets of outcomes, between the tally's frequency and the predicted"
+                        + " probability. The tally passes when the upper end of the distance's"
+                        + " interval at --confidence is at most --tolerance (an equivalence test,"
+                        + " Wellek 2010). Goodness-of-fit p-values and shots on outcomes the"
+                        + " prediction forbids are reported for information.",
+                "%nThe prediction is exact where the engines can compute it (the final state,"
+                        + " one density matrix, or a sum over measurement branches for circuits"
+                        + " that use measured values); otherwise it is estimated from"
+                        + " --prediction-shots simulated shots, and the interval accounts for"
+                        + " their sampling error.",
+                "%n--fit KINDS fits error rates by maximum likelihood with likelihood-ratio"
+                        + " intervals (circuits of up to 10 qubits). KINDS is 'scale' (one"
+                        + " factor on the rates of --depolarizing and --readout-error) or a"
+                        + " comma list of depolarizing1, depolarizing2, readout,"
+                        + " readout1given0, readout0given1 (the other rates fixed at the"
+                        + " options' values)."})
     static final class Compare implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
         @Parameters(paramLabel = "TALLY", description = "the tally file, CSV or JSON")
         Path tallyFile;
         @Option(names = "--circuit", required = true, paramLabel = "FILE",
-                description = "the OpenQASM 3 circuit whose prediction to compare with")
+                description = "the OpenQASM 3 circuit the device ran")
         Path circuitFile;
-        @Option(names = "--alpha", defaultValue = "0.01", converter = OptionValues.Alpha.class,
-                description = "significance level of the tests, between 0 and 1 (default"
-                        + " ${DEFAULT-VALUE})")
-        double alpha;
+        @CommandLine.Mixin
+        NoiseOptions noise = new NoiseOptions();
+        @Option(names = "--tolerance", paramLabel = "D", converter = OptionValues.Tolerance.class,
+                description = "the largest distance that passes, above 0 and at most 1"
+                        + " (default 0.05: no set of outcomes off by more than 5 points)")
+        Double tolerance;
+        @Option(names = "--confidence", paramLabel = "C",
+                converter = OptionValues.Confidence.class,
+                description = "confidence level of the distance's interval, between 0.5 and 1"
+                        + " (default 0.95)")
+        Double confidence;
         @Option(names = "--seed", defaultValue = "1", converter = OptionValues.Seed.class,
-                description = "seed of the bootstrap (default ${DEFAULT-VALUE})")
+                description = "seed of the interval's simulated tallies and of a sampled"
+                        + " prediction (default ${DEFAULT-VALUE})")
         long seed;
-        @Option(names = "--resamples", defaultValue = "1000", paramLabel = "N",
-                converter = OptionValues.Resamples.class,
-                description = "bootstrap resamples, 1 to 1,000,000 (default ${DEFAULT-VALUE})")
-        int resamples;
+        @Option(names = "--resamples", paramLabel = "N", converter = OptionValues.Resamples.class,
+                description = "simulated tallies per candidate distance, 20 to 1,000,000"
+                        + " (default 400)")
+        Integer resamples;
+        @Option(names = "--prediction-shots", defaultValue = "100000", paramLabel = "M",
+                converter = OptionValues.PredictionShots.class,
+                description = "shots of a sampled prediction, when no exact one can be"
+                        + " computed, 1 to 10,000,000 (default ${DEFAULT-VALUE})")
+        int predictionShots;
+        @Option(names = "--fit", paramLabel = "KINDS", converter = OptionValues.FitKinds.class,
+                description = "also fit error rates to the tally: 'scale' or a comma list of"
+                        + " kinds (see below)")
+        FitRequest fit;
+        @Option(names = "--threads", paramLabel = "T", converter = OptionValues.Threads.class,
+                description = "threads, 1 to 256 (default: every available processor)")
+        Integer threads;
         @Option(names = "--top", defaultValue = "8", paramLabel = "K",
                 converter = OptionValues.Top.class,
                 description = "how many deviating outcomes to list, 0 to 1,000 (default"
                         + " ${DEFAULT-VALUE})")
         int top;
         @Option(names = "--require-match",
-                description = "exit with code 1 when the comparison fails")
+                description = "exit with code 1 when the tally does not pass")
         boolean requireMatch;
         @Option(names = "--svg", paramLabel = "OUT.svg",
                 description = "also write measured and predicted as an SVG histogram")
@@ -536,45 +619,101 @@ public final class Cli implements Callable<Integer> {
 
         @Override
         public Integer call() throws IOException {
+            noise.check();
             FileChecks.requireInput(tallyFile, "a tally file (CSV 'bits,count' or JSON)");
             FileChecks.requireInput(circuitFile, "a circuit file (OpenQASM 3, .qasm)");
             if (svg != null) {
                 FileChecks.requireOutput(svg, "--svg");
             }
+            ComparisonSettings settings = ComparisonSettings.defaults().withSeed(seed);
+            if (tolerance != null) {
+                settings = settings.withTolerance(tolerance);
+            }
+            if (confidence != null) {
+                settings = settings.withConfidence(confidence);
+            }
+            if (resamples != null) {
+                settings = settings.withResamples(resamples);
+            }
+            int t = threads == null ? defaultThreads() : threads;
+            settings = settings.withThreads(t);
+            NoiseFamily family = fit == null ? null : fit.family(noise);
             Tally tally = TallyFiles.read(tallyFile);
             Circuit c = readCircuit(circuitFile);
-            double[] predicted;
-            try {
-                predicted = Simulator.seeded(seed).distribution(c);
-            } catch (IllegalArgumentException e) {
-                throw new IllegalArgumentException(circuitFile + ": " + e.getMessage(), e);
-            }
-            int width = Integer.numberOfTrailingZeros(predicted.length);
-            if (width != tally.width()) {
+            if (c.clbits() != tally.width()) {
                 throw new IllegalArgumentException(tallyFile + " has outcomes of "
                         + tally.width() + " bits but " + circuitFile + " predicts outcomes of "
-                        + width + " bits");
+                        + c.clbits() + " bits");
             }
+            NoiseModel model = noise.model(c, circuitFile);
+            Simulator sim = Simulator.seeded(seed).withThreads(t).withNoise(model);
+            Simulator.Prediction prediction;
             TallyComparison cmp;
             Progress progress = Progress.start(spec.commandLine().getErr(), "comparing");
             try {
-                cmp = TallyComparison.of(tally, predicted, seed, resamples, 1 - 2 * alpha);
+                prediction = sim.predict(c, predictionShots);
+                settings = settings.withPredictionShots(prediction.samples());
+                cmp = TallyComparison.of(tally, prediction.probabilities(), settings);
+            } catch (IllegalArgumentException e) {
+                throw new IllegalArgumentException(circuitFile + ": " + e.getMessage(), e);
+            } catch (IllegalStateException e) {
+                throw new IllegalArgumentException(circuitFile + ": " + HeapAdvice.message(c, sim,
+                        predictionShots, e), e);
             } finally {
                 progress.close();
             }
             PrintWriter out = spec.commandLine().getOut();
-            out.println("tally    " + tallyFile);
-            out.println("circuit  " + circuitFile);
+            out.println("tally       " + tallyFile);
+            out.println("circuit     " + circuitFile);
+            out.println("noise       " + noise.describe());
+            out.println("prediction  " + prediction.method());
             out.print(cmp.report(top));
             out.flush();
+            if (family != null) {
+                FittedNoise fitted;
+                Progress fitting = Progress.start(spec.commandLine().getErr(), "fitting");
+                try {
+                    fitted = NoiseFit.of(family).withThreads(t).fit(c, tally);
+                } catch (IllegalArgumentException e) {
+                    throw new IllegalArgumentException("--fit: " + e.getMessage(), e);
+                } finally {
+                    fitting.close();
+                }
+                out.println();
+                out.print(fitted.report());
+                out.flush();
+            }
             if (svg != null) {
-                SvgHistogram.Picture picture = SvgHistogram.draw(tally, predicted,
-                        tallyFile.getFileName() + " vs " + circuitFile.getFileName()
-                        + f(" (TVD %.3f, %s at alpha %s)", cmp.distance(),
-                        cmp.passes() ? "pass" : "fail", alpha), "measured");
+                SvgHistogram.Picture picture = SvgHistogram.draw(tally,
+                        c.clbits() <= MAX_PICTURE_CLBITS ? prediction.probabilities() : null,
+                        tallyFile.getFileName() + " vs " + circuitFile.getFileName() + ", "
+                        + noise.describe() + f(" (distance %.3f, %s at tolerance %s)",
+                        cmp.distance(), cmp.passes() ? "pass" : "fail",
+                        plain(cmp.tolerance())), "measured", noise.noisy() ? "noisy" : "ideal");
                 writePicture(spec, svg, picture.svg(), picture.summary());
             }
             return requireMatch && !cmp.passes() ? EXIT_MISMATCH : EXIT_OK;
+        }
+    }
+
+    /** What {@code --fit} asks for: one scale of the given rates, or kinds of rates. */
+    record FitRequest(boolean scale, List<ErrorKind> kinds) {
+        /** The family to fit, given the noise options. */
+        NoiseFamily family(NoiseOptions noise) {
+            if (noise.device != null) {
+                throw new IllegalArgumentException("--fit fits uniform error rates and cannot"
+                        + " start from --device; give the starting rates with --depolarizing and"
+                        + " --readout-error (or none)");
+            }
+            if (scale) {
+                if (noise.depolarizing == 0 && noise.readoutError == 0) {
+                    throw new IllegalArgumentException("--fit scale multiplies the rates of"
+                            + " --depolarizing and --readout-error, and both are 0; give them,"
+                            + " or fit kinds such as --fit depolarizing2,readout");
+                }
+                return NoiseFamily.scaled(noise.rates());
+            }
+            return NoiseFamily.ofKinds(noise.rates(), kinds.toArray(new ErrorKind[0]));
         }
     }
 

@@ -1,12 +1,16 @@
 package dev.qsim.examples.cli;
 
 import java.math.BigInteger;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Locale;
 
 import picocli.CommandLine.ITypeConverter;
 import picocli.CommandLine.TypeConversionException;
 
 import dev.qsim.Precision;
+import dev.qsim.stats.ComparisonSettings;
+import dev.qsim.stats.ErrorKind;
 
 /**
  * The tool's option values, read and checked as the command line is parsed, before any work:
@@ -103,11 +107,66 @@ final class OptionValues {
         }
     }
 
-    /** {@code --alpha}: strictly between 0 and 1. */
-    static final class Alpha implements ITypeConverter<Double> {
+    /** {@code --tolerance}: above 0, at most 1. */
+    static final class Tolerance implements ITypeConverter<Double> {
         @Override
         public Double convert(String value) {
-            return decimal(value, 0, 1, true, true, "a significance level");
+            return decimal(value, 0, 1, true, false, "a distance");
+        }
+    }
+
+    /** {@code --confidence}: strictly between 0.5 and 1. */
+    static final class Confidence implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return decimal(value, 0.5, 1, true, true, "a confidence level");
+        }
+    }
+
+    /** {@code --prediction-shots}: 1 to {@value Cli#MAX_PREDICTION_SHOTS}. */
+    static final class PredictionShots implements ITypeConverter<Integer> {
+        @Override
+        public Integer convert(String value) {
+            return (int) whole(value, 1, Cli.MAX_PREDICTION_SHOTS);
+        }
+    }
+
+    /** {@code scale}, or a comma list of the kinds' parameter names. */
+    static final class FitKinds implements ITypeConverter<Cli.FitRequest> {
+        @Override
+        public Cli.FitRequest convert(String value) {
+            if (value.strip().equals("scale")) {
+                return new Cli.FitRequest(true, List.of());
+            }
+            List<ErrorKind> kinds = new ArrayList<>();
+            List<String> names = new ArrayList<>();
+            for (ErrorKind k : ErrorKind.values()) {
+                names.add(k.parameterName());
+            }
+            String[] parts = value.split(",", -1);
+            if (parts.length > ErrorKind.values().length) {
+                throw new TypeConversionException("'" + Cli.excerpt(value) + "' names more"
+                        + " kinds than there are (" + String.join(", ", names) + ")");
+            }
+            for (String part : parts) {
+                String name = part.strip();
+                ErrorKind found = null;
+                for (ErrorKind k : ErrorKind.values()) {
+                    if (k.parameterName().equals(name)) {
+                        found = k;
+                    }
+                }
+                if (found == null) {
+                    throw new TypeConversionException("'" + Cli.excerpt(name) + "' is not"
+                            + " 'scale' or a kind of error rate (" + String.join(", ", names)
+                            + ")");
+                }
+                if (kinds.contains(found)) {
+                    throw new TypeConversionException("'" + name + "' is given twice");
+                }
+                kinds.add(found);
+            }
+            return new Cli.FitRequest(false, List.copyOf(kinds));
         }
     }
 
@@ -115,7 +174,8 @@ final class OptionValues {
     static final class Resamples implements ITypeConverter<Integer> {
         @Override
         public Integer convert(String value) {
-            return (int) whole(value, 1, Cli.MAX_RESAMPLES);
+            return (int) whole(value, ComparisonSettings.MIN_RESAMPLES,
+                    Cli.MAX_RESAMPLES);
         }
     }
 

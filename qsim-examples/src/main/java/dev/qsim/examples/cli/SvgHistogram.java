@@ -57,9 +57,11 @@ final class SvgHistogram {
      * @param title a title line (file names and settings)
      * @param tallied what the counts are, for the legend: {@code "simulated"} or
      *     {@code "measured"}
+     * @param kind what the prediction is, for the legend: {@code "ideal"} or {@code "noisy"}
      * @return the picture
      */
-    static Picture draw(Tally tally, double[] predicted, String title, String tallied) {
+    static Picture draw(Tally tally, double[] predicted, String title, String tallied,
+            String kind) {
         int width = tally.width();
         Map<String, double[]> byBits = new TreeMap<>();
         for (Map.Entry<String, Long> e : tally.outcomes().entrySet()) {
@@ -87,9 +89,10 @@ final class SvgHistogram {
         String shown = total > bars.size() ? "the " + bars.size() + " likeliest of " + total
                 + " outcomes" : Cli.count(total, "outcome");
         String summary = "histogram of " + shown + (rows ? ", one row each" : "")
-                + (predicted != null ? ", " + tallied + " beside the ideal prediction" : "");
+                + (predicted != null ? ", " + tallied + " beside the " + kind + " prediction"
+                : "");
         Canvas c = new Canvas(title, Cli.f("%,d %s, %s", tally.shots(),
-                tally.shots() == 1 ? "shot" : "shots", shown), tallied, predicted != null);
+                tally.shots() == 1 ? "shot" : "shots", shown), tallied, predicted != null, kind);
         String svg = rows ? c.rows(bars, width) : c.columns(bars, width);
         return new Picture(svg, summary);
     }
@@ -102,13 +105,15 @@ final class SvgHistogram {
         private final String subtitle;
         private final String tallied;
         private final boolean predicted;
+        private final String kind;
         private final StringBuilder sb = new StringBuilder();
 
-        Canvas(String title, String subtitle, String tallied, boolean predicted) {
+        Canvas(String title, String subtitle, String tallied, boolean predicted, String kind) {
             this.title = title;
             this.subtitle = subtitle;
             this.tallied = tallied;
             this.predicted = predicted;
+            this.kind = kind;
         }
 
         private void header(int w, int h) {
@@ -123,12 +128,12 @@ final class SvgHistogram {
                     12, esc(subtitle)));
             sb.append(Cli.f("<rect x=\"%d\" y=\"55\" width=\"12\" height=\"12\" fill=\"%s\"/>"
                     + "<text x=\"%d\" y=\"65\" font-size=\"12\">%s%s</text>%n", LEFT, TALLIED,
-                    LEFT + 16, tallied, predicted ? "" : " (no ideal prediction drawn)"));
+                    LEFT + 16, tallied, predicted ? "" : " (no prediction drawn)"));
             if (predicted) {
                 int x = LEFT + 30 + 7 * tallied.length();
                 sb.append(Cli.f("<rect x=\"%d\" y=\"55\" width=\"12\" height=\"12\" fill=\"%s\""
-                        + " stroke=\"#777\"/><text x=\"%d\" y=\"65\" font-size=\"12\">ideal"
-                        + " prediction</text>%n", x, PREDICTED, x + 16));
+                        + " stroke=\"#777\"/><text x=\"%d\" y=\"65\" font-size=\"12\">%s"
+                        + " prediction</text>%n", x, PREDICTED, x + 16, kind));
             }
         }
 
@@ -181,10 +186,10 @@ final class SvgHistogram {
                 int hp = 0;
                 if (predicted) {
                     hp = (int) Math.round(plotH * b.predicted() / yMax);
-                    sb.append(Cli.f("<rect class=\"bar ideal\" x=\"%d\" y=\"%d\" width=\"%d\""
-                            + " height=\"%d\" fill=\"%s\" stroke=\"#777\"><title>%s ideal %.4f"
+                    sb.append(Cli.f("<rect class=\"bar predicted\" x=\"%d\" y=\"%d\" width=\"%d\""
+                            + " height=\"%d\" fill=\"%s\" stroke=\"#777\"><title>%s %s %.4f"
                             + "</title></rect>%n", x + bar, y0 - hp, bar, hp, PREDICTED, b.bits(),
-                            b.predicted()));
+                            kind, b.predicted()));
                 }
                 int span = predicted ? 2 * bar : bar;
                 // Above the taller bar of the group, centred on the group: no bar covers it.
@@ -242,10 +247,10 @@ final class SvgHistogram {
                 int lp = 0;
                 if (predicted) {
                     lp = (int) Math.round(plotW * b.predicted() / xMax);
-                    sb.append(Cli.f("<rect class=\"bar ideal\" x=\"%d\" y=\"%d\" width=\"%d\""
-                            + " height=\"%d\" fill=\"%s\" stroke=\"#777\"><title>%s ideal %.4f"
+                    sb.append(Cli.f("<rect class=\"bar predicted\" x=\"%d\" y=\"%d\" width=\"%d\""
+                            + " height=\"%d\" fill=\"%s\" stroke=\"#777\"><title>%s %s %.4f"
                             + "</title></rect>%n", left, y + bar, lp, bar, PREDICTED, b.bits(),
-                            b.predicted()));
+                            kind, b.predicted()));
                 }
                 values.append(Cli.f("<text class=\"value\" x=\"%d\" y=\"%d\" font-size=\"9\""
                         + " fill=\"%s\">%s</text>%n", left + Math.max(lt, lp) + 4,

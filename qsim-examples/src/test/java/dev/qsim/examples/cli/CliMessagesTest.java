@@ -91,7 +91,7 @@ class CliMessagesTest {
             {"run", DEMO + "bell.qasm", "--depolarizing", "1.5"},
             {"run", DEMO + "bell.qasm", "--precision", "half"}, {"run", DEMO + "bell.qasm",
                 "--colour"}, {"run"}, {"state", DEMO + "bell.qasm", "--cutoff", "1"},
-            {"compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm", "--alpha",
+            {"compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm", "--confidence",
                 "0"}, {"compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm",
                 "--resamples", "0"}, {"scale", "--max", "31"}, {"scale", "--format", "xml"},
             {"draw"},

@@ -119,7 +119,7 @@ class CliTest {
                 DEMO + "ghz5.qasm");
         assertEquals(0, report.code, report::toString);
         ToolRun pass = tool("compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm",
-                "--require-match", "--alpha", "0.05");
+                "--require-match", "--confidence", "0.9");
         assertEquals(0, pass.code, pass::toString);
         assertTrue(pass.out.contains("PASS"), pass::toString);
     }
@@ -131,7 +131,7 @@ class CliTest {
                 "--svg", svg.toString());
         assertEquals(0, r.code, r::toString);
         String text = Files.readString(svg);
-        assertTrue(text.contains("fail at alpha 0.01"), text);
+        assertTrue(text.contains("fail at tolerance 0.05"), text);
         assertTrue(text.contains("<title>00001 measured 0.0103</title>"), text); // 41 / 4000
     }
 
@@ -201,7 +201,7 @@ class CliTest {
             {new String[] {"compare", DEMO + "bell-pallet.json", "--circuit",
                 DEMO + "teleport.qasm"}, "predicts outcomes of 3 bits"},
             {new String[] {"compare", DEMO + "bell-pallet.json", "--circuit", DEMO + "bell.qasm",
-                "--alpha", "1.5"}, "1.5"},
+                "--confidence", "1.5"}, "1.5"},
             {new String[] {"state", DEMO + "bell.qasm", "--cutoff", "-1"}, "-1"},
             {new String[] {"scale", "--min", "9", "--max", "3"}, "--min 9 is greater than"},
             {new String[] {"scale", "--from", "2"}, "(scale takes --min and --max"},

@@ -67,9 +67,11 @@ class SvgPicturesTest {
         assertFalse(text.contains("measured"), text);
         assertTrue(text.contains("ghz5.qasm, seed 7, depolarizing 0.01, readout error 0.02"),
                 text);
-        int outcomes = (int) r.out.lines().count() - 1; // the CSV rows after its header
-        assertTrue(r.err.contains("wrote " + svg + " (histogram of " + outcomes + " outcomes"),
-                r::toString);
+        // Depolarizing noise gives every one of the 2^5 outcomes a probability above 0
+        // (Nielsen and Chuang 2010, sec. 8.3.4), so the noisy prediction has 32 bars.
+        assertTrue(r.err.contains("wrote " + svg + " (histogram of 32 outcomes, one row each,"
+                + " simulated beside the noisy prediction)"), r::toString);
+        assertTrue(text.contains(">noisy prediction<"), text);
         ToolRun ideal = new ToolRun("run", DEMO + "bell.qasm", "--svg", svg.toString());
         assertTrue(ideal.err.contains("wrote " + svg + " (histogram of 2 outcomes, simulated"
                 + " beside the ideal prediction)"), ideal::toString);
@@ -96,11 +98,11 @@ class SvgPicturesTest {
         for (int extra : new int[] {0, 1}) {
             Tally t = extra == 0 ? tally : Tally.of(5, wide());
             double[] p = extra == 0 ? ideal : uniform(32);
-            Document d = parse(SvgHistogram.draw(t, p, "t", "simulated").svg());
+            Document d = parse(SvgHistogram.draw(t, p, "t", "simulated", "ideal").svg());
             List<Element> bars = elements(d, "rect", "bar");
             List<Element> values = elements(d, "text", "value");
             assertEquals(t.outcomes().size(), values.size());
-            String svg = SvgHistogram.draw(t, p, "t", "simulated").svg();
+            String svg = SvgHistogram.draw(t, p, "t", "simulated", "ideal").svg();
             assertTrue(svg.lastIndexOf("class=\"bar") < svg.indexOf("class=\"value\""), svg);
             boolean rows = extra == 1;
             for (Element v : values) {
@@ -151,7 +153,7 @@ class SvgPicturesTest {
         Document d = parse(Files.readString(svg));
         Element root = d.getDocumentElement();
         assertTrue(num(root, "width") <= 800, root.getAttribute("width"));
-        List<Element> ideal = elements(d, "rect", "ideal");
+        List<Element> ideal = elements(d, "rect", "predicted");
         assertEquals(128, ideal.size());
         Set<Double> ys = new HashSet<>();
         for (Element b : ideal) {
