@@ -5,10 +5,11 @@
  * tallies and the run facade {@code Simulator}), {@code dev.qsim.noise} (channels, noise models,
  * density matrices), {@code dev.qsim.stabilizer} (the stabilizer tableau),
  * {@code dev.qsim.observable} (Pauli products, observables, expectation values, gradients),
- * {@code dev.qsim.stats} (comparing tallies with predictions, tally files) and
- * {@code dev.qsim.text} (OpenQASM 3). Two packages are internal and not exported:
+ * {@code dev.qsim.stats} (comparing tallies with predictions, fitting error rates, tally files)
+ * and {@code dev.qsim.text} (OpenQASM 3). Two packages are internal and not exported:
  * {@code dev.qsim.kernel} (the loops over amplitudes) and {@code dev.qsim.internal} (argument
- * checks, the heap check and the bridge between packages). See {@code docs/architecture.md}.
+ * checks, the heap check, the bridge between packages, the JSON reader and the interpreter of
+ * classical control). See {@code docs/architecture.md}.
  */
 module dev.qsim {
     requires transitive org.apache.commons.numbers.complex;
