@@ -516,9 +516,13 @@ public final class Circuit {
      * Draws the circuit as text: one line per qubit with time running left to right, and
      * connector lines between them, in the symbols of Nielsen and Chuang 2010, §4.3: a control
      * is a filled dot {@code ●}, a controlled NOT's target {@code ⊕}, the ends of a swap
-     * {@code ×}; a measurement into clbit {@code c} is {@code M>c}, a reset is {@code |0>}, and a
-     * conditioned gate carries its condition, as in {@code X[c0=1]}. The symbols are not ASCII:
-     * print the drawing to a UTF-8 terminal or file.
+     * {@code ×}; a measurement into clbit {@code c} is {@code M>c}, a reset is {@code |0>}, a
+     * delay {@code wait(2us)}, a gate with angles computed during the shot carries its
+     * expressions ({@code RX((c[0] * 1.5))}), and a conditioned gate carries its condition, as in
+     * {@code X[c0=1]}, {@code Z[if c[0] == 1]}, {@code Z[if not c[0] == 1]} (an else block) or
+     * {@code H[while c[0] == 0]}; assignments to classical values are not drawn. A circuit whose
+     * drawing would pass about four million characters is summarised in one line instead. The
+     * symbols are not ASCII: print the drawing to a UTF-8 terminal or file.
      *
      * @return the drawing, lines separated by {@code '\n'}
      */

@@ -50,13 +50,47 @@ final class Diagram {
         }
     }
 
+    /** The most characters a drawing may have; larger circuits get a summary instead. */
+    static final int MAX_CHARS = 1 << 22;
+
+    /** The most characters of a condition shown beside a conditioned gate. */
+    private static final int MAX_CONDITION = 24;
+
+    /** Thrown inside the placement when the drawing grows past {@link #MAX_CHARS}. */
+    private static final class TooLarge extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+
+        TooLarge() {
+            super(null, null, false, false);
+        }
+    }
+
+    /** The columns placed so far and the drawing's estimated size. */
+    private static final class Layout {
+        final int n;
+        final List<Column> columns = new ArrayList<>();
+        final int[] free;
+        long width;
+
+        Layout(int n) {
+            this.n = n;
+            this.free = new int[n];
+        }
+    }
+
     static String draw(Circuit c) {
         int n = c.qubits();
-        List<Column> columns = new ArrayList<>();
-        int[] free = new int[n]; // first column index where each qubit row is free
-        for (Instruction in : c.instructions()) {
-            place(in, "", n, columns, free);
+        Layout layout = new Layout(n);
+        try {
+            for (Instruction in : c.instructions()) {
+                place(in, "", layout);
+            }
+        } catch (TooLarge e) {
+            return "circuit of " + n + " qubit(s) and " + c.size() + " instruction(s), depth "
+                    + c.depth() + ": too large to draw as text (the drawing would pass "
+                    + MAX_CHARS + " characters)";
         }
+        List<Column> columns = layout.columns;
         int nameWidth = ("q" + (n - 1)).length();
         StringBuilder[] rows = new StringBuilder[2 * n - 1];
         for (int r = 0; r < rows.length; r++) {
@@ -105,14 +139,46 @@ final class Diagram {
         return out.toString();
     }
 
-    private static void place(Instruction in, String condition, int n, List<Column> columns,
-            int[] free) {
-        if (in.kind() == Instruction.Kind.IF_BIT) {
-            String cond = "[c" + in.clbit() + "=" + in.value() + "]";
-            for (Instruction b : in.body()) {
-                place(b, cond, n, columns, free);
+    /** A condition as a label suffix, at most {@link #MAX_CONDITION} characters inside. */
+    private static String condition(String prefix, Expression e) {
+        String text = e.toString();
+        if (text.startsWith("(") && text.endsWith(")")) {
+            text = text.substring(1, text.length() - 1);
+        }
+        if (text.length() > MAX_CONDITION) {
+            text = text.substring(0, MAX_CONDITION - 3) + "...";
+        }
+        return "[" + prefix + text + "]";
+    }
+
+    private static void place(Instruction in, String condition, Layout layout) {
+        switch (in.kind()) {
+            case IF_BIT: {
+                String cond = condition + "[c" + in.clbit() + "=" + in.value() + "]";
+                for (Instruction b : in.body()) {
+                    place(b, cond, layout);
+                }
+                return;
             }
-            return;
+            case IF: {
+                for (Instruction b : in.body()) {
+                    place(b, condition + condition("if ", in.condition()), layout);
+                }
+                for (Instruction b : in.otherwise()) {
+                    place(b, condition + condition("if not ", in.condition()), layout);
+                }
+                return;
+            }
+            case WHILE: {
+                for (Instruction b : in.body()) {
+                    place(b, condition + condition("while ", in.condition()), layout);
+                }
+                return;
+            }
+            case ASSIGN:
+                return; // classical only: no qubit wire to draw it on
+            default:
+                break;
         }
         int[] t = in.targetsRaw();
         int[] ctl = in.controlsRaw();
@@ -126,12 +192,19 @@ final class Diagram {
             lo = Math.min(lo, q);
             hi = Math.max(hi, q);
         }
+        int[] free = layout.free;
         int at = 0;
         for (int q = lo; q <= hi; q++) {
             at = Math.max(at, free[q]);
         }
+        List<Column> columns = layout.columns;
         while (columns.size() <= at) {
-            columns.add(new Column(n));
+            // Each new column adds about three characters to each of the 2n - 1 rows.
+            layout.width += 3;
+            if ((2L * layout.n) * layout.width > MAX_CHARS) {
+                throw new TooLarge();
+            }
+            columns.add(new Column(layout.n));
         }
         Column col = columns.get(at);
         for (int q = lo; q <= hi; q++) {
@@ -142,8 +215,13 @@ final class Diagram {
             col.put(q, CONTROL);
         }
         String[] labels = labels(in);
+        int before = col.width();
         for (int j = 0; j < t.length; j++) {
             col.put(t[j], labels[j] + condition);
+        }
+        layout.width += Math.max(0, col.width() - before);
+        if ((2L * layout.n) * layout.width > MAX_CHARS) {
+            throw new TooLarge();
         }
     }
 
@@ -153,8 +231,47 @@ final class Diagram {
                 return new String[] {"M>c" + in.clbit()};
             case RESET:
                 return new String[] {"|0>"};
+            case DELAY: {
+                String[] out = new String[in.targetsRaw().length];
+                java.util.Arrays.fill(out, "wait(" + duration(in.duration()) + ")");
+                return out;
+            }
             default:
+                if (in.isDynamic()) {
+                    return dynamicLabels(in);
+                }
                 return in.gate().targetLabels(in.anglesRaw(), in.targetsRaw().length);
         }
+    }
+
+    /** A gate whose angles are expressions: its name with the expressions, on each target. */
+    private static String[] dynamicLabels(Instruction in) {
+        StringBuilder sb = new StringBuilder(in.gate().id().toUpperCase(java.util.Locale.ROOT))
+                .append('(');
+        Expression[] angles = in.angleExpressions();
+        for (int k = 0; k < angles.length; k++) {
+            sb.append(k > 0 ? ", " : "").append(angles[k]);
+        }
+        String text = sb.append(')').toString();
+        if (text.length() > MAX_CONDITION + 8) {
+            text = text.substring(0, MAX_CONDITION + 5) + "...";
+        }
+        String[] out = new String[in.targetsRaw().length];
+        java.util.Arrays.fill(out, text);
+        return out;
+    }
+
+    /** A duration in seconds with an SI prefix: 2e-6 reads "2us". */
+    static String duration(double seconds) {
+        String[] units = {"s", "ms", "us", "ns"};
+        double v = seconds;
+        int u = 0;
+        while (u < units.length - 1 && v != 0 && Math.abs(v) < 1) {
+            v *= 1000;
+            u++;
+        }
+        String number = v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v)
+                : String.format(java.util.Locale.ROOT, "%.3g", v);
+        return number + units[u];
     }
 }

@@ -302,4 +302,37 @@ class ClassicalControlTest {
         assertThrows(IllegalArgumentException.class,
                 () -> NoiseModel.builder().relaxationWhileIdle(-1, 0, 1));
     }
+
+    @Test
+    void diagramsShowConditionsLoopsDelaysAndComputedAngles() {
+        Circuit.Builder b = Circuit.builder(2, 2).h(0).measure(0, 0).delay(2e-6, 1);
+        b.ifThenElse(Expression.clbit(0), t -> t.x(1), f -> f.z(1));
+        b.whileLoop(Expression.of(Expression.Op.EQ, Expression.clbit(1), Expression.constant(0)),
+                4, body -> body.h(1).measure(1, 1));
+        b.gate(Gate.RX, new Expression[] {Expression.of(Expression.Op.MUL, Expression.clbit(0),
+                Expression.constant(1.5))}, 0);
+        String d = b.build().diagram();
+        // Each part appears with its own label (the labels are ours, documented on diagram()).
+        for (String part : new String[] {"wait(2us)", "X[if c[0]]", "Z[if not c[0]]",
+            "H[while c[1] == 0]", "M>c1[while c[1] == 0]", "RX((c[0] * 1.5))"}) {
+            assertTrue(d.contains(part), part + " in\n" + d);
+        }
+    }
+
+    @Test
+    void aCircuitTooWideToDrawIsSummarisedQuickly() {
+        int n = Circuit.MAX_QUBITS;
+        Circuit wide = Circuit.builder(n, 1).h(0).cnot(0, n - 1).measure(n - 1, 0).build();
+        long start = System.nanoTime();
+        String d = wide.diagram();
+        assertTrue(System.nanoTime() - start < 5_000_000_000L, "took too long");
+        assertTrue(d.startsWith("circuit of " + n + " qubit(s) and 3 instruction(s)")
+                && d.contains("too large to draw"), d);
+        // A moderate circuit is drawn in full: 2n - 1 rows (a wire per qubit, a gap between).
+        Circuit.Builder mid = Circuit.builder(300);
+        for (int q = 0; q < 299; q++) {
+            mid.cnot(q, q + 1);
+        }
+        assertEquals(2 * 300 - 1, mid.build().diagram().lines().count());
+    }
 }
