@@ -78,6 +78,13 @@ class ReadersFuzzTest {
                 assertTrue(expected.getMessage().length() < 1000, expected.getMessage());
             }
         }
+        // A stated shot total that differs from the counts' sum is refused (a cut file).
+        try {
+            TallyFiles.read("{\"shots\": 30, \"outcomes\": {\"0\": 10, \"1\": 12}}");
+            fail("accepted shots 30 for counts summing to 22");
+        } catch (IllegalArgumentException expected) {
+            assertTrue(expected.getMessage().contains("sum to 22"), expected.getMessage());
+        }
         // A written tally reads back equal in both formats.
         Tally t = Tally.ofCounts(3, new long[] {0, 5, 7}, new long[] {1, 2, Long.MAX_VALUE - 3});
         assertEquals(t, TallyFiles.read(TallyFiles.toJson(t)));

@@ -22,9 +22,10 @@ import dev.qsim.internal.TextFiles;
  * wanted, a whole number {@code "width"}, as in
  * <pre>{"width": 3, "outcomes": {"000": 12, "111": 9}}</pre>
  * Without {@code "width"} the width is the length of the bitstrings, which must then all have
- * one length. Other members (such as a device name, or the {@code "shots"} that
- * {@link #toJson(Tally)} writes) are allowed and ignored. The JSON is read by qsim's strict
- * reader: RFC 8259 exactly, so no comments, trailing commas or leading zeros.
+ * one length. A {@code "shots"} member (as {@link #toJson(Tally)} writes) must equal the sum
+ * of the counts; other members (such as a device name) are allowed and ignored. The JSON is
+ * read by qsim's strict reader: RFC 8259 exactly, so no comments, trailing commas or leading
+ * zeros.
  *
  * <p>In both formats a bitstring has only {@code 0} and {@code 1} and at most
  * {@value #MAX_WIDTH} of them; a count is a whole number from 0 to {@link Long#MAX_VALUE}
@@ -166,8 +167,9 @@ public final class TallyFiles {
      * @return the tally
      * @throws IllegalArgumentException if the text is too long or not JSON (RFC 8259), is not
      *     an object, lacks {@code "outcomes"}, has a bad {@code "width"}, holds a bad bitstring
-     *     or count or too many outcomes, or the counts sum to zero or to more than
-     *     {@link Long#MAX_VALUE}; the message gives the line and column
+     *     or count or too many outcomes, the counts sum to zero or to more than
+     *     {@link Long#MAX_VALUE}, or a {@code "shots"} differs from their sum; the message gives
+     *     the line and column
      */
     public static Tally readJson(String text) {
         Objects.requireNonNull(text, "text");
@@ -219,12 +221,20 @@ public final class TallyFiles {
             throw outcomes.error("\"outcomes\" is empty and no \"width\" is given; a tally needs"
                     + " at least one outcome with a count above 0");
         }
+        Json.Value shots = root.get("shots");
+        if (shots != null) {
+            long stated = shots.asLong("\"shots\"", 0, Long.MAX_VALUE);
+            if (stated != total) {
+                throw shots.error("\"shots\" is " + stated + " but the counts of \"outcomes\""
+                        + " sum to " + total + "; the file may be cut short or edited");
+            }
+        }
         return Tally.of(width, counts);
     }
 
     /**
-     * Writes a tally as JSON: {@code width}, {@code shots} (informative; ignored when read) and
-     * {@code outcomes} by bitstring, two-space indented, ending in {@code '\n'}.
+     * Writes a tally as JSON: {@code width}, {@code shots} (checked against the counts when read)
+     * and {@code outcomes} by bitstring, two-space indented, ending in {@code '\n'}.
      *
      * @param tally the tally
      * @return the JSON text
