@@ -150,6 +150,7 @@ public final class Operator {
      * @param other the operator for the low qubits
      * @return the product on {@code qubits() + other.qubits()} qubits
      * @throws IllegalArgumentException if the product would exceed {@value #MAX_QUBITS} qubits
+     *     or an entry overflows (the message names it)
      */
     public Operator tensor(Operator other) {
         Objects.requireNonNull(other, "other");
@@ -182,7 +183,20 @@ public final class Operator {
                 }
             }
         }
+        requireFiniteResult(r, d, "tensor product");
         return new Operator(k, r);
+    }
+
+    /** Refuses a computed matrix with an entry that overflowed to infinity or NaN. */
+    private static void requireFiniteResult(double[] r, int d, String what) {
+        for (int i = 0; i < r.length; i++) {
+            if (!Double.isFinite(r[i])) {
+                int e = i / 2;
+                throw new IllegalArgumentException("the " + what + " overflows: entry ("
+                        + e / d + ", " + e % d + ") is " + r[i] + " in its "
+                        + (i % 2 == 0 ? "real" : "imaginary") + " part; entries must be finite");
+            }
+        }
     }
 
     /**
@@ -190,7 +204,8 @@ public final class Operator {
      *
      * @param other an operator on the same number of qubits
      * @return the product
-     * @throws IllegalArgumentException if the qubit counts differ
+     * @throws IllegalArgumentException if the qubit counts differ or an entry overflows (the
+     *     message names it)
      */
     public Operator times(Operator other) {
         Objects.requireNonNull(other, "other");
@@ -216,6 +231,7 @@ public final class Operator {
                 }
             }
         }
+        requireFiniteResult(r, d, "matrix product");
         return new Operator(qubits, r);
     }
 

@@ -6,6 +6,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.Map;
 
+import org.apache.commons.numbers.complex.Complex;
 import org.junit.jupiter.api.Test;
 
 import dev.qsim.noise.Channel;
@@ -28,6 +29,20 @@ class HostileValuesTest {
             assertTrue(u.isUnitary(Operator.UNITARY_TOLERANCE), "phi " + phi);
             Circuit.builder(1).apply(u, 0).build();
         }
+    }
+
+    @Test
+    void operatorProductsThatOverflowAreRefused() {
+        // A product's entry is a sum of products of entries (matrix multiplication, common
+        // practice): 1e200 * 1e200 passes the largest double, about 1.8e308 (IEEE 754).
+        Operator big = Operator.of(new Complex[][] {{Complex.ofCartesian(1e200, 0), Complex.ZERO},
+            {Complex.ZERO, Complex.ONE}});
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> big.times(big));
+        assertTrue(e.getMessage().contains("entry (0, 0)"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> big.tensor(big));
+        assertTrue(e.getMessage().contains("overflows"), e.getMessage());
+        assertEquals(1e200, big.times(Operator.identity(1)).get(0, 0).getReal());
     }
 
     @Test
