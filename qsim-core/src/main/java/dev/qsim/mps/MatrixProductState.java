@@ -71,7 +71,7 @@ import dev.qsim.observable.PauliProduct;
  * first: a state or a step the heap cannot hold is refused with an {@link IllegalStateException}
  * naming the bytes and the {@code -Xmx} that would do. Run circuits with measurement, reset and
  * classical control through {@link dev.qsim.Simulator} with
- * {@code Simulator.Engine.MATRIX_PRODUCT}.
+ * {@link dev.qsim.Simulator.Engine#MATRIX_PRODUCT}.
  *
  * @since 0.1
  */
