@@ -414,7 +414,7 @@ public final class MatrixProductState {
     public Complex expectation(PauliProduct pauli) {
         Objects.requireNonNull(pauli, "pauli");
         requireFits(pauli.span(), "the Pauli product " + pauli);
-        double[] v = pauliValue(pauli);
+        double[] v = pauliValue(pauli, null);
         return Complex.ofCartesian(v[0], v[1]);
     }
 
@@ -430,11 +430,29 @@ public final class MatrixProductState {
     public double expectation(Observable h) {
         Objects.requireNonNull(h, "h");
         requireFits(h.span(), "the observable");
+        int maxFrom = 0;
+        int minTo = qubits() - 1;
+        for (int k = 0; k < h.size(); k++) {
+            PauliProduct p = h.product(k);
+            if (p.span() > 0) {
+                maxFrom = Math.max(maxFrom, first(p));
+                minTo = Math.min(minTo, p.span() - 1);
+            }
+        }
+        Reads.Environments env = new Reads.Environments(chain, maxFrom, minTo);
         double sum = 0;
         for (int k = 0; k < h.size(); k++) {
-            sum += h.weight(k) * pauliValue(h.product(k))[0];
+            sum += h.weight(k) * pauliValue(h.product(k), env)[0];
         }
         return sum;
+    }
+
+    private static int first(PauliProduct p) {
+        int from = 0;
+        while (p.letter(from) == 'I') {
+            from++;
+        }
+        return from;
     }
 
     private void requireFits(int span, String what) {
@@ -449,7 +467,8 @@ public final class MatrixProductState {
     private static final double[] Y = {0, 0, 0, -1, 0, 1, 0, 0};
     private static final double[] Z = {1, 0, 0, 0, 0, 0, -1, 0};
 
-    private double[] pauliValue(PauliProduct p) {
+    /** The value of a Pauli product, through cached environments when given. */
+    private double[] pauliValue(PauliProduct p, Reads.Environments env) {
         int span = p.span();
         double re;
         double im;
@@ -457,16 +476,13 @@ public final class MatrixProductState {
             re = 1;
             im = 0;
         } else {
-            int from = 0;
-            while (p.letter(from) == 'I') {
-                from++;
-            }
+            int from = first(p);
             double[][] ops = new double[span - from][];
             for (int q = from; q < span; q++) {
                 char letter = p.letter(q);
                 ops[q - from] = letter == 'X' ? X : letter == 'Y' ? Y : letter == 'Z' ? Z : null;
             }
-            double[] v = Reads.product(chain, from, ops);
+            double[] v = env == null ? Reads.product(chain, from, ops) : env.product(from, ops);
             re = v[0];
             im = v[1];
         }

@@ -58,6 +58,82 @@ final class Reads {
         return trace(e, c.bond[hi + 1]);
     }
 
+    /**
+     * The environments of the identity on every bond, for reading many products at once (an
+     * observable's terms): {@code left[j]} on bond j from the sites left of j (the identity,
+     * null, up to the centre), {@code right[j]} on bond j + 1 from the sites right of j (null
+     * from the centre on). A product on sites {@code from .. to} then costs only its span:
+     * {@code Tr(left[from] T_from ... T_to right[to])}. Memory {@code O(n χ²)}, heap-checked.
+     */
+    static final class Environments {
+        private final Chain c;
+        private final double[][] left;
+        private final double[][] right;
+
+        /**
+         * Builds the environments a set of products needs.
+         *
+         * @param c the chain
+         * @param maxFrom the largest first site of a product
+         * @param minTo the smallest last site of a product
+         */
+        Environments(Chain c, int maxFrom, int minTo) {
+            this.c = c;
+            this.left = new double[c.n][];
+            this.right = new double[c.n][];
+            double[] e = null;
+            for (int j = c.center; j < maxFrom; j++) {
+                e = transfer(c, e, j, null);
+                left[j + 1] = e;
+            }
+            e = null;
+            for (int j = c.center; j > minTo; j--) {
+                int l = c.bond[j];
+                int r = c.bond[j + 1];
+                Heap.require(16L * (2L * l * r + (long) l * l), "a right environment of the"
+                        + " matrix product state");
+                double[] out = new double[2 * l * l];
+                TensorKernels.transferRight(e, c.site[j], l, r, new double[4 * l * r], out);
+                right[j - 1] = out;
+                e = out;
+            }
+        }
+
+        /**
+         * Returns the product of one-site operators on sites {@code from ..}, as
+         * {@link Reads#product}.
+         *
+         * @param from first site
+         * @param ops operators (null for identity)
+         * @return {@code {re, im}}
+         */
+        double[] product(int from, double[][] ops) {
+            int to = from + ops.length - 1;
+            double[] e = left[from];
+            for (int j = from; j <= to; j++) {
+                e = transfer(c, e, j, ops[j - from]);
+            }
+            int d = c.bond[to + 1];
+            double[] r = right[to];
+            if (r == null) {
+                return trace(e, d);
+            }
+            double re = 0;
+            double im = 0;
+            for (int a = 0; a < d; a++) {
+                for (int b = 0; b < d; b++) {
+                    double er = e[2 * (a * d + b)];
+                    double ei = e[2 * (a * d + b) + 1];
+                    double rr = r[2 * (b * d + a)];
+                    double ri = r[2 * (b * d + a) + 1];
+                    re += er * rr - ei * ri;
+                    im += er * ri + ei * rr;
+                }
+            }
+            return new double[] {re, im};
+        }
+    }
+
     /** Carries an environment across site j with an operator (null: identity). */
     static double[] transfer(Chain c, double[] e, int j, double[] op) {
         int l = c.bond[j];
