@@ -1,323 +1,972 @@
 package dev.qsim.text;
 
+import java.util.ArrayDeque;
 import java.util.ArrayList;
-import java.util.Arrays;
-import java.util.HashMap;
+import java.util.Collections;
+import java.util.HashSet;
 import java.util.List;
-import java.util.Map;
-
-import org.apache.commons.numbers.complex.Complex;
+import java.util.Set;
 
 import dev.qsim.Circuit;
+import dev.qsim.Expression;
+import dev.qsim.Expression.Op;
 import dev.qsim.Gate;
-import dev.qsim.Operator;
+import dev.qsim.text.Ops.Step;
+import dev.qsim.text.Syntax.Alias;
+import dev.qsim.text.Syntax.Assignment;
 import dev.qsim.text.Syntax.Barrier;
-import dev.qsim.text.Syntax.Binary;
-import dev.qsim.text.Syntax.Constant;
-import dev.qsim.text.Syntax.Declaration;
-import dev.qsim.text.Syntax.Expression;
-import dev.qsim.text.Syntax.FunctionCall;
+import dev.qsim.text.Syntax.BitDeclaration;
+import dev.qsim.text.Syntax.Block;
+import dev.qsim.text.Syntax.Call;
+import dev.qsim.text.Syntax.Delay;
+import dev.qsim.text.Syntax.Duration;
+import dev.qsim.text.Syntax.Expr;
+import dev.qsim.text.Syntax.For;
 import dev.qsim.text.Syntax.GateCall;
 import dev.qsim.text.Syntax.GateDefinition;
 import dev.qsim.text.Syntax.If;
 import dev.qsim.text.Syntax.Include;
+import dev.qsim.text.Syntax.Indexed;
+import dev.qsim.text.Syntax.Jump;
 import dev.qsim.text.Syntax.Measure;
-import dev.qsim.text.Syntax.Negation;
-import dev.qsim.text.Syntax.Operand;
+import dev.qsim.text.Syntax.MeasureArrow;
+import dev.qsim.text.Syntax.Name;
 import dev.qsim.text.Syntax.Position;
-import dev.qsim.text.Syntax.Program;
+import dev.qsim.text.Syntax.QubitDeclaration;
 import dev.qsim.text.Syntax.Reset;
+import dev.qsim.text.Syntax.Return;
 import dev.qsim.text.Syntax.Statement;
-import dev.qsim.text.Syntax.Variable;
+import dev.qsim.text.Syntax.SubroutineDefinition;
+import dev.qsim.text.Syntax.VariableDeclaration;
+import dev.qsim.text.Syntax.While;
 
 /**
- * Turns the statements of a {@link Syntax} tree into circuit instructions. The parser hands it
- * each statement as soon as the statement ends ({@link #ended(Statement)}): declarations go into
- * the {@link Scope}; gate calls are resolved to qubit indices (a whole register broadcasts the
- * call over its indices), their parameters evaluated, and user gates expanded with their
- * parameters bound, each instruction counted against {@link QasmReader#MAX_INSTRUCTIONS}.
- *
- * <p>Expanding each statement as it ends, rather than the finished tree, keeps the reader's
- * problems in text order: a call on an unknown register is reported before a syntax error
- * further on. The instructions are held as pending operations until the program ends, since
- * the circuit's size is known only then; {@link #build(Program)} records them on a
- * {@link Circuit.Builder}.
- * Every problem the builder or the catalogue finds becomes a {@link CircuitFormatException} at
- * the position of the call it came from.
+ * Runs a program's statements as they are read and records the instructions they expand to
+ * ({@link Ops}). Declarations go into the {@link Scope}; values known when the file is read
+ * are computed ({@link Evaluator}), so constants, loop variables and the conditions on them
+ * decide what is recorded; values known only during the shot become {@link Expression}s, and
+ * blocks on them become the circuit's conditions and loops. Gate calls go to the
+ * {@link GateExpander}. Every step is paid for from the {@link Budget}; every instruction
+ * counts against the settings' limit. Every problem becomes a {@link CircuitFormatException}
+ * at the user's statement (for a problem inside a gate or subroutine, at the call, with the
+ * definition's position in the message).
  */
 final class Expander {
-    /** Records one instruction (or block) once the circuit's size is known. */
-    @FunctionalInterface
-    interface Op {
-        void apply(Circuit.Builder b, int qubits, int clbits);
+    /** How a statement ends. */
+    enum Flow {
+        /** On to the next statement. */
+        NORMAL,
+        /** {@code break}: out of the loop. */
+        BREAK,
+        /** {@code continue}: on to the next iteration. */
+        CONTINUE,
+        /** {@code return}: out of the subroutine. */
+        RETURN
     }
 
-    private final Scope scope;
-    /**
-     * The pending instructions of each ended statement not yet gathered into an enclosing
-     * block, in text order. An {@code if} ends after the statements of its block, so it
-     * gathers the last ones; at the end only the top-level statements' remain.
-     */
-    private final List<List<Op>> pending = new ArrayList<>();
-    private long emitted;
+    /** The deepest nesting of subroutine calls. */
+    static final int MAX_CALLS = 64;
+
+    /** A loop being unrolled (or a while loop, which is not). */
+    private record Loop(boolean unrolled, int dynamic) {
+    }
+
+    /** A subroutine being expanded. */
+    private static final class Frame {
+        final SubroutineDefinition definition;
+        final int dynamic;
+        Value returned;
+
+        Frame(SubroutineDefinition definition, int dynamic) {
+            this.definition = definition;
+            this.dynamic = dynamic;
+        }
+    }
+
+    private final QasmReader.Settings settings;
+    private final Budget budget;
+    private final Scope scope = new Scope();
+    private final Evaluator eval;
+    private final GateExpander gates;
+    /** Declares the circuit's variables while reading, to get the expressions that read them. */
+    private final Circuit.Builder variables = Circuit.builder(1, 0);
+    private final List<Circuit.Variable> declared = new ArrayList<>();
+    private final Set<String> circuitNames = new HashSet<>();
+    private final Set<String> inputsUsed = new HashSet<>();
+    private final ArrayDeque<Loop> loops = new ArrayDeque<>();
+    private final ArrayDeque<Frame> calls = new ArrayDeque<>();
+    private final Set<String> active = new HashSet<>();
+    /** The number of loops open when each subroutine being expanded was called. */
+    private final ArrayDeque<Integer> loopDepthAtCall = new ArrayDeque<>();
+    private int qubits;
+    private int clbits;
+    private boolean discards;
+    private List<Step> out = new ArrayList<>();
+    private long instructions;
+    /** How many blocks on values known only during the shot enclose the statement. */
+    private int dynamic;
+    /** The statement being expanded. */
+    private Position at = new Position(1, 1);
+
+    Expander(QasmReader.Settings settings) {
+        this.settings = settings;
+        this.budget = new Budget(settings.workBudget());
+        this.eval = new Evaluator(this, scope, budget);
+        this.gates = new GateExpander(this, scope, eval, budget);
+    }
+
+    // ------------------------------------------------------------------ shared helpers
+
+    Position at() {
+        return at;
+    }
+
+    void setAt(Position p) {
+        at = p;
+    }
+
+    /** A problem in a computation, reported at the statement with the operator's position. */
+    CircuitFormatException problem(Position where, String message) {
+        String note = where.equals(at) ? "" : " (at " + where + ")";
+        return at.error(message + note);
+    }
 
     /**
-     * Creates an expander for one read.
+     * A problem inside a gate's or subroutine's body, reported at the call.
      *
-     * @param scope where declarations go; the parser looks names up in it
+     * @param owner "gate 'g'" or "subroutine 'f'"
      */
-    Expander(Scope scope) {
-        this.scope = scope;
+    CircuitFormatException inside(CircuitFormatException e, Position call, String owner,
+            Position definition) {
+        return new CircuitFormatException(call.line(), call.column(), e, owner, definition);
     }
 
-    /** Expands a statement that has just ended. */
-    void ended(Statement s) {
-        List<Op> ops = new ArrayList<>();
-        if (s instanceof Include) {
-            scope.include();
-        } else if (s instanceof Declaration d) {
-            scope.declare(d);
-        } else if (s instanceof GateDefinition d) {
-            scope.define(d);
-        } else if (s instanceof GateCall c) {
-            topCall(c, ops);
-        } else if (s instanceof Measure m) {
-            measure(m, ops);
+    Value apply(Op op, Value a) {
+        try {
+            return Value.apply(op, a);
+        } catch (IllegalArgumentException e) {
+            throw at.error(e.getMessage());
+        }
+    }
+
+    Value apply(Op op, Value a, Value b) {
+        try {
+            return Value.apply(op, a, b);
+        } catch (IllegalArgumentException e) {
+            throw at.error(e.getMessage());
+        }
+    }
+
+    private Expression expression(Value v, String what) {
+        try {
+            return v.toExpression();
+        } catch (IllegalArgumentException e) {
+            throw at.error(what + ": " + e.getMessage());
+        }
+    }
+
+    private void emit(Step op) {
+        if (++instructions > settings.maxInstructions()) {
+            throw at.error("the program expands to more than " + settings.maxInstructions()
+                    + " instructions; if it is meant to be this large, raise the limit with"
+                    + " QasmReader.Settings.withMaxInstructions(int)");
+        }
+        out.add(op);
+    }
+
+    /** Records a catalogue gate (angles checked finite). */
+    void emitGate(Gate g, Value[] angles, int[] controls, int[] targets) {
+        boolean constant = true;
+        for (Value v : angles) {
+            constant &= v.isConstant();
+        }
+        if (constant) {
+            double[] a = new double[angles.length];
+            for (int i = 0; i < a.length; i++) {
+                a[i] = angles[i].asDouble();
+                if (!Double.isFinite(a[i])) {
+                    throw at.error("angle " + (i + 1) + " of " + g.id() + " is " + a[i]
+                            + "; angles must be finite");
+                }
+            }
+            emit(new Ops.GateOp(g, a, null, controls, targets, Ops.where(at)));
+            return;
+        }
+        Expression[] e = new Expression[angles.length];
+        for (int i = 0; i < e.length; i++) {
+            e[i] = expression(angles[i], "angle " + (i + 1) + " of " + g.id());
+        }
+        emit(new Ops.GateOp(g, null, e, controls, targets, Ops.where(at)));
+    }
+
+    /** Records {@code gphase(γ)} with a constant γ, reduced to [-π, π] when outside. */
+    void emitPhase(Value gamma) {
+        double g = gamma.asDouble();
+        if (!Double.isFinite(g)) {
+            throw at.error("the angle of gphase is " + g + "; angles must be finite");
+        }
+        if (Math.abs(g) > Math.PI) {
+            g = Math.IEEEremainder(g, 2 * Math.PI);
+        }
+        emit(new Ops.PhaseOp(g, Ops.where(at)));
+    }
+
+    /** The width of a declared type: the value in brackets, or the default (64, 1 for bool). */
+    int width(Syntax.Type t) {
+        Syntax.Kind k = t.kind();
+        if (t.width() == null) {
+            return k == Syntax.Kind.BOOL || k == Syntax.Kind.BIT ? 1 : 64;
+        }
+        long w = eval.constantInteger(t.width(), "width of the type");
+        if (k == Syntax.Kind.FLOAT && w != 64) {
+            throw t.width().at().error("only 64-bit floats are supported (float or float[64]),"
+                    + " not float[" + w + "]");
+        }
+        if (k == Syntax.Kind.BOOL) {
+            throw t.width().at().error("bool takes no width");
+        }
+        if (w < 1 || w > 64) {
+            throw t.width().at().error("the width of the type must be from 1 to 64 but was "
+                    + w);
+        }
+        return (int) w;
+    }
+
+    // ------------------------------------------------------------------ statements
+
+    /** Expands a top-level statement. */
+    void top(Statement s) {
+        exec(s);
+    }
+
+    private Flow run(List<Statement> body) {
+        for (Statement s : body) {
+            Flow f = exec(s);
+            if (f != Flow.NORMAL) {
+                return f;
+            }
+        }
+        return Flow.NORMAL;
+    }
+
+    private Flow exec(Statement s) {
+        Position saved = at;
+        at = s.at();
+        try {
+            budget.spend(1, at);
+            return statement(s);
+        } finally {
+            at = saved;
+        }
+    }
+
+    private Flow statement(Statement s) {
+        if (s instanceof GateCall c) {
+            if (scope.subroutine(c.name()) != null && scope.gate(c.name()) == null) {
+                subroutineStatement(c);
+            } else {
+                gates.call(c);
+            }
+        } else if (s instanceof MeasureArrow m) {
+            measure(m.qubits(), m.bits() == null ? null : eval.bits(m.bits()).indices());
+        } else if (s instanceof Assignment a) {
+            assignment(a);
         } else if (s instanceof Reset r) {
-            for (int q : scope.resolve(r.operand(), true)) {
-                count(r.at());
-                ops.add(at(r.at(), (b, nq, nc) -> b.reset(q)));
+            for (Expr o : r.operands()) {
+                for (int q : eval.qubits(o).indices()) {
+                    emit(new Ops.ResetOp(q, Ops.where(at)));
+                }
+            }
+        } else if (s instanceof Barrier b) {
+            for (Expr o : b.operands()) {
+                eval.qubits(o);
             }
         } else if (s instanceof If i) {
-            conditional(i, ops);
-        } else if (!(s instanceof Barrier)) {
-            throw new IllegalStateException("no expansion for " + s);
-        }
-        pending.add(ops);
-    }
-
-    /**
-     * Builds the circuit once the whole program has been parsed.
-     *
-     * @param program the program, each of whose statements this expander was handed
-     * @throws CircuitFormatException if the program declares no qubit or the circuit refuses
-     *     an instruction
-     */
-    Circuit build(Program program) {
-        if (pending.size() != program.statements().size()) {
-            throw new IllegalStateException("the expander was handed " + pending.size()
-                    + " top-level statements but the program has "
-                    + program.statements().size());
-        }
-        int qubits = scope.qubits();
-        int clbits = scope.clbits();
-        if (qubits == 0) {
-            throw program.end().error("the program declares no qubit; declare one with"
-                    + " 'qubit[n] q;'");
-        }
-        Circuit.Builder b = Circuit.builder(qubits, clbits);
-        for (List<Op> ops : pending) {
-            for (Op op : ops) {
-                op.apply(b, qubits, clbits);
-            }
-        }
-        return b.build();
-    }
-
-    private void count(Position t) {
-        if (++emitted > QasmReader.MAX_INSTRUCTIONS) {
-            throw t.error("the program expands to more than " + QasmReader.MAX_INSTRUCTIONS
-                    + " instructions");
-        }
-    }
-
-    private void measure(Measure m, List<Op> ops) {
-        int[] q = scope.resolve(m.qubits(), true);
-        int[] c = scope.resolve(m.bits(), false);
-        if (q.length != c.length) {
-            throw m.at().error("measure needs as many bits as qubits but got " + q.length
-                    + " qubit(s) and " + c.length + " bit(s)");
-        }
-        for (int i = 0; i < q.length; i++) {
-            int qi = q[i];
-            int ci = c[i];
-            count(m.at());
-            ops.add(at(m.at(), (b, nq, nc) -> b.measure(qi, ci)));
-        }
-    }
-
-    /** Gathers the pending instructions of an {@code if}'s block into one conditioned block. */
-    private void conditional(If s, List<Op> ops) {
-        List<List<Op>> parts = pending.subList(pending.size() - s.body().size(),
-                pending.size());
-        List<Op> block = new ArrayList<>();
-        for (List<Op> part : parts) {
-            block.addAll(part);
-        }
-        parts.clear();
-        int clbit = scope.resolve(s.bit(), false)[0];
-        int value = s.value();
-        List<Op> body = List.copyOf(block);
-        ops.add(at(s.at(), (b, nq, nc) -> b.ifBit(clbit, value, inner -> {
-            for (Op op : body) {
-                op.apply(inner, nq, nc);
-            }
-        })));
-    }
-
-    /** Expands a call outside gate definitions, broadcasting whole registers. */
-    private void topCall(GateCall call, List<Op> ops) {
-        List<int[]> lists = new ArrayList<>();
-        int n = -1;
-        for (Operand a : call.operands()) {
-            int[] q = scope.resolve(a, true);
-            if (a.whole()) {
-                if (n >= 0 && q.length != n) {
-                    throw a.at().error("registers of one call must have equal sizes, but '"
-                            + a.name() + "' has " + q.length + " qubits and an earlier one "
-                            + n);
-                }
-                n = q.length;
-            }
-            lists.add(q);
-        }
-        double[] p = evaluate(call, Map.of());
-        int reps = Math.max(n, 1);
-        for (int r = 0; r < reps; r++) {
-            int[] q = new int[lists.size()];
-            for (int i = 0; i < q.length; i++) {
-                int[] l = lists.get(i);
-                q[i] = l.length == 1 && !call.operands().get(i).whole() ? l[0] : l[r];
-            }
-            expand(call, p, q, ops, 0);
-        }
-    }
-
-    /** Appends the instructions of one call with evaluated parameters and qubits. */
-    private void expand(GateCall call, double[] p, int[] q, List<Op> ops, int depth) {
-        Position t = call.at();
-        if (depth > QasmReader.MAX_NESTING) {
-            throw t.error("gate definitions nested deeper than " + QasmReader.MAX_NESTING
-                    + " levels");
-        }
-        GateDefinition def = scope.definition(call.name());
-        if (def != null) {
-            boolean inverse = call.inverse();
-            List<Op> inner = inverse ? new ArrayList<>() : ops;
-            Map<String, Double> env = new HashMap<>();
-            for (int i = 0; i < p.length; i++) {
-                env.put(def.parameters().get(i), p[i]);
-            }
-            Map<String, Integer> qs = new HashMap<>();
-            for (int i = 0; i < q.length; i++) {
-                qs.put(def.qubits().get(i), q[i]);
-            }
-            for (GateCall c : def.body()) {
-                double[] cp = evaluate(c, env);
-                int[] cq = new int[c.operands().size()];
-                for (int i = 0; i < cq.length; i++) {
-                    cq[i] = qs.get(c.operands().get(i).name());
-                }
-                expand(c, cp, cq, inner, depth + 1);
-            }
-            if (inverse) {
-                List<Op> block = List.copyOf(inner);
-                ops.add(at(t, (b, nq, nc) -> b.append(replay(block, nq, nc).inverse())));
-            }
-            return;
-        }
-        count(t);
-        int k = call.controls();
-        boolean inverse = call.inverse();
-        QasmGates.Entry known = QasmGates.find(call.name());
-        if (known.globalPhase()) {
-            // ctrl(k) @ gphase(γ) is phase(γ) on the last control, controlled by the rest.
-            ops.add(at(t, (b, nq, nc) -> {
-                double gamma = inverse ? -p[0] : p[0];
-                if (k == 0) {
-                    b.apply(globalPhase(gamma), 0);
-                } else {
-                    b.controlled(Gate.PHASE, new double[] {gamma}, Arrays.copyOf(q, k - 1),
-                            q[k - 1]);
-                }
-            }));
-            return;
-        }
-        Gate gate = known.gate();
-        int[] controls = Arrays.copyOf(q, k);
-        int[] own = Arrays.copyOfRange(q, k, q.length);
-        ops.add(at(t, (b, nq, nc) -> {
-            Gate use = inverse ? gate.inverse() : gate;
-            double[] angles = inverse ? gate.inverseAngles(p) : p;
-            b.controlled(use, angles, controls, own);
-        }));
-    }
-
-    private static Circuit replay(List<Op> ops, int nq, int nc) {
-        Circuit.Builder tmp = Circuit.builder(nq, nc);
-        for (Op op : ops) {
-            op.apply(tmp, nq, nc);
-        }
-        return tmp.build();
-    }
-
-    /** The operator {@code e^{iγ} I} on one qubit. */
-    private static Operator globalPhase(double gamma) {
-        if (!Double.isFinite(gamma)) {
-            throw new IllegalArgumentException("gphase angle must be finite but was " + gamma);
-        }
-        Complex z = Complex.ofCis(gamma);
-        return Operator.of(new Complex[][] {{z, Complex.ZERO}, {Complex.ZERO, z}});
-    }
-
-    /**
-     * Wraps an instruction so that the builder's and the catalogue's refusals become the
-     * reader's exception at {@code t}, the position of the call in the text.
-     */
-    private static Op at(Position t, Op op) {
-        return (b, nq, nc) -> {
+            return conditional(i);
+        } else if (s instanceof For f) {
+            return loop(f);
+        } else if (s instanceof While w) {
+            whileLoop(w);
+        } else if (s instanceof Jump j) {
+            return jump(j);
+        } else if (s instanceof Return r) {
+            return giveBack(r);
+        } else if (s instanceof Block b) {
+            scope.open(false, null);
             try {
-                op.apply(b, nq, nc);
-            } catch (CircuitFormatException e) {
-                throw e;
-            } catch (IllegalArgumentException | IndexOutOfBoundsException e) {
-                throw new CircuitFormatException(t.line(), t.column(), e.getMessage(), e);
+                return run(b.statements());
+            } finally {
+                scope.close();
             }
-        };
+        } else if (s instanceof Delay d) {
+            delay(d);
+        } else {
+            declaration(s);
+        }
+        return Flow.NORMAL;
     }
 
-    /** The values of a call's parameters, with a definition's parameters bound by {@code env}. */
-    private static double[] evaluate(GateCall call, Map<String, Double> env) {
-        double[] out = new double[call.parameters().size()];
-        for (int i = 0; i < out.length; i++) {
-            out[i] = evaluate(call.parameters().get(i), env);
+    private void declaration(Statement s) {
+        if (s instanceof Include) {
+            scope.include();
+        } else if (s instanceof QubitDeclaration d) {
+            int n = size(d.size(), "qubit");
+            if ((long) qubits + n > Circuit.MAX_QUBITS) {
+                throw d.nameAt().error("register '" + Lexer.clip(d.name()) + "' brings the qubit"
+                        + " count to " + ((long) qubits + n) + " but at most "
+                        + Circuit.MAX_QUBITS + " are allowed");
+            }
+            budget.spend(n, at);
+            scope.declare(d.name(), new Scope.Qubits(range(qubits, n), d.size() == null),
+                    d.nameAt());
+            qubits += n;
+        } else if (s instanceof BitDeclaration d) {
+            bits(d);
+        } else if (s instanceof VariableDeclaration d) {
+            variable(d);
+        } else if (s instanceof Alias a) {
+            alias(a);
+        } else if (s instanceof GateDefinition d) {
+            scope.requireFreeGlobal(d.name(), d.nameAt());
+            gates.checkDefinition(d);
+            scope.define(d);
+        } else if (s instanceof SubroutineDefinition d) {
+            scope.define(d);
+        } else {
+            throw new IllegalStateException("no expansion for " + s.getClass());
+        }
+    }
+
+    private static int[] range(int first, int n) {
+        int[] out = new int[n];
+        for (int i = 0; i < n; i++) {
+            out[i] = first + i;
         }
         return out;
     }
 
-    /** The value of an expression, with the operations in the order they are written. */
-    private static double evaluate(Expression e, Map<String, Double> env) {
-        if (e instanceof Constant c) {
-            return c.value();
+    private int size(Expr e, String kind) {
+        if (e == null) {
+            return 1;
         }
-        if (e instanceof Variable v) {
-            return env.get(v.name());
+        long n = eval.constantInteger(e, "register size");
+        if (n < 1 || n > Circuit.MAX_QUBITS) {
+            throw e.at().error("a register needs at least 1 " + kind + " and at most "
+                    + Circuit.MAX_QUBITS + ", but the size was " + n);
         }
-        if (e instanceof Negation n) {
-            return -evaluate(n.operand(), env);
+        return (int) n;
+    }
+
+    private void bits(BitDeclaration d) {
+        int n = size(d.size(), "bit");
+        if ((long) clbits + n > Circuit.MAX_QUBITS) {
+            throw d.nameAt().error("register '" + Lexer.clip(d.name()) + "' brings the bit"
+                    + " count to " + ((long) clbits + n) + " but at most " + Circuit.MAX_QUBITS
+                    + " are allowed");
         }
-        if (e instanceof FunctionCall f) {
-            return f.function().apply(evaluate(f.argument(), env));
+        budget.spend(n, at);
+        int[] indices = range(clbits, n);
+        scope.declare(d.name(), new Scope.Bits(indices, d.size() == null, false), d.nameAt());
+        clbits += n;
+        if (d.value() instanceof Measure m) {
+            measure(m.operand(), indices);
+        } else if (d.value() != null) {
+            assignBits(indices, eval.value(d.value()), d.value().at());
         }
-        Binary b = (Binary) e;
-        double left = evaluate(b.left(), env);
-        double right = evaluate(b.right(), env);
-        return switch (b.operator()) {
-            case ADD -> left + right;
-            case SUBTRACT -> left - right;
-            case MULTIPLY -> left * right;
-            case DIVIDE -> left / right;
-            case POWER -> Math.pow(left, right);
-        };
+    }
+
+    private void variable(VariableDeclaration d) {
+        Syntax.Kind kind = d.type().kind();
+        int width = width(d.type());
+        switch (d.storage()) {
+            case CONSTANT: {
+                Value v = eval.value(d.value());
+                if (!v.isConstant()) {
+                    throw d.value().at().error("the value of const '" + Lexer.clip(d.name())
+                            + "' must be known when the file is read, but " + v.show()
+                            + " is computed during the shot");
+                }
+                scope.declare(d.name(), new Scope.Constant(v.convert(kind, width),
+                        "the constant"), d.nameAt());
+                return;
+            }
+            case INPUT: {
+                Number given = settings.inputs().get(d.name());
+                if (given == null) {
+                    throw d.nameAt().error("input '" + Lexer.clip(d.name()) + "' has no value;"
+                            + " give it with QasmReader.Settings.withInput(\""
+                            + Lexer.clip(d.name()) + "\", value)");
+                }
+                inputsUsed.add(d.name());
+                Value v = given instanceof Double x ? Value.ofReal(x) : Value.ofInt(
+                        given.longValue());
+                scope.declare(d.name(), new Scope.Constant(v.convert(kind, width), "the input"),
+                        d.nameAt());
+                return;
+            }
+            default:
+                break;
+        }
+        Circuit.VariableType type = kind == Syntax.Kind.INT ? Circuit.VariableType.INT
+                : kind == Syntax.Kind.UINT ? Circuit.VariableType.UINT
+                : kind == Syntax.Kind.FLOAT ? Circuit.VariableType.FLOAT
+                : kind == Syntax.Kind.ANGLE ? Circuit.VariableType.ANGLE
+                : Circuit.VariableType.BOOL;
+        Value init = null;
+        if (d.value() instanceof Measure m) {
+            throw m.at().error("a measurement gives bits; declare a bit or bit register to"
+                    + " receive it");
+        } else if (d.value() != null) {
+            init = eval.value(d.value());
+        }
+        String name = circuitName(d.name());
+        Expression e = variables.declare(name, type, width, null);
+        declared.add(new Circuit.Variable(name, type, type == Circuit.VariableType.INT
+                || type == Circuit.VariableType.UINT ? width : type == Circuit.VariableType.BOOL
+                ? 1 : 64));
+        scope.declare(d.name(), new Scope.Variable(name, e, type), d.nameAt());
+        if (init != null) {
+            emit(new Ops.AssignOp(name, expression(init, "the value of '" + Lexer.clip(d.name())
+                    + "'"), Ops.where(at)));
+        }
+    }
+
+    /** A name for a new variable of the circuit: as written, or made unique with a suffix. */
+    private String circuitName(String name) {
+        String n = name;
+        for (int k = 2; !circuitNames.add(n); k++) {
+            n = name + "_" + k;
+        }
+        return n;
+    }
+
+    private void alias(Alias a) {
+        List<int[]> parts = new ArrayList<>();
+        Boolean quantum = null;
+        long total = 0;
+        for (Expr part : a.parts()) {
+            Scope.Symbol base = symbolOf(part);
+            boolean q = base instanceof Scope.Qubits;
+            if (!q && !(base instanceof Scope.Bits)) {
+                throw part.at().error("an alias names qubits or bits, but '"
+                        + Lexer.clip(nameOf(part)) + "' is neither");
+            }
+            if (quantum != null && quantum != q) {
+                throw part.at().error("an alias cannot join qubits and bits");
+            }
+            quantum = q;
+            int[] indices = q ? eval.qubits(part).indices() : eval.bits(part).indices();
+            parts.add(indices);
+            total += indices.length;
+        }
+        int[] all = new int[(int) Math.min(total, Integer.MAX_VALUE - 8)];
+        int k = 0;
+        for (int[] p : parts) {
+            System.arraycopy(p, 0, all, k, p.length);
+            k += p.length;
+        }
+        if (quantum) {
+            requireDistinct(all, a.at(), "the qubits of alias '" + Lexer.clip(a.name()) + "'");
+            scope.declare(a.name(), new Scope.Qubits(all, false), a.nameAt());
+        } else {
+            requireDistinct(all, a.at(), "the bits of alias '" + Lexer.clip(a.name()) + "'");
+            scope.declare(a.name(), new Scope.Bits(all, false, false), a.nameAt());
+        }
+    }
+
+    private static void requireDistinct(int[] indices, Position where, String what) {
+        Set<Integer> seen = new HashSet<>();
+        for (int i : indices) {
+            if (!seen.add(i)) {
+                throw where.error("index " + i + " appears twice in " + what);
+            }
+        }
+    }
+
+    private Scope.Symbol symbolOf(Expr e) {
+        Expr x = e;
+        while (x instanceof Indexed i) {
+            x = i.base();
+        }
+        if (x instanceof Name n) {
+            Scope.Symbol s = scope.find(n.name(), n.at());
+            if (s == null) {
+                throw n.at().error("unknown name '" + Lexer.clip(n.name()) + "'");
+            }
+            return s;
+        }
+        throw e.at().error("expected a name");
+    }
+
+    private static String nameOf(Expr e) {
+        Expr x = e;
+        while (x instanceof Indexed i) {
+            x = i.base();
+        }
+        return x instanceof Name n ? n.name() : "?";
+    }
+
+    private void measure(Expr qubitOperand, int[] bits) {
+        int[] q = eval.qubits(qubitOperand).indices();
+        if (bits != null && bits.length != q.length) {
+            throw at.error("measure needs as many bits as qubits but got " + q.length
+                    + " qubit(s) and " + bits.length + " bit(s)");
+        }
+        for (int i = 0; i < q.length; i++) {
+            if (bits == null) {
+                discards = true;
+            }
+            emit(new Ops.MeasureOp(q[i], bits == null ? Ops.DISCARD : bits[i], Ops.where(at)));
+        }
+    }
+
+    private void assignment(Assignment a) {
+        Scope.Symbol target = symbolOf(a.target());
+        if (target instanceof Scope.Bits b) {
+            if (b.readOnly()) {
+                throw a.target().at().error("'" + Lexer.clip(nameOf(a.target())) + "' is an"
+                        + " argument of the subroutine, a value that cannot be assigned");
+            }
+            int[] bits = eval.bits(a.target()).indices();
+            if (a.value() instanceof Measure m) {
+                if (a.compound() != null) {
+                    throw m.at().error("a measurement can only be assigned with '='");
+                }
+                measure(m.operand(), bits);
+                return;
+            }
+            Value v = eval.value(a.value());
+            if (a.compound() != null) {
+                v = apply(a.compound(), Value.of(Expression.clbits(bits)), v);
+            }
+            assignBits(bits, v, a.value().at());
+            return;
+        }
+        if (target instanceof Scope.Variable var) {
+            if (a.target() instanceof Indexed) {
+                throw a.target().at().error("assigning to bits of a variable is unsupported;"
+                        + " assign the whole variable");
+            }
+            if (a.value() instanceof Measure m) {
+                throw m.at().error("a measurement gives bits; measure into a bit or bit"
+                        + " register");
+            }
+            Value v = eval.value(a.value());
+            if (a.compound() != null) {
+                v = apply(a.compound(), Value.of(var.value()), v);
+            }
+            emit(new Ops.AssignOp(var.circuitName(), expression(v, "the assigned value"),
+                    Ops.where(at)));
+            return;
+        }
+        if (target instanceof Scope.Constant c) {
+            throw a.target().at().error("'" + Lexer.clip(nameOf(a.target())) + "' is "
+                    + c.what() + ", which cannot be assigned");
+        }
+        throw a.target().at().error("'" + Lexer.clip(nameOf(a.target())) + "' names qubits,"
+                + " which cannot be assigned; use gates, measure or reset");
+    }
+
+    private void assignBits(int[] bits, Value v, Position valueAt) {
+        if (v.isFloat()) {
+            throw valueAt.error("bits take an integer or bool value, but " + v.show()
+                    + " is a float");
+        }
+        if (bits.length > 63) {
+            throw at.error("an assignment writes at most 63 bits, but the register has "
+                    + bits.length);
+        }
+        emit(new Ops.AssignBitsOp(bits, expression(v, "the assigned value"), Ops.where(at)));
+    }
+
+    private void delay(Delay d) {
+        if (!(d.duration() instanceof Duration t)) {
+            throw d.duration().at().error("delay takes a duration literal such as 100ns; other"
+                    + " duration expressions are unsupported");
+        }
+        Double perSecond = Lexer.PER_SECOND.get(t.unit());
+        double seconds;
+        if (perSecond != null) {
+            // Divided, so that 100ns is the double nearest 1e-7 (one rounding).
+            seconds = t.value() / perSecond;
+        } else {
+            if (Double.isNaN(settings.timeStep())) {
+                throw t.at().error("the length of dt is not known; give it in seconds with"
+                        + " QasmReader.Settings.withTimeStep(double), or write the delay in ns,"
+                        + " us, ms or s");
+            }
+            seconds = t.value() * settings.timeStep();
+        }
+        if (!Double.isFinite(seconds)) {
+            throw t.at().error("the delay " + t.value() + t.unit() + " is too long");
+        }
+        int[] q = null;
+        if (!d.operands().isEmpty()) {
+            List<int[]> lists = new ArrayList<>();
+            int total = 0;
+            for (Expr o : d.operands()) {
+                int[] x = eval.qubits(o).indices();
+                lists.add(x);
+                total += x.length;
+            }
+            q = new int[total];
+            int k = 0;
+            for (int[] x : lists) {
+                System.arraycopy(x, 0, q, k, x.length);
+                k += x.length;
+            }
+            requireDistinct(q, at, "the qubits of the delay");
+        }
+        emit(new Ops.DelayOp(seconds, q, Ops.where(at)));
+    }
+
+    // ------------------------------------------------------------------ control flow
+
+    /** A block run on a value known only during the shot: its instructions, recorded apart. */
+    private List<Step> dynamicBlock(List<Statement> body) {
+        List<Step> saved = out;
+        out = new ArrayList<>();
+        dynamic++;
+        scope.open(false, null);
+        try {
+            run(body);
+            return out;
+        } finally {
+            scope.close();
+            dynamic--;
+            out = saved;
+        }
+    }
+
+    private Flow conditional(If i) {
+        if (!i.grouped() && i.otherwise() == null && i.condition() instanceof Syntax.Binary b
+                && b.op() == Op.EQ && b.right() instanceof Syntax.Literal v
+                && v.type() != Expression.Type.FLOAT && (v.integer() == 0 || v.integer() == 1)
+                && (b.left() instanceof Name || b.left() instanceof Indexed)
+                && symbolOf(b.left()) instanceof Scope.Bits) {
+            int[] bit = eval.bits(b.left()).indices();
+            if (bit.length == 1) {
+                // if (c[0] == 1): the circuit's condition on one bit.
+                List<Step> body = dynamicBlock(i.then());
+                emit(new Ops.IfBitOp(bit[0], (int) v.integer(), body, Ops.where(at)));
+                return Flow.NORMAL;
+            }
+        }
+        Value c = eval.value(i.condition());
+        if (c.isConstant()) {
+            List<Statement> chosen = c.truth() ? i.then() : i.otherwise();
+            if (chosen == null) {
+                return Flow.NORMAL;
+            }
+            scope.open(false, null);
+            try {
+                return run(chosen);
+            } finally {
+                scope.close();
+            }
+        }
+        requireCondition(c, i.condition().at());
+        List<Step> then = dynamicBlock(i.then());
+        List<Step> otherwise = i.otherwise() == null ? List.of() : dynamicBlock(i.otherwise());
+        emit(new Ops.IfOp(c.toExpression(), then, otherwise, Ops.where(at)));
+        return Flow.NORMAL;
+    }
+
+    private static void requireCondition(Value c, Position where) {
+        if (c.isFloat()) {
+            throw where.error("a float is not a condition: " + c.show() + "; compare it, as in"
+                    + " x > 0.5");
+        }
+    }
+
+    private Flow loop(For f) {
+        Syntax.Kind kind = f.type() == null ? Syntax.Kind.INT : f.type().kind();
+        int width = f.type() == null ? 64 : width(f.type());
+        loops.push(new Loop(true, dynamic));
+        try {
+            if (f.over().set() != null) {
+                for (Expr e : f.over().set().values()) {
+                    Value v = eval.value(e);
+                    if (!v.isConstant()) {
+                        throw e.at().error("the values of a for loop must be known when the file"
+                                + " is read, but " + v.show() + " is computed during the shot;"
+                                + " use a while loop");
+                    }
+                    Flow flow = iteration(f, convert(v, kind, width, e.at()));
+                    if (flow == Flow.BREAK) {
+                        break;
+                    }
+                    if (flow == Flow.RETURN) {
+                        return flow;
+                    }
+                }
+                return Flow.NORMAL;
+            }
+            Syntax.Range r = f.over().range();
+            if (r.start() == null || r.end() == null) {
+                throw r.at().error("the range of a for loop needs its start and its end, as in"
+                        + " [0:3]");
+            }
+            long start = rangeBound(r.start());
+            long end = rangeBound(r.end());
+            long step = r.step() == null ? 1 : rangeBound(r.step());
+            if (step == 0) {
+                throw r.at().error("the step of a range must not be 0");
+            }
+            for (long i = start; step > 0 ? i <= end : i >= end; ) {
+                Flow flow = iteration(f, convert(Value.ofInt(i), kind, width, r.at()));
+                if (flow == Flow.BREAK) {
+                    break;
+                }
+                if (flow == Flow.RETURN) {
+                    return flow;
+                }
+                long next = i + step;
+                if ((step > 0) != (next > i)) {
+                    break; // the next value would overflow
+                }
+                i = next;
+            }
+            return Flow.NORMAL;
+        } finally {
+            loops.pop();
+        }
+    }
+
+    private Value convert(Value v, Syntax.Kind kind, int width, Position where) {
+        try {
+            return v.convert(kind, width);
+        } catch (IllegalArgumentException e) {
+            throw where.error(e.getMessage());
+        }
+    }
+
+    private long rangeBound(Expr e) {
+        try {
+            return eval.constantInteger(e, "bound of the loop's range");
+        } catch (CircuitFormatException x) {
+            if (x.problem().contains("computed during the shot")) {
+                throw e.at().error(x.problem() + " (a for loop's range is made of numbers,"
+                        + " const, input and loop variables); use a while loop for a bound known"
+                        + " only during the shot");
+            }
+            throw x;
+        }
+    }
+
+    private Flow iteration(For f, Value v) {
+        budget.spend(1, at);
+        scope.open(false, null);
+        try {
+            scope.declare(f.name(), new Scope.Constant(v, "the loop variable"), f.nameAt());
+            Flow flow = run(f.body());
+            return flow == Flow.CONTINUE ? Flow.NORMAL : flow;
+        } finally {
+            scope.close();
+        }
+    }
+
+    private void whileLoop(While w) {
+        int before = out.size();
+        Value c = eval.value(w.condition());
+        if (out.size() != before) {
+            throw w.condition().at().error("the condition of a while loop cannot call a"
+                    + " subroutine that records instructions (it would run once, not before"
+                    + " each iteration)");
+        }
+        if (c.isConstant() && !c.truth()) {
+            return;
+        }
+        requireCondition(c, w.condition().at());
+        loops.push(new Loop(false, dynamic));
+        List<Step> body;
+        try {
+            body = dynamicBlock(w.body());
+        } finally {
+            loops.pop();
+        }
+        int bound = w.bound() > 0 ? w.bound() : settings.loopBound();
+        emit(new Ops.WhileOp(c.toExpression(), bound, body, Ops.where(at)));
+    }
+
+    private Flow jump(Jump j) {
+        String word = j.breaks() ? "break" : "continue";
+        Loop l = loops.peek();
+        if (l == null || (!loopDepthAtCall.isEmpty() && loops.size() <= loopDepthAtCall.peek())) {
+            throw at.error("'" + word + "' outside a loop");
+        }
+        if (!l.unrolled()) {
+            throw at.error("'" + word + "' in a while loop is unsupported: the circuit's loops"
+                    + " end only when their condition fails or their bound is reached");
+        }
+        if (dynamic > l.dynamic()) {
+            throw at.error("'" + word + "' inside an if on a value known only during the shot"
+                    + " is unsupported; only a for loop's own flow (known when the file is"
+                    + " read) can be cut short");
+        }
+        return j.breaks() ? Flow.BREAK : Flow.CONTINUE;
+    }
+
+
+    // ------------------------------------------------------------------ subroutines
+
+    private Flow giveBack(Return r) {
+        Frame f = calls.peek();
+        if (f == null) {
+            throw at.error("'return' outside a subroutine");
+        }
+        if (dynamic > f.dynamic) {
+            throw at.error("'return' inside an if on a value known only during the shot is"
+                    + " unsupported");
+        }
+        if (r.value() == null) {
+            f.returned = null;
+        } else if (r.value() instanceof Measure m) {
+            int n = eval.qubits(m.operand()).indices().length;
+            if ((long) clbits + n > Circuit.MAX_QUBITS) {
+                throw at.error("too many bits: at most " + Circuit.MAX_QUBITS);
+            }
+            int[] bits = range(clbits, n);
+            clbits += n;
+            measure(m.operand(), bits);
+            f.returned = Value.of(Expression.clbits(bits));
+        } else {
+            f.returned = eval.value(r.value());
+        }
+        return Flow.RETURN;
+    }
+
+    private void subroutineStatement(GateCall c) {
+        if (!c.modifiers().isEmpty()) {
+            throw c.at().error("'" + Lexer.clip(c.name()) + "' is a subroutine; modifiers apply"
+                    + " only to gates");
+        }
+        if (!c.operands().isEmpty()) {
+            throw c.operands().get(0).at().error("a subroutine takes all its arguments in"
+                    + " parentheses, as in " + Lexer.clip(c.name()) + "(q[0], 0.5);");
+        }
+        invoke(scope.subroutine(c.name()), c.arguments(), c.at(), false);
+    }
+
+    /** Expands a subroutine called in an expression and gives its value. */
+    Value subroutineValue(Call c) {
+        return invoke(scope.subroutine(c.name()), c.arguments(), c.at(), true);
+    }
+
+    private Value invoke(SubroutineDefinition d, List<Expr> args, Position callAt,
+            boolean needValue) {
+        String owner = "subroutine '" + Lexer.clip(d.name()) + "'";
+        if (args.size() != d.arguments().size()) {
+            throw callAt.error(owner + " takes " + d.arguments().size() + " argument(s) but "
+                    + args.size() + " were given");
+        }
+        if (needValue && d.returns() == null) {
+            throw callAt.error(owner + " returns no value");
+        }
+        if (active.contains(d.name()) || calls.size() >= MAX_CALLS) {
+            throw callAt.error(owner + " is called inside itself; recursion is unsupported (a"
+                    + " circuit is expanded when it is read)");
+        }
+        budget.spend(1, at);
+        Scope.Symbol[] bound = new Scope.Symbol[args.size()];
+        Set<Integer> passedQubits = new HashSet<>();
+        for (int i = 0; i < bound.length; i++) {
+            Syntax.Argument a = d.arguments().get(i);
+            Expr e = args.get(i);
+            Syntax.Kind kind = a.type().kind();
+            if (kind == Syntax.Kind.QUBIT || kind == Syntax.Kind.BIT) {
+                boolean quantum = kind == Syntax.Kind.QUBIT;
+                Evaluator.Resolved r = quantum ? eval.qubits(e) : eval.bits(e);
+                int want = a.type().width() == null ? 1 : size(a.type().width(), "qubit");
+                if (r.indices().length != want) {
+                    throw e.at().error("argument '" + Lexer.clip(a.name().name()) + "' of "
+                            + owner + " takes " + want + (quantum ? " qubit(s)" : " bit(s)")
+                            + " but " + r.indices().length + " were given");
+                }
+                if (quantum) {
+                    for (int q : r.indices()) {
+                        if (!passedQubits.add(q)) {
+                            throw e.at().error("qubit " + q + " is passed to " + owner
+                                    + " twice");
+                        }
+                    }
+                    bound[i] = new Scope.Qubits(r.indices(), a.type().width() == null);
+                } else {
+                    bound[i] = new Scope.Bits(r.indices(), a.type().width() == null, true);
+                }
+            } else {
+                Value v = convert(eval.value(e), kind, width(a.type()), e.at());
+                bound[i] = new Scope.Constant(v, "an argument of the subroutine");
+            }
+        }
+        Frame frame = new Frame(d, dynamic);
+        Position saved = at;
+        scope.open(true, owner);
+        calls.push(frame);
+        active.add(d.name());
+        loopDepthAtCall.push(loops.size());
+        try {
+            for (int i = 0; i < bound.length; i++) {
+                Syntax.Declared name = d.arguments().get(i).name();
+                scope.declare(name.name(), bound[i], name.at());
+            }
+            run(d.body());
+            if (d.returns() != null && frame.returned == null) {
+                throw d.at().error(owner + " ended without returning a value");
+            }
+            if (d.returns() == null && frame.returned != null) {
+                throw d.at().error(owner + " returns a value but declares no return type");
+            }
+            if (frame.returned == null) {
+                return null;
+            }
+            if (d.returns().kind() == Syntax.Kind.BIT && !frame.returned.isConstant()) {
+                return frame.returned;
+            }
+            return convert(frame.returned, d.returns().kind(), width(d.returns()),
+                    d.returns().at());
+        } catch (CircuitFormatException e) {
+            throw inside(e, callAt, owner, d.at());
+        } finally {
+            loopDepthAtCall.pop();
+            active.remove(d.name());
+            calls.pop();
+            scope.close();
+            at = saved;
+        }
+    }
+
+    // ------------------------------------------------------------------ the end
+
+    /**
+     * Builds the circuit once the whole program has been read.
+     *
+     * @param end where the text ends
+     * @throws CircuitFormatException if the program declares no qubit, an input given in the
+     *     settings is not declared, or the circuit refuses an instruction
+     */
+    Circuit finish(Position end) {
+        at = end;
+        List<String> unused = new ArrayList<>(settings.inputs().keySet());
+        unused.removeAll(inputsUsed);
+        if (!unused.isEmpty()) {
+            Collections.sort(unused);
+            throw end.error("the settings give a value for input '" + Lexer.clip(unused.get(0))
+                    + "' but the program declares no such input");
+        }
+        if (qubits == 0) {
+            throw end.error("the program declares no qubit; declare one with 'qubit[n] q;'");
+        }
+        int nc = clbits + (discards ? 1 : 0);
+        if (nc > Circuit.MAX_QUBITS) {
+            throw end.error("the program needs " + nc + " classical bits but at most "
+                    + Circuit.MAX_QUBITS + " are allowed");
+        }
+        Circuit.Builder b = Circuit.builder(qubits, nc);
+        for (Circuit.Variable v : declared) {
+            b.declare(v.name(), v.type(), v.width(), null);
+        }
+        Ops.record(out, b, clbits);
+        return b.build();
     }
 }
