@@ -45,8 +45,32 @@ final class Evaluator {
         return expander.problem(at, message);
     }
 
+    /**
+     * The most nested evaluations, each open frame of the scope counting as
+     * {@link #FRAME_WEIGHT}: evaluation recurses once per level of an expression, and a
+     * subroutine called in an expression opens a frame, so the two together bound the stack.
+     */
+    static final int MAX_WEIGHT = 1600;
+    static final int FRAME_WEIGHT = 8;
+
+    private int nesting;
+
     /** Evaluates an expression. */
     Value value(Expr e) {
+        if (nesting + FRAME_WEIGHT * scope.depth() >= MAX_WEIGHT) {
+            throw expander.at().error("expressions and the subroutine calls in them nest too"
+                    + " deep to evaluate (more than " + MAX_WEIGHT + " levels, each block,"
+                    + " loop body, gate body or call counting " + FRAME_WEIGHT + ")");
+        }
+        nesting++;
+        try {
+            return compute(e);
+        } finally {
+            nesting--;
+        }
+    }
+
+    private Value compute(Expr e) {
         budget.spend(1, expander.at());
         if (e instanceof Literal l) {
             return Value.of(l);

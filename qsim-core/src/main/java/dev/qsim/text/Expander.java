@@ -292,7 +292,7 @@ final class Expander {
         } else if (s instanceof Return r) {
             return giveBack(r);
         } else if (s instanceof Block b) {
-            scope.open(false, null);
+            scope.open(false, null, at);
             try {
                 return run(b.statements());
             } finally {
@@ -627,7 +627,7 @@ final class Expander {
         List<Step> saved = out;
         out = new ArrayList<>();
         dynamic++;
-        scope.open(false, null);
+        scope.open(false, null, at);
         try {
             run(body);
             return out;
@@ -658,7 +658,7 @@ final class Expander {
             if (chosen == null) {
                 return Flow.NORMAL;
             }
-            scope.open(false, null);
+            scope.open(false, null, at);
             try {
                 return run(chosen);
             } finally {
@@ -756,7 +756,7 @@ final class Expander {
 
     private Flow iteration(For f, Value v) {
         budget.spend(1, at);
-        scope.open(false, null);
+        scope.open(false, null, at);
         try {
             scope.declare(f.name(), new Scope.Constant(v, "the loop variable"), f.nameAt());
             Flow flow = run(f.body());
@@ -901,7 +901,7 @@ final class Expander {
         }
         Frame frame = new Frame(d, dynamic);
         Position saved = at;
-        scope.open(true, owner);
+        scope.open(true, owner, at);
         calls.push(frame);
         active.add(d.name());
         loopDepthAtCall.push(loops.size());

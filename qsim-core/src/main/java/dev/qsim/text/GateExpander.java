@@ -406,7 +406,7 @@ final class GateExpander {
         String owner = t.standard() ? "gate '" + t.name() + "' of stdgates.inc"
                 : "gate '" + Lexer.clip(t.name()) + "'";
         Position saved = ex.at();
-        scope.open(true, owner);
+        scope.open(true, owner, at);
         try {
             for (int i = 0; i < args.length; i++) {
                 scope.declare(d.parameters().get(i).name(), new Scope.Constant(args[i],

@@ -417,10 +417,15 @@ public final class QasmWriter {
             } else if (e.type() == Expression.Type.BOOL) {
                 sb.append(e.evaluateInteger(null) != 0 ? "true" : "false");
             } else if (e.type() == Expression.Type.INT) {
+                // A negative constant in parentheses: -2 ** x would be -(2 ** x).
                 long v = e.evaluateInteger(null);
-                sb.append(v == Long.MIN_VALUE ? "(-9223372036854775807 - 1)" : Long.toString(v));
+                sb.append(v == Long.MIN_VALUE ? "(-9223372036854775807 - 1)"
+                        : v < 0 ? "(" + v + ")" : Long.toString(v));
             } else {
-                sb.append(Double.toString(e.evaluateReal(null)));
+                double v = e.evaluateReal(null);
+                boolean negative = Double.doubleToRawLongBits(v) < 0;
+                sb.append(negative ? "(" : "").append(Double.toString(v))
+                        .append(negative ? ")" : "");
             }
             return;
         }

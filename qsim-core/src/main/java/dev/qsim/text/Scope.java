@@ -76,7 +76,15 @@ final class Scope {
         }
     }
 
+    /**
+     * The deepest nesting of frames while expanding (blocks, loop iterations, gate bodies and
+     * subroutine calls together), so that expansion, which recurses once per frame, never
+     * exhausts the stack.
+     */
+    static final int MAX_DEPTH = 128;
+
     private final Frame global = new Frame(null, false, null);
+    private int depth;
     private Frame current = global;
     private final Map<String, GateDefinition> gates = new HashMap<>();
     private final Map<String, SubroutineDefinition> subroutines = new HashMap<>();
@@ -102,13 +110,26 @@ final class Scope {
      *
      * @param sealed whether it starts a gate body or subroutine
      * @param owner the gate or subroutine, for messages (or null)
+     * @param at the statement that opens it
+     * @throws CircuitFormatException if frames would nest deeper than {@link #MAX_DEPTH}
      */
-    void open(boolean sealed, String owner) {
+    void open(boolean sealed, String owner, Position at) {
+        if (depth >= MAX_DEPTH) {
+            throw at.error("blocks, loop bodies, gate bodies and subroutine calls nest more than "
+                    + MAX_DEPTH + " levels deep when expanded");
+        }
+        depth++;
         current = new Frame(current, sealed, owner);
+    }
+
+    /** The number of frames open. */
+    int depth() {
+        return depth;
     }
 
     /** Closes the innermost frame. */
     void close() {
+        depth--;
         current = current.parent;
     }
 

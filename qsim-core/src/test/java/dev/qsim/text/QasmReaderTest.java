@@ -10,9 +10,11 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
 import dev.qsim.Circuit;
+import dev.qsim.Expression;
 import dev.qsim.Gate;
 import dev.qsim.Gates;
 import dev.qsim.Operator;
+import dev.qsim.Simulator;
 
 /**
  * Each construct of the subset against the circuit built by hand. Syntax and meaning follow the
@@ -237,22 +239,25 @@ class QasmReaderTest {
 
     @Test
     void refusesAProgramThatExpandsToTooManyInstructions() {
-        // Each gate doubles the one before: g20 is 2^20 > MAX_INSTRUCTIONS instructions.
+        // Each gate doubles the one before: g10 is 2^10 instructions. The default limit is
+        // MAX_INSTRUCTIONS; a register of one more qubit than that, broadcast, passes it.
         StringBuilder sb = new StringBuilder(HEAD + "gate g0 a { x a; }\n");
-        for (int i = 1; i <= 20; i++) {
+        for (int i = 1; i <= 10; i++) {
             sb.append("gate g").append(i).append(" a { g").append(i - 1).append(" a; g")
                     .append(i - 1).append(" a; }\n");
         }
-        String fits = sb + "qubit q;\ng19 q;\n";
-        assertEquals(1 << 19, QasmReader.read(fits).instructions().size());
-        QasmReader.Settings generous = QasmReader.Settings.defaults().withWorkBudget(1L << 40);
+        String g10 = sb + "qubit q;\ng10 q;\n";
+        QasmReader.Settings s = QasmReader.Settings.defaults();
+        assertEquals(1 << 10, QasmReader.read(g10, s.withMaxInstructions(1 << 10)).size());
         CircuitFormatException e = assertThrows(CircuitFormatException.class,
-                () -> QasmReader.read(sb + "qubit q;\ng20 q;\n", generous));
+                () -> QasmReader.read(g10, s.withMaxInstructions((1 << 10) - 1)));
+        assertTrue(e.getMessage().contains("expands to more than 1023 instructions"),
+                e.getMessage());
+        assertTrue(e.getMessage().contains("withMaxInstructions"), e.getMessage());
+        e = assertThrows(CircuitFormatException.class, () -> QasmReader.read(HEAD + "qubit["
+                + (QasmReader.MAX_INSTRUCTIONS + 1) + "] q;\nh q;\n"));
         assertTrue(e.getMessage().contains("expands to more than "
                 + QasmReader.MAX_INSTRUCTIONS + " instructions"), e.getMessage());
-        assertTrue(e.getMessage().contains("withMaxInstructions"), e.getMessage());
-        assertEquals(1 << 20, QasmReader.read(sb + "qubit q;\ng20 q;\n", generous
-                .withMaxInstructions(1 << 20)).size());
     }
 
     @Test
@@ -280,5 +285,303 @@ class QasmReaderTest {
         assertTrue(e.getMessage().contains("Infinity"), e.getMessage());
         assertTrue(e.getMessage().contains("inside gate 'outer' defined at line 4, column 1;"
                 + " the problem is at line 3, column 19, 2 definitions deep"), e.getMessage());
+    }
+
+    // ---------------------------------------------------------------- the constructs added
+    // Each against the circuit built by hand from the OpenQASM 3 specification (Cross et al.
+    // 2022, and the live specification at openqasm.com; section named with each test, read
+    // from memory).
+
+    @Test
+    void openQasm2RegistersArrowsAndDiscardedResults() {
+        // "Quantum and classical registers": qreg and creg are the OpenQASM 2 spellings of
+        // qubit[n] and bit[n]; "Measurement": measure q -> c, and measure q whose result is
+        // dropped (here kept in one extra classical bit after the declared ones).
+        Circuit read = QasmReader.read(HEAD + "qreg q[2];\ncreg c[2];\nmeasure q -> c;\n"
+                + "measure q[0];\nmeasure q[1];\n");
+        Circuit hand = Circuit.builder(2, 3).measure(0, 0).measure(1, 1).measure(0, 2)
+                .measure(1, 2).build();
+        assertEquals(hand, read);
+    }
+
+    @Test
+    void rangesSetsNegativeIndicesAndAliases() {
+        // "Register concatenation and slicing": ranges include both ends and take a step in
+        // the middle (a:step:b), sets {i, j} keep their order, -1 is the last index; "Aliasing":
+        // let joins registers with ++.
+        Circuit read = QasmReader.read(HEAD + "qubit[5] q;\nh q[1:3];\nx q[0:2:4];\n"
+                + "z q[{4, 1}];\ny q[-1];\nlet a = q[0:1] ++ q[4];\ncx a[2], a[0];\ns a;\n");
+        Circuit hand = Circuit.builder(5, 0).h(1).h(2).h(3).x(0).x(2).x(4).z(4).z(1).y(4)
+                .cnot(4, 0).s(0).s(1).s(4).build();
+        assertEquals(hand, read);
+    }
+
+    @Test
+    void forLoopsUnrollWithTheirVariable() {
+        // "Looping and branching": for over a range (both ends included), a stepped range, a
+        // set; break and continue; the loop variable in indices and angles.
+        Circuit read = QasmReader.read(HEAD + "qubit[4] q;\n"
+                + "for int i in [0:3] { rx(i * 0.5) q[i]; }\n"
+                + "for uint j in {3, 1} { h q[j]; }\n"
+                + "for int k in [3:-2:0] { x q[k]; }\n"
+                + "for i in [0:5] { if (i == 1) continue; if (i == 3) break; z q[i]; }\n");
+        Circuit hand = Circuit.builder(4, 0).rx(0, 0.0).rx(1, 0.5).rx(2, 1.0).rx(3, 1.5)
+                .h(3).h(1).x(3).x(1).z(0).z(2).build();
+        assertEquals(hand, read);
+    }
+
+    @Test
+    void constantsAndInputsAreKnownWhenRead() {
+        // "Compile-time constants" and "Input/output": a const is computed when read, an input
+        // comes from outside the program (here the reader's settings).
+        String text = HEAD + "const int n = 3;\ninput float theta;\ninput int reps;\n"
+                + "qubit[n] q;\nfor int i in [1:reps] { ry(theta) q[i]; }\n";
+        QasmReader.Settings s = QasmReader.Settings.defaults().withInput("theta", 0.25)
+                .withInput("reps", 2);
+        assertEquals(Circuit.builder(3, 0).ry(1, 0.25).ry(2, 0.25).build(),
+                QasmReader.read(text, s));
+        CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                () -> QasmReader.read(text, s.withInput("thta", 1.0)));
+        assertTrue(e.getMessage().contains("input 'thta' but the program declares no such"),
+                e.getMessage());
+    }
+
+    @Test
+    void classicalVariablesAndAssignments() {
+        // "Classical types": int[8] wraps, uint[3] wraps, angles reduce to [0, 2pi) (all on
+        // assignment, Circuit.VariableType); compound assignments such as += mean x = x + e;
+        // bits take integer values, bit j of the value to bit j of the register.
+        Circuit read = QasmReader.read(HEAD + "qubit q;\nbit[2] c;\nint[8] n = 250;\n"
+                + "n += 10;\nuint[3] u;\nu = 9;\nfloat f = 1.5;\nf *= 2;\nangle a = 7.0;\n"
+                + "bool b = c[0] == 1;\nc = 2;\nc[0] ^= 1;\nif (n == 4) x q;\n");
+        Circuit.Builder h = Circuit.builder(1, 2);
+        Expression n = h.declare("n", Circuit.VariableType.INT, 8, Expression.constant(250));
+        h.assign("n", Expression.of(Expression.Op.ADD, n, Expression.constant(10)));
+        h.declare("u", Circuit.VariableType.UINT, 3, null);
+        h.assign("u", Expression.constant(9));
+        Expression f = h.declare("f", Circuit.VariableType.FLOAT, 64,
+                Expression.constant(1.5));
+        h.assign("f", Expression.of(Expression.Op.MUL, f, Expression.constant(2)));
+        h.declare("a", Circuit.VariableType.ANGLE, 64, Expression.constant(7.0));
+        h.declare("b", Circuit.VariableType.BOOL, 1, Expression.of(Expression.Op.EQ,
+                Expression.clbit(0), Expression.constant(1)));
+        h.assignClbits(new int[] {0, 1}, Expression.constant(2));
+        h.assignClbits(new int[] {0}, Expression.of(Expression.Op.BIT_XOR, Expression.clbit(0),
+                Expression.constant(1)));
+        h.ifThen(Expression.of(Expression.Op.EQ, n, Expression.constant(4)), t -> t.x(0));
+        assertEquals(h.build(), read);
+        // 250 + 10 = 260 wraps to 4 in eight signed bits, so the X runs in every shot.
+        Circuit measured = QasmReader.read(HEAD + "qubit q;\nbit c;\nint[8] n = 250;\n"
+                + "n += 10;\nif (n == 4) x q;\nc = measure q;\n");
+        assertEquals(1.0, Simulator.seeded(3).distribution(measured)[1], 1e-15);
+    }
+
+    @Test
+    void conditionsOnBitsRegistersAndExpressions() {
+        // "Conditional statements": if (bit == value) without else is the circuit's one-bit
+        // condition; with else, in parentheses of its own, on a whole register (read as an
+        // unsigned integer) or on any expression, the general one; a condition known when read
+        // chooses its block at once.
+        Circuit read = QasmReader.read(HEAD + "qubit[2] q;\nbit[2] c;\nc[0] = measure q[0];\n"
+                + "if (c[0] == 1) x q[1];\nif (c[0] == 1) x q[1]; else z q[1];\n"
+                + "if ((c[0] == 1)) h q[1];\nif (c == 2) y q[0];\nif (c[1]) s q[0];\n"
+                + "if (!c[1] && c[0] != 0) t q[0];\n"
+                + "const bool debug = false;\nif (debug) x q[0]; else y q[0];\n");
+        Expression c0is1 = Expression.of(Expression.Op.EQ, Expression.clbit(0),
+                Expression.constant(1));
+        Circuit hand = Circuit.builder(2, 2).measure(0, 0)
+                .ifBit(0, 1, b -> b.x(1))
+                .ifThenElse(c0is1, b -> b.x(1), b -> b.z(1))
+                .ifThen(c0is1, b -> b.h(1))
+                .ifThen(Expression.of(Expression.Op.EQ, Expression.clbits(0, 1),
+                        Expression.constant(2)), b -> b.y(0))
+                .ifThen(Expression.clbit(1), b -> b.s(0))
+                .ifThen(Expression.of(Expression.Op.AND, Expression.of(Expression.Op.NOT,
+                        Expression.clbit(1)), Expression.of(Expression.Op.NE,
+                        Expression.clbit(0), Expression.constant(0))), b -> b.t(0))
+                .y(0).build();
+        assertEquals(hand, read);
+    }
+
+    @Test
+    void whileLoopsTakeTheirBoundFromTheAnnotationOrTheSettings() {
+        // "Looping and branching": while on a measured value; the circuit's loops need a
+        // bound, @max_iterations n or the settings' loop bound.
+        String text = HEAD + "qubit q;\nbit c;\nwhile (c == 0) { h q; c = measure q; }\n"
+                + "@max_iterations 7\nwhile (c == 1) { x q; c = measure q; }\n";
+        Expression zero = Expression.of(Expression.Op.EQ, Expression.clbit(0),
+                Expression.constant(0));
+        Expression one = Expression.of(Expression.Op.EQ, Expression.clbit(0),
+                Expression.constant(1));
+        for (int bound : new int[] {QasmReader.Settings.DEFAULT_LOOP_BOUND, 12}) {
+            Circuit hand = Circuit.builder(1, 1)
+                    .whileLoop(zero, bound, b -> b.h(0).measure(0, 0))
+                    .whileLoop(one, 7, b -> b.x(0).measure(0, 0)).build();
+            assertEquals(hand, QasmReader.read(text, QasmReader.Settings.defaults()
+                    .withLoopBound(bound)));
+        }
+    }
+
+    @Test
+    void modifiersStackAndApplyToDefinedGates() {
+        // "Quantum gate modifiers": ctrl @ g adds a control to every gate of g's body, inv @ g
+        // reverses the body and inverts each gate, pow(k) @ g repeats it (a rotation's angle is
+        // multiplied), pow(1/2) @ p(θ) is p(θ/2) (the principal root), and negctrl @ g is g
+        // controlled on |0>: X, controlled g, X (Barenco et al. 1995, Phys. Rev. A 52, 3457).
+        Circuit read = QasmReader.read(HEAD + "gate rot(t) a { rz(t) a; h a; }\nqubit[3] q;\n"
+                + "ctrl @ rot(0.5) q[0], q[1];\nnegctrl @ rot(0.5) q[0], q[1];\n"
+                + "ctrl @ ctrl @ x q[0], q[1], q[2];\ninv @ ctrl @ rot(0.5) q[2], q[1];\n"
+                + "pow(3) @ s q[0];\npow(-2) @ rx(0.25) q[1];\npow(2) @ rot(0.1) q[2];\n"
+                + "pow(0.5) @ p(1.0) q[0];\nnegctrl(2) @ x q[0], q[1], q[2];\n");
+        Circuit hand = Circuit.builder(3, 0)
+                .gate(Gate.CRZ, new double[] {0.5}, 0, 1).gate(Gate.CH, 0, 1)
+                .x(0).gate(Gate.CRZ, new double[] {0.5}, 0, 1).gate(Gate.CH, 0, 1).x(0)
+                .toffoli(0, 1, 2)
+                .gate(Gate.CH, 2, 1).gate(Gate.CRZ, new double[] {-0.5}, 2, 1)
+                .s(0).s(0).s(0).rx(1, -0.5)
+                .rz(2, 0.1).h(2).rz(2, 0.1).h(2)
+                .phase(0, 0.5)
+                .x(0).x(1).toffoli(0, 1, 2).x(1).x(0).build();
+        assertEquals(hand, read);
+    }
+
+    /** The 2x2 matrix of the specification's U(θ, φ, λ), times e^{iγ}. */
+    private static Complex[][] u(double theta, double phi, double lambda, double gamma) {
+        Complex g = Complex.ofCis(gamma);
+        double c = Math.cos(theta / 2);
+        double s = Math.sin(theta / 2);
+        return new Complex[][] {
+            {g.multiply(c), Complex.ofCis(lambda).multiply(-s).multiply(g)},
+            {Complex.ofCis(phi).multiply(s).multiply(g),
+                Complex.ofCis(phi + lambda).multiply(c).multiply(g)}};
+    }
+
+    private static void assertOperator(Complex[][] expected, Operator actual) {
+        for (int r = 0; r < expected.length; r++) {
+            for (int k = 0; k < expected.length; k++) {
+                double d = expected[r][k].subtract(actual.get(r, k)).abs();
+                assertTrue(d < 1e-12, "entry " + r + "," + k + " off by " + d);
+            }
+        }
+    }
+
+    @Test
+    void theGatesStdgatesDefinesThroughOthersHaveTheirMatrices() {
+        // stdgates.inc (from memory): u3(θ, φ, λ) = gphase(-(φ+λ)/2) U(θ, φ, λ);
+        // u2(φ, λ) = u3(π/2, φ, λ); u1(λ) = U(0, 0, λ) = p(λ); cu(θ, φ, λ, γ) c, t =
+        // p(γ) c; ctrl @ U(θ, φ, λ) c, t. With U as the specification writes it.
+        double th = 0.7;
+        double ph = 0.4;
+        double la = -1.1;
+        double ga = 0.3;
+        assertOperator(u(th, ph, la, -(ph + la) / 2), QasmReader.read(HEAD + "qubit q;\nu3("
+                + th + ", " + ph + ", " + la + ") q;\n").toOperator());
+        assertOperator(u(Math.PI / 2, ph, la, -(ph + la) / 2), QasmReader.read(HEAD
+                + "qubit q;\nu2(" + ph + ", " + la + ") q;\n").toOperator());
+        assertEquals(Circuit.builder(1, 0).phase(0, la).build(), QasmReader.read(HEAD
+                + "qubit q;\nu1(" + la + ") q;\n"));
+        // cu on (control 0, target 1): |0><0| ⊗ I + e^{iγ} |1><1| ⊗ U, control the low bit.
+        Complex[][] m = u(th, ph, la, ga);
+        Complex[][] cu = new Complex[4][4];
+        for (Complex[] row : cu) {
+            java.util.Arrays.fill(row, Complex.ZERO);
+        }
+        cu[0][0] = Complex.ONE;
+        cu[2][2] = Complex.ONE;
+        for (int r = 0; r < 2; r++) {
+            for (int k = 0; k < 2; k++) {
+                cu[1 + 2 * r][1 + 2 * k] = m[r][k];
+            }
+        }
+        assertOperator(cu, QasmReader.read(HEAD + "qubit[2] q;\ncu(" + th + ", " + ph + ", "
+                + la + ", " + ga + ") q[0], q[1];\n").toOperator());
+    }
+
+    @Test
+    void globalPhasesAreExactAndControlledOnesArePhases() {
+        // "Built-in gates": gphase(γ) multiplies the state by e^{iγ}; with controls it is a
+        // phase on them: ctrl @ gphase(γ) c = p(γ) c, ctrl(2) @ gphase(γ) = cp(γ).
+        Circuit read = QasmReader.read(HEAD + "qubit[2] q;\ngphase(0.5);\ngphase(4.0);\n"
+                + "ctrl @ gphase(0.3) q[1];\nctrl(2) @ gphase(0.2) q[0], q[1];\n"
+                + "inv @ gphase(0.1);\npow(3) @ gphase(0.2);\n");
+        Circuit hand = Circuit.builder(2, 0).apply(Ops.globalPhase(0.5), 0)
+                .apply(Ops.globalPhase(Math.IEEEremainder(4.0, 2 * Math.PI)), 0)
+                .phase(1, 0.3).cphase(0, 1, 0.2).apply(Ops.globalPhase(-0.1), 0)
+                .apply(Ops.globalPhase(0.2 * 3), 0).build();
+        assertEquals(hand, read);
+        Operator four = QasmReader.read(HEAD + "qubit q;\ngphase(4.0);\n").toOperator();
+        Complex z = Complex.ofCis(4.0);
+        assertOperator(new Complex[][] {{z, Complex.ZERO}, {Complex.ZERO, z}}, four);
+    }
+
+    @Test
+    void subroutinesExpandWhereCalled() {
+        // "Subroutines": qubit and classical arguments, return values, return measure (into a
+        // bit of its own, after the bits declared before the call).
+        Circuit read = QasmReader.read(HEAD + "qubit[2] q;\nbit[2] c;\n"
+                + "def prep(qubit a, qubit b, float t) { ry(t) a; cx a, b; }\n"
+                + "def flip(qubit x) -> bit { x x; return measure x; }\n"
+                + "def twice(int n) -> int { return 2 * n; }\n"
+                + "prep(q[0], q[1], 0.5);\nc[0] = flip(q[1]);\nrx(twice(3) * 0.1) q[0];\n");
+        Circuit hand = Circuit.builder(2, 3).ry(0, 0.5).cnot(0, 1).x(1).measure(1, 2)
+                .assignClbits(new int[] {0}, Expression.clbit(2)).rx(0, 6 * 0.1).build();
+        assertEquals(hand, read);
+        CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                () -> QasmReader.read(HEAD + "qubit[2] q;\ndef bad() { h q[0]; }\nbad();\n"));
+        assertTrue(e.getMessage().contains("pass it as an argument"), e.getMessage());
+        assertEquals(5, e.line(), e.getMessage());
+    }
+
+    @Test
+    void delaysAreKeptInSeconds() {
+        // "Delays and durations": units ns, us or µs, ms, s, and dt (a device's sample time,
+        // here given in the settings as 2 ns); a delay without operands applies to all qubits.
+        Circuit read = QasmReader.read(HEAD + "qubit[2] q;\ndelay[100ns] q[0];\n"
+                + "delay[2.5us] q;\ndelay[3µs] q[1];\ndelay[4ms];\ndelay[1s] q[0];\n"
+                + "delay[10dt] q[1];\n", QasmReader.Settings.defaults().withTimeStep(2e-9));
+        Circuit hand = Circuit.builder(2, 0).delay(100 / 1e9, 0).delay(2.5 / 1e6, 0, 1)
+                .delay(3 / 1e6, 1).delay(4 / 1e3).delay(1.0, 0).delay(10 * 2e-9, 1).build();
+        assertEquals(hand, read);
+    }
+
+    @Test
+    void anglesComputedFromMeasuredValuesAreTheCircuitsExpressions() {
+        // A gate whose angle depends on a measured bit or a variable is evaluated in each shot:
+        // after x q[0] the bit reads 1, so rx(c0 π) flips q[1] (rx(π)|0> = -i|1>, Nielsen and
+        // Chuang 2010, §4.2): the register always reads 11.
+        String text = HEAD + "qubit[2] q;\nbit[2] c;\nx q[0];\nc[0] = measure q[0];\n"
+                + "rx(c[0] * pi) q[1];\nfloat f = 0.25;\nf = f + c[0];\ncrz(f) q[0], q[1];\n"
+                + "c[1] = measure q[1];\n";
+        Circuit read = QasmReader.read(text);
+        Circuit.Builder h = Circuit.builder(2, 2).x(0).measure(0, 0)
+                .gate(Gate.RX, new Expression[] {Expression.of(Expression.Op.MUL,
+                        Expression.clbit(0), Expression.constant(Math.PI))}, 1);
+        Expression f = h.declare("f", Circuit.VariableType.FLOAT, 64,
+                Expression.constant(0.25));
+        h.assign("f", Expression.of(Expression.Op.ADD, f, Expression.clbit(0)));
+        h.controlled(Gate.RZ, new Expression[] {f}, new int[] {0}, 1).measure(1, 1);
+        assertEquals(h.build(), read);
+        assertEquals(1.0, Simulator.seeded(5).distribution(read)[3], 1e-15);
+    }
+
+    @Test
+    void namesFollowTheScopesOfTheSpecification() {
+        // "Scoping": a gate sees only its parameters and qubits (and global constants); a
+        // block's declarations end with it; a loop variable cannot be assigned.
+        String[][] cases = {
+            {"qubit q;\ngate g a { h q; }\n", "unknown qubit argument 'q'"},
+            {"qubit q;\nint n = 1;\ngate g(t) a { rx(n) a; }\ng(1) q;\n",
+                "declared outside gate 'g'"},
+            {"qubit q;\nif (true) { int n = 1; }\nn = 2;\n", "unknown name 'n'"},
+            {"qubit q;\nfor int i in [0:1] { i = 3; }\n", "the loop variable"},
+        };
+        for (String[] c : cases) {
+            CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                    () -> QasmReader.read(HEAD + c[0]));
+            assertTrue(e.getMessage().contains(c[1]), e.getMessage());
+        }
+        // A global const is visible in a gate.
+        assertEquals(Circuit.builder(1, 0).rx(0, 2.0).build(), QasmReader.read(HEAD
+                + "const float w = 2.0;\ngate g a { rx(w) a; }\nqubit q;\ng q;\n"));
     }
 }
