@@ -431,10 +431,14 @@ final class Expander {
         }
     }
 
-    /** A name for a new variable of the circuit: as written, or made unique with a suffix. */
+    /**
+     * A name for a new variable of the circuit: as written, or with a suffix when another
+     * variable has it (a local one declared again) or a standard gate has it (a block may
+     * shadow a gate's name, but the writer declares every variable at the top level).
+     */
     private String circuitName(String name) {
         String n = name;
-        for (int k = 2; !circuitNames.add(n); k++) {
+        for (int k = 2; QasmGates.find(n) != null || !circuitNames.add(n); k++) {
             n = name + "_" + k;
         }
         return n;

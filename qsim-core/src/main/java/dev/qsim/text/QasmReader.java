@@ -43,8 +43,10 @@ import dev.qsim.internal.Checks;
  *       {@code e^{iγ} I} on qubit 0); every gate of {@code stdgates.inc}: {@code p x y z h s sdg
  *       t tdg sx rx ry rz cx cy cz cp crx cry crz ch swap ccx cswap cu id CX phase cphase u1 u2
  *       u3}; the modifiers {@code inv @}, {@code pow(k) @}, {@code ctrl(n) @} and
- *       {@code negctrl(n) @}, stacked, on every gate (see {@link GateExpander} for how they
- *       combine); gate definitions, expanded where called;</li>
+ *       {@code negctrl(n) @}, stacked, on every gate (a whole power repeats the gate or
+ *       multiplies a rotation's angle; other powers only as the principal power of a
+ *       rotation; a negative control is a control between X gates); gate definitions,
+ *       expanded where called;</li>
  *   <li>operands: registers (broadcast: a gate on registers of equal size applies to each
  *       index in turn), elements {@code q[i]} (negative i counts from the end), ranges
  *       {@code q[0:2]} and {@code q[0:2:4]} (both ends included), sets {@code q[{0, 3}]};</li>

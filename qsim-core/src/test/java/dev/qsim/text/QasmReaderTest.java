@@ -4,6 +4,8 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.util.List;
+
 import org.apache.commons.numbers.complex.Complex;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -583,5 +585,47 @@ class QasmReaderTest {
         // A global const is visible in a gate.
         assertEquals(Circuit.builder(1, 0).rx(0, 2.0).build(), QasmReader.read(HEAD
                 + "const float w = 2.0;\ngate g a { rx(w) a; }\nqubit q;\ng q;\n"));
+    }
+
+    @ParameterizedTest
+    @CsvSource(delimiter = '|', value = {
+        // Constructs of the specification outside what a gate-level simulator can run, each
+        // refused by name (docs/openqasm.md gives the reasons).
+        "box { x q; }|box",
+        "stretch s;|stretch",
+        "duration d = 100ns;|duration",
+        "rx(durationof({x q;})) q;|durationof",
+        "cal { }|cal",
+        "defcal x $0 { }|defcal",
+        "defcalgrammar \"openpulse\";|defcalgrammar",
+        "frame f;|frame",
+        "port p;|port",
+        "waveform w;|waveform",
+        "extern f(int) -> int;|extern",
+        "array[int[8], 2] a;|array",
+        "switch (1) { case 1 { } }|switch",
+        "complex[float] z;|complex",
+        "opaque g q;|opaque",
+        "end;|end",
+        "nop q;|nop",
+    })
+    void unsupportedConstructsAreRefusedByName(String statement, String word) {
+        CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                () -> QasmReader.read(HEAD + "qubit q;\n" + statement + "\n"));
+        assertTrue(e.getMessage().contains("'" + word + "' is unsupported"), e.getMessage());
+        assertEquals(4, e.line(), e.getMessage());
+    }
+
+    @Test
+    void aLocalVariableNamedLikeAStandardGateIsRenamedInTheCircuit() {
+        // A block may declare a name a global gate has (scoping); the circuit's variables are
+        // global, and the writer declares them at the top level, so the circuit gives it
+        // another name and reads back equal.
+        Circuit read = QasmReader.read(HEAD + "qubit q;\nbit c;\n"
+                + "if (c == 0) { int x = 3; if (x == 3) h q; }\n"
+                + "for int i in [0:1] { int n = i; }\n");
+        assertEquals(List.of("x_2", "n", "n_2"), read.variables().stream()
+                .map(Circuit.Variable::name).collect(java.util.stream.Collectors.toList()));
+        assertEquals(read, QasmReader.read(QasmWriter.write(read)));
     }
 }
