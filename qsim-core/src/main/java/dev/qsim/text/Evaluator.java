@@ -152,12 +152,50 @@ final class Evaluator {
                 + " allowed)");
     }
 
-    private Expression register(int[] clbits, Position at) {
+    /**
+     * Bits read as an unsigned integer ({@link Expression#clbits(int...)}).
+     *
+     * @throws CircuitFormatException if there are more than 63 or one repeats
+     */
+    static Expression register(int[] clbits, Position at) {
         if (clbits.length > 63) {
             throw at.error("a register of " + clbits.length + " bits cannot be read as a"
                     + " number; at most 63 bits can");
         }
+        requireDistinct(clbits, at, "the bits read as a number");
         return Expression.clbits(clbits);
+    }
+
+    /**
+     * Refuses indices (of qubits or bits, all below {@link dev.qsim.Circuit#MAX_QUBITS}) that
+     * repeat, in time linear in their count.
+     *
+     * @param what what they are, for the message
+     */
+    static void requireDistinct(int[] indices, Position at, String what) {
+        if (indices.length <= 16) {
+            for (int i = 0; i < indices.length; i++) {
+                for (int j = 0; j < i; j++) {
+                    if (indices[i] == indices[j]) {
+                        throw repeated(indices, indices[i], at, what);
+                    }
+                }
+            }
+            return;
+        }
+        java.util.BitSet seen = new java.util.BitSet();
+        for (int x : indices) {
+            if (seen.get(x)) {
+                throw repeated(indices, x, at, what);
+            }
+            seen.set(x);
+        }
+    }
+
+    private static CircuitFormatException repeated(int[] indices, int x, Position at,
+            String what) {
+        return at.error("index " + x + " appears twice in " + what + " "
+                + Lexer.clip(java.util.Arrays.toString(indices)) + "; each may appear once");
     }
 
     private Value call(Call c) {

@@ -479,12 +479,7 @@ final class Expander {
     }
 
     private static void requireDistinct(int[] indices, Position where, String what) {
-        Set<Integer> seen = new HashSet<>();
-        for (int i : indices) {
-            if (!seen.add(i)) {
-                throw where.error("index " + i + " appears twice in " + what);
-            }
-        }
+        Evaluator.requireDistinct(indices, where, what);
     }
 
     private Scope.Symbol symbolOf(Expr e) {
@@ -541,7 +536,7 @@ final class Expander {
             }
             Value v = eval.value(a.value());
             if (a.compound() != null) {
-                v = apply(a.compound(), Value.of(Expression.clbits(bits)), v);
+                v = apply(a.compound(), Value.of(Evaluator.register(bits, a.target().at())), v);
             }
             assignBits(bits, v, a.value().at());
             return;
@@ -580,6 +575,7 @@ final class Expander {
             throw at.error("an assignment writes at most 63 bits, but the register has "
                     + bits.length);
         }
+        requireDistinct(bits, at, "the assigned bits");
         emit(new Ops.AssignBitsOp(bits, expression(v, "the assigned value"), Ops.where(at)));
     }
 
@@ -833,7 +829,7 @@ final class Expander {
             int[] bits = range(clbits, n);
             clbits += n;
             measure(m.operand(), bits);
-            f.returned = Value.of(Expression.clbits(bits));
+            f.returned = Value.of(Evaluator.register(bits, r.at()));
         } else {
             f.returned = eval.value(r.value());
         }

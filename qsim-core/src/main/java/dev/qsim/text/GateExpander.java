@@ -1,9 +1,7 @@
 package dev.qsim.text;
 
 import java.util.Arrays;
-import java.util.HashSet;
 import java.util.List;
-import java.util.Set;
 
 import dev.qsim.Circuit;
 import dev.qsim.Expression;
@@ -257,29 +255,27 @@ final class GateExpander {
     }
 
     private static void requireDistinct(int[] q, String name, Position at) {
-        boolean twice = false;
         int repeated = -1;
         if (q.length <= 16) {
-            for (int i = 0; i < q.length && !twice; i++) {
+            for (int i = 0; i < q.length && repeated < 0; i++) {
                 for (int j = 0; j < i; j++) {
                     if (q[i] == q[j]) {
-                        twice = true;
                         repeated = q[i];
                         break;
                     }
                 }
             }
         } else {
-            Set<Integer> seen = new HashSet<>();
+            java.util.BitSet seen = new java.util.BitSet();
             for (int x : q) {
-                if (!seen.add(x)) {
-                    twice = true;
+                if (seen.get(x)) {
                     repeated = x;
                     break;
                 }
+                seen.set(x);
             }
         }
-        if (twice) {
+        if (repeated >= 0) {
             throw at.error("qubit " + repeated + " appears twice in the qubits of "
                     + Lexer.clip(name) + " " + Lexer.clip(Arrays.toString(q))
                     + "; each qubit may appear once");

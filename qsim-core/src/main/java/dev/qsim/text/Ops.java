@@ -107,7 +107,8 @@ final class Ops {
                 recordOne(op, b, discard);
             } catch (CircuitFormatException e) {
                 throw e;
-            } catch (IllegalArgumentException | IndexOutOfBoundsException e) {
+            } catch (IllegalArgumentException | IndexOutOfBoundsException
+                    | IllegalStateException e) {
                 Syntax.Position at = position(op.where());
                 throw new CircuitFormatException(at.line(), at.column(), e.getMessage(), e);
             }

@@ -286,4 +286,26 @@ class QasmLimitsTest {
                 () -> QasmReader.read(HEAD + "qubit q;\nrx(2.0 ^ 3) q;\n"));
         assertTrue(e.getMessage().contains("needs integer or bool operands"), e.getMessage());
     }
+
+    @Test
+    void repeatedBitsAndQubitsAreFormatExceptions() {
+        // The circuit's expressions and assignments take distinct bits; an index set may
+        // repeat one (common practice: refuse at the statement, never pass the model's
+        // IllegalArgumentException through).
+        String[] texts = {
+            "c[{0, 0}] = 1;",
+            "if (c[{1, 1}] == 1) x q[0];",
+            "c[{0, 0}] += 1;",
+            "rx(c[{0, 1, 0}] * 0.5) q[0];",
+            "let a = q ++ q;",
+            "delay[1ns] q[0], q[0];",
+            "h q[{0, 0}];\ncx q[{0, 0}], q[{1, 0}];",
+        };
+        for (String t : texts) {
+            CircuitFormatException e = assertThrows(CircuitFormatException.class,
+                    () -> QasmReader.read(HEAD + "qubit[2] q;\nbit[2] c;\n" + t + "\n"));
+            assertSame(CircuitFormatException.class, e.getClass());
+            assertTrue(e.getMessage().contains("appears twice"), e.getMessage());
+        }
+    }
 }
