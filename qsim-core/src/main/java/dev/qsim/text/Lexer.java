@@ -81,6 +81,8 @@ final class Lexer {
 
     private final String s;
     private final int length;
+    /** Names read recently, by a hash of their characters ({@link #name}). */
+    private final String[] names = new String[1024];
     private int pos;
     private int line = 1;
     private int col = 1;
@@ -144,10 +146,12 @@ final class Lexer {
         char ch = s.charAt(pos);
         if (isIdentStart(ch)) {
             int start = pos;
+            int h = 0;
             while (pos < length && isIdentPart(s.charAt(pos))) {
+                h = 31 * h + s.charAt(pos);
                 advance();
             }
-            return new Token(Type.IDENT, s.substring(start, pos), l, c, 0, 0, null);
+            return new Token(Type.IDENT, name(start, pos - start, h), l, c, 0, 0, null);
         }
         if (isDigit(ch) || (ch == '.' && isDigit(peekChar(1)))) {
             return number(l, c);
@@ -177,6 +181,22 @@ final class Lexer {
         }
         advance(sym.length());
         return new Token(Type.SYMBOL, sym, l, c, 0, 0, null);
+    }
+
+    /**
+     * The name at {@code [start, start + n)}: the same string as the last time these
+     * characters were read where possible, so that a file's repeated names (q, h, cx ...) are
+     * not copied again and keep their cached hash for the many table lookups they go through.
+     */
+    private String name(int start, int n, int hash) {
+        int slot = (hash ^ (hash >>> 16)) & (names.length - 1);
+        String known = names[slot];
+        if (known != null && known.length() == n && s.regionMatches(start, known, 0, n)) {
+            return known;
+        }
+        String fresh = s.substring(start, start + n);
+        names[slot] = fresh;
+        return fresh;
     }
 
     /** The operator or punctuation at the current position, longest first, or null. */

@@ -9,6 +9,7 @@ import dev.qsim.text.Lexer.Type;
  */
 final class Tokens {
     private static final int LOOK_AHEAD = 4;
+    private static final int MASK = LOOK_AHEAD - 1;
 
     private final Lexer lexer;
     private final Token[] ring = new Token[LOOK_AHEAD];
@@ -21,25 +22,25 @@ final class Tokens {
 
     /** The next token, not consumed. */
     Token peek() {
-        return peek(0);
+        return count > 0 ? ring[head] : peek(0);
     }
 
     /** The token {@code ahead} places after the next one (at most 3), not consumed. */
     Token peek(int ahead) {
         while (count <= ahead) {
-            Token last = count == 0 ? null : ring[(head + count - 1) % LOOK_AHEAD];
-            ring[(head + count) % LOOK_AHEAD] = last != null && last.type == Type.END ? last
+            Token last = count == 0 ? null : ring[(head + count - 1) & MASK];
+            ring[(head + count) & MASK] = last != null && last.type == Type.END ? last
                     : lexer.next();
             count++;
         }
-        return ring[(head + ahead) % LOOK_AHEAD];
+        return ring[(head + ahead) & MASK];
     }
 
     /** Consumes the next token; the end token is never consumed. */
     Token next() {
         Token t = peek();
         if (t.type != Type.END) {
-            head = (head + 1) % LOOK_AHEAD;
+            head = (head + 1) & MASK;
             count--;
         }
         return t;
