@@ -238,7 +238,7 @@ final class GateExpander {
                 ex.emitGate(Gate.X, new Value[0], NONE, new int[] {q[i]});
             }
         }
-        int[] controls = Arrays.copyOf(q, nc);
+        int[] controls = nc == 0 ? NONE : Arrays.copyOf(q, nc);
         int[] targets = Arrays.copyOfRange(q, nc, q.length);
         if (t.entry() == null) {
             body(t, args, power, controls, targets, at);

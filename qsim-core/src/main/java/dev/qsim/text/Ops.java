@@ -96,13 +96,17 @@ final class Ops {
     }
 
     /**
-     * Records instructions on a builder.
+     * Records instructions on a builder, emptying the list (each step is recorded once).
      *
      * @param discard the clbit that receives discarded measurement results
      * @throws CircuitFormatException if the builder refuses one, at its statement
      */
     static void record(List<Step> ops, Circuit.Builder b, int discard) {
-        for (Step op : ops) {
+        for (int i = 0; i < ops.size(); i++) {
+            Step op = ops.get(i);
+            // Each step is recorded once: let it go, so that the steps and the circuit are not
+            // both held whole (a million-gate file needs half the heap then).
+            ops.set(i, null);
             try {
                 recordOne(op, b, discard);
             } catch (CircuitFormatException e) {
