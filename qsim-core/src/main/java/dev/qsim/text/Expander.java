@@ -232,6 +232,30 @@ final class Expander {
         return (int) w;
     }
 
+    // ------------------------------------------------------------------ frames
+
+    /** A variable of the circuit declared in a block, and the declaration it came from. */
+    private record Local(VariableDeclaration site, String name) {
+    }
+
+    /** The variables declared in each open block, released when it closes. */
+    private final ArrayDeque<List<Local>> blockLocals = new ArrayDeque<>();
+    /** Variables of closed blocks, by declaration, free for that declaration to use again. */
+    private final java.util.IdentityHashMap<VariableDeclaration, ArrayDeque<String>> free =
+            new java.util.IdentityHashMap<>();
+
+    private void openBlock() {
+        scope.open(false, null, at);
+        blockLocals.push(new ArrayList<>());
+    }
+
+    private void closeBlock() {
+        scope.close();
+        for (Local l : blockLocals.pop()) {
+            free.computeIfAbsent(l.site(), k -> new ArrayDeque<>()).push(l.name());
+        }
+    }
+
     // ------------------------------------------------------------------ statements
 
     /** Expands a top-level statement. */
@@ -292,11 +316,11 @@ final class Expander {
         } else if (s instanceof Return r) {
             return giveBack(r);
         } else if (s instanceof Block b) {
-            scope.open(false, null, at);
+            openBlock();
             try {
                 return run(b.statements());
             } finally {
-                scope.close();
+                closeBlock();
             }
         } else if (s instanceof Delay d) {
             delay(d);
@@ -419,12 +443,30 @@ final class Expander {
         } else if (d.value() != null) {
             init = eval.value(d.value());
         }
-        String name = circuitName(d.name());
-        Expression e = variables.declare(name, type, width, null);
-        declared.add(new Circuit.Variable(name, type, type == Circuit.VariableType.INT
-                || type == Circuit.VariableType.UINT ? width : type == Circuit.VariableType.BOOL
-                ? 1 : 64));
+        // A declaration run again (a loop's next pass) uses the variable of its last run once
+        // that run's block has closed, set to 0 when it has no value of its own. Not inside a
+        // subroutine, whose returned value may still read it.
+        ArrayDeque<String> reusable = calls.isEmpty() ? free.get(d) : null;
+        String name = reusable != null && !reusable.isEmpty() ? reusable.pop() : null;
+        Expression e;
+        if (name == null) {
+            name = circuitName(d.name());
+            e = variables.declare(name, type, width, null);
+            declared.add(new Circuit.Variable(name, type, type == Circuit.VariableType.INT
+                    || type == Circuit.VariableType.UINT ? width
+                    : type == Circuit.VariableType.BOOL ? 1 : 64));
+        } else {
+            e = variables.variable(name);
+            if (init == null) {
+                init = type == Circuit.VariableType.BOOL ? Value.ofBool(false)
+                        : type == Circuit.VariableType.FLOAT
+                        || type == Circuit.VariableType.ANGLE ? Value.ofReal(0) : Value.ofInt(0);
+            }
+        }
         scope.declare(d.name(), new Scope.Variable(name, e, type), d.nameAt());
+        if (!blockLocals.isEmpty() && calls.isEmpty()) {
+            blockLocals.peek().add(new Local(d, name));
+        }
         if (init != null) {
             emit(new Ops.AssignOp(name, expression(init, "the value of '" + Lexer.clip(d.name())
                     + "'"), Ops.where(at)));
@@ -627,12 +669,12 @@ final class Expander {
         List<Step> saved = out;
         out = new ArrayList<>();
         dynamic++;
-        scope.open(false, null, at);
+        openBlock();
         try {
             run(body);
             return out;
         } finally {
-            scope.close();
+            closeBlock();
             dynamic--;
             out = saved;
         }
@@ -658,11 +700,11 @@ final class Expander {
             if (chosen == null) {
                 return Flow.NORMAL;
             }
-            scope.open(false, null, at);
+            openBlock();
             try {
                 return run(chosen);
             } finally {
-                scope.close();
+                closeBlock();
             }
         }
         requireCondition(c, i.condition().at());
@@ -756,13 +798,13 @@ final class Expander {
 
     private Flow iteration(For f, Value v) {
         budget.spend(1, at);
-        scope.open(false, null, at);
+        openBlock();
         try {
             scope.declare(f.name(), new Scope.Constant(v, "the loop variable"), f.nameAt());
             Flow flow = run(f.body());
             return flow == Flow.CONTINUE ? Flow.NORMAL : flow;
         } finally {
-            scope.close();
+            closeBlock();
         }
     }
 

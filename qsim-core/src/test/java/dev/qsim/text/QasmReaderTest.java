@@ -623,9 +623,24 @@ class QasmReaderTest {
         // another name and reads back equal.
         Circuit read = QasmReader.read(HEAD + "qubit q;\nbit c;\n"
                 + "if (c == 0) { int x = 3; if (x == 3) h q; }\n"
-                + "for int i in [0:1] { int n = i; }\n");
-        assertEquals(List.of("x_2", "n", "n_2"), read.variables().stream()
+                + "for int i in [0:2] { int n = i; uint[4] m; m += 1; }\n");
+        assertEquals(List.of("x_2", "n", "m"), read.variables().stream()
                 .map(Circuit.Variable::name).collect(java.util.stream.Collectors.toList()));
         assertEquals(read, QasmReader.read(QasmWriter.write(read)));
+        // Each pass of the loop declares its variables again: the pass before has ended, so
+        // they are the same variables of the circuit, set again (m, without a value, to 0,
+        // as a new variable starts).
+        Circuit.Builder h = Circuit.builder(1, 1);
+        Expression x = h.declare("x_2", Circuit.VariableType.INT, 64, null);
+        h.ifBit(0, 0, b -> b.assign("x_2", Expression.constant(3)).ifThen(Expression.of(
+                Expression.Op.EQ, x, Expression.constant(3)), bb -> bb.h(0)));
+        h.declare("n", Circuit.VariableType.INT, 64, Expression.constant(0));
+        Expression m = h.declare("m", Circuit.VariableType.UINT, 4, null);
+        h.assign("m", Expression.of(Expression.Op.ADD, m, Expression.constant(1)));
+        for (int i = 1; i <= 2; i++) {
+            h.assign("n", Expression.constant(i)).assign("m", Expression.constant(0))
+                    .assign("m", Expression.of(Expression.Op.ADD, m, Expression.constant(1)));
+        }
+        assertEquals(h.build(), read);
     }
 }

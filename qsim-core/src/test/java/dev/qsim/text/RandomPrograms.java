@@ -22,6 +22,7 @@ final class RandomPrograms {
     private int gates;
     private boolean subroutine;
     private int loops;
+    private int locals;
     private String indent = "";
 
     private RandomPrograms(UniformRandomProvider rng) {
@@ -287,6 +288,21 @@ final class RandomPrograms {
                 }
                 break;
             case 15:
+                if (depth > 0 && rng.nextBoolean()) {
+                    // A local variable, or a local bit, of the enclosing block.
+                    String t = "t" + locals++;
+                    if (rng.nextBoolean()) {
+                        sb.append("int[8] ").append(t).append(" = v + ").append(rng.nextInt(5))
+                                .append(";\n").append(indent).append("rz(").append(t)
+                                .append(" * 0.1) q[").append(rng.nextInt(qubits)).append(']');
+                    } else {
+                        sb.append("bit ").append(t).append(" = measure q[")
+                                .append(rng.nextInt(qubits)).append("];\n").append(indent)
+                                .append("if (").append(t).append(") x q[")
+                                .append(rng.nextInt(qubits)).append(']');
+                    }
+                    break;
+                }
                 sb.append("cu(").append(angle()).append(", 0.2, 0.3, ").append(angle())
                         .append(") q[0], q[1]");
                 break;
