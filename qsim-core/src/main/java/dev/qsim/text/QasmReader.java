@@ -75,10 +75,14 @@ import dev.qsim.internal.Checks;
  *       returning values (also {@code return measure q;}).</li>
  * </ul>
  * Refused with a {@link CircuitFormatException} naming the construct: timing ({@code box},
- * {@code stretch}, {@code duration}, {@code durationof}), pulse-level code ({@code cal},
- * {@code defcal}, {@code defcalgrammar}, {@code frame}, {@code port}, {@code waveform}),
- * {@code extern}, arrays, {@code switch}, complex numbers, physical qubits {@code $n}, other
- * includes, OpenQASM 2 programs.
+ * {@code stretch}, {@code duration}, {@code durationof}: the simulator keeps the order of
+ * instructions, not a schedule), pulse-level code ({@code cal}, {@code defcal},
+ * {@code defcalgrammar}, {@code frame}, {@code port}, {@code waveform}: it works at the gate
+ * level), {@code extern} (code outside the file), arrays, {@code switch} (write if/else),
+ * complex numbers (classical values are real), physical qubits {@code $n}, other includes and
+ * OpenQASM 2 programs (whose {@code ^} is a power). Where the reader departs from the
+ * specification ({@code /} of integers, {@code angle[n]} held as a double) is also in
+ * {@code docs/openqasm.md}.
  *
  * <p>Hostile input: every read ends in a circuit or a {@link CircuitFormatException} (or, for
  * a path, an {@link IOException}), in time bounded by the text's size and the

@@ -35,14 +35,14 @@ class EveryConstructTest {
     void theSelfTestGivesTheDistributionDerivedByHand() throws Exception {
         Circuit c = read();
         assertEquals(5, c.qubits());
-        assertEquals(9, c.clbits());
+        assertEquals(10, c.clbits());
         double[] p = Simulator.seeded(1).distribution(c);
-        double[] expected = new double[1 << 9];
+        double[] expected = new double[1 << 10];
         for (int a = 0; a < 2; a++) {
             for (int b = 0; b < 2; b++) {
                 for (int f = 0; f < 2; f++) {
                     int value = a + 2 * a + 4 * b + 8 * f + 16 * (a ^ b) + 32 * (a & b) + 64
-                            + 128 + 256;
+                            + 256 + 512;
                     expected[value] = (a == 1 ? 0.25 : 0.75) * (b == 1 ? 0.25 : 0.75)
                             * (f == 1 ? 15.0 / 16 : 1.0 / 16);
                 }

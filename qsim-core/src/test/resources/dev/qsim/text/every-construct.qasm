@@ -1,5 +1,5 @@
 // Power-on self-test of the (invented) Quillfield Instruments "Wren-5" demonstrator: five
-// qubits, nine classical bits. It uses every construct the qsim reader supports (see
+// qubits, ten classical bits. It uses every construct the qsim reader supports (see
 // docs/openqasm.md); EveryConstructTest checks the distribution it must give, derived at the
 // end of this file. Read it with the input tilt = pi/3 and dt = 1 ns.
 OPENQASM 3.0;
@@ -16,6 +16,7 @@ bit[3] c;                            // clbits 0-2
 creg flags[2];                       // clbits 3-4
 bit seen = 0;                        // clbit 5, starts 0
 bit check;                           // clbit 6
+bit zero = measure spare;            // clbit 7: spare is still |0>
 output int[8] tries = 0;
 uint[4] counter;
 float[64] scale = 0.5;
@@ -49,6 +50,7 @@ def parity(bit a, bit b) -> bit {
 def nudge(qubit t, float a) {
   rz(a) t;
   rz(-a) t;
+  return;
 }
 def probe(qubit t) -> bit {
   return measure t;
@@ -56,7 +58,7 @@ def probe(qubit t) -> bit {
 
 /* ---- the test ---- */
 x spare;
-measure spare;                       // result discarded: the extra clbit 8 reads 1
+measure spare;                       // result discarded: the extra clbit 9 reads 1
 reset spare;
 
 for int i in [0:rounds * 4 - 2] {    // 0..10, cut short by break
@@ -139,7 +141,7 @@ while (flags[0] == 0) {
 tries %= 100;
 if (flags[0] == 1) { x anc[0]; }             // back to |0>
 U(turn, 0, turn) anc[0];                     // U(pi, 0, pi) = X: |1>
-check = probe(anc[0]);                       // clbit 7 and check both read 1
+check = probe(anc[0]);                       // clbit 8 and check both read 1
 
 measure q[0:1] -> c[0:1];
 c[2] = measure q[-1];
@@ -153,7 +155,8 @@ if (parity(low[0], c[2]) != flags[1]) {
 
 // The distribution. With a = q[0] (P(a = 1) = 1/4), b = q[2] (P = 1/4) and f the last
 // reading of the ancilla (P(f = 0) = (1/2)^4 = 1/16 after four tries), independent:
-//   c0 = c1 = a, c2 = b, flags0 = f, flags1 = a xor b, seen = a and b,
-//   check = 1, clbit 7 = 1, clbit 8 (discarded result of spare) = 1,
-// so the outcome a + 2a + 4b + 8f + 16(a xor b) + 32(a and b) + 64 + 128 + 256 has
+//   c0 = c1 = a, c2 = b, flags0 = f, flags1 = a xor b, seen = a and b, check = 1,
+//   zero = 0, clbit 8 (the measurement probe returns) = 1, clbit 9 (the discarded result of
+//   spare) = 1,
+// so the outcome a + 2a + 4b + 8f + 16(a xor b) + 32(a and b) + 64 + 256 + 512 has
 // probability P(a) P(b) P(f); the eight such outcomes sum to 1.
