@@ -3,19 +3,15 @@ package dev.qsim.text;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.Collections;
-import java.util.HashSet;
 import java.util.List;
-import java.util.Set;
 
 import dev.qsim.Circuit;
 import dev.qsim.Expression;
 import dev.qsim.Expression.Op;
 import dev.qsim.Gate;
 import dev.qsim.text.Ops.Step;
-import dev.qsim.text.Syntax.Alias;
 import dev.qsim.text.Syntax.Assignment;
 import dev.qsim.text.Syntax.Barrier;
-import dev.qsim.text.Syntax.BitDeclaration;
 import dev.qsim.text.Syntax.Block;
 import dev.qsim.text.Syntax.Call;
 import dev.qsim.text.Syntax.Delay;
@@ -32,12 +28,10 @@ import dev.qsim.text.Syntax.Measure;
 import dev.qsim.text.Syntax.MeasureArrow;
 import dev.qsim.text.Syntax.Name;
 import dev.qsim.text.Syntax.Position;
-import dev.qsim.text.Syntax.QubitDeclaration;
 import dev.qsim.text.Syntax.Reset;
 import dev.qsim.text.Syntax.Return;
 import dev.qsim.text.Syntax.Statement;
 import dev.qsim.text.Syntax.SubroutineDefinition;
-import dev.qsim.text.Syntax.VariableDeclaration;
 import dev.qsim.text.Syntax.While;
 
 /**
@@ -46,7 +40,8 @@ import dev.qsim.text.Syntax.While;
  * are computed ({@link Evaluator}), so constants, loop variables and the conditions on them
  * decide what is recorded; values known only during the shot become {@link Expression}s, and
  * blocks on them become the circuit's conditions and loops. Gate calls go to the
- * {@link GateExpander}. Every step is paid for from the {@link Budget}; every instruction
+ * {@link GateExpander}, declarations to {@link Declarations}, subroutine calls to
+ * {@link Subroutines}. Every step is paid for from the {@link Budget}; every instruction
  * counts against the settings' limit. Every problem becomes a {@link CircuitFormatException}
  * at the user's statement (for a problem inside a gate or subroutine, at the call, with the
  * definition's position in the message).
@@ -64,23 +59,8 @@ final class Expander {
         RETURN
     }
 
-    /** The deepest nesting of subroutine calls. */
-    static final int MAX_CALLS = 64;
-
     /** A loop being unrolled (or a while loop, which is not). */
     private record Loop(boolean unrolled, int dynamic) {
-    }
-
-    /** A subroutine being expanded. */
-    private static final class Frame {
-        final SubroutineDefinition definition;
-        final int dynamic;
-        Value returned;
-
-        Frame(SubroutineDefinition definition, int dynamic) {
-            this.definition = definition;
-            this.dynamic = dynamic;
-        }
     }
 
     private final QasmReader.Settings settings;
@@ -88,18 +68,9 @@ final class Expander {
     private final Scope scope = new Scope();
     private final Evaluator eval;
     private final GateExpander gates;
-    /** Declares the circuit's variables while reading, to get the expressions that read them. */
-    private final Circuit.Builder variables = Circuit.builder(1, 0);
-    private final List<Circuit.Variable> declared = new ArrayList<>();
-    private final Set<String> circuitNames = new HashSet<>();
-    private final Set<String> inputsUsed = new HashSet<>();
+    private final Declarations declarations;
+    private final Subroutines subroutines;
     private final ArrayDeque<Loop> loops = new ArrayDeque<>();
-    private final ArrayDeque<Frame> calls = new ArrayDeque<>();
-    private final Set<String> active = new HashSet<>();
-    /** The number of loops open when each subroutine being expanded was called. */
-    private final ArrayDeque<Integer> loopDepthAtCall = new ArrayDeque<>();
-    private int qubits;
-    private int clbits;
     private boolean discards;
     private List<Step> out = new ArrayList<>();
     private long instructions;
@@ -113,6 +84,8 @@ final class Expander {
         this.budget = new Budget(settings.workBudget());
         this.eval = new Evaluator(this, scope, budget);
         this.gates = new GateExpander(this, scope, eval, budget);
+        this.declarations = new Declarations(this, scope, eval, budget, settings);
+        this.subroutines = new Subroutines(this, scope, eval, budget, declarations);
     }
 
     // ------------------------------------------------------------------ shared helpers
@@ -157,7 +130,7 @@ final class Expander {
         }
     }
 
-    private Expression expression(Value v, String what) {
+    Expression expression(Value v, String what) {
         try {
             return v.toExpression();
         } catch (IllegalArgumentException e) {
@@ -165,7 +138,7 @@ final class Expander {
         }
     }
 
-    private void emit(Step op) {
+    void emit(Step op) {
         if (++instructions > settings.maxInstructions()) {
             throw at.error("the program expands to more than " + settings.maxInstructions()
                     + " instructions; if it is meant to be this large, raise the limit with"
@@ -234,36 +207,45 @@ final class Expander {
 
     // ------------------------------------------------------------------ frames
 
-    /** A variable of the circuit declared in a block, and the declaration it came from. */
-    private record Local(VariableDeclaration site, String name) {
-    }
-
-    /** The variables declared in each open block, released when it closes. */
-    private final ArrayDeque<List<Local>> blockLocals = new ArrayDeque<>();
-    /** Variables of closed blocks, by declaration, free for that declaration to use again. */
-    private final java.util.IdentityHashMap<VariableDeclaration, ArrayDeque<String>> free =
-            new java.util.IdentityHashMap<>();
-
+    /** Opens the frame of a block (also a loop's pass, a branch). */
     private void openBlock() {
         scope.open(false, null, at);
-        blockLocals.push(new ArrayList<>());
+        declarations.openBlock();
     }
 
     private void closeBlock() {
         scope.close();
-        for (Local l : blockLocals.pop()) {
-            free.computeIfAbsent(l.site(), k -> new ArrayDeque<>()).push(l.name());
-        }
+        declarations.closeBlock();
+    }
+
+    /** Whether a subroutine is being expanded. */
+    boolean inSubroutine() {
+        return subroutines.active();
+    }
+
+    /** How many blocks on values known only during the shot enclose the statement. */
+    int dynamic() {
+        return dynamic;
+    }
+
+    /** How many loops are open. */
+    int loops() {
+        return loops.size();
     }
 
     // ------------------------------------------------------------------ statements
+
+    /** Expands a subroutine called in an expression and gives its value. */
+    Value subroutineValue(Call c) {
+        return subroutines.value(c);
+    }
 
     /** Expands a top-level statement. */
     void top(Statement s) {
         exec(s);
     }
 
-    private Flow run(List<Statement> body) {
+    Flow run(List<Statement> body) {
         for (Statement s : body) {
             Flow f = exec(s);
             if (f != Flow.NORMAL) {
@@ -287,7 +269,7 @@ final class Expander {
     private Flow statement(Statement s) {
         if (s instanceof GateCall c) {
             if (scope.subroutine(c.name()) != null && scope.gate(c.name()) == null) {
-                subroutineStatement(c);
+                subroutines.statement(c);
             } else {
                 gates.call(c);
             }
@@ -314,7 +296,7 @@ final class Expander {
         } else if (s instanceof Jump j) {
             return jump(j);
         } else if (s instanceof Return r) {
-            return giveBack(r);
+            return subroutines.giveBack(r);
         } else if (s instanceof Block b) {
             openBlock();
             try {
@@ -324,32 +306,8 @@ final class Expander {
             }
         } else if (s instanceof Delay d) {
             delay(d);
-        } else {
-            declaration(s);
-        }
-        return Flow.NORMAL;
-    }
-
-    private void declaration(Statement s) {
-        if (s instanceof Include) {
+        } else if (s instanceof Include) {
             scope.include();
-        } else if (s instanceof QubitDeclaration d) {
-            int n = size(d.size(), "qubit");
-            if ((long) qubits + n > Circuit.MAX_QUBITS) {
-                throw d.nameAt().error("register '" + Lexer.clip(d.name()) + "' brings the qubit"
-                        + " count to " + ((long) qubits + n) + " but at most "
-                        + Circuit.MAX_QUBITS + " are allowed");
-            }
-            budget.spend(n, at);
-            scope.declare(d.name(), new Scope.Qubits(range(qubits, n), d.size() == null),
-                    d.nameAt());
-            qubits += n;
-        } else if (s instanceof BitDeclaration d) {
-            bits(d);
-        } else if (s instanceof VariableDeclaration d) {
-            variable(d);
-        } else if (s instanceof Alias a) {
-            alias(a);
         } else if (s instanceof GateDefinition d) {
             scope.requireFreeGlobal(d.name(), d.nameAt());
             gates.checkDefinition(d);
@@ -357,174 +315,12 @@ final class Expander {
         } else if (s instanceof SubroutineDefinition d) {
             scope.define(d);
         } else {
-            throw new IllegalStateException("no expansion for " + s.getClass());
+            declarations.declare(s);
         }
+        return Flow.NORMAL;
     }
 
-    private static int[] range(int first, int n) {
-        int[] out = new int[n];
-        for (int i = 0; i < n; i++) {
-            out[i] = first + i;
-        }
-        return out;
-    }
-
-    private int size(Expr e, String kind) {
-        if (e == null) {
-            return 1;
-        }
-        long n = eval.constantInteger(e, "register size");
-        if (n < 1 || n > Circuit.MAX_QUBITS) {
-            throw e.at().error("a register needs at least 1 " + kind + " and at most "
-                    + Circuit.MAX_QUBITS + ", but the size was " + n);
-        }
-        return (int) n;
-    }
-
-    private void bits(BitDeclaration d) {
-        int n = size(d.size(), "bit");
-        if ((long) clbits + n > Circuit.MAX_QUBITS) {
-            throw d.nameAt().error("register '" + Lexer.clip(d.name()) + "' brings the bit"
-                    + " count to " + ((long) clbits + n) + " but at most " + Circuit.MAX_QUBITS
-                    + " are allowed");
-        }
-        budget.spend(n, at);
-        int[] indices = range(clbits, n);
-        scope.declare(d.name(), new Scope.Bits(indices, d.size() == null, false), d.nameAt());
-        clbits += n;
-        if (d.value() instanceof Measure m) {
-            measure(m.operand(), indices);
-        } else if (d.value() != null) {
-            assignBits(indices, eval.value(d.value()), d.value().at());
-        }
-    }
-
-    private void variable(VariableDeclaration d) {
-        Syntax.Kind kind = d.type().kind();
-        int width = width(d.type());
-        switch (d.storage()) {
-            case CONSTANT: {
-                Value v = eval.value(d.value());
-                if (!v.isConstant()) {
-                    throw d.value().at().error("the value of const '" + Lexer.clip(d.name())
-                            + "' must be known when the file is read, but " + v.show()
-                            + " is computed during the shot");
-                }
-                scope.declare(d.name(), new Scope.Constant(v.convert(kind, width),
-                        "the constant"), d.nameAt());
-                return;
-            }
-            case INPUT: {
-                Number given = settings.inputs().get(d.name());
-                if (given == null) {
-                    throw d.nameAt().error("input '" + Lexer.clip(d.name()) + "' has no value;"
-                            + " give it with QasmReader.Settings.withInput(\""
-                            + Lexer.clip(d.name()) + "\", value)");
-                }
-                inputsUsed.add(d.name());
-                Value v = given instanceof Double x ? Value.ofReal(x) : Value.ofInt(
-                        given.longValue());
-                scope.declare(d.name(), new Scope.Constant(v.convert(kind, width), "the input"),
-                        d.nameAt());
-                return;
-            }
-            default:
-                break;
-        }
-        Circuit.VariableType type = kind == Syntax.Kind.INT ? Circuit.VariableType.INT
-                : kind == Syntax.Kind.UINT ? Circuit.VariableType.UINT
-                : kind == Syntax.Kind.FLOAT ? Circuit.VariableType.FLOAT
-                : kind == Syntax.Kind.ANGLE ? Circuit.VariableType.ANGLE
-                : Circuit.VariableType.BOOL;
-        Value init = null;
-        if (d.value() instanceof Measure m) {
-            throw m.at().error("a measurement gives bits; declare a bit or bit register to"
-                    + " receive it");
-        } else if (d.value() != null) {
-            init = eval.value(d.value());
-        }
-        // A declaration run again (a loop's next pass) uses the variable of its last run once
-        // that run's block has closed, set to 0 when it has no value of its own. Not inside a
-        // subroutine, whose returned value may still read it.
-        ArrayDeque<String> reusable = calls.isEmpty() ? free.get(d) : null;
-        String name = reusable != null && !reusable.isEmpty() ? reusable.pop() : null;
-        Expression e;
-        if (name == null) {
-            name = circuitName(d.name());
-            e = variables.declare(name, type, width, null);
-            declared.add(new Circuit.Variable(name, type, type == Circuit.VariableType.INT
-                    || type == Circuit.VariableType.UINT ? width
-                    : type == Circuit.VariableType.BOOL ? 1 : 64));
-        } else {
-            e = variables.variable(name);
-            if (init == null) {
-                init = type == Circuit.VariableType.BOOL ? Value.ofBool(false)
-                        : type == Circuit.VariableType.FLOAT
-                        || type == Circuit.VariableType.ANGLE ? Value.ofReal(0) : Value.ofInt(0);
-            }
-        }
-        scope.declare(d.name(), new Scope.Variable(name, e, type), d.nameAt());
-        if (!blockLocals.isEmpty() && calls.isEmpty()) {
-            blockLocals.peek().add(new Local(d, name));
-        }
-        if (init != null) {
-            emit(new Ops.AssignOp(name, expression(init, "the value of '" + Lexer.clip(d.name())
-                    + "'"), Ops.where(at)));
-        }
-    }
-
-    /**
-     * A name for a new variable of the circuit: as written, or with a suffix when another
-     * variable has it (a local one declared again) or a standard gate has it (a block may
-     * shadow a gate's name, but the writer declares every variable at the top level).
-     */
-    private String circuitName(String name) {
-        String n = name;
-        for (int k = 2; QasmGates.find(n) != null || !circuitNames.add(n); k++) {
-            n = name + "_" + k;
-        }
-        return n;
-    }
-
-    private void alias(Alias a) {
-        List<int[]> parts = new ArrayList<>();
-        Boolean quantum = null;
-        long total = 0;
-        for (Expr part : a.parts()) {
-            Scope.Symbol base = symbolOf(part);
-            boolean q = base instanceof Scope.Qubits;
-            if (!q && !(base instanceof Scope.Bits)) {
-                throw part.at().error("an alias names qubits or bits, but '"
-                        + Lexer.clip(nameOf(part)) + "' is neither");
-            }
-            if (quantum != null && quantum != q) {
-                throw part.at().error("an alias cannot join qubits and bits");
-            }
-            quantum = q;
-            int[] indices = q ? eval.qubits(part).indices() : eval.bits(part).indices();
-            parts.add(indices);
-            total += indices.length;
-        }
-        int[] all = new int[(int) Math.min(total, Integer.MAX_VALUE - 8)];
-        int k = 0;
-        for (int[] p : parts) {
-            System.arraycopy(p, 0, all, k, p.length);
-            k += p.length;
-        }
-        if (quantum) {
-            requireDistinct(all, a.at(), "the qubits of alias '" + Lexer.clip(a.name()) + "'");
-            scope.declare(a.name(), new Scope.Qubits(all, false), a.nameAt());
-        } else {
-            requireDistinct(all, a.at(), "the bits of alias '" + Lexer.clip(a.name()) + "'");
-            scope.declare(a.name(), new Scope.Bits(all, false, false), a.nameAt());
-        }
-    }
-
-    private static void requireDistinct(int[] indices, Position where, String what) {
-        Evaluator.requireDistinct(indices, where, what);
-    }
-
-    private Scope.Symbol symbolOf(Expr e) {
+    Scope.Symbol symbolOf(Expr e) {
         Expr x = e;
         while (x instanceof Indexed i) {
             x = i.base();
@@ -539,7 +335,7 @@ final class Expander {
         throw e.at().error("expected a name");
     }
 
-    private static String nameOf(Expr e) {
+    static String nameOf(Expr e) {
         Expr x = e;
         while (x instanceof Indexed i) {
             x = i.base();
@@ -547,7 +343,7 @@ final class Expander {
         return x instanceof Name n ? n.name() : "?";
     }
 
-    private void measure(Expr qubitOperand, int[] bits) {
+    void measure(Expr qubitOperand, int[] bits) {
         int[] q = eval.qubits(qubitOperand).indices();
         if (bits != null && bits.length != q.length) {
             throw at.error("measure needs as many bits as qubits but got " + q.length
@@ -608,7 +404,7 @@ final class Expander {
                 + " which cannot be assigned; use gates, measure or reset");
     }
 
-    private void assignBits(int[] bits, Value v, Position valueAt) {
+    void assignBits(int[] bits, Value v, Position valueAt) {
         if (v.isFloat()) {
             throw valueAt.error("bits take an integer or bool value, but " + v.show()
                     + " is a float");
@@ -617,7 +413,7 @@ final class Expander {
             throw at.error("an assignment writes at most 63 bits, but the register has "
                     + bits.length);
         }
-        requireDistinct(bits, at, "the assigned bits");
+        Evaluator.requireDistinct(bits, at, "the assigned bits");
         emit(new Ops.AssignBitsOp(bits, expression(v, "the assigned value"), Ops.where(at)));
     }
 
@@ -657,7 +453,7 @@ final class Expander {
                 System.arraycopy(x, 0, q, k, x.length);
                 k += x.length;
             }
-            requireDistinct(q, at, "the qubits of the delay");
+            Evaluator.requireDistinct(q, at, "the qubits of the delay");
         }
         emit(new Ops.DelayOp(seconds, q, Ops.where(at)));
     }
@@ -775,7 +571,7 @@ final class Expander {
         }
     }
 
-    private Value convert(Value v, Syntax.Kind kind, int width, Position where) {
+    Value convert(Value v, Syntax.Kind kind, int width, Position where) {
         try {
             return v.convert(kind, width);
         } catch (IllegalArgumentException e) {
@@ -834,7 +630,7 @@ final class Expander {
     private Flow jump(Jump j) {
         String word = j.breaks() ? "break" : "continue";
         Loop l = loops.peek();
-        if (l == null || (!loopDepthAtCall.isEmpty() && loops.size() <= loopDepthAtCall.peek())) {
+        if (l == null || subroutines.loopOutside(loops.size())) {
             throw at.error("'" + word + "' outside a loop");
         }
         if (!l.unrolled()) {
@@ -850,134 +646,6 @@ final class Expander {
     }
 
 
-    // ------------------------------------------------------------------ subroutines
-
-    private Flow giveBack(Return r) {
-        Frame f = calls.peek();
-        if (f == null) {
-            throw at.error("'return' outside a subroutine");
-        }
-        if (dynamic > f.dynamic) {
-            throw at.error("'return' inside an if on a value known only during the shot is"
-                    + " unsupported");
-        }
-        if (r.value() == null) {
-            f.returned = null;
-        } else if (r.value() instanceof Measure m) {
-            int n = eval.qubits(m.operand()).indices().length;
-            if ((long) clbits + n > Circuit.MAX_QUBITS) {
-                throw at.error("too many bits: at most " + Circuit.MAX_QUBITS);
-            }
-            int[] bits = range(clbits, n);
-            clbits += n;
-            measure(m.operand(), bits);
-            f.returned = Value.of(Evaluator.register(bits, r.at()));
-        } else {
-            f.returned = eval.value(r.value());
-        }
-        return Flow.RETURN;
-    }
-
-    private void subroutineStatement(GateCall c) {
-        if (!c.modifiers().isEmpty()) {
-            throw c.at().error("'" + Lexer.clip(c.name()) + "' is a subroutine; modifiers apply"
-                    + " only to gates");
-        }
-        if (!c.operands().isEmpty()) {
-            throw c.operands().get(0).at().error("a subroutine takes all its arguments in"
-                    + " parentheses, as in " + Lexer.clip(c.name()) + "(q[0], 0.5);");
-        }
-        invoke(scope.subroutine(c.name()), c.arguments(), c.at(), false);
-    }
-
-    /** Expands a subroutine called in an expression and gives its value. */
-    Value subroutineValue(Call c) {
-        return invoke(scope.subroutine(c.name()), c.arguments(), c.at(), true);
-    }
-
-    private Value invoke(SubroutineDefinition d, List<Expr> args, Position callAt,
-            boolean needValue) {
-        String owner = "subroutine '" + Lexer.clip(d.name()) + "'";
-        if (args.size() != d.arguments().size()) {
-            throw callAt.error(owner + " takes " + d.arguments().size() + " argument(s) but "
-                    + args.size() + " were given");
-        }
-        if (needValue && d.returns() == null) {
-            throw callAt.error(owner + " returns no value");
-        }
-        if (active.contains(d.name()) || calls.size() >= MAX_CALLS) {
-            throw callAt.error(owner + " is called inside itself; recursion is unsupported (a"
-                    + " circuit is expanded when it is read)");
-        }
-        budget.spend(1, at);
-        Scope.Symbol[] bound = new Scope.Symbol[args.size()];
-        Set<Integer> passedQubits = new HashSet<>();
-        for (int i = 0; i < bound.length; i++) {
-            Syntax.Argument a = d.arguments().get(i);
-            Expr e = args.get(i);
-            Syntax.Kind kind = a.type().kind();
-            if (kind == Syntax.Kind.QUBIT || kind == Syntax.Kind.BIT) {
-                boolean quantum = kind == Syntax.Kind.QUBIT;
-                Evaluator.Resolved r = quantum ? eval.qubits(e) : eval.bits(e);
-                int want = a.type().width() == null ? 1 : size(a.type().width(), "qubit");
-                if (r.indices().length != want) {
-                    throw e.at().error("argument '" + Lexer.clip(a.name().name()) + "' of "
-                            + owner + " takes " + want + (quantum ? " qubit(s)" : " bit(s)")
-                            + " but " + r.indices().length + " were given");
-                }
-                if (quantum) {
-                    for (int q : r.indices()) {
-                        if (!passedQubits.add(q)) {
-                            throw e.at().error("qubit " + q + " is passed to " + owner
-                                    + " twice");
-                        }
-                    }
-                    bound[i] = new Scope.Qubits(r.indices(), a.type().width() == null);
-                } else {
-                    bound[i] = new Scope.Bits(r.indices(), a.type().width() == null, true);
-                }
-            } else {
-                Value v = convert(eval.value(e), kind, width(a.type()), e.at());
-                bound[i] = new Scope.Constant(v, "an argument of the subroutine");
-            }
-        }
-        Frame frame = new Frame(d, dynamic);
-        Position saved = at;
-        scope.open(true, owner, at);
-        calls.push(frame);
-        active.add(d.name());
-        loopDepthAtCall.push(loops.size());
-        try {
-            for (int i = 0; i < bound.length; i++) {
-                Syntax.Declared name = d.arguments().get(i).name();
-                scope.declare(name.name(), bound[i], name.at());
-            }
-            run(d.body());
-            if (d.returns() != null && frame.returned == null) {
-                throw d.at().error(owner + " ended without returning a value");
-            }
-            if (d.returns() == null && frame.returned != null) {
-                throw d.at().error(owner + " returns a value but declares no return type");
-            }
-            if (frame.returned == null) {
-                return null;
-            }
-            if (d.returns().kind() == Syntax.Kind.BIT && !frame.returned.isConstant()) {
-                return frame.returned;
-            }
-            return convert(frame.returned, d.returns().kind(), width(d.returns()),
-                    d.returns().at());
-        } catch (CircuitFormatException e) {
-            throw inside(e, callAt, owner, d.at());
-        } finally {
-            loopDepthAtCall.pop();
-            active.remove(d.name());
-            calls.pop();
-            scope.close();
-            at = saved;
-        }
-    }
-
     // ------------------------------------------------------------------ the end
 
     /**
@@ -990,12 +658,14 @@ final class Expander {
     Circuit finish(Position end) {
         at = end;
         List<String> unused = new ArrayList<>(settings.inputs().keySet());
-        unused.removeAll(inputsUsed);
+        unused.removeAll(declarations.inputsUsed());
         if (!unused.isEmpty()) {
             Collections.sort(unused);
             throw end.error("the settings give a value for input '" + Lexer.clip(unused.get(0))
                     + "' but the program declares no such input");
         }
+        int qubits = declarations.qubits();
+        int clbits = declarations.clbits();
         if (qubits == 0) {
             throw end.error("the program declares no qubit; declare one with 'qubit[n] q;'");
         }
@@ -1005,7 +675,7 @@ final class Expander {
                     + Circuit.MAX_QUBITS + " are allowed");
         }
         Circuit.Builder b = Circuit.builder(qubits, nc);
-        for (Circuit.Variable v : declared) {
+        for (Circuit.Variable v : declarations.variables()) {
             b.declare(v.name(), v.type(), v.width(), null);
         }
         Ops.record(out, b, clbits);

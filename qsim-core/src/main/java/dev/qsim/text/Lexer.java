@@ -288,7 +288,7 @@ final class Lexer {
     }
 
     /** Reads digits of a radix with single underscores between them; returns them. */
-    private String digits(int radix, int l, int c) {
+    private String digits(int radix) {
         StringBuilder sb = new StringBuilder();
         while (pos < length) {
             char ch = s.charAt(pos);
@@ -311,7 +311,7 @@ final class Lexer {
         if (ch == '0' && (n == 'x' || n == 'X' || n == 'o' || n == 'b' || n == 'B')) {
             int radix = n == 'x' || n == 'X' ? 16 : n == 'o' ? 8 : 2;
             advance(2);
-            String d = digits(radix, l, c);
+            String d = digits(radix);
             if (d.isEmpty()) {
                 throw error(l, c, "the number '" + clip(s.substring(start, pos)) + "' has no"
                         + " digits");
@@ -339,12 +339,12 @@ final class Lexer {
             return suffix(new Token(Type.INT, s.substring(start, pos), l, c, quick, quick, null),
                     l, c);
         }
-        StringBuilder text = new StringBuilder(digits(10, l, c));
+        StringBuilder text = new StringBuilder(digits(10));
         boolean real = false;
         if (pos < length && s.charAt(pos) == '.') {
             real = true;
             advance();
-            text.append('.').append(digits(10, l, c));
+            text.append('.').append(digits(10));
         }
         if (pos < length && (s.charAt(pos) == 'e' || s.charAt(pos) == 'E')) {
             char sign = peekChar(1);
@@ -356,7 +356,7 @@ final class Lexer {
                     text.append(sign);
                 }
                 advance(skip);
-                text.append(digits(10, l, c));
+                text.append(digits(10));
             }
         }
         String written = s.substring(start, pos);
