@@ -405,7 +405,14 @@ final class GateExpander {
         scope.open(true, owner, at);
         try {
             for (int i = 0; i < args.length; i++) {
-                scope.declare(d.parameters().get(i).name(), new Scope.Constant(args[i],
+                // Gate parameters are angles, not integers: t / 2 in a body divides a float.
+                Value angle;
+                try {
+                    angle = args[i].convert(Syntax.Kind.FLOAT, 64);
+                } catch (IllegalArgumentException e) {
+                    throw at.error(e.getMessage());
+                }
+                scope.declare(d.parameters().get(i).name(), new Scope.Constant(angle,
                         "the parameter"), d.parameters().get(i).at());
             }
             for (int i = 0; i < targets.length; i++) {

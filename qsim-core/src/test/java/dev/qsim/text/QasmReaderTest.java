@@ -500,6 +500,18 @@ class QasmReaderTest {
     }
 
     @Test
+    void gateParametersAreAnglesNotIntegers() {
+        // "Gates": a gate's parameters are angles, so an integer argument is a real number
+        // there: t / 2 with t = 1 is 0.5, and u2(1, 2) is u2(1.0, 2.0) (whose body computes
+        // (φ + λ) / 2 = 1.5).
+        Circuit read = QasmReader.read(HEAD + "gate half(t) a { rx(t / 2) a; }\nqubit q;\n"
+                + "half(1) q;\n");
+        assertEquals(Circuit.builder(1, 0).rx(0, 0.5).build(), read);
+        assertEquals(QasmReader.read(HEAD + "qubit q;\nu2(1.0, 2.0) q;\n"),
+                QasmReader.read(HEAD + "qubit q;\nu2(1, 2) q;\n"));
+    }
+
+    @Test
     void globalPhasesAreExactAndControlledOnesArePhases() {
         // "Built-in gates": gphase(γ) multiplies the state by e^{iγ}; with controls it is a
         // phase on them: ctrl @ gphase(γ) c = p(γ) c, ctrl(2) @ gphase(γ) = cp(γ).
