@@ -243,4 +243,29 @@ class SvgPicturesTest {
         assertTrue(help.out.replaceAll("\\s+", " ").contains("barrier statements are read but"
                 + " not kept"), help::toString);
     }
+
+    @Test
+    void circuitDrawsLoopsBranchesDelaysAndDynamicAngles() throws Exception {
+        Circuit c = QasmReader.read("OPENQASM 3;\ninclude \"stdgates.inc\";\nqubit[2] q;\n"
+                + "bit[2] c;\nh q[0];\nc[0] = measure q[0];\nif (c[0] == 1) { x q[1]; } else"
+                + " { z q[1]; }\nwhile (c[1] == 0) { h q[1]; c[1] = measure q[1]; }\n"
+                + "delay[2us] q[0];\nrx(c[1] * 0.5) q[0];\n");
+        Document d = parse(SvgCircuit.draw(c, "knots.qasm"));
+        List<String> tags = new ArrayList<>();
+        for (Element e : elements(d, "text", "tag")) {
+            tags.add(e.getTextContent());
+        }
+        assertTrue(tags.stream().anyMatch(t -> t.startsWith("if ") && t.contains("c[0]")),
+                tags::toString);
+        assertTrue(tags.stream().anyMatch(t -> t.startsWith("else of ")), tags::toString);
+        assertTrue(tags.stream().anyMatch(t -> t.startsWith("while ")), tags::toString);
+        assertEquals(3, elements(d, "rect", "condition").size());
+        List<String> labels = new ArrayList<>();
+        for (Element e : elements(d, "text", "label")) {
+            labels.add(e.getTextContent());
+        }
+        assertTrue(labels.contains("wait(2us)"), labels::toString);
+        assertTrue(labels.stream().anyMatch(t -> t.startsWith("RX(") && t.contains("c[1]")),
+                labels::toString);
+    }
 }
