@@ -25,6 +25,11 @@ final class CircuitOptions {
             description = "the most passes of a 'while' loop without its own"
                     + " @max_iterations, 1 to 1,048,576 (default 1,000)")
     Integer loopBound;
+    @Option(names = "--work-budget", paramLabel = "STEPS",
+            converter = OptionValues.WorkBudget.class,
+            description = "the most steps of work reading the file may take (statements run,"
+                    + " loop passes, register elements ...), 1 to 10^11 (default 10^7)")
+    Long workBudget;
     @Option(names = "--dt", paramLabel = "SECONDS", converter = OptionValues.TimeStep.class,
             description = "the length of the time unit dt in delays, in seconds (above 0, at"
                     + " most 1)")
@@ -45,6 +50,9 @@ final class CircuitOptions {
         if (loopBound != null) {
             s = s.withLoopBound(loopBound);
         }
+        if (workBudget != null) {
+            s = s.withWorkBudget(workBudget);
+        }
         if (timeStep != null) {
             s = s.withTimeStep(timeStep);
         }
@@ -61,7 +69,13 @@ final class CircuitOptions {
             String m = e.getMessage().replaceAll(
                     "give it with QasmReader\\.Settings\\.withInput\\(\"([^\"]*)\", value\\)",
                     "give it with --input $1=VALUE").replace("give it in seconds with"
-                    + " QasmReader.Settings.withTimeStep(double)", "give it in seconds with --dt");
+                    + " QasmReader.Settings.withTimeStep(double)", "give it in seconds with --dt")
+                    .replace("QasmReader.Settings.withWorkBudget(long)", "--work-budget STEPS")
+                    .replace("; raise the limit with QasmReader.Settings.withMaxFileBytes(long)",
+                            " (the tool's limit)")
+                    .replace("; if it is meant to be this large, raise the limit with"
+                            + " QasmReader.Settings.withMaxInstructions(int)",
+                            " (the tool's limit)");
             throw new IllegalArgumentException(file + ": " + m, e);
         }
     }

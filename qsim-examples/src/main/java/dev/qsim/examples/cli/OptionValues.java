@@ -274,6 +274,14 @@ final class OptionValues {
         }
     }
 
+    /** {@code --work-budget}: 1 to 10^11 steps. */
+    static final class WorkBudget implements ITypeConverter<Long> {
+        @Override
+        public Long convert(String value) {
+            return whole(value, 1, 100_000_000_000L);
+        }
+    }
+
     /** {@code --dt}: above 0, at most one second. */
     static final class TimeStep implements ITypeConverter<Double> {
         @Override

@@ -44,6 +44,10 @@ final class SvgCircuit {
     private static final String BOX_EDGE = "#2f6db3";
     private static final String COND = "#b07800";
     private static final String BIT_LINE = "#9a9a9a";
+    /** The most lines (qubit wires and bit lines) a picture has. */
+    static final int MAX_WIRES = 4096;
+    /** The most parts (gates, frames, marks) a picture has: about 50 MB of SVG. */
+    static final int MAX_SHAPES = 250_000;
     /** The longest tag or dynamic label drawn whole. */
     private static final int MAX_TAG = 40;
 
@@ -81,9 +85,20 @@ final class SvgCircuit {
      * @return the SVG text
      */
     static String draw(Circuit c, String title) {
+        if ((long) c.qubits() + c.clbits() > MAX_WIRES) {
+            throw new IllegalArgumentException("the circuit has " + c.qubits() + " qubits and "
+                    + c.clbits() + " classical bits, too many lines for a picture (at most "
+                    + MAX_WIRES + " in all); draw it as text, which summarises what it cannot"
+                    + " show");
+        }
         SvgCircuit d = new SvgCircuit(c);
         for (Instruction in : c.instructions()) {
             d.place(in, -1);
+            if (d.shapes.size() > MAX_SHAPES) {
+                throw new IllegalArgumentException("the circuit has more than " + MAX_SHAPES
+                        + " parts to draw (" + c.size() + " instructions), too many for a"
+                        + " picture; draw it as text, which summarises what it cannot show");
+            }
         }
         d.centres = new int[d.widths.size()];
         int x = LEFT;

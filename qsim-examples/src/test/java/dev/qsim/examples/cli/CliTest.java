@@ -266,8 +266,27 @@ class CliTest {
         ToolRun many = tool("run", loop.toString(), "--shots", "4000", "--seed", "5",
                 "--format", "csv");
         assertEquals(4000, TallyFiles.read(many.out).count("1"), many::toString);
+        // A loop of 1,000 passes spends at least a step a pass: a budget of 1,000 steps is too
+        // small (the message names the option), one of 100,000 is enough.
+        Path count = dir.resolve("count.qasm");
+        Files.writeString(count, "OPENQASM 3;\ninclude \"stdgates.inc\";\nqubit q;\n"
+                + "for int i in [0:999] { x q; }\n");
+        ToolRun small = tool("draw", count.toString(), "--work-budget", "1000");
+        assertEquals(2, small.code, small::toString);
+        assertTrue(small.err.contains("raise the budget with --work-budget STEPS"),
+                small::toString);
+        assertEquals(0, tool("draw", count.toString(), "--work-budget", "100000").code);
         ToolRun bad = tool("run", loop.toString(), "--loop-bound", "0");
         assertEquals(2, bad.code, bad::toString);
         assertTrue(bad.err.contains("1 to 1,048,576"), bad::toString);
+    }
+
+    @Test
+    void aFileWithoutEndIsRefusedAtTheToolsLimit() {
+        // /dev/zero never ends: the tool stops at its 64 MiB limit instead of filling the heap.
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isReadable(Path.of("/dev/zero")));
+        ToolRun r = tool("run", "/dev/zero");
+        assertEquals(2, r.code, r::toString);
+        assertTrue(r.err.contains("more than 67108864 bytes (the tool's limit)"), r::toString);
     }
 }

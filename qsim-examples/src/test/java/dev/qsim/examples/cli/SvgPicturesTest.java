@@ -2,6 +2,7 @@ package dev.qsim.examples.cli;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.ByteArrayInputStream;
@@ -267,5 +268,24 @@ class SvgPicturesTest {
         assertTrue(labels.contains("wait(2us)"), labels::toString);
         assertTrue(labels.stream().anyMatch(t -> t.startsWith("RX(") && t.contains("c[1]")),
                 labels::toString);
+    }
+
+    @Test
+    void circuitsTooLargeForAPictureAreRefusedByName() {
+        // One gate across 2^20 qubits (an input of the fuzzing harness): no picture of a
+        // million wires, a refusal that names the count and the text drawing instead.
+        Circuit wide = Circuit.builder(Circuit.MAX_QUBITS).cnot(0, Circuit.MAX_QUBITS - 1)
+                .build();
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> SvgCircuit.draw(wide, "wide.qasm"));
+        assertTrue(e.getMessage().contains(Circuit.MAX_QUBITS + " qubits")
+                && e.getMessage().contains("as text"), e.getMessage());
+        Circuit.Builder deep = Circuit.builder(2);
+        for (int k = 0; k <= SvgCircuit.MAX_SHAPES; k++) {
+            deep.h(k % 2);
+        }
+        e = assertThrows(IllegalArgumentException.class, () -> SvgCircuit.draw(deep.build(),
+                "deep.qasm"));
+        assertTrue(e.getMessage().contains("more than " + SvgCircuit.MAX_SHAPES), e.getMessage());
     }
 }
