@@ -1,6 +1,7 @@
 package dev.qsim;
 
 import java.util.Arrays;
+import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
 
@@ -403,6 +404,56 @@ public final class Expression {
      */
     public Type type() {
         return type;
+    }
+
+    /**
+     * Returns the operator or function at the root of this expression, or {@code null} for a
+     * leaf: a constant, a register of classical bits or a variable. With {@link #operands()},
+     * {@link #registerBits()} and {@link #variableSlot()} this lets a writer walk the tree (as
+     * {@code dev.qsim.text.QasmWriter} does to print it in OpenQASM 3).
+     *
+     * @return the root operator, or null for a leaf
+     */
+    public Op op() {
+        return node == UNARY || node == BINARY ? op : null;
+    }
+
+    /**
+     * Returns the operands of the root operator: none for a leaf, one for a unary operator or
+     * function, two (left, right) for a binary operator.
+     *
+     * @return an unmodifiable list
+     */
+    public List<Expression> operands() {
+        switch (node) {
+            case UNARY:
+                return List.of(left);
+            case BINARY:
+                return List.of(left, right);
+            default:
+                return List.of();
+        }
+    }
+
+    /**
+     * Returns the classical bits of a register leaf ({@link #clbits(int...)}; bit {@code j} of
+     * its value is classical bit {@code registerBits()[j]}), or an empty array for any other
+     * expression.
+     *
+     * @return a copy of the bits
+     */
+    public int[] registerBits() {
+        return node == BITS ? bits.clone() : new int[0];
+    }
+
+    /**
+     * Returns the slot of a variable leaf (its index in {@link Circuit#variables()}), or -1
+     * for any other expression.
+     *
+     * @return the slot or -1
+     */
+    public int variableSlot() {
+        return node == VARIABLE ? slot : -1;
     }
 
     /**

@@ -254,6 +254,29 @@ class ClassicalControlTest {
     }
 
     @Test
+    void theTreeReadsBackAsItWasBuilt() {
+        // The accessors return the parts each factory was given (their definitions), so a
+        // writer can walk the tree: (c0 | c2 reg) + (-v) with v a declared variable.
+        Circuit.Builder b = Circuit.builder(1, 3);
+        Expression v = b.declare("v", Circuit.VariableType.INT, 8, null);
+        Expression reg = Expression.clbits(2, 0);
+        Expression neg = Expression.of(Expression.Op.NEG, v);
+        Expression sum = Expression.of(Expression.Op.ADD, reg, neg);
+        assertEquals(Expression.Op.ADD, sum.op());
+        assertEquals(List.of(reg, neg), sum.operands());
+        assertEquals(Expression.Op.NEG, neg.op());
+        assertEquals(List.of(v), neg.operands());
+        assertEquals(null, reg.op());
+        assertEquals(List.of(), reg.operands());
+        assertArrayEquals(new int[] {2, 0}, reg.registerBits());
+        assertEquals(-1, reg.variableSlot());
+        assertEquals(0, v.variableSlot());
+        assertArrayEquals(new int[0], v.registerBits());
+        assertEquals(-1, Expression.constant(3).variableSlot());
+        assertArrayEquals(new int[0], sum.registerBits());
+    }
+
+    @Test
     void anAngleThatComesOutInfiniteStopsTheRunWithItsGate() {
         // 1.0 / c0 is +infinity when c0 reads 0 (IEEE 754 division by zero).
         Circuit c = Circuit.builder(1, 1).measure(0, 0)

@@ -88,4 +88,48 @@ class HostileValuesTest {
                         .withEngine(Simulator.Engine.TRAJECTORIES).run(c, Integer.MAX_VALUE));
         assertTrue(e.getMessage().contains("-Xmx"), e.getMessage());
     }
+
+    @Test
+    void aDensityMatrixRefusesANonUnitaryOperatorAndKeepsItsTrace() {
+        // diag(2, 1/2) is not unitary: applied as U rho U^dagger it made the trace of |0><0|
+        // 4 (2.5 on a mixed state); a density matrix has trace 1 (Nielsen and Chuang 2010,
+        // Theorem 2.5), so the call is refused and the matrix left as it was.
+        Operator stretch = Operator.of(new Complex[][] {
+            {Complex.ofCartesian(2, 0), Complex.ZERO},
+            {Complex.ZERO, Complex.ofCartesian(0.5, 0)}});
+        dev.qsim.noise.DensityMatrix rho = dev.qsim.noise.DensityMatrix.zero(1);
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> rho.apply(stretch, 0));
+        assertTrue(e.getMessage().contains("not unitary"), e.getMessage());
+        assertEquals(1.0, rho.trace(), 0.0);
+        assertEquals(1.0, rho.get(0, 0).getReal(), 0.0);
+    }
+
+    @Test
+    void aPredictionOverTwentySixBitsIsComputedOrRefusedByHeap() {
+        // A |+> qubit measured into 26 bits: every bit copies the one outcome, so the register
+        // reads all 0 or all 1 with probability 1/2 each (Born rule, Nielsen and Chuang 2010,
+        // sec. 2.2.3). The 2^26 probabilities (512 MiB) either fit the heap or the call says
+        // how much it needs; 27 bits are refused by count, before any allocation.
+        Circuit.Builder b = Circuit.builder(1, 26).h(0);
+        for (int k = 0; k < 26; k++) {
+            b.measure(0, k);
+        }
+        Circuit c = b.build();
+        try {
+            double[] p = Simulator.seeded(1).predict(c, 1).probabilities();
+            assertEquals(1 << 26, p.length);
+            assertEquals(0.5, p[0], 1e-15);
+            assertEquals(0.5, p[(1 << 26) - 1], 1e-15);
+        } catch (IllegalStateException heap) {
+            assertTrue(heap.getMessage().contains("-Xmx"), heap.getMessage());
+        }
+        Circuit.Builder wider = Circuit.builder(1, 27).h(0);
+        for (int k = 0; k < 27; k++) {
+            wider.measure(0, k);
+        }
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> Simulator.seeded(1).predict(wider.build(), 1));
+        assertTrue(e.getMessage().contains("27 classical bits"), e.getMessage());
+    }
 }

@@ -1,222 +1,210 @@
 package dev.qsim.text;
 
 import java.util.ArrayList;
+import java.util.HashSet;
 import java.util.List;
+import java.util.Set;
 
 import dev.qsim.text.Lexer.Token;
 import dev.qsim.text.Lexer.Type;
-import dev.qsim.text.Syntax.Expression;
+import dev.qsim.text.Syntax.Barrier;
+import dev.qsim.text.Syntax.Declared;
+import dev.qsim.text.Syntax.Expr;
 import dev.qsim.text.Syntax.GateCall;
 import dev.qsim.text.Syntax.GateDefinition;
 import dev.qsim.text.Syntax.Modifier;
 import dev.qsim.text.Syntax.ModifierKind;
-import dev.qsim.text.Syntax.Operand;
+import dev.qsim.text.Syntax.Name;
 import dev.qsim.text.Syntax.Position;
+import dev.qsim.text.Syntax.Statement;
 
 /**
- * Parses gate calls (modifiers, name, parameters, operands) and gate definitions for the
- * {@link Parser}. A call's gate must be known when the call is read: a standard gate (once
- * {@code stdgates.inc} is included), a built-in or a gate defined earlier, looked up in the
- * {@link Scope}; its parameter and qubit counts are checked against the call.
+ * Parses gate calls (modifiers, name, arguments, operands) and gate definitions for the
+ * {@link Parser}. Names are checked against each other here (in time linear in their count);
+ * whether a called gate exists is the {@link Expander}'s question.
  */
 final class CallParser {
     private final Tokens tokens;
     private final ExpressionParser expressions;
-    private final Scope scope;
 
-    CallParser(Tokens tokens, Scope scope) {
+    CallParser(Tokens tokens, ExpressionParser expressions) {
         this.tokens = tokens;
-        this.expressions = new ExpressionParser(tokens);
-        this.scope = scope;
+        this.expressions = expressions;
     }
 
-    /** Parses {@code gate name(params) qubits { body }}, from the keyword on. */
-    GateDefinition definition() {
-        Token kw = tokens.next();
-        Token name = tokens.ident("a gate name");
-        scope.requireFree(name.text, Position.of(name));
-        List<String> params = new ArrayList<>();
-        if (tokens.peek().is("(")) {
-            tokens.next();
-            if (!tokens.peek().is(")")) {
-                params.add(newName(params, null));
-                while (tokens.peek().is(",")) {
-                    tokens.next();
-                    params.add(newName(params, null));
+    /** Whether the next tokens start a modifier ({@code inv @}, {@code ctrl(2) @} ...). */
+    boolean atModifier() {
+        Token t = tokens.peek();
+        return (t.is("inv") || t.is("pow") || t.is("ctrl") || t.is("negctrl"))
+                && (tokens.peek(1).is("@") || tokens.peek(1).is("("));
+    }
+
+    /** Parses a gate call from its first modifier or its name, through its ';'. */
+    GateCall call() {
+        Token first = tokens.peek();
+        List<Modifier> modifiers = new ArrayList<>();
+        while (atModifier()) {
+            Token m = tokens.next();
+            Expr argument = null;
+            ModifierKind kind = m.is("inv") ? ModifierKind.INVERSE : m.is("pow")
+                    ? ModifierKind.POWER : m.is("ctrl") ? ModifierKind.CONTROL
+                    : ModifierKind.NEGATIVE_CONTROL;
+            if (tokens.at("(")) {
+                if (kind == ModifierKind.INVERSE) {
+                    throw Tokens.error(tokens.peek(), "'inv' takes no argument; write inv @");
                 }
+                tokens.next();
+                argument = expressions.parse();
+                tokens.expect(")");
+            } else if (kind == ModifierKind.POWER) {
+                throw Tokens.error(tokens.peek(), "'pow' needs its power, as in pow(2) @");
             }
-            tokens.expect(")");
+            tokens.expect("@");
+            modifiers.add(new Modifier(Position.of(m), kind, argument));
         }
-        List<String> qargs = new ArrayList<>();
-        qargs.add(newName(qargs, params));
-        while (tokens.peek().is(",")) {
-            tokens.next();
-            qargs.add(newName(qargs, params));
-        }
-        tokens.expect("{");
-        List<GateCall> body = new ArrayList<>();
-        while (!tokens.peek().is("}")) {
-            Token t = tokens.peek();
-            if (t.type == Type.END) {
-                throw Tokens.error(t, "expected '}' to close gate '" + name.text + "'");
-            }
-            if (t.is("barrier")) {
-                bodyBarrier(name.text, qargs);
-                continue;
-            }
-            if (t.is("measure") || t.is("reset") || t.is("if") || t.is("qubit") || t.is("bit")
-                    || t.is("gate")) {
-                throw Tokens.error(t, "'" + t.text + "' is not allowed in a gate definition;"
-                        + " only gates and barrier are");
-            }
-            body.add(call(params, qargs));
-            tokens.expect(";");
-        }
-        tokens.next();
-        return new GateDefinition(Position.of(kw), name.text, Position.of(name), params, qargs,
-                body);
+        Token name = tokens.ident("a gate name");
+        requireCallable(name);
+        return rest(Position.of(first), modifiers, name.text, Position.of(name), null);
     }
 
-    /** Checks a {@code barrier} in a gate definition's body; it records nothing. */
-    private void bodyBarrier(String gate, List<String> qargs) {
-        tokens.next();
-        while (!tokens.peek().is(";")) {
-            Token a = tokens.ident("a qubit argument");
-            if (!qargs.contains(a.text)) {
-                throw Tokens.error(a, "unknown qubit argument '" + Lexer.clip(a.text)
-                        + "' in gate '" + gate + "'; arguments: " + qargs);
-            }
-            if (!tokens.peek().is(";")) {
-                tokens.expect(",");
-            }
+    private static void requireCallable(Token name) {
+        String reason = Syntax.UNSUPPORTED.get(name.text);
+        if (reason != null) {
+            throw Tokens.error(name, "'" + name.text + "' is unsupported: " + reason);
         }
-        tokens.next();
-    }
-
-    private String newName(List<String> seen, List<String> other) {
-        Token t = tokens.ident("a name");
-        if (seen.contains(t.text) || (other != null && other.contains(t.text))
-                || Syntax.RESERVED.contains(t.text)) {
-            throw Tokens.error(t, "the name '" + Lexer.clip(t.text) + "' is already in use");
+        if (Syntax.reserved(name.text) && !name.is("U") && !name.is("gphase")) {
+            throw Tokens.error(name, "expected a gate name but found the keyword '"
+                    + name.text + "'");
         }
-        return t.text;
     }
 
     /**
-     * Parses modifiers, a gate name, parameters and operands (not the ';').
+     * Parses a call's arguments and operands after its name, through its ';'.
      *
-     * @param params the enclosing definition's parameters, or null at the top level
-     * @param qargs the enclosing definition's qubit arguments, or null at the top level
+     * @param qubits the qubit arguments of the enclosing gate definition (operands must be
+     *     one of them, without index), or null outside a definition
      */
-    GateCall call(List<String> params, List<String> qargs) {
-        Token first = tokens.peek();
-        List<Modifier> modifiers = new ArrayList<>();
-        int controls = 0;
-        while (tokens.peek().is("inv") || tokens.peek().is("ctrl")
-                || tokens.peek().is("negctrl") || tokens.peek().is("pow")) {
-            Token m = tokens.next();
-            if (m.is("negctrl") || m.is("pow")) {
-                throw Tokens.error(m, "the modifier '" + m.text + "' is outside the supported"
-                        + " subset; 'inv @' and 'ctrl @' are supported");
-            }
-            if (m.is("inv")) {
-                modifiers.add(new Modifier(Position.of(m), ModifierKind.INVERSE, 0));
-            } else {
-                long k = 1;
-                if (tokens.peek().is("(")) {
-                    tokens.next();
-                    Token n = tokens.next();
-                    k = Tokens.whole(n, "control count");
-                    tokens.expect(")");
-                    if (k < 1 || k > 64) {
-                        throw Tokens.error(n, "the control count must be from 1 to 64 but was "
-                                + k);
-                    }
-                }
-                if (controls > 0) {
-                    throw Tokens.error(m, "only one 'ctrl' modifier per gate is supported; use"
-                            + " ctrl(k) @");
-                }
-                controls = (int) k;
-                modifiers.add(new Modifier(Position.of(m), ModifierKind.CONTROL, controls));
-            }
-            tokens.expect("@");
-        }
-        Token name = tokens.ident("a gate name");
-        if (Syntax.UNSUPPORTED.contains(name.text)) {
-            throw Tokens.error(name, "'" + name.text + "' is outside the supported subset of"
-                    + " OpenQASM 3 (gates, measure, reset, barrier, if on one bit, gate"
-                    + " definitions)");
-        }
-        QasmGates.Entry known = scope.knownGate(name.text);
-        GateDefinition user = scope.definition(name.text);
-        if (known == null && user == null) {
-            throw Tokens.error(name, "unknown gate '" + Lexer.clip(name.text) + "'"
-                    + (QasmGates.find(name.text) != null
-                    ? "; standard gates need include \"stdgates.inc\"" : ""));
-        }
-        if (controls > 0 && user != null) {
-            throw Tokens.error(first, "'ctrl @' on the user gate '" + name.text + "' is outside"
-                    + " the supported subset; it works on standard gates, U and gphase");
-        }
-        List<Expression> exprs = new ArrayList<>();
-        if (tokens.peek().is("(")) {
-            tokens.next();
-            if (!tokens.peek().is(")")) {
-                exprs.add(expressions.parse(params));
-                while (tokens.peek().is(",")) {
-                    tokens.next();
-                    exprs.add(expressions.parse(params));
-                }
+    GateCall rest(Position at, List<Modifier> modifiers, String name, Position nameAt,
+            Set<String> qubits) {
+        List<Expr> arguments = new ArrayList<>();
+        if (tokens.accept("(")) {
+            if (!tokens.at(")")) {
+                do {
+                    arguments.add(expressions.parse());
+                } while (tokens.accept(","));
             }
             tokens.expect(")");
         }
-        List<Operand> args = new ArrayList<>();
-        if (!tokens.peek().is(";")) {
-            args.add(qargs == null ? operand() : bodyOperand(qargs));
-            while (tokens.peek().is(",")) {
-                tokens.next();
-                args.add(qargs == null ? operand() : bodyOperand(qargs));
-            }
+        List<Expr> operands = new ArrayList<>();
+        if (!tokens.at(";")) {
+            do {
+                operands.add(qubits == null ? expressions.operand() : bodyOperand(qubits));
+            } while (tokens.accept(","));
         }
-        int wantParams = known != null ? known.parameters() : user.parameters().size();
-        int wantQubits = controls + (known != null ? known.qubits() : user.qubits().size());
-        if (exprs.size() != wantParams) {
-            throw Tokens.error(name, "gate '" + name.text + "' takes " + wantParams
-                    + " parameter(s) but " + exprs.size() + " were given");
-        }
-        if (args.size() != wantQubits) {
-            throw Tokens.error(name, (controls > 0 ? "ctrl(" + controls + ") @ " : "")
-                    + "gate '" + name.text + "' takes " + wantQubits + " qubit(s) but "
-                    + args.size() + " were given");
-        }
-        return new GateCall(Position.of(first), modifiers, name.text, Position.of(name), exprs,
-                args);
+        tokens.expect(";");
+        return new GateCall(at, List.copyOf(modifiers), name, nameAt, arguments, operands);
     }
 
     /** An operand in a gate definition's body: one of its qubit arguments, never indexed. */
-    private Operand bodyOperand(List<String> qargs) {
+    private Expr bodyOperand(Set<String> qubits) {
         Token t = tokens.ident("a qubit argument");
-        if (tokens.peek().is("[")) {
-            throw Tokens.error(tokens.peek(), "indexing is not allowed inside a gate definition");
+        if (tokens.at("[")) {
+            throw Tokens.error(tokens.peek(), "indexing is not allowed inside a gate"
+                    + " definition; its operands are its qubit arguments");
         }
-        if (!qargs.contains(t.text)) {
-            throw Tokens.error(t, "unknown qubit argument '" + Lexer.clip(t.text)
-                    + "'; arguments: " + qargs);
+        if (!qubits.contains(t.text)) {
+            throw Tokens.error(t, "unknown qubit argument '" + Lexer.clip(t.text) + "'; a gate"
+                    + " body may use only the qubits the gate declares");
         }
-        return new Operand(Position.of(t), t.text, Operand.WHOLE);
+        return new Name(Position.of(t), t.text);
     }
 
-    /** Parses a register operand: {@code name} or {@code name[index]}. */
-    Operand operand() {
-        Token name = tokens.ident("a register name");
-        long index = Operand.WHOLE;
-        if (tokens.peek().is("[")) {
-            tokens.next();
-            Token n = tokens.next();
-            index = Tokens.whole(n, "index");
-            tokens.expect("]");
+    /** Parses {@code gate name(params) qubits { body }}, from the keyword on. */
+    GateDefinition gateDefinition() {
+        Token kw = tokens.next();
+        Token name = tokens.ident("a gate name");
+        requireNewName(name);
+        Set<String> seen = new HashSet<>();
+        List<Declared> params = new ArrayList<>();
+        if (tokens.accept("(")) {
+            if (!tokens.at(")")) {
+                do {
+                    params.add(newName(seen, "a parameter name"));
+                } while (tokens.accept(","));
+            }
+            tokens.expect(")");
         }
-        return new Operand(Position.of(name), name.text, index);
+        List<Declared> qargs = new ArrayList<>();
+        Set<String> qubitNames = new HashSet<>();
+        do {
+            Declared q = newName(seen, "a qubit argument");
+            qargs.add(q);
+            qubitNames.add(q.name());
+        } while (tokens.accept(","));
+        Token open = tokens.expect("{");
+        List<Statement> body = new ArrayList<>();
+        while (!tokens.at("}")) {
+            Token t = tokens.peek();
+            if (t.type == Type.END) {
+                throw Tokens.error(t, "expected '}' to close gate '" + Lexer.clip(name.text)
+                        + "' opened on line " + open.line);
+            }
+            if (t.is("barrier")) {
+                tokens.next();
+                List<Expr> operands = new ArrayList<>();
+                if (!tokens.at(";")) {
+                    do {
+                        operands.add(bodyOperand(qubitNames));
+                    } while (tokens.accept(","));
+                }
+                tokens.expect(";");
+                body.add(new Barrier(Position.of(t), operands));
+                continue;
+            }
+            if (t.type == Type.IDENT && !atModifier() && !t.is("U") && !t.is("gphase")
+                    && Syntax.reserved(t.text)) {
+                throw Tokens.error(t, "'" + t.text + "' is not allowed in a gate definition;"
+                        + " only gate calls, gphase and barrier are");
+            }
+            body.add(bodyCall(qubitNames));
+        }
+        tokens.next();
+        return new GateDefinition(Position.of(kw), name.text, Position.of(name),
+                List.copyOf(params), List.copyOf(qargs), List.copyOf(body));
+    }
+
+    private GateCall bodyCall(Set<String> qubitNames) {
+        Token first = tokens.peek();
+        List<Modifier> modifiers = new ArrayList<>();
+        if (atModifier()) {
+            GateCall probe = call();
+            for (Expr o : probe.operands()) {
+                if (!(o instanceof Name n) || !qubitNames.contains(n.name())) {
+                    throw o.at().error("a gate body may use only the qubits the gate declares,"
+                            + " without index");
+                }
+            }
+            return probe;
+        }
+        Token name = tokens.ident("a gate name");
+        requireCallable(name);
+        return rest(Position.of(first), modifiers, name.text, Position.of(name), qubitNames);
+    }
+
+    private Declared newName(Set<String> seen, String what) {
+        Token t = tokens.ident(what);
+        requireNewName(t);
+        if (!seen.add(t.text)) {
+            throw Tokens.error(t, "the name '" + Lexer.clip(t.text) + "' is declared twice");
+        }
+        return new Declared(Position.of(t), t.text);
+    }
+
+    /** Refuses a keyword, built-in name or unsupported word as a new name. */
+    static void requireNewName(Token t) {
+        if (Syntax.reserved(t.text)) {
+            throw Tokens.error(t, "'" + t.text + "' is a word of the language and cannot be"
+                    + " declared as a name");
+        }
     }
 }

@@ -1,42 +1,63 @@
 package dev.qsim.text;
 
-import java.util.List;
-
-import dev.qsim.Circuit;
 import dev.qsim.text.Lexer.Token;
 import dev.qsim.text.Lexer.Type;
 
-/** A cursor over the lexer's tokens, shared by the statement and expression parsers. */
+/**
+ * A cursor over the lexer's tokens with a small look-ahead, shared by the statement and
+ * expression parsers. Tokens are made as the parser asks for them.
+ */
 final class Tokens {
-    private final List<Token> list;
-    private int pos;
+    private static final int LOOK_AHEAD = 4;
+    private static final int MASK = LOOK_AHEAD - 1;
 
-    /**
-     * Creates a cursor at the first token.
-     *
-     * @param list the tokens, ending with one of type {@link Type#END}
-     */
-    Tokens(List<Token> list) {
-        this.list = list;
+    private final Lexer lexer;
+    private final Token[] ring = new Token[LOOK_AHEAD];
+    private int head;
+    private int count;
+
+    Tokens(Lexer lexer) {
+        this.lexer = lexer;
     }
 
     /** The next token, not consumed. */
     Token peek() {
-        return list.get(pos);
+        return count > 0 ? ring[head] : peek(0);
     }
 
-    /** The token {@code ahead} places after the next one (the end token past the end). */
+    /** The token {@code ahead} places after the next one (at most 3), not consumed. */
     Token peek(int ahead) {
-        return list.get(Math.min(pos + ahead, list.size() - 1));
+        while (count <= ahead) {
+            Token last = count == 0 ? null : ring[(head + count - 1) & MASK];
+            ring[(head + count) & MASK] = last != null && last.type == Type.END ? last
+                    : lexer.next();
+            count++;
+        }
+        return ring[(head + ahead) & MASK];
     }
 
     /** Consumes the next token; the end token is never consumed. */
     Token next() {
-        Token t = list.get(pos);
+        Token t = peek();
         if (t.type != Type.END) {
-            pos++;
+            head = (head + 1) & MASK;
+            count--;
         }
         return t;
+    }
+
+    /** Whether the next token is the symbol or word {@code s}. */
+    boolean at(String s) {
+        return peek().is(s);
+    }
+
+    /** Consumes the next token if it is {@code s}. */
+    boolean accept(String s) {
+        if (peek().is(s)) {
+            next();
+            return true;
+        }
+        return false;
     }
 
     static CircuitFormatException error(Token t, String message) {
@@ -61,16 +82,24 @@ final class Tokens {
         return t;
     }
 
-    /** The value of a token that must be a whole number, such as a size or an index. */
-    static long whole(Token n, String what) {
-        if (n.type != Type.NUMBER) {
-            throw error(n, "expected a whole number for the " + what + " but found " + n.show());
-        }
-        try {
-            return Long.parseLong(n.text);
-        } catch (NumberFormatException e) {
-            throw error(n, "the " + what + " must be a whole number up to " + Circuit.MAX_QUBITS
-                    + " but was '" + Lexer.clip(n.text) + "'");
+    /**
+     * Reads an annotation after its {@code @}, which must be the one token consumed since the
+     * last look.
+     */
+    String[] annotation(Token at) {
+        requireNothingAhead(at);
+        return lexer.annotation(at.line, at.column);
+    }
+
+    /** Reads the rest of the line after the token {@code at}, just consumed. */
+    String restOfLine(Token at) {
+        requireNothingAhead(at);
+        return lexer.restOfLine();
+    }
+
+    private void requireNothingAhead(Token at) {
+        if (count != 0) {
+            throw error(at, "'" + at.text + "' must be followed by its text on the same line");
         }
     }
 }

@@ -17,7 +17,8 @@ import dev.qsim.Gate;
 /**
  * The reader's name table against the catalogue and the OpenQASM 3 specification (built-ins
  * {@code U} and {@code gphase}; {@code stdgates.inc} with its aliases {@code CX},
- * {@code phase} and {@code cphase}).
+ * {@code phase}, {@code cphase} and {@code u1}, and the gates it defines through others,
+ * {@code u2}, {@code u3} and {@code cu}; the file's contents from memory).
  */
 class QasmGatesTest {
 
@@ -44,7 +45,7 @@ class QasmGatesTest {
     }
 
     @ParameterizedTest
-    @CsvSource({"CX, CNOT", "phase, PHASE", "cphase, CPHASE"})
+    @CsvSource({"CX, CNOT", "phase, PHASE", "cphase, CPHASE", "u1, PHASE"})
     void theAliasesOfStdgatesAreStandardNamesOfTheirCatalogueGates(String name, Gate gate) {
         QasmGates.Entry e = QasmGates.find(name);
         assertSame(gate, e.gate());
@@ -78,5 +79,19 @@ class QasmGatesTest {
     void namesAreTheOpenQasmOnesAsWritten(String name) {
         // Catalogue identifiers and other spellings are not OpenQASM names.
         assertNull(QasmGates.find(name), name);
+    }
+
+    @ParameterizedTest
+    @CsvSource({"u2, 2, 1", "u3, 3, 1", "cu, 4, 2"})
+    void gatesDefinedThroughOthersAreStandardWithTheirCounts(String name, int parameters,
+            int qubits) {
+        QasmGates.Entry e = QasmGates.find(name);
+        assertNull(e.gate());
+        assertNotNull(e.definition());
+        assertFalse(e.globalPhase());
+        assertTrue(e.standard());
+        assertEquals(parameters, e.parameters());
+        assertEquals(qubits, e.qubits());
+        assertNull(QasmGates.callable(name, false));
     }
 }

@@ -36,7 +36,6 @@ import dev.qsim.stats.NoiseFamily;
 import dev.qsim.stats.NoiseFit;
 import dev.qsim.stats.TallyComparison;
 import dev.qsim.stats.TallyFiles;
-import dev.qsim.text.QasmReader;
 
 /**
  * The command-line tool: runs OpenQASM 3 circuit files, prints states, draws circuits and
@@ -185,15 +184,6 @@ public final class Cli implements Callable<Integer> {
         return EXIT_BAD_INPUT;
     }
 
-    static Circuit readCircuit(Path file) throws IOException {
-        FileChecks.requireInput(file, "a circuit file (OpenQASM 3, .qasm)");
-        try {
-            return QasmReader.read(file);
-        } catch (IllegalArgumentException e) {
-            throw new IllegalArgumentException(file + ": " + e.getMessage(), e);
-        }
-    }
-
     static void write(Path file, String text) throws IOException {
         Files.writeString(file, text, StandardCharsets.UTF_8);
     }
@@ -280,6 +270,8 @@ public final class Cli implements Callable<Integer> {
     static final class Run implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
+        @CommandLine.Mixin
+        CircuitOptions circuitOptions = new CircuitOptions();
         @Parameters(paramLabel = "FILE", description = "the OpenQASM 3 circuit file")
         Path file;
         @Option(names = "--shots", defaultValue = "1000", paramLabel = "N",
@@ -328,7 +320,7 @@ public final class Cli implements Callable<Integer> {
             if (svg != null) {
                 FileChecks.requireOutput(svg, "--svg");
             }
-            Circuit c = readCircuit(file);
+            Circuit c = circuitOptions.read(file);
             if (c.clbits() == 0) {
                 throw new IllegalArgumentException(file + ": the circuit declares no bit to"
                         + " measure into; add 'bit[n] c;' and 'c = measure q;'");
@@ -396,6 +388,8 @@ public final class Cli implements Callable<Integer> {
     static final class State implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
+        @CommandLine.Mixin
+        CircuitOptions circuitOptions = new CircuitOptions();
         @Parameters(paramLabel = "FILE", description = "the OpenQASM 3 circuit file")
         Path file;
         @Option(names = {"-p", "--probabilities"}, description = "print probabilities only")
@@ -408,7 +402,7 @@ public final class Cli implements Callable<Integer> {
 
         @Override
         public Integer call() throws IOException {
-            Circuit c = readCircuit(file);
+            Circuit c = circuitOptions.read(file);
             if (c.qubits() > MAX_STATE_QUBITS) {
                 throw new IllegalArgumentException(file + ": 'state' prints circuits of at most "
                         + MAX_STATE_QUBITS + " qubits but this one has " + c.qubits());
@@ -506,6 +500,8 @@ public final class Cli implements Callable<Integer> {
     static final class Draw implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
+        @CommandLine.Mixin
+        CircuitOptions circuitOptions = new CircuitOptions();
         @Parameters(paramLabel = "FILE", description = "the OpenQASM 3 circuit file")
         Path file;
         @Option(names = "--svg", paramLabel = "OUT.svg",
@@ -518,7 +514,7 @@ public final class Cli implements Callable<Integer> {
             if (svg != null) {
                 FileChecks.requireOutput(svg, "--svg");
             }
-            Circuit c = readCircuit(file);
+            Circuit c = circuitOptions.read(file);
             if (svg != null) {
                 writePicture(spec, svg, SvgCircuit.draw(c, file.getFileName().toString()),
                         "circuit of " + SvgCircuit.summary(c));
@@ -569,6 +565,8 @@ public final class Cli implements Callable<Integer> {
     static final class Compare implements Callable<Integer> {
         @Spec
         CommandLine.Model.CommandSpec spec;
+        @CommandLine.Mixin
+        CircuitOptions circuitOptions = new CircuitOptions();
         @Parameters(paramLabel = "TALLY", description = "the tally file, CSV or JSON")
         Path tallyFile;
         @Option(names = "--circuit", required = true, paramLabel = "FILE",
@@ -639,7 +637,7 @@ public final class Cli implements Callable<Integer> {
             settings = settings.withThreads(t);
             NoiseFamily family = fit == null ? null : fit.family(noise);
             Tally tally = TallyFiles.read(tallyFile);
-            Circuit c = readCircuit(circuitFile);
+            Circuit c = circuitOptions.read(circuitFile);
             if (c.clbits() != tally.width()) {
                 throw new IllegalArgumentException(tallyFile + " has outcomes of "
                         + tally.width() + " bits but " + circuitFile + " predicts outcomes of "

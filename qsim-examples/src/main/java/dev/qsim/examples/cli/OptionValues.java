@@ -233,4 +233,60 @@ final class OptionValues {
             throw new TypeConversionException("'" + value + "' is not table or csv");
         }
     }
+
+    /** One {@code --input NAME=VALUE}: the name, the value, and whether it was written whole. */
+    record InputValue(String name, double value, boolean integer) {
+    }
+
+    /** {@code --input NAME=VALUE} with a finite number. */
+    static final class Input implements ITypeConverter<InputValue> {
+        @Override
+        public InputValue convert(String value) {
+            int eq = value.indexOf('=');
+            String name = eq < 0 ? "" : value.substring(0, eq).strip();
+            String number = eq < 0 ? "" : value.substring(eq + 1).strip();
+            if (name.isEmpty() || !name.matches("[A-Za-z_][A-Za-z0-9_]*")) {
+                throw new TypeConversionException("'" + Cli.excerpt(value) + "' is not"
+                        + " NAME=VALUE with the name of an input declaration");
+            }
+            if (number.matches("[+-]?\\d{1,18}")) {
+                return new InputValue(name, Long.parseLong(number), true);
+            }
+            double v;
+            try {
+                v = Double.parseDouble(number);
+            } catch (NumberFormatException e) {
+                v = Double.NaN;
+            }
+            if (!Double.isFinite(v)) {
+                throw new TypeConversionException("'" + Cli.excerpt(number) + "' (the value of "
+                        + name + ") is not a finite number");
+            }
+            return new InputValue(name, v, false);
+        }
+    }
+
+    /** {@code --loop-bound}: 1 to the builder's most iterations. */
+    static final class LoopBound implements ITypeConverter<Integer> {
+        @Override
+        public Integer convert(String value) {
+            return (int) whole(value, 1, dev.qsim.Circuit.Builder.MAX_ITERATIONS);
+        }
+    }
+
+    /** {@code --work-budget}: 1 to 10^11 steps. */
+    static final class WorkBudget implements ITypeConverter<Long> {
+        @Override
+        public Long convert(String value) {
+            return whole(value, 1, 100_000_000_000L);
+        }
+    }
+
+    /** {@code --dt}: above 0, at most one second. */
+    static final class TimeStep implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return decimal(value, 0, 1, true, false, "a time in seconds");
+        }
+    }
 }

@@ -1,9 +1,12 @@
 package dev.qsim.examples.cli;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
+import java.util.Locale;
 
 import dev.qsim.Circuit;
+import dev.qsim.Expression;
 import dev.qsim.Instruction;
 
 /**
@@ -19,7 +22,12 @@ import dev.qsim.Instruction;
  *   <li>a measurement as a gauge-like box on its qubit's wire with a small tag naming the bit it
  *       writes ({@code →c2}), and a small square on that bit's line in the same column;</li>
  *   <li>a conditioned block as a dashed amber frame around its gates, tagged with its condition
- *       ({@code if c1=1}), and a hollow ring on the bit's line where it is read.</li>
+ *       ({@code if c1=1}), and a hollow ring on the bit's line where it is read; blocks with a
+ *       condition on registers or variables ({@code if}, its {@code else}, {@code while}) in
+ *       the same frame tagged with the condition's text;</li>
+ *   <li>a delay as a plain box {@code wait(2us)} on each qubit it holds; a gate whose angles are
+ *       read during the shot with its angle expressions; an assignment to a variable or bits is
+ *       not drawn (it has no wire).</li>
  * </ul>
  * Nothing connects a qubit wire to a bit line: the tags and the marks on the bit lines say which
  * bit is written and read. The circuit model has no barrier, so a barrier in an OpenQASM file is
@@ -36,6 +44,12 @@ final class SvgCircuit {
     private static final String BOX_EDGE = "#2f6db3";
     private static final String COND = "#b07800";
     private static final String BIT_LINE = "#9a9a9a";
+    /** The most lines (qubit wires and bit lines) a picture has. */
+    static final int MAX_WIRES = 4096;
+    /** The most parts (gates, frames, marks) a picture has: about 50 MB of SVG. */
+    static final int MAX_SHAPES = 250_000;
+    /** The longest tag or dynamic label drawn whole. */
+    private static final int MAX_TAG = 40;
 
     private final int qubits;
     private final int clbits;
@@ -71,9 +85,20 @@ final class SvgCircuit {
      * @return the SVG text
      */
     static String draw(Circuit c, String title) {
+        if ((long) c.qubits() + c.clbits() > MAX_WIRES) {
+            throw new IllegalArgumentException("the circuit has " + c.qubits() + " qubits and "
+                    + c.clbits() + " classical bits, too many lines for a picture (at most "
+                    + MAX_WIRES + " in all); draw it as text, which summarises what it cannot"
+                    + " show");
+        }
         SvgCircuit d = new SvgCircuit(c);
         for (Instruction in : c.instructions()) {
             d.place(in, -1);
+            if (d.shapes.size() > MAX_SHAPES) {
+                throw new IllegalArgumentException("the circuit has more than " + MAX_SHAPES
+                        + " parts to draw (" + c.size() + " instructions), too many for a"
+                        + " picture; draw it as text, which summarises what it cannot show");
+            }
         }
         d.centres = new int[d.widths.size()];
         int x = LEFT;
@@ -175,6 +200,10 @@ final class SvgCircuit {
      */
     private int place(Instruction in, int fixed) {
         int[] s = span(in);
+        if (s[1] < 0 && in.kind() != Instruction.Kind.GATE) {
+            // Classical only (an assignment, a block of them): as in the text diagram, not drawn.
+            return Math.max(fixed, 0);
+        }
         int col = fixed;
         if (fixed < 0) {
             col = 0;
@@ -189,7 +218,21 @@ final class SvgCircuit {
         int end;
         switch (in.kind()) {
             case IF_BIT:
-                end = condition(in, col, s);
+                end = frame(in.body(), "if c" + in.clbit() + "=" + in.value(), in.clbit(), col,
+                        s);
+                break;
+            case IF:
+                end = frame(in.body(), tag("if ", in), -1, col, s);
+                if (!in.otherwise().isEmpty()) {
+                    end = frame(in.otherwise(), tag("else of ", in), -1, end, s);
+                }
+                break;
+            case WHILE:
+                end = frame(in.body(), tag("while ", in), -1, col, s);
+                break;
+            case DELAY:
+                delay(in, col);
+                end = col + 1;
                 break;
             case MEASURE:
                 measure(in, col);
@@ -217,12 +260,20 @@ final class SvgCircuit {
         return end;
     }
 
-    /** A conditioned block: its gates in consecutive columns inside a tagged dashed frame. */
-    private int condition(Instruction in, int col, int[] s) {
+    /** The tag of a block with a condition: the prefix and the condition, at most 40 chars. */
+    private static String tag(String prefix, Instruction in) {
+        String text = prefix + in.condition();
+        return text.length() <= MAX_TAG ? text : text.substring(0, MAX_TAG - 3) + "...";
+    }
+
+    /**
+     * A block run under a condition: its instructions in consecutive columns inside a dashed
+     * frame with a tag; {@code bit} is the classical bit read (a ring on its line), or -1.
+     */
+    private int frame(List<Instruction> body, String tag, int bit, int col, int[] s) {
         int[] last = {col};
         int lo = s[1] < 0 ? 0 : s[0];
         int hi = s[1] < 0 ? 0 : s[1];
-        String tag = "if c" + in.clbit() + "=" + in.value();
         // The frame goes first, so the gates are drawn on it.
         shapes.add(out -> {
             int x0 = left(col) + 4;
@@ -234,7 +285,7 @@ final class SvgCircuit {
                     + " rx=\"6\"/>%n", x0, y0, x1 - x0, y1 - y0, COND));
         });
         int end = col;
-        for (Instruction b : in.body()) {
+        for (Instruction b : body) {
             end = place(b, end);
         }
         end = Math.max(end, col + 1);
@@ -247,16 +298,40 @@ final class SvgCircuit {
             out.append(Cli.f("<rect x=\"%d\" y=\"%d\" width=\"%d\" height=\"12\""
                     + " fill=\"white\"/><text class=\"tag\" x=\"%d\" y=\"%d\" font-size=\"10\""
                     + " fill=\"%s\">%s</text>%n", x0 + 6, y0 - 6, 6 * tag.length() + 6, x0 + 9,
-                    y0 + 4, COND, tag));
+                    y0 + 4, COND, SvgHistogram.esc(tag)));
+            if (bit < 0) {
+                return;
+            }
             // Where the bit is read: a hollow ring on its line, the frame's width marked there.
-            int yb = bitY(in.clbit());
+            int yb = bitY(bit);
             out.append(Cli.f("<line x1=\"%d\" y1=\"%d\" x2=\"%d\" y2=\"%d\" stroke=\"%s\""
                     + " stroke-width=\"2\" stroke-dasharray=\"5,3\"/><circle cx=\"%d\""
                     + " cy=\"%d\" r=\"4\" fill=\"white\" stroke=\"%s\" stroke-width=\"1.5\">"
                     + "<title>%s reads c%d</title></circle>%n", x0, yb, x1, yb, COND, x0 + 8, yb,
-                    COND, tag, in.clbit()));
+                    COND, tag, bit));
         });
         return end;
+    }
+
+    /** A delay: a plain box reading {@code wait(2us)} on each qubit it holds. */
+    private void delay(Instruction in, int col) {
+        String label = "wait(" + seconds(in.duration()) + ")";
+        need(col, boxWidth(label));
+        for (int q : in.targets()) {
+            shapes.add(out -> box(out, colX(col), rowY(q), boxWidth(label), label));
+        }
+    }
+
+    /** A duration in seconds, in the largest unit of s, ms, us and ns that keeps it above 1. */
+    static String seconds(double d) {
+        String[] unit = {"s", "ms", "us", "ns"};
+        int k = 0;
+        double scaled = d;
+        for (; k < 3 && scaled != 0 && Math.abs(scaled) < 1; k++) {
+            scaled *= 1e3;
+        }
+        return new java.math.BigDecimal(Cli.f("%.4g", scaled)).stripTrailingZeros()
+                .toPlainString() + unit[k];
     }
 
     /** A measurement: a gauge on the qubit's wire, a tag naming the bit, a mark on its line. */
@@ -285,7 +360,8 @@ final class SvgCircuit {
     private void gate(Instruction in, int col) {
         int[] t = in.targets();
         int[] c = in.controls();
-        String[] labels = in.gate().targetLabels(in.angles(), t.length);
+        String[] labels = in.isDynamic() ? dynamicLabels(in)
+                : in.gate().targetLabels(in.angles(), t.length);
         int[] s = span(in);
         for (String label : labels) {
             need(col, boxWidth(pretty(label)));
@@ -330,6 +406,22 @@ final class SvgCircuit {
                 box(out, x, y, boxWidth(text), text);
                 break;
         }
+    }
+
+    /** A gate whose angles are read during the shot: its name and expressions, shortened. */
+    private static String[] dynamicLabels(Instruction in) {
+        StringBuilder sb = new StringBuilder(in.gate().id().toUpperCase(Locale.ROOT)).append('(');
+        Expression[] angles = in.angleExpressions();
+        for (int k = 0; k < angles.length; k++) {
+            sb.append(k > 0 ? "," : "").append(angles[k]);
+        }
+        String text = sb.append(')').toString();
+        if (text.length() > MAX_TAG) {
+            text = text.substring(0, MAX_TAG - 3) + "...";
+        }
+        String[] out = new String[in.targets().length];
+        Arrays.fill(out, text);
+        return out;
     }
 
     /** The width of a box for a label (symbols take none). */

@@ -228,4 +228,65 @@ class CliTest {
                 "00000", TallyFiles.read(json).count("00000") > 0,
                 "11111", TallyFiles.read(json).count("11111") > 0));
     }
+
+    @Test
+    void readerOptionsGiveInputsLoopBoundAndTimeStep() throws IOException {
+        Path file = dir.resolve("knob.qasm");
+        Files.writeString(file, "OPENQASM 3;\ninclude \"stdgates.inc\";\ninput float turn;\n"
+                + "qubit q;\nbit c;\nrx(turn) q;\ndelay[10dt] q;\nc = measure q;\n");
+        // RX(pi)|0> = -i|1> (Nielsen and Chuang 2010, eq. 4.4): every shot reads 1.
+        ToolRun r = tool("run", file.toString(), "--input", "turn=3.141592653589793", "--dt",
+                "1e-9", "--shots", "200", "--format", "csv");
+        assertEquals(0, r.code, r::toString);
+        assertEquals(200, TallyFiles.read(r.out).count("1"), r::toString);
+        ToolRun missing = tool("run", file.toString(), "--dt", "1e-9");
+        assertEquals(2, missing.code, missing::toString);
+        assertTrue(missing.err.contains("give it with --input turn=VALUE"), missing::toString);
+        ToolRun noDt = tool("run", file.toString(), "--input", "turn=1");
+        assertEquals(2, noDt.code, noDt::toString);
+        assertTrue(noDt.err.contains("--dt"), noDt::toString);
+        ToolRun twice = tool("run", file.toString(), "--input", "turn=1", "--input", "turn=2",
+                "--dt", "1e-9");
+        assertEquals(2, twice.code, twice::toString);
+        assertTrue(twice.err.contains("'turn' is given twice"), twice::toString);
+        ToolRun d = tool("draw", file.toString(), "--input", "turn=1", "--dt", "1e-9");
+        assertTrue(d.out.contains("wait(10ns)"), d::toString);
+
+        // Repeat until success: a loop that stops at the first 1 of a fair coin still reads 0
+        // after k passes with probability 2^-k (geometric distribution, common practice).
+        Path loop = dir.resolve("coin.qasm");
+        Files.writeString(loop, "OPENQASM 3;\ninclude \"stdgates.inc\";\nqubit q;\nbit c;\n"
+                + "c = 0;\nwhile (c == 0) { reset q; h q; c = measure q; }\n");
+        ToolRun one = tool("run", loop.toString(), "--loop-bound", "1", "--shots", "4000",
+                "--seed", "5", "--format", "csv");
+        assertEquals(0, one.code, one::toString);
+        long zeros = TallyFiles.read(one.out).count("0");
+        // Binomial(4000, 1/2): mean 2000, standard deviation 31.6; 5 deviations either side.
+        assertTrue(Math.abs(zeros - 2000) < 160, one::toString);
+        ToolRun many = tool("run", loop.toString(), "--shots", "4000", "--seed", "5",
+                "--format", "csv");
+        assertEquals(4000, TallyFiles.read(many.out).count("1"), many::toString);
+        // A loop of 1,000 passes spends at least a step a pass: a budget of 1,000 steps is too
+        // small (the message names the option), one of 100,000 is enough.
+        Path count = dir.resolve("count.qasm");
+        Files.writeString(count, "OPENQASM 3;\ninclude \"stdgates.inc\";\nqubit q;\n"
+                + "for int i in [0:999] { x q; }\n");
+        ToolRun small = tool("draw", count.toString(), "--work-budget", "1000");
+        assertEquals(2, small.code, small::toString);
+        assertTrue(small.err.contains("raise the budget with --work-budget STEPS"),
+                small::toString);
+        assertEquals(0, tool("draw", count.toString(), "--work-budget", "100000").code);
+        ToolRun bad = tool("run", loop.toString(), "--loop-bound", "0");
+        assertEquals(2, bad.code, bad::toString);
+        assertTrue(bad.err.contains("1 to 1,048,576"), bad::toString);
+    }
+
+    @Test
+    void aFileWithoutEndIsRefusedAtTheToolsLimit() {
+        // /dev/zero never ends: the tool stops at its 64 MiB limit instead of filling the heap.
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isReadable(Path.of("/dev/zero")));
+        ToolRun r = tool("run", "/dev/zero");
+        assertEquals(2, r.code, r::toString);
+        assertTrue(r.err.contains("more than 67108864 bytes (the tool's limit)"), r::toString);
+    }
 }

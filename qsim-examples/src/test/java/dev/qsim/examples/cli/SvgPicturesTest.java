@@ -2,6 +2,7 @@ package dev.qsim.examples.cli;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.ByteArrayInputStream;
@@ -242,5 +243,49 @@ class SvgPicturesTest {
         ToolRun help = new ToolRun("draw", "--help");
         assertTrue(help.out.replaceAll("\\s+", " ").contains("barrier statements are read but"
                 + " not kept"), help::toString);
+    }
+
+    @Test
+    void circuitDrawsLoopsBranchesDelaysAndDynamicAngles() throws Exception {
+        Circuit c = QasmReader.read("OPENQASM 3;\ninclude \"stdgates.inc\";\nqubit[2] q;\n"
+                + "bit[2] c;\nh q[0];\nc[0] = measure q[0];\nif (c[0] == 1) { x q[1]; } else"
+                + " { z q[1]; }\nwhile (c[1] == 0) { h q[1]; c[1] = measure q[1]; }\n"
+                + "delay[2us] q[0];\nrx(c[1] * 0.5) q[0];\n");
+        Document d = parse(SvgCircuit.draw(c, "knots.qasm"));
+        List<String> tags = new ArrayList<>();
+        for (Element e : elements(d, "text", "tag")) {
+            tags.add(e.getTextContent());
+        }
+        assertTrue(tags.stream().anyMatch(t -> t.startsWith("if ") && t.contains("c[0]")),
+                tags::toString);
+        assertTrue(tags.stream().anyMatch(t -> t.startsWith("else of ")), tags::toString);
+        assertTrue(tags.stream().anyMatch(t -> t.startsWith("while ")), tags::toString);
+        assertEquals(3, elements(d, "rect", "condition").size());
+        List<String> labels = new ArrayList<>();
+        for (Element e : elements(d, "text", "label")) {
+            labels.add(e.getTextContent());
+        }
+        assertTrue(labels.contains("wait(2us)"), labels::toString);
+        assertTrue(labels.stream().anyMatch(t -> t.startsWith("RX(") && t.contains("c[1]")),
+                labels::toString);
+    }
+
+    @Test
+    void circuitsTooLargeForAPictureAreRefusedByName() {
+        // One gate across 2^20 qubits (an input of the fuzzing harness): no picture of a
+        // million wires, a refusal that names the count and the text drawing instead.
+        Circuit wide = Circuit.builder(Circuit.MAX_QUBITS).cnot(0, Circuit.MAX_QUBITS - 1)
+                .build();
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> SvgCircuit.draw(wide, "wide.qasm"));
+        assertTrue(e.getMessage().contains(Circuit.MAX_QUBITS + " qubits")
+                && e.getMessage().contains("as text"), e.getMessage());
+        Circuit.Builder deep = Circuit.builder(2);
+        for (int k = 0; k <= SvgCircuit.MAX_SHAPES; k++) {
+            deep.h(k % 2);
+        }
+        e = assertThrows(IllegalArgumentException.class, () -> SvgCircuit.draw(deep.build(),
+                "deep.qasm"));
+        assertTrue(e.getMessage().contains("more than " + SvgCircuit.MAX_SHAPES), e.getMessage());
     }
 }
