@@ -1,9 +1,10 @@
 /**
  * qsim: a pure-Java quantum circuit simulator to embed in JVM code.
  *
- * <p>The public API is six packages: {@code dev.qsim} (circuits, the gate catalogue, states,
+ * <p>The public API is seven packages: {@code dev.qsim} (circuits, the gate catalogue, states,
  * tallies and the run facade {@code Simulator}), {@code dev.qsim.noise} (channels, noise models,
- * density matrices), {@code dev.qsim.stabilizer} (the stabilizer tableau),
+ * density matrices), {@code dev.qsim.stabilizer} (the stabilizer tableau), {@code dev.qsim.mps}
+ * (matrix product states for wide circuits with little entanglement),
  * {@code dev.qsim.observable} (Pauli products, observables, expectation values, gradients),
  * {@code dev.qsim.stats} (comparing tallies with predictions, fitting error rates, tally files)
  * and {@code dev.qsim.text} (OpenQASM 3). Two packages are internal and not exported:
@@ -21,6 +22,7 @@ module dev.qsim {
     exports dev.qsim;
     exports dev.qsim.noise;
     exports dev.qsim.stabilizer;
+    exports dev.qsim.mps;
     exports dev.qsim.text;
     exports dev.qsim.stats;
     exports dev.qsim.observable;

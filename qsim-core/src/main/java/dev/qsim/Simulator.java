@@ -10,6 +10,7 @@ import dev.qsim.internal.Bridge;
 import dev.qsim.internal.Checks;
 import dev.qsim.internal.ClassicalState;
 import dev.qsim.kernel.Parallel;
+import dev.qsim.mps.MatrixProductState;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
 import dev.qsim.stabilizer.StabilizerTableau;
@@ -21,7 +22,8 @@ import dev.qsim.stabilizer.StabilizerTableau;
  * seed, so equal calls give equal results, whatever the thread count. Thread-safe.
  *
  * <p>Engines ({@link Engine}): the state vector ({@link Engine#AMPLITUDES}), the stabilizer
- * tableau ({@link Engine#TABLEAU}, Clifford circuits of thousands of qubits), and for noisy
+ * tableau ({@link Engine#TABLEAU}, Clifford circuits of thousands of qubits), the matrix product
+ * state ({@link Engine#MATRIX_PRODUCT}, wide circuits with little entanglement), and for noisy
  * runs the density matrix ({@link Engine#DENSITY_MATRIX}, exact) or Monte Carlo wave-function
  * trajectories ({@link Engine#TRAJECTORIES}, any circuit). Noise is a setting of the run
  * ({@link #withNoise(NoiseModel)}); the engine is another ({@link #withEngine(Engine)}), by
@@ -65,7 +67,14 @@ public final class Simulator implements CircuitRunner {
          */
         DENSITY_MATRIX,
         /** Monte Carlo wave-function trajectories of a noisy circuit: one per shot, any circuit. */
-        TRAJECTORIES
+        TRAJECTORIES,
+        /**
+         * The matrix product state ({@link MatrixProductState}): any ideal circuit on up to
+         * {@link Circuit#MAX_QUBITS} qubits, in memory that grows with the entanglement; bonds
+         * are truncated to {@link #withBondLimit(int)} and {@link #withTruncation(double)}, and
+         * {@link #matrixProductStateAfter(Circuit)} says how much accuracy that gave up.
+         */
+        MATRIX_PRODUCT
     }
 
     /**
@@ -162,9 +171,13 @@ public final class Simulator implements CircuitRunner {
     private final Engine engine;
     private final NoiseModel noise;
     private final Precision precision;
+    private final int bondLimit;
+    private final double truncation;
 
     private Simulator(long seed, int threads, boolean fusion, Engine engine, NoiseModel noise,
-            Precision precision) {
+            Precision precision, int bondLimit, double truncation) {
+        this.bondLimit = bondLimit;
+        this.truncation = truncation;
         this.seed = seed;
         this.threads = threads;
         this.fusion = fusion;
@@ -175,14 +188,17 @@ public final class Simulator implements CircuitRunner {
 
     /**
      * Returns a simulator with the given seed, using every available processor, the cheapest
-     * engine, no noise, double precision and gate fusion.
+     * engine, no noise, double precision, gate fusion, and the matrix-product defaults (bond
+     * limit {@value MatrixProductState#DEFAULT_BOND_LIMIT}, truncation
+     * {@value MatrixProductState#DEFAULT_TRUNCATION}).
      *
      * @param seed the seed of every run
      * @return the simulator
      */
     public static Simulator seeded(long seed) {
         return new Simulator(seed, Parallel.defaultThreads(), true, Engine.CHEAPEST,
-                NoiseModel.none(), Precision.DOUBLE);
+                NoiseModel.none(), Precision.DOUBLE, MatrixProductState.DEFAULT_BOND_LIMIT,
+                MatrixProductState.DEFAULT_TRUNCATION);
     }
 
     /**
@@ -194,7 +210,8 @@ public final class Simulator implements CircuitRunner {
      */
     public Simulator withThreads(int threads) {
         Checks.requireThreads(threads);
-        return new Simulator(seed, threads, fusion, engine, noise, precision);
+        return new Simulator(seed, threads, fusion, engine, noise, precision, bondLimit,
+                truncation);
     }
 
     /**
@@ -209,7 +226,7 @@ public final class Simulator implements CircuitRunner {
      * @return the new simulator
      */
     public Simulator withFusion(boolean on) {
-        return new Simulator(seed, threads, on, engine, noise, precision);
+        return new Simulator(seed, threads, on, engine, noise, precision, bondLimit, truncation);
     }
 
     /**
@@ -220,7 +237,8 @@ public final class Simulator implements CircuitRunner {
      */
     public Simulator withEngine(Engine engine) {
         Objects.requireNonNull(engine, "engine");
-        return new Simulator(seed, threads, fusion, engine, noise, precision);
+        return new Simulator(seed, threads, fusion, engine, noise, precision, bondLimit,
+                truncation);
     }
 
     /**
@@ -233,7 +251,8 @@ public final class Simulator implements CircuitRunner {
      */
     public Simulator withNoise(NoiseModel model) {
         Objects.requireNonNull(model, "model");
-        return new Simulator(seed, threads, fusion, engine, model, precision);
+        return new Simulator(seed, threads, fusion, engine, model, precision, bondLimit,
+                truncation);
     }
 
     /**
@@ -249,7 +268,56 @@ public final class Simulator implements CircuitRunner {
      */
     public Simulator withPrecision(Precision precision) {
         Objects.requireNonNull(precision, "precision");
-        return new Simulator(seed, threads, fusion, engine, noise, precision);
+        return new Simulator(seed, threads, fusion, engine, noise, precision, bondLimit,
+                truncation);
+    }
+
+    /**
+     * Returns a simulator like this one whose matrix product states keep at most {@code limit}
+     * Schmidt values across any bond ({@link Engine#MATRIX_PRODUCT}; other engines ignore it).
+     * A two-qubit gate then costs at most an SVD of a {@code 2·limit} square matrix.
+     *
+     * @param limit from 1 to {@value MatrixProductState#MAX_BOND_LIMIT}
+     * @return the new simulator
+     * @throws IllegalArgumentException if {@code limit} is out of range
+     */
+    public Simulator withBondLimit(int limit) {
+        Bridge.matrixProducts().requireSettings(limit, truncation);
+        return new Simulator(seed, threads, fusion, engine, noise, precision, limit, truncation);
+    }
+
+    /**
+     * Returns a simulator like this one whose matrix product states drop, at each split, the
+     * largest tail of Schmidt values whose weight is at most {@code threshold} times the total
+     * ({@link Engine#MATRIX_PRODUCT}; other engines ignore it). 0 drops only values that are
+     * numerically zero.
+     *
+     * @param threshold in {@code [0, 1)}
+     * @return the new simulator
+     * @throws IllegalArgumentException if {@code threshold} is out of range or NaN
+     */
+    public Simulator withTruncation(double threshold) {
+        Bridge.matrixProducts().requireSettings(bondLimit, threshold);
+        return new Simulator(seed, threads, fusion, engine, noise, precision, bondLimit,
+                threshold);
+    }
+
+    /**
+     * Returns the bond limit of matrix product states.
+     *
+     * @return the limit
+     */
+    public int bondLimit() {
+        return bondLimit;
+    }
+
+    /**
+     * Returns the truncation threshold of matrix product states.
+     *
+     * @return the threshold
+     */
+    public double truncation() {
+        return truncation;
     }
 
     /**
@@ -311,8 +379,10 @@ public final class Simulator implements CircuitRunner {
      * can. The rules of {@link Engine#CHEAPEST}:
      * <ul>
      *   <li>without noise, a Clifford circuit ({@link Circuit#isClifford()}) of at least
-     *       {@value #TABLEAU_FROM_QUBITS} qubits runs on the tableau, any other on the state
-     *       vector;</li>
+     *       {@value #TABLEAU_FROM_QUBITS} qubits runs on the tableau; any other runs on the state
+     *       vector unless that would hold more than {@value StateVector#MAX_QUBITS} qubits or
+     *       more bytes than the maximum heap ({@code Runtime.maxMemory()}), when it runs on the
+     *       matrix product state;</li>
      *   <li>with noise, a circuit whose measurements come last runs on the density matrix when
      *       it has at most {@value #DENSITY_MATRIX_UP_TO_QUBITS} qubits and the shots are at
      *       least {@code 2^n / 4} (a density-matrix gate costs as much as a gate on about
@@ -353,6 +423,12 @@ public final class Simulator implements CircuitRunner {
             case TRAJECTORIES:
                 requireTrajectories(circuit);
                 return new Choice(Engine.TRAJECTORIES, "set by withEngine");
+            case MATRIX_PRODUCT:
+                if (noisy) {
+                    throw refuse("the matrix-product engine runs ideal circuits; with a noise"
+                            + " model use DENSITY_MATRIX or TRAJECTORIES (or CHEAPEST)");
+                }
+                return new Choice(Engine.MATRIX_PRODUCT, "set by withEngine");
             default:
                 break;
         }
@@ -362,6 +438,14 @@ public final class Simulator implements CircuitRunner {
                 return new Choice(Engine.TABLEAU, "every gate is Clifford and the circuit has "
                         + n + " qubits (a tableau gate costs about n/32 words, a state-vector"
                         + " gate 2^n amplitudes)");
+            }
+            String wide = bad.isPresent() ? tooWideForStateVector(n) : null;
+            if (wide != null) {
+                return new Choice(Engine.MATRIX_PRODUCT, nonClifford(circuit, bad.getAsInt())
+                        + ", so the tableau cannot run it, and " + wide + "; a matrix product"
+                        + " state holds it in memory that grows with its entanglement (bond"
+                        + " limit " + bondLimit + ", truncation " + truncation + ";"
+                        + " matrixProductStateAfter reports the accuracy given up)");
             }
             if (bad.isPresent()) {
                 requireStateVector(circuit);
@@ -390,6 +474,17 @@ public final class Simulator implements CircuitRunner {
         }
         return new Choice(Engine.DENSITY_MATRIX, n + " qubits and measurements at the end: the"
                 + " exact distribution from one density matrix of " + bytes(densityBytes(n)));
+    }
+
+    /** Why no state vector of n qubits fits this simulator, or null if one does. */
+    private String tooWideForStateVector(int n) {
+        if (n > StateVector.MAX_QUBITS) {
+            return "a state vector holds at most " + StateVector.MAX_QUBITS + " qubits, not " + n;
+        }
+        long need = (long) precision.bytesPerAmplitude() << n;
+        long max = Runtime.getRuntime().maxMemory();
+        return need > max ? "a state vector of " + n + " qubits needs " + bytes(need)
+                + " but the maximum heap is " + bytes(max) : null;
     }
 
     private static long densityBytes(int n) {
@@ -541,6 +636,8 @@ public final class Simulator implements CircuitRunner {
                 requireDoubleForNoise();
                 return Bridge.noise().trajectories(circuit, noise, shots, seed, threads,
                         precision);
+            case MATRIX_PRODUCT:
+                return Bridge.matrixProducts().run(circuit, shots, seed, bondLimit, truncation);
             default:
                 return AmplitudeEngine.run(circuit, shots, newState(circuit), rng(),
                         fuses(circuit), threads);
@@ -565,7 +662,7 @@ public final class Simulator implements CircuitRunner {
         Objects.requireNonNull(circuit, "circuit");
         if (!noise.isIdeal() || engine == Engine.TRAJECTORIES) {
             if (engine == Engine.DENSITY_MATRIX || engine == Engine.AMPLITUDES
-                    || engine == Engine.TABLEAU) {
+                    || engine == Engine.TABLEAU || engine == Engine.MATRIX_PRODUCT) {
                 explain(circuit, 1);
                 throw refuse("a noisy run has no single final state vector on the "
                         + engine + " engine; use densityMatrixAfter, or TRAJECTORIES");
@@ -584,6 +681,11 @@ public final class Simulator implements CircuitRunner {
             throw refuse("the density-matrix engine gives a density matrix; use"
                     + " densityMatrixAfter");
         }
+        if (engine == Engine.MATRIX_PRODUCT) {
+            StateVector dense = matrixProductStateAfter(circuit).toStateVector()
+                    .setThreads(threads);
+            return precision == Precision.DOUBLE ? dense : dense.toPrecision(precision);
+        }
         requireStateVector(circuit);
         StateVector state = newState(circuit);
         java.util.List<Instruction> list = fuses(circuit)
@@ -591,6 +693,28 @@ public final class Simulator implements CircuitRunner {
         AmplitudeEngine.run(state.store(), circuit, list, 0, new ClassicalState(circuit.clbits(),
                 circuit.variables().size()), rng(), threads);
         return state;
+    }
+
+    /**
+     * Returns the matrix product state after one seeded shot of an ideal circuit, whatever the
+     * engine setting: measurements collapse it with outcomes drawn from the seed, resets and
+     * classical control act as in {@link #run}, and bonds are truncated to this simulator's
+     * {@linkplain #withBondLimit(int) bond limit} and {@linkplain #withTruncation(double)
+     * threshold}. The state reports the accuracy its truncations gave up
+     * ({@link MatrixProductState#fidelityLowerBound()}).
+     *
+     * @param circuit any circuit of up to {@link Circuit#MAX_QUBITS} qubits
+     * @return the state of that shot
+     * @throws IllegalArgumentException if this simulator has a noise model
+     * @throws IllegalStateException if the heap cannot hold a step of the state
+     */
+    public MatrixProductState matrixProductStateAfter(Circuit circuit) {
+        Objects.requireNonNull(circuit, "circuit");
+        if (!noise.isIdeal()) {
+            throw refuse("a matrix product state is the state of an ideal circuit, but this"
+                    + " simulator has a noise model; use withNoise(NoiseModel.none())");
+        }
+        return Bridge.matrixProducts().stateAfter(circuit, seed, bondLimit, truncation);
     }
 
     /**
@@ -746,6 +870,7 @@ public final class Simulator implements CircuitRunner {
     public String toString() {
         return "Simulator[seed " + seed + ", " + threads + " threads, fusion "
                 + (fusion ? "on" : "off") + ", engine " + engine + ", noise " + noise
-                + ", precision " + precision + "]";
+                + ", precision " + precision + ", bond limit " + bondLimit + ", truncation "
+                + truncation + "]";
     }
 }

@@ -105,8 +105,14 @@ class SimulatorEngineTest {
         assertTrue(e.getMessage().contains("instruction 2"), e.getMessage());
         // A non-Clifford circuit too wide for a state vector says what rules the tableau out.
         Circuit wide = Circuit.builder(41).h(0).t(3).measure().build();
-        e = assertThrows(IllegalArgumentException.class, () -> Simulator.seeded(3).run(wide, 1));
+        e = assertThrows(IllegalArgumentException.class, () -> Simulator.seeded(3)
+                .withEngine(Simulator.Engine.AMPLITUDES).run(wide, 1));
         assertTrue(e.getMessage().contains("41 qubits") && e.getMessage().contains("(t"),
+                e.getMessage());
+        // The matrix product state runs ideal circuits only.
+        e = assertThrows(IllegalArgumentException.class, () -> Simulator.seeded(3)
+                .withEngine(Simulator.Engine.MATRIX_PRODUCT).withNoise(noise).run(ghz(3), 10));
+        assertTrue(e.getMessage().contains("ideal") && e.getMessage().contains("TRAJECTORIES"),
                 e.getMessage());
         e = assertThrows(IllegalArgumentException.class, () -> Simulator.seeded(3).run(wide, 0));
         assertTrue(e.getMessage().contains("shots"), e.getMessage());

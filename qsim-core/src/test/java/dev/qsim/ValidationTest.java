@@ -138,10 +138,12 @@ class ValidationTest {
         IllegalStateException e = fails(IllegalStateException.class, () -> StateVector.zero(36),
                 "36-qubit state", "1099511627776 bytes", "maximum heap", "-Xmx");
         assertTrue(e.getMessage().contains("1024.0 GiB"), e.getMessage());
-        fails(IllegalStateException.class,
-                () -> Simulator.seeded(1).run(Circuit.builder(36).t(0).build(), 10), "-Xmx");
-        // A Clifford circuit that large runs on the stabilizer engine unless the state vector
-        // is forced.
+        // With the state vector forced; left to choose, the simulator runs a non-Clifford
+        // circuit that large on the matrix product state, and a Clifford one on the stabilizer
+        // engine.
+        fails(IllegalStateException.class, () -> Simulator.seeded(1)
+                .withEngine(Simulator.Engine.AMPLITUDES)
+                .run(Circuit.builder(36).t(0).build(), 10), "-Xmx");
         fails(IllegalStateException.class, () -> Simulator.seeded(1)
                 .withEngine(Simulator.Engine.AMPLITUDES)
                 .run(Circuit.builder(36).h(0).build(), 10), "-Xmx");
@@ -156,8 +158,8 @@ class ValidationTest {
                 "549755813888 bytes", "-Xmx");
         assertTrue(e.getMessage().contains("512.0 GiB"), e.getMessage());
         fails(IllegalStateException.class, () -> Simulator.seeded(1)
-                .withPrecision(Precision.SINGLE).run(Circuit.builder(36).t(0).build(), 10),
-                "-Xmx");
+                .withEngine(Simulator.Engine.AMPLITUDES).withPrecision(Precision.SINGLE)
+                .run(Circuit.builder(36).t(0).build(), 10), "-Xmx");
         fails(IndexOutOfBoundsException.class, () -> StateVector.basis(3, 8, Precision.SINGLE),
                 "8", "[0, 7]");
         fails(IllegalArgumentException.class, () -> StateVector.zero(41, Precision.SINGLE),

@@ -103,8 +103,13 @@ final class NoiseRows {
 
     /** Copy and triad of the probe over the bytes of a {@code vectorQubits} state (no line). */
     private ReportRunner.Bandwidth probe(int vectorQubits) {
+        return probeAt(probe, vectorQubits, settings.targetNanos());
+    }
+
+    /** The probe's copy and triad bandwidths over a vector of {@code vectorQubits} qubits. */
+    static ReportRunner.Bandwidth probeAt(BandwidthProbe probe, int vectorQubits,
+            long targetNanos) {
         final int len = probe.lengthFor(vectorQubits);
-        final long targetNanos = settings.targetNanos();
         final double copyGbps = BandwidthProbe.copyBytes(len)
                 / BatchTimer.measure(r -> probe.timeCopy(len, r), targetNanos).perRep();
         final double triadGbps = BandwidthProbe.triadBytes(len)

@@ -61,7 +61,7 @@ final class ReportOptions {
     @Spec
     private CommandSpec spec;
 
-    @Option(names = "--help", usageHelp = true, order = 13, description = "print this and exit")
+    @Option(names = "--help", usageHelp = true, order = 14, description = "print this and exit")
     private boolean help;
 
     private int min = 10;
@@ -74,6 +74,7 @@ final class ReportOptions {
     private String circuitQubitsText;
     private List<Integer> circuitQubits;
     private boolean noise;
+    private boolean mps;
     private List<Precision> precisions = List.of(Precision.DOUBLE);
     private Path csv;
     private Path svg;
@@ -162,7 +163,15 @@ final class ReportOptions {
         noise = onOff("--noise", value);
     }
 
-    @Option(names = "--precision", paramLabel = "P", order = 10,
+    @Option(names = "--mps", paramLabel = "on|off", order = 10,
+            description = {"also time the matrix-product-state engine (default off): a two-qubit",
+                "gate on a " + BondRows.CHAIN + "-qubit chain at bond dimension 8 to 128, with the",
+                "fitted exponent of the bond dimension (3 in theory)"})
+    private void mps(String value) {
+        mps = onOff("--mps", value);
+    }
+
+    @Option(names = "--precision", paramLabel = "P", order = 11,
             description = {"double, single or both (default double): amplitudes of 16 or 8 bytes;",
                 "both measures every kernel and circuit row in each (noise rows: double only)"})
     private void precision(String value) {
@@ -181,13 +190,13 @@ final class ReportOptions {
         }
     }
 
-    @Option(names = "--csv", paramLabel = "FILE", order = 11,
+    @Option(names = "--csv", paramLabel = "FILE", order = 12,
             description = "write the CSV to FILE instead of standard output")
     private void csv(String value) {
         csv = path("--csv", value);
     }
 
-    @Option(names = "--svg", paramLabel = "FILE", order = 12,
+    @Option(names = "--svg", paramLabel = "FILE", order = 13,
             description = "also draw time per gate against n, with the bandwidth floor")
     private void svg(String value) {
         svg = path("--svg", value);
@@ -282,7 +291,7 @@ final class ReportOptions {
         }
         final int t = threads > 0 ? threads : Math.min(defaultThreads, MAX_THREADS);
         return new ReportSettings(min, max, t, kernels, targets, millis, List.copyOf(sizes), csv,
-                svg, noise, precisions);
+                svg, noise, precisions, mps);
     }
 
     private ParameterException bad(String message) {

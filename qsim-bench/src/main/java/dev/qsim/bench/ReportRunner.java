@@ -21,6 +21,7 @@ final class ReportRunner {
     private final KernelRows kernels;
     private final CircuitRows circuits;
     private final NoiseRows noise;
+    private final BondRows bonds;
     /** Sum of values read from results, so no measured work is dead code. */
     private double sink;
 
@@ -47,6 +48,7 @@ final class ReportRunner {
         this.kernels = new KernelRows(settings, progress);
         this.circuits = new CircuitRows(settings, progress);
         this.noise = new NoiseRows(settings, probe, progress);
+        this.bonds = new BondRows(settings, probe, progress);
     }
 
     /** A count with its noun, plural unless the count is 1: "1 run", "3 runs". */
@@ -106,6 +108,16 @@ final class ReportRunner {
     /** Measures the noise rows of {@code --noise on}; see {@link NoiseRows}. */
     List<ReportRow> noise() {
         return noise.measure();
+    }
+
+    /** Measures the matrix-product-state rows of {@code --mps on}; see {@link BondRows}. */
+    List<ReportRow> bonds() {
+        return bonds.measure();
+    }
+
+    /** The fitted exponent of the bond dimension, after {@link #bonds()}. */
+    double bondExponent() {
+        return bonds.exponent();
     }
 
     /** The sum of values read from every result, to be published once at the end. */

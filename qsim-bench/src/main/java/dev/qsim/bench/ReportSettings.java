@@ -21,10 +21,11 @@ import dev.qsim.Precision;
  * @param svg the SVG file, or {@code null} for none
  * @param noise whether the noise rows are measured
  * @param precisions the precisions to measure in: double, single, or double then single
+ * @param mps whether the matrix-product-state rows are measured ({@link BondRows})
  */
 record ReportSettings(int min, int max, int threads, List<String> kernels, List<String> targets,
         long millis, List<Integer> circuitQubits, Path csv, Path svg, boolean noise,
-        List<Precision> precisions) {
+        List<Precision> precisions, boolean mps) {
 
     /** Bytes of one amplitude in the widest precision measured: the largest state's. */
     int widestBytesPerAmplitude() {
@@ -51,7 +52,7 @@ record ReportSettings(int min, int max, int threads, List<String> kernels, List<
         final int sizes = max - min + 1;
         final int p = precisions.size();
         return sizes * (2 + p * kernels.size() * targets.size()) + 2 * p * circuitQubits.size()
-                + noiseSizes();
+                + noiseSizes() + (mps ? BondRows.CHIS.length : 0);
     }
 
     /** The number of noise-engine measurements of {@code --noise on}. */

@@ -225,6 +225,16 @@ public final class ScalingReport {
                 }
                 csv.flush();
             }
+            if (options.mps()) {
+                // Rows against the bond dimension, not the qubit count: in the CSV only.
+                for (ReportRow r : runner.bonds()) {
+                    csv.write(r);
+                }
+                csv.flush();
+                err.println(String.format(java.util.Locale.ROOT, "# mps: time per two-qubit gate"
+                        + " grows as chi^%.2f (least squares over chi >= %d; 3 in theory)",
+                        runner.bondExponent(), BondRows.FIT_FROM));
+            }
             blackhole = runner.sink();
         } catch (IllegalStateException e) {
             err.println("error: " + e.getMessage());

@@ -32,7 +32,8 @@ class ReportOptionsTest {
     @Test
     void defaultsWhenNoOptions() {
         assertEquals(new ReportSettings(10, 26, 3, KERNELS, THREE, 300,
-            List.of(20, 21, 22, 23, 24, 25, 26), null, null, false, List.of(Precision.DOUBLE)),
+            List.of(20, 21, 22, 23, 24, 25, 26), null, null, false, List.of(Precision.DOUBLE),
+            false),
             parse(3));
         // The fusion comparison starts at n = 20 by default, so a small range has none.
         assertEquals(List.of(), parse(1, "--max", "19").circuitQubits());
@@ -45,10 +46,10 @@ class ReportOptionsTest {
         ReportSettings o = parse(1, "--min", "4", "--max=7", "--threads", "2",
             "--kernels=diagonal,dense", "--targets", "all,low", "--millis", "15", "--circuit",
             "on", "--circuit-qubits=7,5", "--csv", "a.csv", "--svg=b.svg", "--noise", "on",
-            "--precision=both");
+            "--precision=both", "--mps=on");
         assertEquals(new ReportSettings(4, 7, 2, List.of("diagonal", "dense"),
             List.of("all", "low"), 15, List.of(5, 7), Path.of("a.csv"), Path.of("b.svg"), true,
-            List.of(Precision.DOUBLE, Precision.SINGLE)), o);
+            List.of(Precision.DOUBLE, Precision.SINGLE), true), o);
         // --help asks for the usage instead of settings.
         assertEquals(Optional.empty(), ReportOptions.parse(new String[] {"--help"}, 1));
         assertEquals(List.of(), parse(1, "--max", "22", "--circuit", "off").circuitQubits());
@@ -98,7 +99,7 @@ class ReportOptionsTest {
         "--precision single --precision both | option '--precision' (P) should be specified"
             + " only once",
         "--min 4 --max 6 extra     | unknown option 'extra'; allowed: --min, --max, --threads,"
-            + " --kernels, --targets, --millis, --circuit, --circuit-qubits, --noise,"
+            + " --kernels, --targets, --millis, --circuit, --circuit-qubits, --noise, --mps,"
             + " --precision, --csv, --svg, --help",
     })
     void badOptionsAreNamed(String args, String expected) {

@@ -341,6 +341,36 @@ class ScalingReportTest {
         assertEquals(2 * 2 * 16 * 4096 / 1e6, row.gbps(), 1e-12);
     }
 
+    @Test
+    void mpsRowsAndTheBondExponent() {
+        // --mps on adds one row per bond dimension 8..128 of a 24-qubit chain and the fitted
+        // exponent; a two-site update costs O(chi^3) (Schollwöck 2011, Annals of Physics 326,
+        // 96, sec. 4.5), so the time must at least grow with chi. The block streamed is
+        // 4 chi^2 complex entries, a vector of 2 + 2 log2 chi qubits (chi = 8: 8 qubits).
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        assertEquals(0, run(out, err, "--min", "4", "--max", "4", "--millis", "5", "--kernels",
+            "dense", "--targets", "mid", "--circuit", "off", "--mps", "on"), err::toString);
+        List<String> rows = out.toString(StandardCharsets.UTF_8).lines()
+            .filter(l -> l.contains(",mps-two-qubit,"))
+            .collect(java.util.stream.Collectors.toList());
+        assertEquals(BondRows.CHIS.length, rows.size(), out::toString);
+        double previous = 0;
+        for (int i = 0; i < rows.size(); i++) {
+            String[] f = rows.get(i).split(",");
+            assertEquals("24", f[0]);
+            assertEquals("chi=" + BondRows.CHIS[i], f[2]);
+            double ns = Double.parseDouble(f[4]);
+            assertTrue(ns > 0 && (i < 2 || ns > previous), rows::toString);
+            previous = ns;
+        }
+        String e = err.toString(StandardCharsets.UTF_8);
+        assertTrue(e.matches("(?s).*# mps: time per two-qubit gate grows as"
+            + " chi\\^\\d+\\.\\d\\d.*"), e);
+        assertEquals(2 * 16 * 256 / 1e6, new ReportRow(24, "mps-two-qubit", "chi=8", 1, 1e6,
+            1, 1, 8, 1).gbps(), 1e-12);
+    }
+
     static Document parse(Path svg) throws Exception {
         DocumentBuilderFactory f = DocumentBuilderFactory.newInstance();
         f.setNamespaceAware(true);

@@ -6,6 +6,7 @@ import dev.qsim.Precision;
 import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.kernel.Amplitudes;
+import dev.qsim.mps.MatrixProductState;
 import dev.qsim.noise.DensityMatrix;
 import dev.qsim.noise.NoiseModel;
 import dev.qsim.stabilizer.StabilizerTableau;
@@ -14,8 +15,9 @@ import dev.qsim.stabilizer.StabilizerTableau;
  * The one bridge between qsim's packages: the storage behind the public state types, and the
  * engines the run facade ({@link dev.qsim.Simulator}) reaches in other packages, without making
  * either public. Each part is registered once, by the static initialiser of the class that owns
- * it ({@link StateVector}, {@link DensityMatrix}, {@link StabilizerTableau}); a second registration
- * is refused. Internal: this package is not exported, and nothing here checks arguments.
+ * it ({@link StateVector}, {@link DensityMatrix}, {@link StabilizerTableau},
+ * {@link MatrixProductState}); a second registration is refused. Internal: this package is not
+ * exported, and nothing here checks arguments.
  */
 public final class Bridge {
     /** Access to a {@link StateVector}'s storage. */
@@ -166,10 +168,47 @@ public final class Bridge {
                 Precision precision);
     }
 
+    /** The matrix-product-state engine (package {@code dev.qsim.mps}). */
+    public interface MatrixProducts {
+        /**
+         * Checks a bond limit and a truncation threshold.
+         *
+         * @param bondLimit the most Schmidt values kept across a bond
+         * @param truncation the largest share of weight one split may drop
+         * @throws IllegalArgumentException if either is out of range
+         */
+        void requireSettings(int bondLimit, double truncation);
+
+        /**
+         * Runs a circuit for a number of shots.
+         *
+         * @param circuit any ideal circuit
+         * @param shots at least 1
+         * @param seed the seed
+         * @param bondLimit the bond limit
+         * @param truncation the truncation threshold
+         * @return the tally of the classical register
+         */
+        Tally run(Circuit circuit, int shots, long seed, int bondLimit, double truncation);
+
+        /**
+         * Returns the state after one seeded shot.
+         *
+         * @param circuit any ideal circuit
+         * @param seed the seed
+         * @param bondLimit the bond limit
+         * @param truncation the truncation threshold
+         * @return the state
+         */
+        MatrixProductState stateAfter(Circuit circuit, long seed, int bondLimit,
+                double truncation);
+    }
+
     private static volatile States states;
     private static volatile Densities densities;
     private static volatile Tableaus tableaus;
     private static volatile Noise noise;
+    private static volatile MatrixProducts matrixProducts;
 
     private Bridge() {
     }
@@ -222,6 +261,16 @@ public final class Bridge {
      */
     public static synchronized void register(Noise n) {
         noise = once(noise, n, "noise engine");
+    }
+
+    /**
+     * Registers the matrix-product-state engine; called once, by {@link MatrixProductState}.
+     *
+     * @param m the implementation
+     * @throws IllegalStateException if one is registered already
+     */
+    public static synchronized void register(MatrixProducts m) {
+        matrixProducts = once(matrixProducts, m, "matrix-product-state engine");
     }
 
     /** Runs the static initialiser of the class that registers a part. */
@@ -287,5 +336,19 @@ public final class Bridge {
             n = noise;
         }
         return n;
+    }
+
+    /**
+     * Returns the matrix-product-state engine.
+     *
+     * @return the implementation
+     */
+    public static MatrixProducts matrixProducts() {
+        MatrixProducts m = matrixProducts;
+        if (m == null) {
+            initialise(MatrixProductState.class);
+            m = matrixProducts;
+        }
+        return m;
     }
 }

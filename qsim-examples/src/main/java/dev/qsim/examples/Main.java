@@ -82,7 +82,10 @@ public final class Main {
                     NoisyGhz::fromArgs),
             new Entry("engines", "[seed [shots]]",
                     "one circuit on every engine through one call, and why each was chosen",
-                    EngineTour::fromArgs));
+                    EngineTour::fromArgs),
+            new Entry("ising", "[layers [longest chain]]",
+                    "critical Ising chain: energy per spin on up to 160 spins (matrix product)",
+                    CriticalIsingChain::fromArgs));
 
     private Main() {
     }

@@ -21,7 +21,8 @@ class EngineTourTest {
         assertEquals(Simulator.Engine.values().length, t.size());
         // Ideal GHZ: only all-zeros and all-ones (Greenberger et al., Am. J. Phys. 58, 1131).
         for (Simulator.Engine e : new Simulator.Engine[] {Simulator.Engine.CHEAPEST,
-            Simulator.Engine.AMPLITUDES, Simulator.Engine.TABLEAU}) {
+            Simulator.Engine.AMPLITUDES, Simulator.Engine.TABLEAU,
+            Simulator.Engine.MATRIX_PRODUCT}) {
             assertEquals(1.0, EngineTour.agreement(t.get(e)), 0.0, e.toString());
         }
         // Noisy engines: the all-same fraction within 4 binomial standard errors of the exact
@@ -35,7 +36,10 @@ class EngineTourTest {
         }
         assertSame(Simulator.Engine.TABLEAU, r.wideChoice().engine());
         assertEquals(1.0, EngineTour.agreement(r.wide()), 0.0);
-        assertTrue(out.text().contains("with a T gate added") && out.text().contains("(t"),
+        // A T gate rules the tableau out; 300 qubits rule the state vector out.
+        assertTrue(out.text().contains("with a T gate added: MATRIX_PRODUCT")
+                && out.text().contains("(t"), out.text());
+        assertTrue(out.text().trim().endsWith("all-same fraction: 1.0000 over 2,000 shots"),
                 out.text());
     }
 }

@@ -11,7 +11,7 @@ class MainTest {
 
     private static final String[] NAMES = {
         "uniform", "bell", "ghz", "teleport", "grover", "fourier", "hydrogen", "maxcut",
-        "memory", "noisy-ghz", "engines",
+        "memory", "noisy-ghz", "engines", "ising",
     };
 
     private static final class Run {

@@ -21,6 +21,8 @@ import picocli.CommandLine;
 
 import dev.qsim.Circuit;
 import dev.qsim.Simulator;
+import dev.qsim.noise.Channel;
+import dev.qsim.noise.NoiseModel;
 import dev.qsim.text.QasmReader;
 
 /**
@@ -184,36 +186,52 @@ class CliMessagesTest {
         return file;
     }
 
-    @Test
-    void aCircuitBeyondTheStateVectorGetsTheCoresExplanation() throws IOException {
-        Path file = wideCircuit(41);
-        Circuit c = QasmReader.read(file);
-        // The core's refusal is the reference: the tool passes it on unchanged.
-        String core = assertThrows(IllegalArgumentException.class,
-                () -> Simulator.seeded(1).explain(c, 10)).getMessage();
-        assertTrue(core.contains("41 qubits") && core.contains("not a Clifford gate"), core);
-        ToolRun r = new ToolRun("run", file.toString(), "--shots", "10");
-        assertEquals(Cli.EXIT_BAD_INPUT, r.code, r::toString);
-        assertEquals("qsim-examples run: " + file + ": " + core + "\n", r.err);
-        assertFalse(r.err.contains("[1, 40]"), r::toString);
+    /** The noise of {@code --depolarizing p} (NoiseOptions.model). */
+    private static NoiseModel depolarizing(double p) {
+        return NoiseModel.builder().afterOneQubitGates(Channel.depolarizing(p))
+                .afterTwoQubitGates(Channel.twoQubitDepolarizing(p)).build();
     }
 
     @Test
-    void aCircuitTheHeapCannotHoldNamesTheGateThatRulesOutTheTableauAndWhatFits()
+    void aCircuitBeyondTheStateVectorRunsOnTheMatrixProductStateOrGetsTheCoresRefusal()
             throws IOException {
+        Path file = wideCircuit(41);
+        Circuit c = QasmReader.read(file);
+        // The core picks the matrix product state (Simulator.explain) and says why: the first
+        // non-Clifford instruction rules out the tableau, 41 qubits the state vector.
+        Simulator.Choice choice = Simulator.seeded(1).explain(c, 10);
+        assertEquals(Simulator.Engine.MATRIX_PRODUCT, choice.engine());
+        assertTrue(choice.reason().contains("not a Clifford gate")
+                && choice.reason().contains("not 41"), choice.reason());
+        ToolRun r = new ToolRun("run", file.toString(), "--shots", "10");
+        assertEquals(Cli.EXIT_OK, r.code, r::toString);
+        assertTrue(Pattern.compile("\\b[01]{41}\\b").matcher(r.out).find(), r::toString);
+        // With noise no engine holds it: the core's refusal is passed on unchanged.
+        String core = assertThrows(IllegalArgumentException.class,
+                () -> Simulator.seeded(1).withNoise(depolarizing(0.01)).explain(c, 10))
+                .getMessage();
+        assertTrue(core.contains("41 qubits"), core);
+        ToolRun noisy = new ToolRun("run", file.toString(), "--shots", "10", "--depolarizing",
+                "0.01");
+        assertEquals(Cli.EXIT_BAD_INPUT, noisy.code, noisy::toString);
+        assertEquals("qsim-examples run: " + file + ": " + core + "\n", noisy.err);
+        assertFalse(noisy.err.contains("[1, 40]"), noisy::toString);
+    }
+
+    @Test
+    void aCircuitTheHeapCannotHoldSaysWhatFitsAndWhichEngineWasChosen() throws IOException {
         Path file = wideCircuit(40);
         Circuit c = QasmReader.read(file);
-        // The reason is the core's (Simulator.explain), which names the first non-Clifford
-        // instruction and its position; 2^40 amplitudes of 16 bytes are 16 TiB.
-        String reason = Simulator.seeded(1).explain(c, 10).reason();
-        assertTrue(reason.contains("instruction 40 (t") && reason.contains("not a Clifford"),
-                reason);
-        ToolRun r = new ToolRun("run", file.toString(), "--shots", "10");
+        // Noisy: trajectories, each a state vector of 40 qubits (2^40 amplitudes of 16 bytes are
+        // 16 TiB). The reason is the core's (Simulator.explain).
+        String reason = Simulator.seeded(1).withNoise(depolarizing(0.01)).explain(c, 10)
+                .reason();
+        ToolRun r = new ToolRun("run", file.toString(), "--shots", "10", "--depolarizing",
+                "0.01");
         assertEquals(Cli.EXIT_BAD_INPUT, r.code, r::toString);
         assertEquals("", r.out);
         assertTrue(r.err.contains("a state vector of 40 qubits needs 16.0 TiB"), r::toString);
-        assertTrue(r.err.contains("the stabilizer engine, which runs Clifford circuits of any"
-                + " width, is ruled out: " + reason), r::toString);
+        assertTrue(r.err.contains("the simulator chose TRAJECTORIES: " + reason), r::toString);
         int fits = HeapAdvice.fits(Runtime.getRuntime().maxMemory(),
                 dev.qsim.Precision.DOUBLE);
         assertTrue(Pattern.compile("holds a state vector of up to \\d+ qubits \\(\\d+ with"
@@ -222,6 +240,16 @@ class CliMessagesTest {
         if (HeapAdvice.machineMemory() > 0 && HeapAdvice.machineMemory() < (16L << 40)) {
             assertFalse(r.err.contains("-Xmx"), "no heap this machine cannot give: " + r);
         }
+        // When the state vector was the choice (a state within the maximum heap that the free
+        // heap cannot hold), the advice names the gate that rules out the tableau, in the
+        // core's words; here for a 20-qubit circuit and a refusal made up for the call.
+        Circuit small = QasmReader.read(wideCircuit(20));
+        String why = Simulator.seeded(1).explain(small, 10).reason();
+        assertTrue(why.contains("instruction 20 (t") && why.contains("not a Clifford"), why);
+        String message = HeapAdvice.message(small, Simulator.seeded(1), 10,
+                new IllegalStateException("refused"));
+        assertTrue(message.contains("the stabilizer engine, which runs Clifford circuits of any"
+                + " width, is ruled out: " + why), message);
     }
 
     @Test
