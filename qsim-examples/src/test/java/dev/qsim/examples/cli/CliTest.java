@@ -218,7 +218,7 @@ class CliTest {
                 "3 bits"},
             {new String[] {"compare", DEMO + "bell-marlin.json"}, "--circuit"},
             {new String[] {"compare", DEMO + "bell-marlin.json", "--circuit",
-                DEMO + "teleport.qasm"}, "conditioned"},
+                DEMO + "teleport.qasm"}, "predicts outcomes of 3 bits"},
             {new String[] {"compare", DEMO + "bell-marlin.json", "--circuit", DEMO + "bell.qasm",
                 "--alpha", "1.5"}, "1.5"},
             {new String[] {"state", DEMO + "bell.qasm", "--cutoff", "-1"}, "-1"},
