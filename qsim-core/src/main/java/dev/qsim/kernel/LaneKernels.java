@@ -8,10 +8,14 @@ package dev.qsim.kernel;
  * {@code jdk.incubator.vector} API, is compiled apart from the rest of the library
  * ({@code src/vector/java}) and loaded only when that module is present. Internal.
  *
- * <p>Contract: every gate loop here computes, lane by lane, the same IEEE 754 operations in the
- * same order as the scalar loop it replaces (products, then sums left to right, no fused
- * multiply-add), so both paths give the same bits; {@link LaneCheck} verifies this before an
- * implementation is used. Sums ({@link #sumSquares}, {@link #innerSums}, the Pauli sums) add in
+ * <p>Contract: every double-precision gate loop here computes, lane by lane, the same IEEE 754
+ * operations in the same order as the scalar loop it replaces (products, then sums left to
+ * right, no fused multiply-add), so both paths give the same bits; {@link LaneCheck} verifies
+ * this before an implementation is used. The single-precision gate loops ({@link #pairs(float[],
+ * int, float[], int, int, double[], int)}, {@link #blocks(float[], int, int, int, double[],
+ * int)}) may compute in float lanes, within a few float roundings of the scalar loops (which
+ * compute in double and round once), as long as every element gets the same bits whichever
+ * loop reaches it (results independent of the thread count). Sums ({@link #sumSquares}, {@link #innerSums}, the Pauli sums) add in
  * a fixed lane order instead of index order: equal to the scalar sums within rounding, and the
  * same for any thread count, since every block is summed by one call. Offsets are in array
  * elements (two per amplitude); lengths in amplitudes unless said. Unchecked.
@@ -78,8 +82,8 @@ abstract class LaneKernels {
     abstract void blocks(double[] psi, int start, int end, int q, double[] m, int kind);
 
     /**
-     * {@link #pairs} on single-precision arrays: each part widened to double, the same double
-     * arithmetic as the scalar loop, rounded back once.
+     * {@link #pairs} on single-precision arrays, in double or in float arithmetic (see the class
+     * comment).
      *
      * @param u first half. Modified.
      * @param uo its offset

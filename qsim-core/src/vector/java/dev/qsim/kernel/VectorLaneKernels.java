@@ -27,8 +27,8 @@ final class VectorLaneKernels extends LaneKernels {
 
     @Override
     String describe() {
-        return VectorShapes.D.vectorBitSize() + "-bit vectors, " + VectorShapes.L
-                + " double lanes, single precision widened " + VectorShapes.L + " floats at a time";
+        return VectorShapes.D.vectorBitSize() + "-bit vectors: " + VectorShapes.L
+                + " double lanes, " + VectorFloatPairs.L + " float lanes";
     }
 
     @Override
@@ -43,12 +43,12 @@ final class VectorLaneKernels extends LaneKernels {
 
     @Override
     void pairs(float[] u, int uo, float[] v, int vo, int count, double[] m, int kind) {
-        VectorPairs.pairs(u, uo, v, vo, count, m, kind);
+        VectorFloatPairs.pairs(u, uo, v, vo, count, m, kind);
     }
 
     @Override
     void blocks(float[] psi, int start, int end, int q, double[] m, int kind) {
-        VectorPairs.blocks(psi, start, end, q, m, kind);
+        VectorFloatPairs.blocks(psi, start, end, q, m, kind);
     }
 
     @Override
