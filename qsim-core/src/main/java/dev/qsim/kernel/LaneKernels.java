@@ -11,13 +11,13 @@ package dev.qsim.kernel;
  * <p>Contract: every double-precision gate loop here computes, lane by lane, the same IEEE 754
  * operations in the same order as the scalar loop it replaces (products, then sums left to
  * right, no fused multiply-add), so both paths give the same bits; {@link LaneCheck} verifies
- * this before an implementation is used. The single-precision gate loops ({@link #pairs(float[],
- * int, float[], int, int, double[], int)}, {@link #blocks(float[], int, int, int, double[],
- * int)}) may compute in float lanes, within a few float roundings of the scalar loops (which
- * compute in double and round once), as long as every element gets the same bits whichever
- * loop reaches it (results independent of the thread count). Sums ({@link #sumSquares}, {@link #innerSums}, the Pauli sums) add in
- * a fixed lane order instead of index order: equal to the scalar sums within rounding, and the
- * same for any thread count, since every block is summed by one call. Offsets are in array
+ * this before an implementation is used. The single-precision gate loops (the {@code float[]}
+ * forms of {@code pairs} and {@code blocks}) may compute in float lanes, within a few float
+ * roundings of the scalar loops (which compute in double and round once), as long as every
+ * element gets the same bits whichever loop reaches it (results independent of the thread
+ * count). Sums ({@link #sumSquares}, {@link #innerSums}, the Pauli sums) add in a fixed lane
+ * order instead of index order: equal to the scalar sums within rounding, and the same for any
+ * thread count, since every block is summed by one call. Offsets are in array
  * elements (two per amplitude); lengths in amplitudes unless said. Unchecked.
  */
 abstract class LaneKernels {
