@@ -39,6 +39,8 @@ class LanesTest {
             assertTrue(Lanes.describe().startsWith("scalar ("), Lanes.describe());
             assertNull(Amplitudes.allocate(3).lanes);
         }
+        // The public description is the loader's.
+        assertEquals(Lanes.describe(), dev.qsim.Simulator.kernels());
     }
 
     @Test

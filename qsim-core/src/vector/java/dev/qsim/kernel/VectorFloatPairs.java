@@ -84,17 +84,14 @@ final class VectorFloatPairs {
         return FloatVector.fromArray(S, v, 0);
     }
 
-    private static FloatVector byMember(InRegister r, double lo, double hi, boolean signed) {
+    /** Per-lane entries as an array (see {@code VectorPairs.byMember}). */
+    private static float[] byMember(InRegister r, double lo, double hi, boolean signed) {
         float[] v = new float[L];
         for (int i = 0; i < L; i++) {
             float x = (float) (r.upper[i] ? hi : lo);
             v[i] = signed && (i & 1) == 0 ? -x : x;
         }
-        return FloatVector.fromArray(S, v, 0);
-    }
-
-    private static FloatVector bc(double x) {
-        return FloatVector.broadcast(S, (float) x);
+        return v;
     }
 
     /** See {@link LaneKernels#pairs(float[], int, float[], int, int, double[], int)}. */
@@ -164,10 +161,10 @@ final class VectorFloatPairs {
 
     private static void runsReal(float[] u, int uo, float[] v, int vo, int len, int blocks,
             int stride, double[] m) {
-        final FloatVector m00 = bc(m[0]);
-        final FloatVector m01 = bc(m[2]);
-        final FloatVector m10 = bc(m[4]);
-        final FloatVector m11 = bc(m[6]);
+        final FloatVector m00 = FloatVector.broadcast(S, (float) m[0]);
+        final FloatVector m01 = FloatVector.broadcast(S, (float) m[2]);
+        final FloatVector m10 = FloatVector.broadcast(S, (float) m[4]);
+        final FloatVector m11 = FloatVector.broadcast(S, (float) m[6]);
         int touch = 0;
         final int last = u.length - 1;
         final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX;
@@ -189,8 +186,8 @@ final class VectorFloatPairs {
 
     private static void runsCross(float[] u, int uo, float[] v, int vo, int len, int blocks,
             int stride, double[] m) {
-        final FloatVector d0 = bc(m[0]);
-        final FloatVector d1 = bc(m[6]);
+        final FloatVector d0 = FloatVector.broadcast(S, (float) m[0]);
+        final FloatVector d1 = FloatVector.broadcast(S, (float) m[6]);
         final FloatVector o01 = SIGN.mul((float) m[3]);
         final FloatVector o10 = SIGN.mul((float) m[5]);
         int touch = 0;
@@ -214,13 +211,13 @@ final class VectorFloatPairs {
 
     private static void runsComplex(float[] u, int uo, float[] v, int vo, int len, int blocks,
             int stride, double[] m) {
-        final FloatVector m00r = bc(m[0]);
+        final FloatVector m00r = FloatVector.broadcast(S, (float) m[0]);
         final FloatVector m00i = SIGN.mul((float) m[1]);
-        final FloatVector m01r = bc(m[2]);
+        final FloatVector m01r = FloatVector.broadcast(S, (float) m[2]);
         final FloatVector m01i = SIGN.mul((float) m[3]);
-        final FloatVector m10r = bc(m[4]);
+        final FloatVector m10r = FloatVector.broadcast(S, (float) m[4]);
         final FloatVector m10i = SIGN.mul((float) m[5]);
-        final FloatVector m11r = bc(m[6]);
+        final FloatVector m11r = FloatVector.broadcast(S, (float) m[6]);
         final FloatVector m11i = SIGN.mul((float) m[7]);
         int touch = 0;
         final int last = u.length - 1;
@@ -254,8 +251,8 @@ final class VectorFloatPairs {
 
     private static void inRegisterReal(float[] psi, int start, int end, InRegister r,
             double[] m) {
-        final FloatVector ca = byMember(r, m[0], m[4], false);
-        final FloatVector cb = byMember(r, m[2], m[6], false);
+        final FloatVector ca = FloatVector.fromArray(S, byMember(r, m[0], m[4], false), 0);
+        final FloatVector cb = FloatVector.fromArray(S, byMember(r, m[2], m[6], false), 0);
         final VectorShuffle<Float> low = r.low;
         final VectorShuffle<Float> high = r.high;
         for (int x = start; x < end; x += L) {
@@ -266,8 +263,8 @@ final class VectorFloatPairs {
 
     private static void inRegisterCross(float[] psi, int start, int end, InRegister r,
             double[] m) {
-        final FloatVector dd = byMember(r, m[0], m[6], false);
-        final FloatVector oo = byMember(r, m[3], m[5], true);
+        final FloatVector dd = FloatVector.fromArray(S, byMember(r, m[0], m[6], false), 0);
+        final FloatVector oo = FloatVector.fromArray(S, byMember(r, m[3], m[5], true), 0);
         final VectorShuffle<Float> ps = r.partnerSwapped;
         for (int x = start; x < end; x += L) {
             final FloatVector w = FloatVector.fromArray(S, psi, x);
@@ -277,10 +274,10 @@ final class VectorFloatPairs {
 
     private static void inRegisterComplex(float[] psi, int start, int end, InRegister r,
             double[] m) {
-        final FloatVector car = byMember(r, m[0], m[4], false);
-        final FloatVector cai = byMember(r, m[1], m[5], true);
-        final FloatVector cbr = byMember(r, m[2], m[6], false);
-        final FloatVector cbi = byMember(r, m[3], m[7], true);
+        final FloatVector car = FloatVector.fromArray(S, byMember(r, m[0], m[4], false), 0);
+        final FloatVector cai = FloatVector.fromArray(S, byMember(r, m[1], m[5], true), 0);
+        final FloatVector cbr = FloatVector.fromArray(S, byMember(r, m[2], m[6], false), 0);
+        final FloatVector cbi = FloatVector.fromArray(S, byMember(r, m[3], m[7], true), 0);
         final VectorShuffle<Float> low = r.low;
         final VectorShuffle<Float> lowSwapped = r.lowSwapped;
         final VectorShuffle<Float> high = r.high;

@@ -84,14 +84,18 @@ final class VectorPairs {
                 ^ Double.doubleToRawLongBits(a[Math.min(p + AHEAD + L, last)]);
     }
 
-    /** Lanes taking {@code lo} where the lane is a low member, {@code hi} where high. */
-    private static DoubleVector byMember(InRegister r, double lo, double hi, boolean signed) {
+    /**
+     * Lanes taking {@code lo} where the lane is a low member, {@code hi} where high, as an array:
+     * the loops make the vector themselves ({@code fromArray}), so that the compiler knows its
+     * exact class (a vector passed in from an uninlined method is not intrinsified on JDK 17).
+     */
+    private static double[] byMember(InRegister r, double lo, double hi, boolean signed) {
         double[] v = new double[L];
         for (int i = 0; i < L; i++) {
             double x = r.upper[i] ? hi : lo;
             v[i] = signed && (i & 1) == 0 ? -x : x;
         }
-        return VectorShapes.of(v);
+        return v;
     }
 
     // ---------------------------------------------------------------- double
@@ -233,8 +237,8 @@ final class VectorPairs {
 
     private static void inRegisterReal(double[] psi, int start, int end, InRegister r,
             double[] m) {
-        final DoubleVector ca = byMember(r, m[0], m[4], false);
-        final DoubleVector cb = byMember(r, m[2], m[6], false);
+        final DoubleVector ca = DoubleVector.fromArray(D, byMember(r, m[0], m[4], false), 0);
+        final DoubleVector cb = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
         final VectorShuffle<Double> low = r.low;
         final VectorShuffle<Double> high = r.high;
         for (int x = start; x < end; x += L) {
@@ -245,8 +249,8 @@ final class VectorPairs {
 
     private static void inRegisterCross(double[] psi, int start, int end, InRegister r,
             double[] m) {
-        final DoubleVector dd = byMember(r, m[0], m[6], false);
-        final DoubleVector oo = byMember(r, m[3], m[5], true);
+        final DoubleVector dd = DoubleVector.fromArray(D, byMember(r, m[0], m[6], false), 0);
+        final DoubleVector oo = DoubleVector.fromArray(D, byMember(r, m[3], m[5], true), 0);
         final VectorShuffle<Double> ps = r.partnerSwapped;
         for (int x = start; x < end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
@@ -256,10 +260,10 @@ final class VectorPairs {
 
     private static void inRegisterComplex(double[] psi, int start, int end, InRegister r,
             double[] m) {
-        final DoubleVector car = byMember(r, m[0], m[4], false);
-        final DoubleVector cai = byMember(r, m[1], m[5], true);
-        final DoubleVector cbr = byMember(r, m[2], m[6], false);
-        final DoubleVector cbi = byMember(r, m[3], m[7], true);
+        final DoubleVector car = DoubleVector.fromArray(D, byMember(r, m[0], m[4], false), 0);
+        final DoubleVector cai = DoubleVector.fromArray(D, byMember(r, m[1], m[5], true), 0);
+        final DoubleVector cbr = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
+        final DoubleVector cbi = DoubleVector.fromArray(D, byMember(r, m[3], m[7], true), 0);
         final VectorShuffle<Double> low = r.low;
         final VectorShuffle<Double> lowSwapped = r.lowSwapped;
         final VectorShuffle<Double> high = r.high;
@@ -269,6 +273,74 @@ final class VectorPairs {
             w.rearrange(low).mul(car).add(w.rearrange(lowSwapped).mul(cai))
                     .add(w.rearrange(high).mul(cbr)).add(w.rearrange(highSwapped).mul(cbi))
                     .intoArray(psi, x);
+        }
+    }
+
+    /**
+     * {@link #pairs} with the complex formula, leaving lane i of every vector as it was where
+     * {@code keep[i]} is false (low controls that are 0). Runs start on a vector.
+     */
+    static void pairsKeeping(double[] u, int uo, double[] v, int vo, int count, double[] m,
+            boolean[] keep) {
+        final int len = count << 1;
+        final int bound = len & -L;
+        final VectorMask<Double> k = VectorMask.fromArray(D, keep, 0);
+        final DoubleVector m00r = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector m00i = SIGN.mul(m[1]);
+        final DoubleVector m01r = DoubleVector.broadcast(D, m[2]);
+        final DoubleVector m01i = SIGN.mul(m[3]);
+        final DoubleVector m10r = DoubleVector.broadcast(D, m[4]);
+        final DoubleVector m10i = SIGN.mul(m[5]);
+        final DoubleVector m11r = DoubleVector.broadcast(D, m[6]);
+        final DoubleVector m11i = SIGN.mul(m[7]);
+        for (int x = 0; x < bound; x += L) {
+            final DoubleVector a = DoubleVector.fromArray(D, u, uo + x);
+            final DoubleVector c = DoubleVector.fromArray(D, v, vo + x);
+            final DoubleVector as = a.rearrange(SWAP);
+            final DoubleVector cs = c.rearrange(SWAP);
+            a.blend(a.mul(m00r).add(as.mul(m00i)).add(c.mul(m01r)).add(cs.mul(m01i)), k)
+                    .intoArray(u, uo + x);
+            c.blend(a.mul(m10r).add(as.mul(m10i)).add(c.mul(m11r)).add(cs.mul(m11i)), k)
+                    .intoArray(v, vo + x);
+        }
+        for (int x = bound; x < len; x += 2) {
+            if (keep[x % L]) {
+                pair(u, uo + x, v, vo + x, m, LaneKernels.COMPLEX);
+            }
+        }
+    }
+
+    /**
+     * {@link #blocks} for a target inside the vector, with the complex formula, leaving lane i
+     * of every vector as it was where {@code keep[i]} is false. Ranges start on a vector.
+     */
+    static void blocksKeeping(double[] psi, int start, int end, int q, double[] m,
+            boolean[] keep) {
+        final InRegister r = IN_REGISTER[q];
+        final int bound = start + ((end - start) & -L);
+        final VectorMask<Double> k = VectorMask.fromArray(D, keep, 0);
+        final DoubleVector car = DoubleVector.fromArray(D, byMember(r, m[0], m[4], false), 0);
+        final DoubleVector cai = DoubleVector.fromArray(D, byMember(r, m[1], m[5], true), 0);
+        final DoubleVector cbr = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
+        final DoubleVector cbi = DoubleVector.fromArray(D, byMember(r, m[3], m[7], true), 0);
+        final VectorShuffle<Double> low = r.low;
+        final VectorShuffle<Double> lowSwapped = r.lowSwapped;
+        final VectorShuffle<Double> high = r.high;
+        final VectorShuffle<Double> highSwapped = r.highSwapped;
+        for (int x = start; x < bound; x += L) {
+            final DoubleVector w = DoubleVector.fromArray(D, psi, x);
+            w.blend(w.rearrange(low).mul(car).add(w.rearrange(lowSwapped).mul(cai))
+                    .add(w.rearrange(high).mul(cbr)).add(w.rearrange(highSwapped).mul(cbi)), k)
+                    .intoArray(psi, x);
+        }
+        final int s2 = 2 << q;
+        for (int x = bound; x < end; x += s2 << 1) {
+            for (int j = 0; j < s2; j += 2) {
+                if (keep[(x + j - start) % L]) {
+                    // Both members of the pair share the control bits, so both keep or change.
+                    pair(psi, x + j, psi, x + j + s2, m, LaneKernels.COMPLEX);
+                }
+            }
         }
     }
 
@@ -386,8 +458,8 @@ final class VectorPairs {
             return;
         }
         final InRegister r = IN_REGISTER[q];
-        final DoubleVector cr = byMember(r, d[0], d[2], false);
-        final DoubleVector ci = byMember(r, d[1], d[3], true);
+        final DoubleVector cr = DoubleVector.fromArray(D, byMember(r, d[0], d[2], false), 0);
+        final DoubleVector ci = DoubleVector.fromArray(D, byMember(r, d[1], d[3], true), 0);
         final VectorMask<Double> changed = skip0 ? VectorShapes.mask(r.upper) : null;
         int x = start;
         for (; x + L <= end; x += L) {

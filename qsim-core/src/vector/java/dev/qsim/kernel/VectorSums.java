@@ -105,12 +105,12 @@ final class VectorSums {
     }
 
     /** The sign (-1)^{|c ∧ z|} of each lane's amplitude c inside a vector, as lanes. */
-    private static DoubleVector lowSigns(int z) {
+    private static double[] lowSigns(int z) {
         final double[] s = new double[L];
         for (int i = 0; i < L; i++) {
             s[i] = (Integer.bitCount((i >> 1) & z) & 1) == 0 ? 1 : -1;
         }
-        return VectorShapes.of(s);
+        return s;
     }
 
     /** See {@link LaneKernels#pauliInner}. */
@@ -121,7 +121,7 @@ final class VectorSums {
         final int xOut = xLow & ~lowMask;
         final int zOut = zLow & ~lowMask;
         final VectorShuffle<Double> perm = VectorShapes.xor(2 * xIn);
-        final DoubleVector signs = lowSigns(zLow & lowMask);
+        final DoubleVector signs = DoubleVector.fromArray(D, lowSigns(zLow & lowMask), 0);
         DoubleVector re = DoubleVector.zero(D);
         DoubleVector im = DoubleVector.zero(D);
         for (int o = start; o < end; o += 1 << AMP_LOG) {
@@ -144,7 +144,7 @@ final class VectorSums {
         final int xOut = xLow & ~lowMask;
         final int zOut = zLow & ~lowMask;
         final VectorShuffle<Double> perm = VectorShapes.xor(2 * xIn);
-        final DoubleVector signs = lowSigns(zLow & lowMask);
+        final DoubleVector signs = DoubleVector.fromArray(D, lowSigns(zLow & lowMask), 0);
         final DoubleVector cr = DoubleVector.broadcast(D, ar);
         final DoubleVector ci = SIGN.mul(ai);
         for (int o = start; o < end; o += 1 << AMP_LOG) {
