@@ -18,7 +18,9 @@ import java.util.concurrent.locks.LockSupport;
  * spinning for {@value #SPIN_NANOS} ns before they park: a gate on a state in cache takes some
  * microseconds, and waking a parked thread for each gate (as an executor does) cost more than
  * the gate's half on the machine of record (two threads ran a 16-qubit gate at half the speed of
- * one). One caller uses the team at a time; a concurrent or nested call goes to a plain pool.
+ * one). A caller that has done its own piece runs any piece no worker has started yet, so a
+ * worker the system has not scheduled (a busy machine) delays nothing. One caller uses the team
+ * at a time; a concurrent or nested call goes to a plain pool.
  */
 public final class Parallel {
     /** States below this many qubits always run on the calling thread. */
@@ -108,22 +110,37 @@ public final class Parallel {
         }
     }
 
-    /** A piece for a worker. */
+    /** A piece for a worker; whoever claims it first (the worker or the caller) runs it. */
     private static final class Piece {
         final Call call;
         final long from;
         final long to;
+        final AtomicBoolean claimed = new AtomicBoolean();
 
         Piece(Call call, long from, long to) {
             this.call = call;
             this.from = from;
             this.to = to;
         }
+
+        /** Runs the piece if nobody has claimed it yet; returns whether this call ran it. */
+        boolean runIfUnclaimed() {
+            if (!claimed.compareAndSet(false, true)) {
+                return false;
+            }
+            try {
+                call.body.run(from, to);
+            } catch (Throwable e) {
+                call.failure.compareAndSet(null, e);
+            }
+            call.finished();
+            return true;
+        }
     }
 
     /** A team thread: runs the pieces handed to it, spinning a while between them. */
     private static final class Worker extends Thread {
-        volatile Piece piece;
+        final AtomicReference<Piece> piece = new AtomicReference<>();
         volatile boolean parked;
 
         Worker(int index) {
@@ -132,7 +149,7 @@ public final class Parallel {
         }
 
         void hand(Piece p) {
-            piece = p;
+            piece.set(p);
             if (parked) {
                 LockSupport.unpark(this);
             }
@@ -141,28 +158,25 @@ public final class Parallel {
         @Override
         public void run() {
             for (;;) {
-                Piece p = piece;
+                Piece p = piece.get();
                 long since = System.nanoTime();
                 while (p == null) {
                     if (System.nanoTime() - since < SPIN_NANOS) {
                         Thread.onSpinWait();
                     } else {
                         parked = true;
-                        if (piece == null) {
+                        if (piece.get() == null) {
                             LockSupport.park(this);
                         }
                         parked = false;
                         since = System.nanoTime();
                     }
-                    p = piece;
+                    p = piece.get();
                 }
-                try {
-                    p.call.body.run(p.from, p.to);
-                } catch (Throwable e) {
-                    p.call.failure.compareAndSet(null, e);
-                }
-                piece = null;
-                p.call.finished();
+                // Cleared before the work ends, so the caller's next piece cannot be lost; a
+                // piece the caller took over in the meantime is simply skipped.
+                piece.compareAndSet(p, null);
+                p.runIfUnclaimed();
             }
         }
     }
@@ -177,13 +191,18 @@ public final class Parallel {
             team = grown;
         }
         Call call = new Call(body, t - 1);
+        Piece[] pieces = new Piece[t - 1];
         for (int i = 1; i < t; i++) {
-            team[i - 1].hand(new Piece(call, total * i / t, total * (i + 1) / t));
+            pieces[i - 1] = new Piece(call, total * i / t, total * (i + 1) / t);
+            team[i - 1].hand(pieces[i - 1]);
         }
         try {
             body.run(0, total / t);
         } catch (RuntimeException | Error e) {
             call.failure.compareAndSet(null, e);
+        }
+        for (int i = pieces.length - 1; i >= 0; i--) {
+            pieces[i].runIfUnclaimed();
         }
         long since = System.nanoTime();
         while (call.remaining.get() > 0) {
