@@ -145,7 +145,11 @@ public final class Amplitudes {
         return single ? 8L << n : 16L << n;
     }
 
-    /** @return whether the amplitudes are stored as {@code float} */
+    /**
+     * Tells whether the amplitudes are stored as {@code float}.
+     *
+     * @return whether the storage is single precision
+     */
     public boolean isSingle() {
         return singles != null;
     }
@@ -161,7 +165,11 @@ public final class Amplitudes {
         return singles;
     }
 
-    /** @return the number of qubits */
+    /**
+     * Returns the number of qubits.
+     *
+     * @return the qubit count
+     */
     public int qubits() {
         return n;
     }
@@ -187,7 +195,11 @@ public final class Amplitudes {
         return chunkLog;
     }
 
-    /** @return a deep copy, in the same precision */
+    /**
+     * Returns a deep copy, in the same precision, with the same lazy frame.
+     *
+     * @return the copy
+     */
     public Amplitudes copy() {
         if (singles != null) {
             float[][] c = new float[singles.length][];
@@ -211,7 +223,11 @@ public final class Amplitudes {
         return this;
     }
 
-    /** @return whether a lazy frame is pending (see {@link Frame}) */
+    /**
+     * Tells whether a lazy frame is pending (see {@link Frame}).
+     *
+     * @return whether a frame is pending
+     */
     public boolean framed() {
         return framed;
     }
@@ -323,6 +339,8 @@ public final class Amplitudes {
     }
 
     /**
+     * Returns the real part of one amplitude.
+     *
      * @param index basis index
      * @return the real part of amplitude {@code index}
      */
@@ -336,6 +354,8 @@ public final class Amplitudes {
     }
 
     /**
+     * Returns the imaginary part of one amplitude.
+     *
      * @param index basis index
      * @return the imaginary part of amplitude {@code index}
      */

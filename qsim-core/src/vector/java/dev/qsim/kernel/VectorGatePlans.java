@@ -217,7 +217,7 @@ final class VectorGatePlans {
         final VectorShuffle<Double>[] pickSwapped;
         final boolean[] keep;
 
-        @SuppressWarnings("unchecked")
+        @SuppressWarnings({"unchecked", "rawtypes"})
         DensePlan(Amplitudes a, int[] targets, int[] controls, double[] m) {
             super(a, high(targets), controls);
             this.m = m;
