@@ -109,7 +109,8 @@ abstract class LaneKernels {
 
     /**
      * Prepares a dense gate with several targets or with controls, or returns null when the
-     * scalar plan should run it (the storage's chunks are shorter than a vector).
+     * scalar plan should run it (the storage's chunks are shorter than a vector, or the vector
+     * loop would be slower, as for several targets with one inside a vector).
      *
      * @param a double storage
      * @param targets targets, bit j of a matrix index is targets[j]

@@ -87,6 +87,18 @@ public final class Lanes {
     }
 
     /**
+     * Returns log2 of the amplitudes one vector of the vector loops holds (qubits below it are
+     * worked inside a vector, which multi-target gates pay for with lane permutations), or 0
+     * when the loops are scalar.
+     *
+     * @return the amplitude log of a vector, or 0
+     */
+    public static synchronized int amplitudeLog() {
+        LaneKernels k = kernels();
+        return k == null ? 0 : k.amplitudeLog();
+    }
+
+    /**
      * Returns which kernels run, in one line: the vector shape and lanes, or why the loops are
      * scalar.
      *

@@ -6,9 +6,11 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.SplittableRandom;
 
+import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
@@ -200,6 +202,52 @@ class LaneKernelsTest {
             Frame.apply(vector, circuit, threads);
             assertArrayEquals(expected, KernelsTest.unload(vector), 1e-12, "seed " + seed);
         }
+    }
+
+    /**
+     * A dense block of k = 2 to 4 targets (what {@code Fusion} emits) takes the vector k-qubit
+     * plan when every target selects whole vectors, and the scalar plan when one lies inside a
+     * vector (measured faster there, docs/decisions.md); either way the result is the
+     * definition of a k-qubit gate (Nielsen and Chuang 2010, §4.3).
+     */
+    @Test
+    void denseBlocksTakeTheVectorPlanWhenEveryTargetSpansVectors() {
+        requireVectorLoops();
+        final int n = 9;
+        final int low = Lanes.kernels().amplitudeLog();
+        SplittableRandom r = new SplittableRandom(4_207L);
+        for (int k = 2; k <= 4; k++) {
+            double[] m = unitary(k, r);
+            int[][] placements = {highest(n, k), withQubit(highest(n, k), 0),
+                withQubit(highest(n, k), low - 1)};
+            for (int p = 0; p < placements.length; p++) {
+                int[] targets = placements[p];
+                double[] in = KernelsTest.randomVector(n, r);
+                Amplitudes a = state(in, n, n, false, true);
+                Plan plan = new GateOp(GateOp.DENSE, targets, NONE, m, null).plan(a);
+                boolean vector = plan.getClass().getName().startsWith(
+                        "dev.qsim.kernel.VectorGatePlans");
+                assertEquals(p == 0, vector, "k=" + k + " targets "
+                        + Arrays.toString(targets) + ": " + plan.getClass());
+                plan.apply(1);
+                double[] expected = KernelsTest.reference(in, n, targets, NONE, m);
+                assertArrayEquals(expected, KernelsTest.unload(a), 1e-12, "k=" + k);
+            }
+        }
+    }
+
+    private static int[] highest(int n, int k) {
+        int[] t = new int[k];
+        for (int j = 0; j < k; j++) {
+            t[j] = n - 1 - j;
+        }
+        return t;
+    }
+
+    private static int[] withQubit(int[] targets, int q) {
+        int[] t = targets.clone();
+        t[t.length - 1] = q;
+        return t;
     }
 
     /** The matrix of a gate's description on its targets, re/im interleaved. */

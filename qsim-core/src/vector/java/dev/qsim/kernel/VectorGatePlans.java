@@ -193,6 +193,13 @@ final class VectorGatePlans {
         if (a.chunkLog < AMP_LOG) {
             return null;
         }
+        if (targets.length >= 2 && lowBits(targets) != 0) {
+            // Two or more targets with one inside a vector: a lane permutation per column and
+            // vector made these 2-3 times slower than the scalar loops (24 qubits, one thread:
+            // targets {0, 1} 8.8-20 against 3.9 ns an amplitude, {0, 1, 2} 27-29 against 11.8;
+            // docs/decisions.md), so they run scalar.
+            return null;
+        }
         return new DensePlan(a, targets, controls, m);
     }
 
