@@ -5,6 +5,7 @@ import java.util.Arrays;
 import java.util.List;
 
 import dev.qsim.kernel.GateOp;
+import dev.qsim.kernel.Lanes;
 
 /**
  * Gate fusion: merges runs of gates on overlapping small qubit sets into one dense operator on
@@ -23,19 +24,50 @@ final class Fusion {
     static final int MAX_QUBITS = 4;
 
     /**
-     * Estimated cost of one pass of a dense k-qubit gate, in units of a dense 1-qubit pass:
-     * CPU time per amplitude of the scalar kernels, measured on one thread at 20 qubits (about
-     * 3, 8, 25 and 35 ns for k = 1 to 4 on a 2-core AMD EPYC, JDK 17; k = 2 re-measured at 16
-     * qubits on 2 threads: 3.4 times k = 1). The dense kernels are compute bound from k = 2 on,
-     * so fusion pays mainly for runs on one or two qubits.
+     * Estimated cost of one pass of a dense k-qubit gate with the scalar loops, in units of a
+     * dense 1-qubit pass: CPU time per amplitude of the scalar kernels, measured on one thread at
+     * 20 qubits (about 3, 8, 25 and 35 ns for k = 1 to 4 on a 2-core AMD EPYC, JDK 17; k = 2
+     * re-measured at 16 qubits on 2 threads: 3.4 times k = 1). The dense kernels are compute
+     * bound from k = 2 on, so fusion pays mainly for runs on one or two qubits.
      */
-    private static final double[] DENSE_COST = {0, 1.0, 3.4, 8.0, 12.0};
+    private static final double[] SCALAR_DENSE_COST = {0, 1.0, 3.4, 8.0, 12.0};
+    /**
+     * The same with the vector loops, every target at or above a vector's amplitudes: time per
+     * amplitude at 24 qubits, one thread, about 0.7, 1.5, 2.6 and 7.3 ns for k = 1 to 4 (the
+     * decisions record has the runs). A 2-target block costs about two 1-qubit passes, so
+     * fusion pays where it merges gates on the same qubits, not where it merely saves a pass.
+     */
+    private static final double[] VECTOR_DENSE_COST = {0, 1.0, 2.1, 3.7, 10.5};
+    /**
+     * With the vector loops, a block of two or more targets with one inside a vector (qubit 0
+     * or 1 with 512-bit vectors) runs on the scalar loops, which are faster there than lane
+     * permutations: 3.9, 11.8 and 18 ns an amplitude for k = 2 to 4 at 24 qubits, so such
+     * blocks are formed only from gates on the same qubits (cache blocking saves their passes).
+     */
+    private static final double[] VECTOR_LOW_DENSE_COST = {0, 1.0, 5.5, 17, 26};
     /**
      * Estimated cost of a diagonal or permutation pass with controls or several targets (CZ,
      * CNOT, SWAP ...), same units: they touch a half or a quarter of the amplitudes with little
-     * arithmetic (0.3 to 0.45 of a dense 1-qubit gate at 16 qubits, 2 threads).
+     * arithmetic (scalar: 0.3 to 0.45 of a dense 1-qubit gate at 16 qubits, 2 threads; vector:
+     * 0.25 for CZ and 0.5 for CNOT at 24 qubits, one thread).
      */
     private static final double CHEAP_COST = 0.4;
+
+    /** The loops' amplitudes per vector (log2), 0 for scalar loops; read once. */
+    private static final int VECTOR_LOG = Lanes.amplitudeLog();
+
+    /** Estimated cost of a dense block on the qubits of {@code mask}. */
+    private static double denseCost(long mask) {
+        int k = Long.bitCount(mask);
+        if (k >= SCALAR_DENSE_COST.length) {
+            return Double.MAX_VALUE / 4;
+        }
+        if (VECTOR_LOG == 0) {
+            return SCALAR_DENSE_COST[k];
+        }
+        boolean inside = (mask & ((1L << VECTOR_LOG) - 1)) != 0;
+        return inside ? VECTOR_LOW_DENSE_COST[k] : VECTOR_DENSE_COST[k];
+    }
 
     private Fusion() {
     }
@@ -67,8 +99,11 @@ final class Fusion {
             boolean frame = in.targetsRaw().length == 1 && in.controlsRaw().length == 0;
             return frame ? 0 : CHEAP_COST;
         }
-        int k = in.targetsRaw().length;
-        return k < DENSE_COST.length ? DENSE_COST[k] : Double.MAX_VALUE / 4;
+        long targets = 0;
+        for (int q : in.targetsRaw()) {
+            targets |= 1L << q;
+        }
+        return denseCost(targets);
     }
 
     /**
@@ -97,7 +132,7 @@ final class Fusion {
             int first = 0;
             while (true) {
                 int k = Long.bitCount(union);
-                if (k <= MAX_QUBITS && DENSE_COST[k] <= parts) {
+                if (k <= MAX_QUBITS && denseCost(union) <= parts) {
                     break;
                 }
                 if (first == hit.size()) {
@@ -132,7 +167,7 @@ final class Fusion {
             }
             merged.gates.add(g);
             merged.mask = union;
-            merged.cost = merged.gates.size() == 1 ? cost(g) : DENSE_COST[Long.bitCount(union)];
+            merged.cost = merged.gates.size() == 1 ? cost(g) : denseCost(union);
             open.add(merged);
         }
         for (Block b : open) {

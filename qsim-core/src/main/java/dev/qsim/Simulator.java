@@ -9,6 +9,7 @@ import org.apache.commons.rng.simple.RandomSource;
 import dev.qsim.internal.Bridge;
 import dev.qsim.internal.Checks;
 import dev.qsim.internal.ClassicalState;
+import dev.qsim.kernel.Lanes;
 import dev.qsim.kernel.Parallel;
 import dev.qsim.mps.MatrixProductState;
 import dev.qsim.noise.DensityMatrix;
@@ -199,6 +200,25 @@ public final class Simulator implements CircuitRunner {
         return new Simulator(seed, Parallel.defaultThreads(), true, Engine.CHEAPEST,
                 NoiseModel.none(), Precision.DOUBLE, MatrixProductState.DEFAULT_BOND_LIMIT,
                 MatrixProductState.DEFAULT_TRUNCATION);
+    }
+
+    /**
+     * Returns which loops run over amplitudes in this JVM, in one line: {@code "vector (...)"}
+     * with the vector size and lanes, when the JVM was started with
+     * {@code --add-modules jdk.incubator.vector} (the incubating Vector API) and the vector loops
+     * passed their check on this JDK; otherwise {@code "scalar (...)"} with the reason. Both
+     * give the same results (to the bit for gates in double precision). The system property
+     * {@code qsim.vector=off} forces the scalar loops; {@code qsim.vector.quiet=true} hides the
+     * one line printed to standard error when the scalar loops run for want of the module. The
+     * choice is made once, at the first state the JVM allocates.
+     *
+     * @return the description
+     * @throws IllegalArgumentException if the property {@code qsim.vector} is set to anything
+     *     but {@code auto} or {@code off}
+     * @since 0.1
+     */
+    public static String kernels() {
+        return Lanes.describe();
     }
 
     /**

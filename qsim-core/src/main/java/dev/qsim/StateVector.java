@@ -105,12 +105,6 @@ public final class StateVector {
     }
 
     /**
-     * Makes storage of {@code bytes} after the heap check. An {@link OutOfMemoryError} (the heap
-     * looked large enough but could not place the arrays: fragmentation or collector overhead)
-     * is reported like any other refusal.
-     */
-
-    /**
      * Returns {@code |0...0>} on {@code n} qubits.
      *
      * @param n the number of qubits, {@code 1 <= n <= }{@value #MAX_QUBITS}

@@ -21,6 +21,8 @@ import org.junit.jupiter.api.Test;
  */
 class LayersTest {
     private static final Path MAIN = Path.of("src/main/java/dev/qsim");
+    /** The vector kernels, compiled apart (see DEVELOPERS.md, "Vector kernels"). */
+    private static final Path VECTOR = Path.of("src/vector/java/dev/qsim/kernel");
     private static final Pattern IMPORT = Pattern.compile("^import (?:static )?([\\w.]+);",
             Pattern.MULTILINE);
 
@@ -52,7 +54,9 @@ class LayersTest {
     @Test
     void theKernelImportsNothingFromAbove() throws IOException {
         List<String> bad = new ArrayList<>();
-        for (Path f : sources(MAIN.resolve("kernel"))) {
+        List<Path> kernel = new ArrayList<>(sources(MAIN.resolve("kernel")));
+        kernel.addAll(sources(VECTOR));
+        for (Path f : kernel) {
             for (String imp : imports(code(f))) {
                 if (imp.startsWith("dev.qsim.") && !imp.startsWith("dev.qsim.kernel.")) {
                     bad.add(f.getFileName() + ": " + imp);
@@ -60,6 +64,24 @@ class LayersTest {
             }
         }
         assertEquals(List.of(), bad);
+    }
+
+    @Test
+    void onlyTheVectorUnitUsesTheIncubatingModule() throws IOException {
+        // The library compiles with -Werror, and javac warns about any use of an incubating
+        // module: jdk.incubator.vector belongs to src/vector/java alone.
+        List<String> bad = new ArrayList<>();
+        try (Stream<Path> all = Files.walk(MAIN)) {
+            for (Path f : all.filter(p -> p.toString().endsWith(".java")).toList()) {
+                for (String imp : imports(code(f))) {
+                    if (imp.startsWith("jdk.incubator.")) {
+                        bad.add(MAIN.relativize(f) + ": " + imp);
+                    }
+                }
+            }
+        }
+        assertEquals(List.of(), bad);
+        assertTrue(sources(VECTOR).size() > 0, "no vector unit at " + VECTOR);
     }
 
     @Test

@@ -29,7 +29,7 @@ import dev.qsim.StateVector;
 @OutputTimeUnit(TimeUnit.MILLISECONDS)
 @Warmup(iterations = 2, time = 2)
 @Measurement(iterations = 3, time = 2)
-@Fork(value = 1, jvmArgsAppend = "-Xmx2g")
+@Fork(value = 1, jvmArgsAppend = {"-Xmx2g", "--add-modules", "jdk.incubator.vector"})
 public class FusionBenchmark {
 
     /** Creates the benchmark; JMH calls this. */
@@ -75,6 +75,7 @@ public class FusionBenchmark {
          */
         @Setup
         public void setUp() {
+            KernelNote.once();
             circuit = Workloads.layeredCircuit(n, Workloads.CIRCUIT_LAYERS,
                     Workloads.CIRCUIT_SEED);
             simulator = Simulator.seeded(Workloads.CIRCUIT_SEED).withThreads(threads)

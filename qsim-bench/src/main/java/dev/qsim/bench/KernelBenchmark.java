@@ -36,7 +36,7 @@ import dev.qsim.StateVector;
 @OutputTimeUnit(TimeUnit.MICROSECONDS)
 @Warmup(iterations = 3, time = 1)
 @Measurement(iterations = 5, time = 1)
-@Fork(value = 1, jvmArgsAppend = "-Xmx2g")
+@Fork(value = 1, jvmArgsAppend = {"-Xmx2g", "--add-modules", "jdk.incubator.vector"})
 public class KernelBenchmark {
 
     /** Creates the benchmark; JMH calls this. */
@@ -86,6 +86,7 @@ public class KernelBenchmark {
          */
         @Setup
         public void setUp() {
+            KernelNote.once();
             final Precision p = Workloads.precision(precision);
             gate = Workloads.kernelCircuit(kernel, n, Workloads.target(target, n));
             state = Workloads.productState(n, Workloads.STATE_SEED, p).setThreads(threads);

@@ -11,6 +11,7 @@ import java.util.List;
 import java.util.Optional;
 
 import dev.qsim.Precision;
+import dev.qsim.Simulator;
 import dev.qsim.examples.cli.Progress;
 
 /**
@@ -171,7 +172,8 @@ public final class ScalingReport {
             CsvOutput csv, PrintWriter err, boolean bar) {
         final long probeLength = probe.capacity();
         final String environment = "java " + System.getProperty("java.version") + " ("
-                + System.getProperty("java.vm.name") + "), cpu " + cpuModel();
+                + System.getProperty("java.vm.name") + "), cpu " + cpuModel() + ", "
+                + Simulator.kernels() + " loops";
         err.println("# qsim scaling report: kernels " + String.join(",", options.kernels())
                 + ", targets " + String.join(",", options.targets()) + ", precision "
                 + options.precisionNames() + ", threads " + options.threads() + ", at least "

@@ -31,7 +31,7 @@ import dev.qsim.StateVector;
 @OutputTimeUnit(TimeUnit.NANOSECONDS)
 @Warmup(iterations = 3, time = 1)
 @Measurement(iterations = 5, time = 1)
-@Fork(value = 1, jvmArgsAppend = "-Xmx4g")
+@Fork(value = 1, jvmArgsAppend = {"-Xmx4g", "--add-modules", "jdk.incubator.vector"})
 public class SingleQubitGateBenchmark {
 
     /** Creates the benchmark; JMH calls this. */
@@ -83,6 +83,7 @@ public class SingleQubitGateBenchmark {
          */
         @Setup
         public void setUp() {
+            KernelNote.once();
             op = Workloads.gate(gate);
             qubits = new int[] {Workloads.target(target, n)};
             state = Workloads.productState(n, Workloads.STATE_SEED).setThreads(threads);

@@ -45,12 +45,31 @@ public final class Amplitudes {
     /** Threads for passes this storage starts itself (settling the frame). */
     private volatile int threads = 1;
 
+    /**
+     * The vector loops the kernels use on this storage, or null for the scalar loops: the JVM's
+     * choice ({@link Lanes}) unless a test asked for the scalar loops ({@link #useLanes}).
+     */
+    LaneKernels lanes;
+
     private Amplitudes(int n, int chunkLog, double[][] chunks, float[][] singles) {
         this.n = n;
         this.chunkLog = chunkLog;
         this.chunkMask = (1L << chunkLog) - 1;
         this.chunks = chunks;
         this.singles = singles;
+        this.lanes = Lanes.kernels();
+    }
+
+    /**
+     * Sets the loops the kernels use on this storage: tests run the scalar and the vector loops
+     * side by side; the scratch windows of {@link Windows} take their source's.
+     *
+     * @param kernels the vector loops, or null for the scalar ones
+     * @return this storage
+     */
+    Amplitudes useLanes(LaneKernels kernels) {
+        this.lanes = kernels;
+        return this;
     }
 
     /**
@@ -126,7 +145,11 @@ public final class Amplitudes {
         return single ? 8L << n : 16L << n;
     }
 
-    /** @return whether the amplitudes are stored as {@code float} */
+    /**
+     * Tells whether the amplitudes are stored as {@code float}.
+     *
+     * @return whether the storage is single precision
+     */
     public boolean isSingle() {
         return singles != null;
     }
@@ -142,7 +165,11 @@ public final class Amplitudes {
         return singles;
     }
 
-    /** @return the number of qubits */
+    /**
+     * Returns the number of qubits.
+     *
+     * @return the qubit count
+     */
     public int qubits() {
         return n;
     }
@@ -168,20 +195,24 @@ public final class Amplitudes {
         return chunkLog;
     }
 
-    /** @return a deep copy, in the same precision */
+    /**
+     * Returns a deep copy, in the same precision, with the same lazy frame.
+     *
+     * @return the copy
+     */
     public Amplitudes copy() {
         if (singles != null) {
             float[][] c = new float[singles.length][];
             for (int i = 0; i < c.length; i++) {
                 c[i] = singles[i].clone();
             }
-            return new Amplitudes(n, chunkLog, null, c).frameFrom(this);
+            return new Amplitudes(n, chunkLog, null, c).frameFrom(this).useLanes(lanes);
         }
         double[][] c = new double[chunks.length][];
         for (int i = 0; i < c.length; i++) {
             c[i] = chunks[i].clone();
         }
-        return new Amplitudes(n, chunkLog, c, null).frameFrom(this);
+        return new Amplitudes(n, chunkLog, c, null).frameFrom(this).useLanes(lanes);
     }
 
     /** Takes a copy of another storage's lazy frame; returns this. */
@@ -192,7 +223,11 @@ public final class Amplitudes {
         return this;
     }
 
-    /** @return whether a lazy frame is pending (see {@link Frame}) */
+    /**
+     * Tells whether a lazy frame is pending (see {@link Frame}).
+     *
+     * @return whether a frame is pending
+     */
     public boolean framed() {
         return framed;
     }
@@ -208,7 +243,7 @@ public final class Amplitudes {
         if (single == isSingle() && chunkLog == Math.min(n, CHUNK_LOG)) {
             return copy();
         }
-        Amplitudes out = single ? allocateSingle(n) : allocate(n);
+        Amplitudes out = (single ? allocateSingle(n) : allocate(n)).useLanes(lanes);
         int bl = Math.min(chunkLog, out.chunkLog);
         double[] buf = new double[2 << bl];
         for (long first = 0; first < (1L << n); first += 1L << bl) {
@@ -261,6 +296,10 @@ public final class Amplitudes {
             return;
         }
         float[] f = singles[c];
+        if (lanes != null) {
+            lanes.widen(f, o, out, at, 1 << log);
+            return;
+        }
         for (int x = 0; x < len; x++) {
             out[at + x] = f[o + x];
         }
@@ -290,12 +329,18 @@ public final class Amplitudes {
             return;
         }
         float[] f = singles[c];
+        if (lanes != null) {
+            lanes.narrow(in, at, f, o, 1 << log);
+            return;
+        }
         for (int x = 0; x < len; x++) {
             f[o + x] = (float) in[at + x];
         }
     }
 
     /**
+     * Returns the real part of one amplitude.
+     *
      * @param index basis index
      * @return the real part of amplitude {@code index}
      */
@@ -309,6 +354,8 @@ public final class Amplitudes {
     }
 
     /**
+     * Returns the imaginary part of one amplitude.
+     *
      * @param index basis index
      * @return the imaginary part of amplitude {@code index}
      */

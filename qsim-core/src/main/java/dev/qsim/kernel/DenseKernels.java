@@ -5,8 +5,9 @@ package dev.qsim.kernel;
  * qubits, where every control qubit is 1. Matrices are row-major with re/im interleaved; bit
  * {@code j} of a matrix index is qubit {@code targets[j]}. One target without controls goes to
  * {@link DenseSingleQubitKernels}; other gates go block by block of a {@link Layout}, with
- * unrolled loops for 2x2 and 4x4 matrices. Unchecked: targets and controls are distinct and
- * below the qubit count. Internal.
+ * unrolled loops for 2x2 and 4x4 matrices, or to the vector plan of {@link LaneKernels#dense}
+ * when the storage has vector loops (the same bits). Unchecked: targets and controls are
+ * distinct and below the qubit count. Internal.
  *
  * <p>Method: M. Smelyanskiy, N. P. D. Sawaya, A. Aspuru-Guzik, "qHiPSTER: the quantum high
  * performance software testing environment", arXiv:1601.07195 (2016), §3 (pairwise amplitude
@@ -28,6 +29,12 @@ final class DenseKernels {
     static Plan plan(Amplitudes a, int[] targets, int[] controls, double[] m) {
         if (targets.length == 1 && controls.length == 0) {
             return DenseSingleQubitKernels.plan(a, targets[0], m);
+        }
+        if (a.lanes != null) {
+            Plan p = a.lanes.dense(a, targets, controls, m);
+            if (p != null) {
+                return p;
+            }
         }
         if (targets.length == 1) {
             return new LayoutPlan(a, targets, controls) {

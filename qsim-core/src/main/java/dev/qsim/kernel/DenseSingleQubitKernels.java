@@ -7,8 +7,9 @@ package dev.qsim.kernel;
  * (pairs {@code (i, i + 2^q)} in blocks of {@code 2^(q+1)} amplitudes), in pieces of a block
  * above {@link Layout#PIECE_LOG}; a target at or above the chunk log pairs whole chunks. A real
  * matrix (H, RY and their products) or one shaped like RX takes a loop with half the arithmetic
- * and the same bits as the complex loop. Unchecked: the target is below the qubit count.
- * Internal.
+ * and the same bits as the complex loop. With vector loops ({@link LaneKernels}) on the storage,
+ * the blocks and runs go to them (the same bits again). Unchecked: the target is below the qubit
+ * count. Internal.
  *
  * <p>Method: M. Smelyanskiy, N. P. D. Sawaya, A. Aspuru-Guzik, "qHiPSTER: the quantum high
  * performance software testing environment", arXiv:1601.07195 (2016), §3 (pairwise amplitude
@@ -33,11 +34,13 @@ final class DenseSingleQubitKernels {
     private static final class Dense1Plan extends Plan {
         final int q;
         final double[] m;
+        final int kind;
 
         Dense1Plan(Amplitudes a, int q, double[] m) {
             super(a);
             this.q = q;
             this.m = m;
+            this.kind = LaneKernels.kind(m);
         }
 
         @Override
@@ -47,16 +50,21 @@ final class DenseSingleQubitKernels {
 
         @Override
         void run(long from, long to) {
+            final LaneKernels lanes = a.lanes;
             if (q >= a.chunkLog) {
-                dense1High(a, q, m, from, to);
+                dense1High(a, q, m, from, to, lanes, kind);
             } else if (q <= Layout.PIECE_LOG) {
-                dense1Low(a, q, m, from, to);
+                dense1Low(a, q, m, from, to, lanes, kind);
             } else {
                 for (long u = from; u < to; u++) {
                     final long base = Layout.pieceBase(q, u);
                     final double[] psi = a.chunks[(int) (base >>> a.chunkLog)];
                     final int x = (int) (base & a.chunkMask) << 1;
-                    dense1Pair(psi, x, psi, x + (2 << q), 1 << Layout.PIECE_LOG, m);
+                    if (lanes != null) {
+                        lanes.pairs(psi, x, psi, x + (2 << q), 1 << Layout.PIECE_LOG, m, kind);
+                    } else {
+                        dense1Pair(psi, x, psi, x + (2 << q), 1 << Layout.PIECE_LOG, m);
+                    }
                 }
             }
         }
@@ -68,14 +76,21 @@ final class DenseSingleQubitKernels {
     }
 
     /** Target inside a chunk: blocks of 2^(q+1) amplitudes, pairs (i, i + 2^q). */
-    private static void dense1Low(Amplitudes a, int q, double[] m, long from, long to) {
+    private static void dense1Low(Amplitudes a, int q, double[] m, long from, long to,
+            LaneKernels lanes, int kind) {
         final int blocksPerChunkLog = a.chunkLog - q - 1;
         long b = from;
         while (b < to) {
             final int c = (int) (b >>> blocksPerChunkLog);
             final long end = Math.min(to, ((long) c + 1) << blocksPerChunkLog);
             final int first = (int) (b - ((long) c << blocksPerChunkLog));
-            dense1InChunk(a.chunks[c], q, m, first, (int) (end - b));
+            if (lanes != null) {
+                final int start = first << (q + 2);
+                lanes.blocks(a.chunks[c], start, start + ((int) (end - b) << (q + 2)), q, m,
+                        kind);
+            } else {
+                dense1InChunk(a.chunks[c], q, m, first, (int) (end - b));
+            }
             b = end;
         }
     }
@@ -211,7 +226,8 @@ final class DenseSingleQubitKernels {
     }
 
     /** Target at or above the chunk size: pair chunk c with chunk c | 2^(q - chunkLog). */
-    private static void dense1High(Amplitudes a, int q, double[] m, long from, long to) {
+    private static void dense1High(Amplitudes a, int q, double[] m, long from, long to,
+            LaneKernels lanes, int kind) {
         final int cl = a.chunkLog;
         final int hb = q - cl;
         long p = from;
@@ -222,7 +238,12 @@ final class DenseSingleQubitKernels {
             final int c0 = (int) (((pairChunk >>> hb) << (hb + 1)) | (pairChunk & lowMask));
             final int c1 = c0 | (1 << hb);
             final int off = (int) (p & a.chunkMask);
-            dense1Pair(a.chunks[c0], off << 1, a.chunks[c1], off << 1, (int) (end - p), m);
+            if (lanes != null) {
+                lanes.pairs(a.chunks[c0], off << 1, a.chunks[c1], off << 1, (int) (end - p), m,
+                        kind);
+            } else {
+                dense1Pair(a.chunks[c0], off << 1, a.chunks[c1], off << 1, (int) (end - p), m);
+            }
             p = end;
         }
     }

@@ -5,6 +5,7 @@ package dev.qsim.kernel;
  * qubit is 1: each amplitude is multiplied by the diagonal entry its target bits select, with no
  * partner read. Bit {@code j} of a diagonal index is qubit {@code targets[j]}. One target without
  * controls scales the halves of each block; other gates go block by block of a {@link Layout}.
+ * With vector loops on the storage ({@link LaneKernels}) both go to them, with the same bits.
  * Unchecked: targets and controls are distinct and below the qubit count. Internal.
  *
  * <p>Method: M. Smelyanskiy, N. P. D. Sawaya, A. Aspuru-Guzik, "qHiPSTER: the quantum high
@@ -43,6 +44,12 @@ final class DiagonalKernels {
         if (targets.length == 1 && controls.length == 0) {
             return new Diagonal1Plan(a, targets[0], diag);
         }
+        if (a.lanes != null) {
+            Plan p = a.lanes.diagonal(a, targets, controls, diag);
+            if (p != null) {
+                return p;
+            }
+        }
         return new LayoutPlan(a, targets, controls) {
             @Override
             void run(long from, long to) {
@@ -69,6 +76,7 @@ final class DiagonalKernels {
 
         @Override
         void run(long from, long to) {
+            final LaneKernels lanes = a.lanes;
             if (q < a.chunkLog && q > Layout.PIECE_LOG) {
                 final boolean skip0 = d[0] == 1 && d[1] == 0;
                 for (long u = from; u < to; u++) {
@@ -77,9 +85,9 @@ final class DiagonalKernels {
                     final int x = (int) (base & a.chunkMask) << 1;
                     final int len = 2 << Layout.PIECE_LOG;
                     if (!skip0) {
-                        scale(psi, x, x + len, d[0], d[1]);
+                        scale(lanes, psi, x, x + len, d[0], d[1]);
                     }
-                    scale(psi, x + (2 << q), x + (2 << q) + len, d[2], d[3]);
+                    scale(lanes, psi, x + (2 << q), x + (2 << q) + len, d[2], d[3]);
                 }
                 return;
             }
@@ -96,7 +104,9 @@ final class DiagonalKernels {
                     final int stop = start + ((int) (end - b) << (q + 2));
                     final double d0r = d[0], d0i = d[1], d1r = d[2], d1i = d[3];
                     final boolean skip0 = d0r == 1 && d0i == 0;
-                    if (q == 0) {
+                    if (lanes != null) {
+                        lanes.diagonalBlocks(psi, start, stop, q, d);
+                    } else if (q == 0) {
                         // Neighbours: one pass, both halves in the same iteration.
                         for (int x = start; x < stop; x += 4) {
                             final double ar = psi[x], ai = psi[x + 1];
@@ -110,9 +120,9 @@ final class DiagonalKernels {
                         // Block by block, each half once: the range is streamed once.
                         for (int blk = start; blk < stop; blk += s2 << 1) {
                             if (!skip0) {
-                                scale(psi, blk, blk + s2, d0r, d0i);
+                                scale(null, psi, blk, blk + s2, d0r, d0i);
                             }
-                            scale(psi, blk + s2, blk + (s2 << 1), d1r, d1i);
+                            scale(null, psi, blk + s2, blk + (s2 << 1), d1r, d1i);
                         }
                     }
                     b = end;
@@ -135,12 +145,7 @@ final class DiagonalKernels {
                             continue;
                         }
                         final double[] psi = a.chunks[half == 0 ? c0 : c0 | (1 << hb)];
-                        for (int x = off; x < stop; x += 2) {
-                            final double re = psi[x];
-                            final double im = psi[x + 1];
-                            psi[x] = dr * re - di * im;
-                            psi[x + 1] = dr * im + di * re;
-                        }
+                        scale(lanes, psi, off, stop, dr, di);
                     }
                     p = end;
                 }
@@ -183,7 +188,12 @@ final class DiagonalKernels {
         }
     }
 
-    private static void scale(double[] psi, int from, int to, double dr, double di) {
+    private static void scale(LaneKernels lanes, double[] psi, int from, int to, double dr,
+            double di) {
+        if (lanes != null) {
+            lanes.scale(psi, from, to, dr, di);
+            return;
+        }
         for (int x = from; x < to; x += 2) {
             final double re = psi[x];
             final double im = psi[x + 1];

@@ -4,7 +4,9 @@ package dev.qsim.kernel;
  * A single-qubit gate, with or without controls, applied directly to single-precision storage:
  * each pair of amplitudes is read as {@code float}, multiplied by the 2x2 matrix in double and
  * rounded back, in one pass (no window copy). {@link Windows} uses it for a gate that stands
- * alone; runs of gates go through windows. Unchecked; internal. Method as in
+ * alone; runs of gates go through windows. With vector loops on the storage
+ * ({@link LaneKernels}) the blocks and runs go to them, with the same bits. Unchecked; internal.
+ * Method as in
  * {@link DenseSingleQubitKernels}: pairwise updates with strided indexing (Smelyanskiy et al.,
  * arXiv:1601.07195, 2016, §3).
  */
@@ -41,6 +43,8 @@ final class FloatSingleQubitKernels {
     private static void run(Amplitudes a, int q, double[] m, long controls, long from,
             long to) {
         final int cl = a.chunkLog;
+        final LaneKernels lanes = a.lanes;
+        final int kind = m == SWAP ? LaneKernels.FLIP : LaneKernels.kind(m);
         if (controls != 0) {
             // Bits below runLog vary inside a unit's run of pairs; the others are fixed, so a
             // unit whose fixed control bits are not all 1 is skipped whole.
@@ -65,11 +69,11 @@ final class FloatSingleQubitKernels {
                         }
                     }
                 } else if (inner == 0) {
-                    span(a, i0, i0 + (1L << q), 1 << runLog, m);
+                    span(a, i0, i0 + (1L << q), 1 << runLog, m, lanes, kind);
                 } else {
                     for (int k = 0; k < (1 << runLog); k++) {
                         if ((k & inner) == inner) {
-                            span(a, i0 + k, i0 + k + (1L << q), 1, m);
+                            span(a, i0 + k, i0 + k + (1L << q), 1, m, null, kind);
                         }
                     }
                 }
@@ -83,26 +87,49 @@ final class FloatSingleQubitKernels {
                 final long i0 = u << 1;
                 final int c = (int) (i0 >>> cl);
                 final long end = Math.min(to, ((long) c + 1) << (cl - 1));
-                flat(a.singles[c], (int) (i0 & a.chunkMask) << 1, (int) (end - u), m);
+                final int x0 = (int) (i0 & a.chunkMask) << 1;
+                if (lanes != null) {
+                    lanes.blocks(a.singles[c], x0, x0 + ((int) (end - u) << 2), 0, m, kind);
+                } else {
+                    flat(a.singles[c], x0, (int) (end - u), m);
+                }
                 u = end;
+            }
+            return;
+        }
+        if (q <= PIECE_LOG && q < cl && lanes != null) {
+            // Whole blocks inside chunks: one call per chunk's share of the range.
+            final int blocksPerChunkLog = cl - q - 1;
+            long b = from;
+            while (b < to) {
+                final int c = (int) (b >>> blocksPerChunkLog);
+                final long end = Math.min(to, ((long) c + 1) << blocksPerChunkLog);
+                final int start = (int) (b - ((long) c << blocksPerChunkLog)) << (q + 2);
+                lanes.blocks(a.singles[c], start, start + ((int) (end - b) << (q + 2)), q, m,
+                        kind);
+                b = end;
             }
             return;
         }
         if (q <= PIECE_LOG) {
             for (long u = from; u < to; u++) {
                 final long i0 = u << (q + 1);
-                span(a, i0, i0 + (1L << q), 1 << q, m);
+                span(a, i0, i0 + (1L << q), 1 << q, m, lanes, kind);
             }
             return;
         }
         for (long u = from; u < to; u++) {
             final long i0 = Layout.pieceBase(q, u);
-            span(a, i0, i0 + (1L << q), 1 << PIECE_LOG, m);
+            span(a, i0, i0 + (1L << q), 1 << PIECE_LOG, m, lanes, kind);
         }
     }
 
-    /** Pairs (i0 + k, i1 + k) for k below count, cut where either side crosses a chunk. */
-    private static void span(Amplitudes a, long i0, long i1, int count, double[] m) {
+    /**
+     * Pairs (i0 + k, i1 + k) for k below count, cut where either side crosses a chunk; with
+     * {@code lanes}, each piece goes to the vector loop.
+     */
+    private static void span(Amplitudes a, long i0, long i1, int count, double[] m,
+            LaneKernels lanes, int kind) {
         final int cl = a.chunkLog;
         final long size = 1L << cl;
         int k = 0;
@@ -111,8 +138,15 @@ final class FloatSingleQubitKernels {
             final long j1 = i1 + k;
             final int room = (int) Math.min(count - k,
                     Math.min(size - (j0 & a.chunkMask), size - (j1 & a.chunkMask)));
-            pairs(a.singles[(int) (j0 >>> cl)], (int) (j0 & a.chunkMask) << 1,
-                    a.singles[(int) (j1 >>> cl)], (int) (j1 & a.chunkMask) << 1, room, m);
+            final float[] u = a.singles[(int) (j0 >>> cl)];
+            final float[] v = a.singles[(int) (j1 >>> cl)];
+            final int uo = (int) (j0 & a.chunkMask) << 1;
+            final int vo = (int) (j1 & a.chunkMask) << 1;
+            if (lanes != null) {
+                lanes.pairs(u, uo, v, vo, room, m, kind);
+            } else {
+                pairs(u, uo, v, vo, room, m);
+            }
             k += room;
         }
     }

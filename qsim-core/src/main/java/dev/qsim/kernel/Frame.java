@@ -380,7 +380,12 @@ public final class Frame {
                             hr = nr;
                         }
                         double[] t = table;
-                        if (own != null) {
+                        if (own != null && a.lanes != null) {
+                            // The same products: own[j] = table[j] (hr + i hi).
+                            System.arraycopy(table, 0, own, 0, own.length);
+                            a.lanes.scale(own, 0, own.length, hr, hi);
+                            t = own;
+                        } else if (own != null) {
                             for (int j = 0; j < own.length; j += 2) {
                                 own[j] = table[j] * hr - table[j + 1] * hi;
                                 own[j + 1] = table[j] * hi + table[j + 1] * hr;
@@ -391,7 +396,20 @@ public final class Frame {
                         int c = (int) (first >>> a.chunkLog);
                         int off = (int) (first & a.chunkMask) << 1;
                         boolean constant = rowPhases && !tablePhases;
-                        if (a.singles != null) {
+                        final LaneKernels lanes = a.lanes;
+                        if (lanes != null && a.singles != null) {
+                            if (constant) {
+                                lanes.scale(a.singles[c], off, off + (2 << rl), hr, hi);
+                            } else {
+                                lanes.scaleByTable(a.singles[c], off, t, 1 << rl);
+                            }
+                        } else if (lanes != null) {
+                            if (constant) {
+                                lanes.scale(a.chunks[c], off, off + (2 << rl), hr, hi);
+                            } else {
+                                lanes.scaleByTable(a.chunks[c], off, t, 1 << rl);
+                            }
+                        } else if (a.singles != null) {
                             if (constant) {
                                 scaleRow(a.singles[c], off, hr, hi, 1 << rl);
                             } else {

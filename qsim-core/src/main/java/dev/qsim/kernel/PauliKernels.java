@@ -5,7 +5,9 @@ package dev.qsim.kernel;
  * amplitudes, without building the product's matrix or a copy of the state. A product with masks
  * {@code (x, z)} and phase 1 before its own {@code i^{|x∧z|}} sends {@code |j>} to
  * {@code (-1)^{|j∧z|} |j⊕x>}. Sums run over fixed blocks of {@code 2^BLOCK_LOG} amplitudes added
- * in block order, so results do not depend on the thread count. Internal; unchecked.
+ * in block order, so results do not depend on the thread count. With vector loops on the ket
+ * ({@link LaneKernels}) and blocks of at least one vector, each block goes to them (sums equal
+ * within rounding, the accumulation the same bits). Internal; unchecked.
  */
 public final class PauliKernels {
     private PauliKernels() {
@@ -13,6 +15,11 @@ public final class PauliKernels {
 
     private static int blockLog(Amplitudes a) {
         return Math.min(Reductions.BLOCK_LOG, Math.min(a.qubits(), a.chunkLog()));
+    }
+
+    /** The storage's vector loops when a block holds whole vectors, else null. */
+    private static LaneKernels vectorBlocks(Amplitudes a, int bl) {
+        return a.lanes != null && bl >= a.lanes.amplitudeLog() ? a.lanes : null;
     }
 
     /**
@@ -41,7 +48,9 @@ public final class PauliKernels {
         final int xLow = (int) (x & cmask);
         final boolean par = ket.qubits() >= Parallel.MIN_PARALLEL_QUBITS;
         final int zLow = (int) (z & cmask);
+        final LaneKernels lanes = vectorBlocks(ket, bl);
         Parallel.forRange(threads, blocks, par, (from, to) -> {
+            final double[] sum = new double[2];
             for (long blk = from; blk < to; blk++) {
                 final long first = blk << bl;
                 final int c = (int) (first >>> cl);
@@ -49,6 +58,13 @@ public final class PauliKernels {
                 final double[] b = bc[c ^ xHigh];
                 final int start = (int) (first & cmask);
                 final int end = start + (1 << bl);
+                final boolean flipped = (Long.bitCount(first & ~cmask & z) & 1) != 0;
+                if (lanes != null) {
+                    lanes.pauliInner(k, b, start, end, xLow, zLow, sum);
+                    pr[(int) blk] = flipped ? -sum[0] : sum[0];
+                    pi[(int) blk] = flipped ? -sum[1] : sum[1];
+                    continue;
+                }
                 // Two independent pairs of sums (even and odd o) halve the add-latency chain.
                 double sr = 0;
                 double si = 0;
@@ -76,9 +92,8 @@ public final class PauliKernels {
                 }
                 sr += tr;
                 si += ti;
-                final boolean flip = (Long.bitCount(first & ~cmask & z) & 1) != 0;
-                pr[(int) blk] = flip ? -sr : sr;
-                pi[(int) blk] = flip ? -si : si;
+                pr[(int) blk] = flipped ? -sr : sr;
+                pi[(int) blk] = flipped ? -si : si;
             }
         });
         double re = 0;
@@ -113,6 +128,7 @@ public final class PauliKernels {
         final int xLow = (int) (x & cmask);
         final boolean par = in.qubits() >= Parallel.MIN_PARALLEL_QUBITS;
         final int zLow = (int) (z & cmask);
+        final LaneKernels lanes = vectorBlocks(in, bl);
         Parallel.forRange(threads, blocks, par, (from, to) -> {
             for (long blk = from; blk < to; blk++) {
                 final long first = blk << bl;
@@ -125,6 +141,10 @@ public final class PauliKernels {
                 final double flip = 1 - ((Long.bitCount(first & ~cmask & z) & 1) << 1);
                 final double ar = cr * flip;
                 final double ai = ci * flip;
+                if (lanes != null) {
+                    lanes.pauliAccumulate(src, dst, start, end, xLow, zLow, ar, ai);
+                    continue;
+                }
                 for (int o = start; o < end; o++) {
                     final int so = o << 1;
                     final int d = (o ^ xLow) << 1;

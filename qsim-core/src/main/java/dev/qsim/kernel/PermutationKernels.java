@@ -55,6 +55,10 @@ final class PermutationKernels {
             return new Flip1Plan(a, targets[0]);
         }
         if (pure && perm.length == 2 && perm[0] == 1) {
+            Plan p = a.lanes == null ? null : a.lanes.controlledFlip(a, targets[0], controls);
+            if (p != null) {
+                return p;
+            }
             return new LayoutPlan(a, targets, controls) {
                 @Override
                 void run(long from, long to) {
@@ -96,12 +100,13 @@ final class PermutationKernels {
 
         @Override
         void run(long from, long to) {
+            final LaneKernels lanes = a.lanes;
             if (q < a.chunkLog && q > Layout.PIECE_LOG) {
                 for (long u = from; u < to; u++) {
                     final long base = Layout.pieceBase(q, u);
                     final double[] psi = a.chunks[(int) (base >>> a.chunkLog)];
                     final int x = (int) (base & a.chunkMask) << 1;
-                    swapRuns(psi, x, psi, x + (2 << q), 1 << Layout.PIECE_LOG);
+                    swapRuns(lanes, psi, x, psi, x + (2 << q), 1 << Layout.PIECE_LOG);
                 }
                 return;
             }
@@ -116,7 +121,9 @@ final class PermutationKernels {
                     final int s2 = 2 << q;
                     final int start = first << (q + 2);
                     final int stop = start + ((int) (end - b) << (q + 2));
-                    if (q == 0) {
+                    if (lanes != null) {
+                        lanes.flipBlocks(psi, start, stop, q);
+                    } else if (q == 0) {
                         for (int x = start; x < stop; x += 4) {
                             final double r = psi[x];
                             final double i = psi[x + 1];
@@ -127,7 +134,7 @@ final class PermutationKernels {
                         }
                     } else {
                         for (int blk = start; blk < stop; blk += s2 << 1) {
-                            swapRuns(psi, blk, psi, blk + s2, 1 << q);
+                            swapRuns(null, psi, blk, psi, blk + s2, 1 << q);
                         }
                     }
                     b = end;
@@ -142,7 +149,8 @@ final class PermutationKernels {
                     final long lowMask = (1L << hb) - 1;
                     final int c0 = (int) (((pairChunk >>> hb) << (hb + 1)) | (pairChunk & lowMask));
                     final int off = (int) (p & a.chunkMask) << 1;
-                    swapRuns(a.chunks[c0], off, a.chunks[c0 | (1 << hb)], off, (int) (end - p));
+                    swapRuns(lanes, a.chunks[c0], off, a.chunks[c0 | (1 << hb)], off,
+                            (int) (end - p));
                     p = end;
                 }
             }
@@ -279,7 +287,7 @@ final class PermutationKernels {
             final double[] u = arr[0];
             final double[] v = arr[1];
             for (int t = 0; t < starts.length; t++) {
-                swapRuns(u, (off[0] + starts[t]) << 1, v, (off[1] + starts[t]) << 1, run);
+                swapRuns(null, u, (off[0] + starts[t]) << 1, v, (off[1] + starts[t]) << 1, run);
             }
         }
     }
@@ -321,7 +329,12 @@ final class PermutationKernels {
         }
     }
 
-    private static void swapRuns(double[] u, int uo, double[] v, int vo, int count) {
+    private static void swapRuns(LaneKernels lanes, double[] u, int uo, double[] v, int vo,
+            int count) {
+        if (lanes != null) {
+            lanes.swapRuns(u, uo, v, vo, count);
+            return;
+        }
         final int n2 = count << 1;
         for (int x = 0; x < n2; x++) {
             final double t = u[uo + x];

@@ -6,11 +6,15 @@ package dev.qsim.kernel;
  * then added in block order: the result does not depend on the thread count. A block of a
  * single-precision state is first widened to double (exactly), so the sums are taken in double
  * in both precisions. Every public sum settles a pending lazy frame first (the norm does not
- * need to: the frame is unitary). Internal.
+ * need to: the frame is unitary). With vector loops on the storage ({@link LaneKernels}) a
+ * block's sum is taken lane by lane (equal within rounding, and still the same for any thread
+ * count); the probabilities are the same bits. Internal.
  */
 public final class Reductions {
     /** Log2 of the amplitudes per summation block. */
     public static final int BLOCK_LOG = 14;
+    /** Log2 of the shortest half-block worth a vector sum when one qubit's halves are summed. */
+    private static final int LANE_HALF_LOG = 5;
 
     private Reductions() {
     }
@@ -78,7 +82,15 @@ public final class Reductions {
                 int start = offset(a, first, buf);
                 int end = start + (2 << bl);
                 double s = 0;
-                if (q < 0 || q >= bl) {
+                final LaneKernels lanes = a.lanes;
+                if (lanes != null && (q < 0 || q >= bl)) {
+                    s = lanes.sumSquares(psi, start, end);
+                } else if (lanes != null && q >= LANE_HALF_LOG) {
+                    int s2 = 2 << q;
+                    for (int blk = start + s2; blk < end; blk += s2 << 1) {
+                        s += lanes.sumSquares(psi, blk, blk + s2);
+                    }
+                } else if (q < 0 || q >= bl) {
                     for (int x = start; x < end; x += 2) {
                         s += psi[x] * psi[x] + psi[x + 1] * psi[x + 1];
                     }
@@ -118,15 +130,23 @@ public final class Reductions {
         final double[] pr = new double[blocks];
         final double[] pi = new double[blocks];
         final boolean par = a.n >= Parallel.MIN_PARALLEL_QUBITS;
+        final LaneKernels lanes = a.lanes != null && b.lanes != null ? a.lanes : null;
         Parallel.forRange(threads, blocks, par, (from, to) -> {
             double[] ua = buffer(a, bl);
             double[] vb = buffer(b, bl);
+            double[] sum = new double[2];
             for (long blk = from; blk < to; blk++) {
                 long first = blk << bl;
                 double[] u = view(a, first, bl, ua);
                 double[] v = view(b, first, bl, vb);
                 int uo = offset(a, first, ua);
                 int vo = offset(b, first, vb);
+                if (lanes != null) {
+                    lanes.innerSums(u, uo, v, vo, 1 << bl, sum);
+                    pr[(int) blk] = sum[0];
+                    pi[(int) blk] = sum[1];
+                    continue;
+                }
                 double sr = 0;
                 double si = 0;
                 for (int x = 0; x < (2 << bl); x += 2) {
@@ -169,6 +189,10 @@ public final class Reductions {
                 int start = offset(a, first, buf);
                 int end = start + (2 << bl);
                 int i = (int) first;
+                if (a.lanes != null) {
+                    a.lanes.squares(psi, start, end, out, i);
+                    continue;
+                }
                 for (int x = start; x < end; x += 2, i++) {
                     out[i] = psi[x] * psi[x] + psi[x + 1] * psi[x + 1];
                 }
@@ -225,6 +249,10 @@ public final class Reductions {
                 double[] psi = view(a, first, bl, buf);
                 int start = offset(a, first, buf);
                 int end = start + (2 << bl);
+                if (a.lanes != null) {
+                    partial[(int) b] = a.lanes.sumSquares(psi, start, end);
+                    continue;
+                }
                 double s = 0;
                 for (int x = start; x < end; x += 2) {
                     s += psi[x] * psi[x] + psi[x + 1] * psi[x + 1];

@@ -160,7 +160,7 @@ public final class Windows {
         }
         final boolean par = n >= Parallel.MIN_PARALLEL_QUBITS;
         Parallel.forRange(threads, 1L << (n - wl), par, (from, to) -> {
-            Amplitudes s = scratch(wl);
+            Amplitudes s = scratch(wl).useLanes(a.lanes);
             double[] buf = s.chunks[0];
             Plan[] plans = new Plan[k];
             long[] units = new long[k];

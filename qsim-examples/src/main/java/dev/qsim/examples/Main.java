@@ -10,6 +10,7 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.Objects;
 
+import dev.qsim.Simulator;
 import dev.qsim.examples.cli.Cli;
 
 /**
@@ -246,6 +247,11 @@ public final class Main {
         out.println("  draw     draw a circuit as text or SVG");
         out.println("  compare  compare a tally file with a circuit's ideal prediction");
         out.println("  scale    time per gate against qubit count (--min, --max)");
+        out.println();
+        out.println("Kernels in this JVM: " + Simulator.kernels() + ".");
+        out.println("The vector kernels need java --add-modules jdk.incubator.vector: the launcher"
+                + " script qsim-examples/qsim");
+        out.println("adds it, or set JDK_JAVA_OPTIONS=--add-modules=jdk.incubator.vector.");
         out.println();
         out.println("Exit codes: " + EXIT_OK + " success, " + Cli.EXIT_MISMATCH
                 + " comparison failed (compare --require-match), " + EXIT_USAGE

@@ -18,6 +18,7 @@ import org.openjdk.jmh.annotations.Warmup;
 
 import dev.qsim.Circuit;
 import dev.qsim.StateVector;
+import dev.qsim.bench.KernelNote;
 import dev.qsim.observable.Expectation;
 import dev.qsim.observable.Gradients;
 import dev.qsim.observable.Observable;
@@ -37,7 +38,7 @@ import dev.qsim.observable.TunableCircuit;
 @OutputTimeUnit(TimeUnit.MILLISECONDS)
 @Warmup(iterations = 2, time = 2)
 @Measurement(iterations = 3, time = 3)
-@Fork(value = 1, jvmArgsAppend = "-Xmx2g")
+@Fork(value = 1, jvmArgsAppend = {"-Xmx2g", "--add-modules", "jdk.incubator.vector"})
 public class GradientBenchmark {
 
     /** Seed of the angles and the observable. */
@@ -93,6 +94,7 @@ public class GradientBenchmark {
         /** Builds the seeded workload. */
         @Setup
         public void setUp() {
+            KernelNote.once();
             circuit = circuit(n, params);
             values = values(params, SEED);
             observable = observable(n, terms, SEED + 1);

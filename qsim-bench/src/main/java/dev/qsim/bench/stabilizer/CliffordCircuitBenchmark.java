@@ -18,6 +18,7 @@ import org.openjdk.jmh.annotations.Warmup;
 import dev.qsim.Circuit;
 import dev.qsim.Simulator;
 import dev.qsim.Tally;
+import dev.qsim.bench.KernelNote;
 
 /**
  * Time of a whole run of a random Clifford circuit on the stabilizer engine: {@code gates}
@@ -29,7 +30,7 @@ import dev.qsim.Tally;
 @OutputTimeUnit(TimeUnit.MILLISECONDS)
 @Warmup(iterations = 1)
 @Measurement(iterations = 3)
-@Fork(value = 1, jvmArgsAppend = "-Xmx2g")
+@Fork(value = 1, jvmArgsAppend = {"-Xmx2g", "--add-modules", "jdk.incubator.vector"})
 public class CliffordCircuitBenchmark {
 
     /** Seed of the random circuit. */
@@ -69,6 +70,7 @@ public class CliffordCircuitBenchmark {
         /** Builds the seeded circuit. */
         @Setup
         public void setUp() {
+            KernelNote.once();
             circuit = randomCircuit(n, gates, CIRCUIT_SEED);
         }
     }

@@ -1,0 +1,551 @@
+package dev.qsim.kernel;
+
+import static dev.qsim.kernel.VectorShapes.D;
+import static dev.qsim.kernel.VectorShapes.EVEN;
+import static dev.qsim.kernel.VectorShapes.L;
+import static dev.qsim.kernel.VectorShapes.ODD;
+import static dev.qsim.kernel.VectorShapes.SIGN;
+import static dev.qsim.kernel.VectorShapes.SWAP;
+
+import jdk.incubator.vector.DoubleVector;
+import jdk.incubator.vector.VectorMask;
+import jdk.incubator.vector.VectorShuffle;
+
+/**
+ * Vector loops for single-qubit gates without controls on double storage, the frame's phases
+ * and the precision conversions, on re/im-interleaved arrays. Each computes, lane by lane,
+ * exactly the products and sums of the scalar loop it stands for
+ * ({@link DenseSingleQubitKernels}, {@link DiagonalKernels}, {@link Frame}), in the same order,
+ * so the results are the same bits; leftovers shorter than a vector run those scalar formulas.
+ *
+ * <p>Complex products on interleaved parts: for a factor {@code c = cr + i ci} and a vector
+ * {@code w} of amplitudes, {@code c w = cr w + (ci * SIGN) swap(w)}, where {@code swap}
+ * exchanges the two parts of each amplitude and {@code SIGN} is -1 on real lanes and +1 on
+ * imaginary ones (the re lane gets {@code cr re - ci im}, the im lane {@code cr im + ci re}).
+ * A target whose partners lie in the same vector (blocks shorter than a vector) takes lane
+ * permutations instead of a second load: each lane reads the low and the high member of its
+ * pair and multiplies them by the matrix entries of its own row. Internal.
+ */
+final class VectorPairs {
+    /** Lane permutations for a target whose blocks fit in one vector. */
+    private static final class InRegister {
+        final VectorShuffle<Double> low;
+        final VectorShuffle<Double> high;
+        final VectorShuffle<Double> lowSwapped;
+        final VectorShuffle<Double> highSwapped;
+        final VectorShuffle<Double> partner;
+        final VectorShuffle<Double> partnerSwapped;
+        /** Whether lane i belongs to the high member of its pair. */
+        final boolean[] upper = new boolean[L];
+
+        InRegister(int q) {
+            final int s = 2 << q;
+            low = VectorShuffle.fromOp(D, i -> i & ~s);
+            high = VectorShuffle.fromOp(D, i -> i | s);
+            lowSwapped = VectorShuffle.fromOp(D, i -> (i & ~s) ^ 1);
+            highSwapped = VectorShuffle.fromOp(D, i -> (i | s) ^ 1);
+            partner = VectorShuffle.fromOp(D, i -> i ^ s);
+            partnerSwapped = VectorShuffle.fromOp(D, i -> i ^ s ^ 1);
+            for (int i = 0; i < L; i++) {
+                upper[i] = (i & s) != 0;
+            }
+        }
+    }
+
+    private static final InRegister[] IN_REGISTER = new InRegister[VectorShapes.AMP_LOG];
+
+    static {
+        for (int q = 0; q < IN_REGISTER.length; q++) {
+            IN_REGISTER[q] = new InRegister(q);
+        }
+    }
+
+    /**
+     * Runs of 64 to 1024 doubles (targets 5 to 9) read a little ahead of themselves: the two
+     * halves of such short blocks share pages, and the processor's prefetchers lose track of
+     * them (measured at 26 qubits: 18-30 GB/s for these targets against 50 for the others, one
+     * thread). One plain load per cache line, 8 KiB ahead in address order, keeps the data
+     * coming, as a prefetch instruction would in C; the loaded values only feed {@link #sink}.
+     */
+    static final int AHEAD_MIN = 64;
+    /** See {@link #AHEAD_MIN}. */
+    static final int AHEAD_MAX = 1024;
+    /** How far ahead, in array elements (8 KiB of doubles). */
+    private static final int AHEAD = 1024;
+    /** Where the read-ahead values go, so that the compiler keeps the loads. */
+    static volatile long sink;
+
+    private VectorPairs() {
+    }
+
+    /** Two cache lines from {@code p + AHEAD} (clamped to the array), folded into bits. */
+    static long ahead(double[] a, int p, int last) {
+        return Double.doubleToRawLongBits(a[Math.min(p + AHEAD, last)])
+                ^ Double.doubleToRawLongBits(a[Math.min(p + AHEAD + L, last)]);
+    }
+
+    /**
+     * Lanes taking {@code lo} where the lane is a low member, {@code hi} where high, as an array:
+     * the loops make the vector themselves ({@code fromArray}), so that the compiler knows its
+     * exact class (a vector passed in from an uninlined method is not intrinsified on JDK 17).
+     */
+    private static double[] byMember(InRegister r, double lo, double hi, boolean signed) {
+        double[] v = new double[L];
+        for (int i = 0; i < L; i++) {
+            double x = r.upper[i] ? hi : lo;
+            v[i] = signed && (i & 1) == 0 ? -x : x;
+        }
+        return v;
+    }
+
+    // ---------------------------------------------------------------- double
+
+    /** See {@link LaneKernels#pairs(double[], int, double[], int, int, double[], int)}. */
+    static void pairs(double[] u, int uo, double[] v, int vo, int count, double[] m, int kind) {
+        final int len = count << 1;
+        final int bound = len & -L;
+        if (bound > 0) {
+            runs(u, uo, v, vo, bound, 1, 0, m, kind);
+        }
+        for (int k = bound; k < len; k += 2) {
+            pair(u, uo + k, v, vo + k, m, kind);
+        }
+    }
+
+    /** See {@link LaneKernels#blocks(double[], int, int, int, double[], int)}. */
+    static void blocks(double[] psi, int start, int end, int q, double[] m, int kind) {
+        final int s2 = 2 << q;
+        if (s2 >= L) {
+            runs(psi, start, psi, start + s2, s2, (end - start) / (s2 << 1), s2 << 1, m, kind);
+            return;
+        }
+        final InRegister r = IN_REGISTER[q];
+        final int bound = start + ((end - start) & -L);
+        if (bound > start) {
+            if (kind == LaneKernels.REAL) {
+                inRegisterReal(psi, start, bound, r, m);
+            } else if (kind == LaneKernels.CROSS) {
+                inRegisterCross(psi, start, bound, r, m);
+            } else {
+                inRegisterComplex(psi, start, bound, r, m);
+            }
+        }
+        for (int x = bound; x < end; x += s2 << 1) {
+            for (int k = 0; k < s2; k += 2) {
+                pair(psi, x + k, psi, x + k + s2, m, kind);
+            }
+        }
+    }
+
+    /**
+     * {@code blocks} runs of {@code len} doubles (a multiple of the vector), the i-th at
+     * {@code uo + i * stride} and {@code vo + i * stride}, paired element by element.
+     */
+    private static void runs(double[] u, int uo, double[] v, int vo, int len, int blocks,
+            int stride, double[] m, int kind) {
+        if (kind == LaneKernels.REAL) {
+            runsReal(u, uo, v, vo, len, blocks, stride, m);
+        } else if (kind == LaneKernels.CROSS) {
+            runsCross(u, uo, v, vo, len, blocks, stride, m);
+        } else {
+            runsComplex(u, uo, v, vo, len, blocks, stride, m);
+        }
+    }
+
+    private static void runsReal(double[] u, int uo, double[] v, int vo, int len, int blocks,
+            int stride, double[] m) {
+        final DoubleVector m00 = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector m01 = DoubleVector.broadcast(D, m[2]);
+        final DoubleVector m10 = DoubleVector.broadcast(D, m[4]);
+        final DoubleVector m11 = DoubleVector.broadcast(D, m[6]);
+        long touch = 0;
+        final int last = u.length - 1;
+        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX;
+        for (int b = 0; b < blocks; b++) {
+            final int x0 = uo + b * stride;
+            final int y0 = vo + b * stride;
+            for (int k = 0; k < len; k += L) {
+                if (ahead) {
+                    touch ^= ahead(u, x0 + 2 * k, last);
+                }
+                final DoubleVector a = DoubleVector.fromArray(D, u, x0 + k);
+                final DoubleVector c = DoubleVector.fromArray(D, v, y0 + k);
+                a.mul(m00).add(c.mul(m01)).intoArray(u, x0 + k);
+                a.mul(m10).add(c.mul(m11)).intoArray(v, y0 + k);
+            }
+        }
+        sink = touch;
+    }
+
+    private static void runsCross(double[] u, int uo, double[] v, int vo, int len, int blocks,
+            int stride, double[] m) {
+        final DoubleVector d0 = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector d1 = DoubleVector.broadcast(D, m[6]);
+        final DoubleVector o01 = SIGN.mul(m[3]);
+        final DoubleVector o10 = SIGN.mul(m[5]);
+        long touch = 0;
+        final int last = u.length - 1;
+        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX;
+        for (int b = 0; b < blocks; b++) {
+            final int x0 = uo + b * stride;
+            final int y0 = vo + b * stride;
+            for (int k = 0; k < len; k += L) {
+                if (ahead) {
+                    touch ^= ahead(u, x0 + 2 * k, last);
+                }
+                final DoubleVector a = DoubleVector.fromArray(D, u, x0 + k);
+                final DoubleVector c = DoubleVector.fromArray(D, v, y0 + k);
+                a.mul(d0).add(c.rearrange(SWAP).mul(o01)).intoArray(u, x0 + k);
+                c.mul(d1).add(a.rearrange(SWAP).mul(o10)).intoArray(v, y0 + k);
+            }
+        }
+        sink = touch;
+    }
+
+    private static void runsComplex(double[] u, int uo, double[] v, int vo, int len,
+            int blocks, int stride, double[] m) {
+        final DoubleVector m00r = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector m00i = SIGN.mul(m[1]);
+        final DoubleVector m01r = DoubleVector.broadcast(D, m[2]);
+        final DoubleVector m01i = SIGN.mul(m[3]);
+        final DoubleVector m10r = DoubleVector.broadcast(D, m[4]);
+        final DoubleVector m10i = SIGN.mul(m[5]);
+        final DoubleVector m11r = DoubleVector.broadcast(D, m[6]);
+        final DoubleVector m11i = SIGN.mul(m[7]);
+        long touch = 0;
+        final int last = u.length - 1;
+        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX;
+        for (int b = 0; b < blocks; b++) {
+            final int x0 = uo + b * stride;
+            final int y0 = vo + b * stride;
+            for (int k = 0; k < len; k += L) {
+                if (ahead) {
+                    touch ^= ahead(u, x0 + 2 * k, last);
+                }
+                final DoubleVector a = DoubleVector.fromArray(D, u, x0 + k);
+                final DoubleVector c = DoubleVector.fromArray(D, v, y0 + k);
+                final DoubleVector as = a.rearrange(SWAP);
+                final DoubleVector cs = c.rearrange(SWAP);
+                a.mul(m00r).add(as.mul(m00i)).add(c.mul(m01r)).add(cs.mul(m01i))
+                        .intoArray(u, x0 + k);
+                a.mul(m10r).add(as.mul(m10i)).add(c.mul(m11r)).add(cs.mul(m11i))
+                        .intoArray(v, y0 + k);
+            }
+        }
+        sink = touch;
+    }
+
+    private static void inRegisterReal(double[] psi, int start, int end, InRegister r,
+            double[] m) {
+        final DoubleVector ca = DoubleVector.fromArray(D, byMember(r, m[0], m[4], false), 0);
+        final DoubleVector cb = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
+        final VectorShuffle<Double> low = r.low;
+        final VectorShuffle<Double> high = r.high;
+        for (int x = start; x < end; x += L) {
+            final DoubleVector w = DoubleVector.fromArray(D, psi, x);
+            w.rearrange(low).mul(ca).add(w.rearrange(high).mul(cb)).intoArray(psi, x);
+        }
+    }
+
+    private static void inRegisterCross(double[] psi, int start, int end, InRegister r,
+            double[] m) {
+        final DoubleVector dd = DoubleVector.fromArray(D, byMember(r, m[0], m[6], false), 0);
+        final DoubleVector oo = DoubleVector.fromArray(D, byMember(r, m[3], m[5], true), 0);
+        final VectorShuffle<Double> ps = r.partnerSwapped;
+        for (int x = start; x < end; x += L) {
+            final DoubleVector w = DoubleVector.fromArray(D, psi, x);
+            w.mul(dd).add(w.rearrange(ps).mul(oo)).intoArray(psi, x);
+        }
+    }
+
+    private static void inRegisterComplex(double[] psi, int start, int end, InRegister r,
+            double[] m) {
+        final DoubleVector car = DoubleVector.fromArray(D, byMember(r, m[0], m[4], false), 0);
+        final DoubleVector cai = DoubleVector.fromArray(D, byMember(r, m[1], m[5], true), 0);
+        final DoubleVector cbr = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
+        final DoubleVector cbi = DoubleVector.fromArray(D, byMember(r, m[3], m[7], true), 0);
+        final VectorShuffle<Double> low = r.low;
+        final VectorShuffle<Double> lowSwapped = r.lowSwapped;
+        final VectorShuffle<Double> high = r.high;
+        final VectorShuffle<Double> highSwapped = r.highSwapped;
+        for (int x = start; x < end; x += L) {
+            final DoubleVector w = DoubleVector.fromArray(D, psi, x);
+            w.rearrange(low).mul(car).add(w.rearrange(lowSwapped).mul(cai))
+                    .add(w.rearrange(high).mul(cbr)).add(w.rearrange(highSwapped).mul(cbi))
+                    .intoArray(psi, x);
+        }
+    }
+
+    /**
+     * {@link #pairs} with the complex formula, leaving lane i of every vector as it was where
+     * {@code keep[i]} is false (low controls that are 0). Runs start on a vector.
+     */
+    static void pairsKeeping(double[] u, int uo, double[] v, int vo, int count, double[] m,
+            boolean[] keep) {
+        final int len = count << 1;
+        final int bound = len & -L;
+        final VectorMask<Double> k = VectorMask.fromArray(D, keep, 0);
+        final DoubleVector m00r = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector m00i = SIGN.mul(m[1]);
+        final DoubleVector m01r = DoubleVector.broadcast(D, m[2]);
+        final DoubleVector m01i = SIGN.mul(m[3]);
+        final DoubleVector m10r = DoubleVector.broadcast(D, m[4]);
+        final DoubleVector m10i = SIGN.mul(m[5]);
+        final DoubleVector m11r = DoubleVector.broadcast(D, m[6]);
+        final DoubleVector m11i = SIGN.mul(m[7]);
+        for (int x = 0; x < bound; x += L) {
+            final DoubleVector a = DoubleVector.fromArray(D, u, uo + x);
+            final DoubleVector c = DoubleVector.fromArray(D, v, vo + x);
+            final DoubleVector as = a.rearrange(SWAP);
+            final DoubleVector cs = c.rearrange(SWAP);
+            a.blend(a.mul(m00r).add(as.mul(m00i)).add(c.mul(m01r)).add(cs.mul(m01i)), k)
+                    .intoArray(u, uo + x);
+            c.blend(a.mul(m10r).add(as.mul(m10i)).add(c.mul(m11r)).add(cs.mul(m11i)), k)
+                    .intoArray(v, vo + x);
+        }
+        for (int x = bound; x < len; x += 2) {
+            if (keep[x % L]) {
+                pair(u, uo + x, v, vo + x, m, LaneKernels.COMPLEX);
+            }
+        }
+    }
+
+    /**
+     * {@link #blocks} for a target inside the vector, with the complex formula, leaving lane i
+     * of every vector as it was where {@code keep[i]} is false. Ranges start on a vector.
+     */
+    static void blocksKeeping(double[] psi, int start, int end, int q, double[] m,
+            boolean[] keep) {
+        final InRegister r = IN_REGISTER[q];
+        final int bound = start + ((end - start) & -L);
+        final VectorMask<Double> k = VectorMask.fromArray(D, keep, 0);
+        final DoubleVector car = DoubleVector.fromArray(D, byMember(r, m[0], m[4], false), 0);
+        final DoubleVector cai = DoubleVector.fromArray(D, byMember(r, m[1], m[5], true), 0);
+        final DoubleVector cbr = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
+        final DoubleVector cbi = DoubleVector.fromArray(D, byMember(r, m[3], m[7], true), 0);
+        final VectorShuffle<Double> low = r.low;
+        final VectorShuffle<Double> lowSwapped = r.lowSwapped;
+        final VectorShuffle<Double> high = r.high;
+        final VectorShuffle<Double> highSwapped = r.highSwapped;
+        for (int x = start; x < bound; x += L) {
+            final DoubleVector w = DoubleVector.fromArray(D, psi, x);
+            w.blend(w.rearrange(low).mul(car).add(w.rearrange(lowSwapped).mul(cai))
+                    .add(w.rearrange(high).mul(cbr)).add(w.rearrange(highSwapped).mul(cbi)), k)
+                    .intoArray(psi, x);
+        }
+        final int s2 = 2 << q;
+        for (int x = bound; x < end; x += s2 << 1) {
+            for (int j = 0; j < s2; j += 2) {
+                if (keep[(x + j - start) % L]) {
+                    // Both members of the pair share the control bits, so both keep or change.
+                    pair(psi, x + j, psi, x + j + s2, m, LaneKernels.COMPLEX);
+                }
+            }
+        }
+    }
+
+    /** One pair by the scalar formulas of {@link DenseSingleQubitKernels}. */
+    private static void pair(double[] u, int x, double[] v, int y, double[] m, int kind) {
+        final double ar = u[x];
+        final double ai = u[x + 1];
+        final double br = v[y];
+        final double bi = v[y + 1];
+        if (kind == LaneKernels.REAL) {
+            u[x] = m[0] * ar + m[2] * br;
+            u[x + 1] = m[0] * ai + m[2] * bi;
+            v[y] = m[4] * ar + m[6] * br;
+            v[y + 1] = m[4] * ai + m[6] * bi;
+        } else if (kind == LaneKernels.CROSS) {
+            u[x] = m[0] * ar - m[3] * bi;
+            u[x + 1] = m[0] * ai + m[3] * br;
+            v[y] = m[6] * br - m[5] * ai;
+            v[y + 1] = m[6] * bi + m[5] * ar;
+        } else {
+            u[x] = m[0] * ar - m[1] * ai + m[2] * br - m[3] * bi;
+            u[x + 1] = m[0] * ai + m[1] * ar + m[2] * bi + m[3] * br;
+            v[y] = m[4] * ar - m[5] * ai + m[6] * br - m[7] * bi;
+            v[y + 1] = m[4] * ai + m[5] * ar + m[6] * bi + m[7] * br;
+        }
+    }
+
+    // ---------------------------------------------------------------- phases
+
+    /** See {@link LaneKernels#scale(double[], int, int, double, double)}. */
+    static void scale(double[] psi, int from, int to, double dr, double di) {
+        final DoubleVector r = DoubleVector.broadcast(D, dr);
+        final DoubleVector i = SIGN.mul(di);
+        int x = from;
+        for (; x + L <= to; x += L) {
+            final DoubleVector w = DoubleVector.fromArray(D, psi, x);
+            w.mul(r).add(w.rearrange(SWAP).mul(i)).intoArray(psi, x);
+        }
+        for (; x < to; x += 2) {
+            final double re = psi[x];
+            final double im = psi[x + 1];
+            psi[x] = dr * re - di * im;
+            psi[x + 1] = dr * im + di * re;
+        }
+    }
+
+    /** See {@link LaneKernels#scale(float[], int, int, double, double)}. */
+    static void scale(float[] psi, int from, int to, double dr, double di) {
+        final DoubleVector r = DoubleVector.broadcast(D, dr);
+        final DoubleVector i = SIGN.mul(di);
+        int x = from;
+        for (; x + L <= to; x += L) {
+            final DoubleVector w = VectorShapes.widen(psi, x);
+            VectorShapes.narrow(w.mul(r).add(w.rearrange(SWAP).mul(i)), psi, x);
+        }
+        for (; x < to; x += 2) {
+            final double re = psi[x];
+            final double im = psi[x + 1];
+            psi[x] = (float) (dr * re - di * im);
+            psi[x + 1] = (float) (dr * im + di * re);
+        }
+    }
+
+    /** See {@link LaneKernels#scaleByTable(double[], int, double[], int)}. */
+    static void scaleByTable(double[] psi, int off, double[] table, int count) {
+        final int len = count << 1;
+        int j = 0;
+        for (; j + L <= len; j += L) {
+            final DoubleVector t = DoubleVector.fromArray(D, table, j);
+            final DoubleVector w = DoubleVector.fromArray(D, psi, off + j);
+            w.mul(t.rearrange(EVEN)).add(w.rearrange(SWAP).mul(t.rearrange(ODD).mul(SIGN)))
+                    .intoArray(psi, off + j);
+        }
+        for (; j < len; j += 2) {
+            final double tr = table[j];
+            final double ti = table[j + 1];
+            final double re = psi[off + j];
+            final double im = psi[off + j + 1];
+            psi[off + j] = tr * re - ti * im;
+            psi[off + j + 1] = tr * im + ti * re;
+        }
+    }
+
+    /** See {@link LaneKernels#scaleByTable(float[], int, double[], int)}. */
+    static void scaleByTable(float[] psi, int off, double[] table, int count) {
+        final int len = count << 1;
+        int j = 0;
+        for (; j + L <= len; j += L) {
+            final DoubleVector t = DoubleVector.fromArray(D, table, j);
+            final DoubleVector w = VectorShapes.widen(psi, off + j);
+            VectorShapes.narrow(w.mul(t.rearrange(EVEN))
+                    .add(w.rearrange(SWAP).mul(t.rearrange(ODD).mul(SIGN))), psi, off + j);
+        }
+        for (; j < len; j += 2) {
+            final double tr = table[j];
+            final double ti = table[j + 1];
+            final double re = psi[off + j];
+            final double im = psi[off + j + 1];
+            psi[off + j] = (float) (tr * re - ti * im);
+            psi[off + j + 1] = (float) (tr * im + ti * re);
+        }
+    }
+
+    /** See {@link LaneKernels#diagonalBlocks}. */
+    static void diagonalBlocks(double[] psi, int start, int end, int q, double[] d) {
+        final int s2 = 2 << q;
+        final boolean skip0 = q > 0 && d[0] == 1 && d[1] == 0;
+        if (s2 >= L) {
+            for (int b = start; b < end; b += s2 << 1) {
+                if (!skip0) {
+                    scale(psi, b, b + s2, d[0], d[1]);
+                }
+                scale(psi, b + s2, b + (s2 << 1), d[2], d[3]);
+            }
+            return;
+        }
+        final InRegister r = IN_REGISTER[q];
+        final DoubleVector cr = DoubleVector.fromArray(D, byMember(r, d[0], d[2], false), 0);
+        final DoubleVector ci = DoubleVector.fromArray(D, byMember(r, d[1], d[3], true), 0);
+        final VectorMask<Double> changed = skip0 ? VectorShapes.mask(r.upper) : null;
+        int x = start;
+        for (; x + L <= end; x += L) {
+            final DoubleVector w = DoubleVector.fromArray(D, psi, x);
+            final DoubleVector z = w.mul(cr).add(w.rearrange(SWAP).mul(ci));
+            (changed == null ? z : w.blend(z, changed)).intoArray(psi, x);
+        }
+        for (; x < end; x += s2 << 1) {
+            if (!skip0) {
+                scaleScalar(psi, x, x + s2, d[0], d[1]);
+            }
+            scaleScalar(psi, x + s2, x + (s2 << 1), d[2], d[3]);
+        }
+    }
+
+    private static void scaleScalar(double[] psi, int from, int to, double dr, double di) {
+        for (int x = from; x < to; x += 2) {
+            final double re = psi[x];
+            final double im = psi[x + 1];
+            psi[x] = dr * re - di * im;
+            psi[x + 1] = dr * im + di * re;
+        }
+    }
+
+    // ---------------------------------------------------------------- moves
+
+    /** See {@link LaneKernels#swapRuns}. */
+    static void swapRuns(double[] u, int uo, double[] v, int vo, int count) {
+        final int len = count << 1;
+        int k = 0;
+        for (; k + L <= len; k += L) {
+            final DoubleVector a = DoubleVector.fromArray(D, u, uo + k);
+            DoubleVector.fromArray(D, v, vo + k).intoArray(u, uo + k);
+            a.intoArray(v, vo + k);
+        }
+        for (; k < len; k++) {
+            final double t = u[uo + k];
+            u[uo + k] = v[vo + k];
+            v[vo + k] = t;
+        }
+    }
+
+    /** See {@link LaneKernels#flipBlocks}. */
+    static void flipBlocks(double[] psi, int start, int end, int q) {
+        final int s2 = 2 << q;
+        if (s2 >= L) {
+            for (int b = start; b < end; b += s2 << 1) {
+                swapRuns(psi, b, psi, b + s2, 1 << q);
+            }
+            return;
+        }
+        final VectorShuffle<Double> p = IN_REGISTER[q].partner;
+        int x = start;
+        for (; x + L <= end; x += L) {
+            DoubleVector.fromArray(D, psi, x).rearrange(p).intoArray(psi, x);
+        }
+        for (; x < end; x += s2 << 1) {
+            for (int k = 0; k < s2; k++) {
+                final double t = psi[x + k];
+                psi[x + k] = psi[x + k + s2];
+                psi[x + k + s2] = t;
+            }
+        }
+    }
+
+    /** See {@link LaneKernels#widen}. */
+    static void widen(float[] f, int fo, double[] out, int at, int count) {
+        final int len = count << 1;
+        int k = 0;
+        for (; k + L <= len; k += L) {
+            VectorShapes.widen(f, fo + k).intoArray(out, at + k);
+        }
+        for (; k < len; k++) {
+            out[at + k] = f[fo + k];
+        }
+    }
+
+    /** See {@link LaneKernels#narrow}. */
+    static void narrow(double[] in, int at, float[] f, int fo, int count) {
+        final int len = count << 1;
+        int k = 0;
+        for (; k + L <= len; k += L) {
+            VectorShapes.narrow(DoubleVector.fromArray(D, in, at + k), f, fo + k);
+        }
+        for (; k < len; k++) {
+            f[fo + k] = (float) in[at + k];
+        }
+    }
+}
