@@ -1,0 +1,89 @@
+package dev.qsim;
+
+import java.util.List;
+
+import dev.qsim.internal.EngineWork;
+import dev.qsim.internal.HeapLayout;
+import dev.qsim.stabilizer.StabilizerTableau;
+
+/**
+ * Counts the stabilizer tableau's work in 64-bit words, following its steps: a gate on k qubits
+ * rewrites the x and z columns of its qubits, {@code 4k·⌈n/64⌉} words; a measurement or reset
+ * runs over every column, {@code 4n·⌈n/64⌉} words (Aaronson and Gottesman 2004, Phys. Rev. A
+ * 70, 052328, section III: O(n) per gate, O(n²) per measurement). A circuit without conditions
+ * is simulated once and its shots replayed in batches of 64, each measurement costing one
+ * half-column per batch; any other circuit is simulated shot by shot from a copy of its prefix.
+ */
+final class TableauCost {
+    private TableauCost() {
+    }
+
+    /** Words of one run (all shots for a shot-by-shot circuit of one shot) and of one batch. */
+    static double[] words(Circuit c) {
+        int n = c.qubits();
+        double half = (n + 63) >>> 6;
+        double[] w = new double[3];
+        count(c.instructions(), n, half, w);
+        return new double[] {w[0], w[1] * half};
+    }
+
+    /** Adds to w[0] the words, to w[1] the measurements and resets. */
+    private static void count(List<Instruction> list, int n, double half, double[] w) {
+        for (Instruction in : list) {
+            switch (in.kind()) {
+                case GATE:
+                    w[0] += 4 * half * (in.targetsRaw().length + in.controlsRaw().length);
+                    break;
+                case MEASURE:
+                case RESET:
+                    w[0] += 4 * n * half;
+                    w[1]++;
+                    break;
+                case IF_BIT:
+                case IF:
+                    count(in.body(), n, half, w);
+                    break;
+                case WHILE: {
+                    double[] body = new double[3];
+                    count(in.body(), n, half, body);
+                    w[0] += body[0] * in.maxIterations();
+                    w[1] += body[1] * in.maxIterations();
+                    break;
+                }
+                default:
+                    break;
+            }
+        }
+    }
+
+    static EngineWork work(Circuit c, int shots) {
+        int n = c.qubits();
+        double[] words = words(c);
+        EngineWork e = new EngineWork();
+        long table = HeapLayout.arrayBytes(StabilizerTableau.bytes(n));
+        if (c.measuresAtEnd() || !hasControl(c.instructions())) {
+            e.tableau(words[0], Math.ceil(shots / 64.0) * words[1]);
+            e.hold(table, "the tableau");
+            e.hold((long) (words[1] / Math.max(1, (n + 63) >>> 6)) * 6
+                    * HeapLayout.arrayBytes(8L * ((n + 63) >>> 6)), "the replay of the signs");
+        } else {
+            double copy = 4.0 * n * ((n + 63) >>> 6);
+            e.tableau((double) shots * (words[0] + copy), 0);
+            e.hold(2 * table, "the tableau and a copy for each shot");
+        }
+        e.draw(shots);
+        return e;
+    }
+
+    private static boolean hasControl(List<Instruction> list) {
+        for (Instruction in : list) {
+            Instruction.Kind k = in.kind();
+            if (k == Instruction.Kind.IF_BIT || k == Instruction.Kind.IF
+                    || k == Instruction.Kind.WHILE || k == Instruction.Kind.ASSIGN
+                    || (k == Instruction.Kind.GATE && in.isDynamic())) {
+                return true;
+            }
+        }
+        return false;
+    }
+}
