@@ -56,8 +56,9 @@ final class AmplitudeCost {
                 e.hold(HeapLayout.arrayBytes(8L << Math.max(0, n - Frame.CACHE_LOG)),
                         "the block sums");
             }
+            holdPhaseTables(e, w, threads);
             e.add(new EngineWork.Part("the circuit once", w, 1, threads, 1));
-            e.draw(shots);
+            e.draw(shots, circuit.clbits());
             return e;
         }
         List<Instruction> list = circuit.instructions();
@@ -73,11 +74,22 @@ final class AmplitudeCost {
         shot.pass(Workload.COPY, 1);
         walk(list.subList(first, list.size()), shot, fuse);
         e.hold(state, "a copy of the state after the prefix");
+        holdPhaseTables(e, prefix.addAll(shot, 0), threads);
         e.add(new EngineWork.Part("the gates before the first measurement", prefix, 1, threads,
                 1));
         e.add(new EngineWork.Part("each shot", shot, shots, threads, 1));
-        e.draw(shots);
+        e.draw(shots, circuit.clbits());
         return e;
+    }
+
+    /** The lazy frame's phase table, and a copy per thread's piece, while it settles. */
+    private static void holdPhaseTables(EngineWork e, Workload w, int threads) {
+        int log = w.phaseTableLog();
+        if (log >= 0) {
+            int pieces = w.qubits() >= dev.qsim.kernel.Parallel.MIN_PARALLEL_QUBITS ? threads : 1;
+            e.hold((1 + pieces) * HeapLayout.arrayBytes(16L << log),
+                    "the frame's phase tables");
+        }
     }
 
     /** The gates of a list as {@code AmplitudeEngine.gates} hands them to the kernels. */

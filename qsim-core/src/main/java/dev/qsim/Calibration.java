@@ -11,6 +11,7 @@ import java.time.Instant;
 import java.time.format.DateTimeParseException;
 import java.time.temporal.ChronoUnit;
 import java.util.Arrays;
+import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
 import java.util.Properties;
@@ -73,6 +74,9 @@ public final class Calibration {
         "dense4", "diagonal", "permutation", "block-group", "window-group", "float1", "phases",
         "copy", "measure", "sample", "reduce"};
 
+    private static final String[] OTHER_KEYS = {"shot", "shot.bit", "tableau.word",
+        "tableau.measure", "tableau.batch"};
+
     private static Calibration probe;
 
     private final Source source;
@@ -83,22 +87,25 @@ public final class Calibration {
     /** [kind][0: one thread, 1: all processors][size index], nanoseconds per unit. */
     private final double[][][] rates;
     private final double shotNanos;
+    private final double shotBitNanos;
     private final double tableauWordNanos;
+    private final double tableauMeasureNanos;
     private final double tableauBatchNanos;
     private final String note;
 
     private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
-            double[][][] rates, double shotNanos, double tableauWordNanos,
-            double tableauBatchNanos, String note) {
+            double[][][] rates, double[] other, String note) {
         this.source = source;
         this.made = made;
         this.kernels = kernels;
         this.processors = processors;
         this.sizes = sizes;
         this.rates = rates;
-        this.shotNanos = shotNanos;
-        this.tableauWordNanos = tableauWordNanos;
-        this.tableauBatchNanos = tableauBatchNanos;
+        this.shotNanos = other[0];
+        this.shotBitNanos = other[1];
+        this.tableauWordNanos = other[2];
+        this.tableauMeasureNanos = other[3];
+        this.tableauBatchNanos = other[4];
         this.note = note;
     }
 
@@ -144,47 +151,69 @@ public final class Calibration {
                     + " per amplitude on 1 thread, %.2f on %d", sizes[s],
                     r[Workload.DENSE1][0][s], r[Workload.DENSE1][1][s], all));
         }
-        double shot = shotNanos(nanos);
-        double[] tab = tableauNanos(nanos);
-        progress.accept(String.format(Locale.ROOT, "sampling %.0f ns per shot; tableau %.2f ns"
-                + " per word", shot, tab[0]));
+        boolean quick = source == Source.QUICK_PROBE;
+        double[] shot = shotNanos(nanos, quick ? 20_000 : 100_000);
+        double[] tab = tableauNanos(nanos, shot, quick ? 192 : 512);
+        progress.accept(String.format(Locale.ROOT, "tallying %.0f ns per shot and %.1f per bit;"
+                + " tableau %.2f ns per gate word, %.2f per measurement word", shot[0], shot[1],
+                tab[0], tab[1]));
         return new Calibration(source, Instant.now().truncatedTo(ChronoUnit.SECONDS),
-                KernelTimer.path(), all, sizes.clone(), r, shot, tab[0], tab[1], "");
+                KernelTimer.path(), all, sizes.clone(), r, new double[] {shot[0], shot[1], tab[0],
+                    tab[1], tab[2]}, "");
     }
 
-    /** Nanoseconds per shot drawn from a final state and tallied, beyond the sampling pass. */
-    private static double shotNanos(long nanos) {
-        Circuit c = spread(10).measure().build();
-        Simulator sim = Simulator.seeded(1).withThreads(1).withFusion(false);
-        int many = 200_000;
-        double few = best(() -> sim.run(c, 1), nanos);
-        double lots = best(() -> sim.run(c, many), nanos);
-        return Math.max(1, (lots - few) / many);
+    /**
+     * Nanoseconds per shot drawn from a final state and tallied beyond the sampling pass: per
+     * shot, and per classical bit of a shot (from registers of 4 and 16 bits).
+     */
+    private static double[] shotNanos(long nanos, int many) {
+        double[] per = new double[2];
+        int[] widths = {4, 16};
+        for (int i = 0; i < 2; i++) {
+            Circuit c = spread(widths[i]).measure().build();
+            Simulator sim = Simulator.seeded(1).withThreads(1).withFusion(false);
+            double few = best(() -> sim.run(c, 1), nanos);
+            double lots = best(() -> sim.run(c, many), nanos);
+            per[i] = Math.max(1, (lots - few) / many);
+        }
+        double bit = Math.max(0, (per[1] - per[0]) / (widths[1] - widths[0]));
+        return new double[] {Math.max(1, per[0] - bit * widths[0]), bit};
     }
 
-    /** Tableau: nanoseconds per word of gate work, and per word of a 64-shot batch step. */
-    private static double[] tableauNanos(long nanos) {
-        int n = 256;
+    /**
+     * Tableau rates: nanoseconds per gate word, per measurement word and per word of a
+     * replayed 64-shot batch, from one circuit measured on one qubit and on all of them.
+     */
+    private static double[] tableauNanos(long nanos, double[] shot, int n) {
         UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(17L);
-        Circuit.Builder b = Circuit.builder(n);
-        for (int g = 0; g < 4 * n; g++) {
+        Circuit.Builder one = Circuit.builder(n);
+        Circuit.Builder all = Circuit.builder(n);
+        for (int g = 0; g < 6 * n; g++) {
             int q = rng.nextInt(n);
             int p = (q + 1 + rng.nextInt(n - 1)) % n;
-            if (g % 3 == 0) {
-                b.h(q);
-            } else if (g % 3 == 1) {
-                b.s(q);
-            } else {
-                b.cnot(q, p);
+            for (Circuit.Builder b : List.of(one, all)) {
+                if (g % 3 == 0) {
+                    b.h(q);
+                } else if (g % 3 == 1) {
+                    b.s(q);
+                } else {
+                    b.cnot(q, p);
+                }
             }
         }
-        Circuit measured = b.measure().build();
-        double oneShot = best(() -> Bridge.tableaus().run(measured, 1, 3), nanos);
-        double manyShots = best(() -> Bridge.tableaus().run(measured, 6400, 3), nanos);
-        double[] words = TableauCost.words(measured);
-        double perWord = oneShot / Math.max(1, words[0]);
-        double perBatch = Math.max(0, manyShots - oneShot) / (99 * Math.max(1, words[1]));
-        return new double[] {perWord, perBatch};
+        Circuit a = one.measure(0, 0).build();
+        Circuit b = all.measure().build();
+        double ta = best(() -> Bridge.tableaus().run(a, 1, 3), nanos);
+        double tb = best(() -> Bridge.tableaus().run(b, 1, 3), nanos);
+        int shots = 6400;
+        double tc = best(() -> Bridge.tableaus().run(b, shots, 3), nanos);
+        double[] wa = TableauCost.words(a);
+        double[] wb = TableauCost.words(b);
+        double measure = Math.max(0, tb - ta) / Math.max(1, wb[1] - wa[1]);
+        double word = Math.max(0, ta - measure * wa[1]) / Math.max(1, wa[0]);
+        double tally = shots * (shot[0] + shot[1] * n);
+        double batch = Math.max(0, tc - tb - tally) / ((shots / 64 - 1) * Math.max(1, wb[2]));
+        return new double[] {Math.max(word, 1e-3), Math.max(measure, 1e-3), batch};
     }
 
     private static double best(Runnable r, long nanos) {
@@ -237,7 +266,26 @@ public final class Calibration {
         }
         Calibration q = quickProbe();
         return new Calibration(q.source, q.made, q.kernels, q.processors, q.sizes, q.rates,
-                q.shotNanos, q.tableauWordNanos, q.tableauBatchNanos, why);
+                q.others(), why);
+    }
+
+    /**
+     * Returns the calibration file's rates when the file exists, reads and matches this machine;
+     * never probes.
+     *
+     * @return the saved rates, or empty
+     */
+    public static java.util.Optional<Calibration> saved() {
+        Path f = file();
+        if (!Files.exists(f)) {
+            return java.util.Optional.empty();
+        }
+        try {
+            Calibration c = read(f);
+            return c.staleness() == null ? java.util.Optional.of(c) : java.util.Optional.empty();
+        } catch (IOException | IllegalArgumentException e) {
+            return java.util.Optional.empty();
+        }
     }
 
     /** Why this calibration does not describe the machine as it runs now, or null. */
@@ -315,11 +363,11 @@ public final class Calibration {
                 sb.append('\n');
             }
         }
-        sb.append("shot = ").append(String.format(Locale.ROOT, "%.5g", shotNanos)).append('\n');
-        sb.append("tableau.word = ").append(String.format(Locale.ROOT, "%.5g", tableauWordNanos))
-                .append('\n');
-        sb.append("tableau.batch = ").append(String.format(Locale.ROOT, "%.5g",
-                tableauBatchNanos)).append('\n');
+        double[] o = others();
+        for (int i = 0; i < OTHER_KEYS.length; i++) {
+            sb.append(OTHER_KEYS[i]).append(" = ").append(String.format(Locale.ROOT, "%.5g",
+                    o[i])).append('\n');
+        }
         return sb.toString();
     }
 
@@ -375,9 +423,11 @@ public final class Calibration {
                         sizes.length);
             }
         }
-        return new Calibration(Source.CALIBRATED, made, kernels, processors, sizes, r,
-                number(p, "shot", 0, 1e9), number(p, "tableau.word", 0, 1e9),
-                number(p, "tableau.batch", 0, 1e9), "");
+        double[] other = new double[OTHER_KEYS.length];
+        for (int i = 0; i < other.length; i++) {
+            other[i] = number(p, OTHER_KEYS[i], 0, 1e9);
+        }
+        return new Calibration(Source.CALIBRATED, made, kernels, processors, sizes, r, other, "");
     }
 
     private static String value(Properties p, String key) {
@@ -463,14 +513,29 @@ public final class Calibration {
         return v[v.length - 1];
     }
 
+    private double[] others() {
+        return new double[] {shotNanos, shotBitNanos, tableauWordNanos, tableauMeasureNanos,
+            tableauBatchNanos};
+    }
+
     /** Nanoseconds per shot drawn and tallied. */
     double shotNanos() {
         return shotNanos;
     }
 
-    /** Nanoseconds per word of tableau work. */
+    /** Nanoseconds per classical bit of a shot tallied. */
+    double shotBitNanos() {
+        return shotBitNanos;
+    }
+
+    /** Nanoseconds per word of tableau gate work. */
     double tableauWordNanos() {
         return tableauWordNanos;
+    }
+
+    /** Nanoseconds per word of tableau measurement work. */
+    double tableauMeasureNanos() {
+        return tableauMeasureNanos;
     }
 
     /** Nanoseconds per word of a replayed 64-shot batch. */

@@ -68,6 +68,13 @@ final class CostModel {
     /** The fewest threads within {@link #THREAD_SLACK} of the run's time, if fewer. */
     private static void fewerThreads(List<RunCost.Alternative> alt, RunCost base, Counted counted,
             Simulator sim, Circuit c, int shots, Calibration cal) {
+        int widest = 0;
+        for (EngineWork.Part p : counted.work.parts()) {
+            widest = Math.max(widest, p.work().qubits());
+        }
+        if (widest < Parallel.MIN_PARALLEL_QUBITS) {
+            return; // the kernels run on one thread anyway
+        }
         for (int t = 1; t < sim.threads(); t++) {
             RunCost o = counted.engine == Simulator.Engine.TRAJECTORIES
                     ? price(count(sim.withThreads(t), c, shots), t, cal) : price(counted, t, cal);
@@ -164,16 +171,17 @@ final class CostModel {
                         Workload.name(k), RunCost.secondsText(nanos[k] * 1e-9)));
             }
         }
-        if (e.tableauWords() > 0 || e.tableauBatchWords() > 0) {
+        double words = e.tableauWords() + e.tableauMeasureWords() + e.tableauBatchWords();
+        if (words > 0) {
             double t = e.tableauWords() * cal.tableauWordNanos()
+                    + e.tableauMeasureWords() * cal.tableauMeasureNanos()
                     + e.tableauBatchWords() * cal.tableauBatchNanos();
             total += t;
-            lines.add(String.format(Locale.ROOT, "%s tableau words: %s",
-                    amount(e.tableauWords() + e.tableauBatchWords()),
+            lines.add(String.format(Locale.ROOT, "%s tableau words: %s", amount(words),
                     RunCost.secondsText(t * 1e-9)));
         }
         if (e.shots() > 0) {
-            double t = e.shots() * cal.shotNanos();
+            double t = e.shots() * cal.shotNanos() + e.shotBits() * cal.shotBitNanos();
             total += t;
             lines.add(String.format(Locale.ROOT, "%s shots drawn and tallied: %s",
                     amount(e.shots()), RunCost.secondsText(t * 1e-9)));

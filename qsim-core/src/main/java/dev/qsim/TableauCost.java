@@ -9,8 +9,8 @@ import dev.qsim.stabilizer.StabilizerTableau;
 /**
  * Counts the stabilizer tableau's work in 64-bit words, following its steps: a gate on k qubits
  * rewrites the x and z columns of its qubits, {@code 4k·⌈n/64⌉} words; a measurement or reset
- * runs over every column, {@code 4n·⌈n/64⌉} words (Aaronson and Gottesman 2004, Phys. Rev. A
- * 70, 052328, section III: O(n) per gate, O(n²) per measurement). A circuit without conditions
+ * is counted as {@code n·⌈n/64⌉} words, priced at its own measured rate (Aaronson and
+ * Gottesman 2004, Phys. Rev. A 70, 052328, section III: O(n) per gate, O(n²) per measurement). A circuit without conditions
  * is simulated once and its shots replayed in batches of 64, each measurement costing one
  * half-column per batch; any other circuit is simulated shot by shot from a copy of its prefix.
  */
@@ -18,16 +18,19 @@ final class TableauCost {
     private TableauCost() {
     }
 
-    /** Words of one run (all shots for a shot-by-shot circuit of one shot) and of one batch. */
+    /**
+     * Words of one run of the circuit: {gate words, measurement words}, and the words of one
+     * replayed 64-shot batch.
+     */
     static double[] words(Circuit c) {
         int n = c.qubits();
         double half = (n + 63) >>> 6;
         double[] w = new double[3];
         count(c.instructions(), n, half, w);
-        return new double[] {w[0], w[1] * half};
+        return new double[] {w[0], w[1] * n * half, w[1] * half};
     }
 
-    /** Adds to w[0] the words, to w[1] the measurements and resets. */
+    /** Adds to w[0] the gate words, to w[1] the measurements and resets. */
     private static void count(List<Instruction> list, int n, double half, double[] w) {
         for (Instruction in : list) {
             switch (in.kind()) {
@@ -36,7 +39,6 @@ final class TableauCost {
                     break;
                 case MEASURE:
                 case RESET:
-                    w[0] += 4 * n * half;
                     w[1]++;
                     break;
                 case IF_BIT:
@@ -58,20 +60,21 @@ final class TableauCost {
 
     static EngineWork work(Circuit c, int shots) {
         int n = c.qubits();
+        double half = (n + 63) >>> 6;
         double[] words = words(c);
         EngineWork e = new EngineWork();
         long table = HeapLayout.arrayBytes(StabilizerTableau.bytes(n));
         if (c.measuresAtEnd() || !hasControl(c.instructions())) {
-            e.tableau(words[0], Math.ceil(shots / 64.0) * words[1]);
+            e.tableau(words[0], words[1], Math.ceil(shots / 64.0) * words[2]);
             e.hold(table, "the tableau");
-            e.hold((long) (words[1] / Math.max(1, (n + 63) >>> 6)) * 6
-                    * HeapLayout.arrayBytes(8L * ((n + 63) >>> 6)), "the replay of the signs");
+            e.hold((long) (words[2] / half) * 6 * HeapLayout.arrayBytes(8L * (long) half),
+                    "the replay of the signs");
         } else {
-            double copy = 4.0 * n * ((n + 63) >>> 6);
-            e.tableau((double) shots * (words[0] + copy), 0);
+            double copy = 4.0 * n * half;
+            e.tableau(shots * (words[0] + copy), shots * words[1], 0);
             e.hold(2 * table, "the tableau and a copy for each shot");
         }
-        e.draw(shots);
+        e.draw(shots, c.clbits());
         return e;
     }
 

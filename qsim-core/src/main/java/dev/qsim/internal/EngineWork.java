@@ -44,7 +44,9 @@ public final class EngineWork {
     private final List<String> held = new ArrayList<>();
     private long bytes;
     private double shots;
+    private double shotBits;
     private double tableauWords;
+    private double tableauMeasureWords;
     private double tableauBatchWords;
 
     /**
@@ -75,22 +77,26 @@ public final class EngineWork {
      * Adds shots drawn from a final distribution and tallied.
      *
      * @param s the shots
+     * @param width the classical bits of each
      * @return this
      */
-    public EngineWork draw(double s) {
+    public EngineWork draw(double s, int width) {
         shots += s;
+        shotBits += s * width;
         return this;
     }
 
     /**
      * Adds stabilizer tableau work.
      *
-     * @param words words of gate and measurement work
+     * @param words words of gate work
+     * @param measureWords words of measurement work
      * @param batchWords words of replayed 64-shot batches
      * @return this
      */
-    public EngineWork tableau(double words, double batchWords) {
+    public EngineWork tableau(double words, double measureWords, double batchWords) {
         tableauWords += words;
+        tableauMeasureWords += measureWords;
         tableauBatchWords += batchWords;
         return this;
     }
@@ -115,9 +121,19 @@ public final class EngineWork {
         return shots;
     }
 
-    /** @return the tableau's words of gate and measurement work */
+    /** @return the classical bits of all shots tallied */
+    public double shotBits() {
+        return shotBits;
+    }
+
+    /** @return the tableau's words of gate work */
     public double tableauWords() {
         return tableauWords;
+    }
+
+    /** @return the tableau's words of measurement work */
+    public double tableauMeasureWords() {
+        return tableauMeasureWords;
     }
 
     /** @return the tableau's words of replayed batches */

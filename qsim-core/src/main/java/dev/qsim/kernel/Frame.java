@@ -447,14 +447,8 @@ public final class Frame {
      */
     private static void applyPhases(Amplitudes a, double[] p, int threads) {
         final int n = a.n;
-        int top = -1;
-        for (int q = 0; q < n; q++) {
-            if (phased(a, q)) {
-                top = q;
-            }
-        }
-        final int rl = Math.min(a.chunkLog, Math.max(Math.min(ROW_LOG, n), Math.min(top + 1,
-                MAX_ROW_LOG)));
+        int top = topPhased(a);
+        final int rl = phaseTableLog(a);
         final double[] table = tableOf(p, rl);
         final boolean rowPhases = top >= rl;
         boolean lowPhased = false;
@@ -501,6 +495,26 @@ public final class Frame {
                         }
                     }
                 });
+    }
+
+    private static int topPhased(Amplitudes a) {
+        int top = -1;
+        for (int q = 0; q < a.n; q++) {
+            if (phased(a, q)) {
+                top = q;
+            }
+        }
+        return top;
+    }
+
+    /**
+     * Log2 of the entries of the phase table that settling builds: the low qubits up to the
+     * highest phased one, within 2^16 entries; each piece of the pass builds its own copy too
+     * when phased qubits lie above the table as well as in it.
+     */
+    static int phaseTableLog(Amplitudes a) {
+        return Math.min(a.chunkLog, Math.max(Math.min(ROW_LOG, a.n), Math.min(topPhased(a) + 1,
+                MAX_ROW_LOG)));
     }
 
     /** The product of the frame phases of qubits 0 to count-1 for each of their combinations. */

@@ -58,6 +58,7 @@ public final class Workload {
     private final double[] cached = new double[KINDS];
     private final double[] passes = new double[KINDS];
     private double weight = 1;
+    private int phaseTableLog = -1;
 
     private Workload(int qubits, boolean single) {
         this.qubits = qubits;
@@ -196,6 +197,7 @@ public final class Workload {
             cached[k] += other.cached[k] * times;
             passes[k] += other.passes[k] * times;
         }
+        phaseTableLog = Math.max(phaseTableLog, other.phaseTableLog);
         return this;
     }
 
@@ -255,6 +257,16 @@ public final class Workload {
     }
 
     /**
+     * Returns log2 of the entries of the largest phase table a frame settling builds (one
+     * table, and one more per thread's piece when phases sit above it too), or -1 if none.
+     *
+     * @return the log, or -1
+     */
+    public int phaseTableLog() {
+        return phaseTableLog;
+    }
+
+    /**
      * Returns every pass over memory, of every kind.
      *
      * @return the total pass count
@@ -302,6 +314,7 @@ public final class Workload {
         @Override
         public void phases(double[] p) {
             add(PHASES, weight);
+            phaseTableLog = Math.max(phaseTableLog, Frame.phaseTableLog(phantom));
         }
     };
 }

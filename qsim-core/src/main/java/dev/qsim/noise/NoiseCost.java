@@ -54,7 +54,7 @@ final class NoiseCost {
         e.hold(HeapLayout.stateBytes(2 * n, false), "the density matrix");
         e.hold(HeapLayout.arrayBytes(8L << n), "its diagonal");
         e.hold(HeapLayout.arrayBytes(8L << circuit.clbits()), "the register distribution");
-        e.draw(shots);
+        e.draw(shots, circuit.clbits());
         return e;
     }
 
@@ -76,7 +76,7 @@ final class NoiseCost {
                 workers));
         e.hold(workers * HeapLayout.stateBytes(n, false), workers + " trajectory state(s)");
         e.hold(HeapLayout.arrayBytes(8L * shots), "the outcome of each trajectory");
-        e.draw(shots);
+        e.draw(shots, circuit.clbits());
         return e;
     }
 
