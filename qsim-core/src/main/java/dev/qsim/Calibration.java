@@ -67,15 +67,15 @@ public final class Calibration {
 
     static final int[] FULL_SIZES = {12, 16, 20, 23};
     static final int[] QUICK_SIZES = {12, 20};
-    private static final long FULL_NANOS = 60_000_000L;
+    private static final long FULL_NANOS = 150_000_000L;
     private static final long QUICK_NANOS = 6_000_000L;
     private static final long MAX_FILE_BYTES = 64 * 1024;
     private static final String[] KEYS = {"dense1", "dense1-controlled", "dense2", "dense3",
         "dense4", "diagonal", "permutation", "block-group", "window-group", "float1", "phases",
         "copy", "measure", "sample", "reduce"};
 
-    private static final String[] OTHER_KEYS = {"shot", "shot.bit", "tableau.word",
-        "tableau.measure", "tableau.batch"};
+    private static final String[] OTHER_KEYS = {"shot", "shot.bit", "tableau.gate",
+        "tableau.gate.word", "tableau.measure", "tableau.measure.word", "tableau.batch.word"};
 
     private static Calibration probe;
 
@@ -88,9 +88,7 @@ public final class Calibration {
     private final double[][][] rates;
     private final double shotNanos;
     private final double shotBitNanos;
-    private final double tableauWordNanos;
-    private final double tableauMeasureNanos;
-    private final double tableauBatchNanos;
+    private final double[] tableau;
     private final String note;
 
     private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
@@ -103,9 +101,7 @@ public final class Calibration {
         this.rates = rates;
         this.shotNanos = other[0];
         this.shotBitNanos = other[1];
-        this.tableauWordNanos = other[2];
-        this.tableauMeasureNanos = other[3];
-        this.tableauBatchNanos = other[4];
+        this.tableau = Arrays.copyOfRange(other, 2, 7);
         this.note = note;
     }
 
@@ -139,6 +135,9 @@ public final class Calibration {
     private static Calibration run(Source source, int[] sizes, long nanos,
             Consumer<String> progress) {
         int all = Parallel.defaultThreads();
+        for (int k = 0; k < Workload.KINDS; k++) {
+            KernelTimer.nanosPerUnit(k, sizes[0], 1, 1_000_000L); // compiled before timing
+        }
         double[][][] r = new double[Workload.KINDS][2][sizes.length];
         for (int s = 0; s < sizes.length; s++) {
             for (int t = 0; t < 2; t++) {
@@ -153,13 +152,13 @@ public final class Calibration {
         }
         boolean quick = source == Source.QUICK_PROBE;
         double[] shot = shotNanos(nanos, quick ? 20_000 : 100_000);
-        double[] tab = tableauNanos(nanos, shot, quick ? 192 : 512);
+        double[] tab = tableauNanos(nanos, shot, quick);
         progress.accept(String.format(Locale.ROOT, "tallying %.0f ns per shot and %.1f per bit;"
-                + " tableau %.2f ns per gate word, %.2f per measurement word", shot[0], shot[1],
-                tab[0], tab[1]));
+                + " tableau %.0f ns per gate and %.2f per word, %.0f ns per measurement and"
+                + " %.2f per word", shot[0], shot[1], tab[0], tab[1], tab[2], tab[3]));
         return new Calibration(source, Instant.now().truncatedTo(ChronoUnit.SECONDS),
                 KernelTimer.path(), all, sizes.clone(), r, new double[] {shot[0], shot[1], tab[0],
-                    tab[1], tab[2]}, "");
+                    tab[1], tab[2], tab[3], tab[4]}, "");
     }
 
     /**
@@ -181,39 +180,63 @@ public final class Calibration {
     }
 
     /**
-     * Tableau rates: nanoseconds per gate word, per measurement word and per word of a
-     * replayed 64-shot batch, from one circuit measured on one qubit and on all of them.
+     * Tableau rates: nanoseconds per gate and per gate word, per measurement and per
+     * measurement word, and per word of a replayed 64-shot batch; from circuits of two sizes,
+     * each measured on one qubit and on all of them (a straight line through two points).
      */
-    private static double[] tableauNanos(long nanos, double[] shot, int n) {
-        UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(17L);
-        Circuit.Builder one = Circuit.builder(n);
-        Circuit.Builder all = Circuit.builder(n);
-        for (int g = 0; g < 6 * n; g++) {
-            int q = rng.nextInt(n);
-            int p = (q + 1 + rng.nextInt(n - 1)) % n;
-            for (Circuit.Builder b : List.of(one, all)) {
-                if (g % 3 == 0) {
-                    b.h(q);
-                } else if (g % 3 == 1) {
-                    b.s(q);
-                } else {
-                    b.cnot(q, p);
+    private static double[] tableauNanos(long nanos, double[] shot, boolean quick) {
+        int[] sizes = quick ? new int[] {64, 256} : new int[] {64, 512};
+        double[][] perMeasure = new double[2][2];
+        double[][] gatePart = new double[2][3];
+        double batch = 0;
+        for (int i = 0; i < 2; i++) {
+            int n = sizes[i];
+            UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(17L);
+            Circuit.Builder one = Circuit.builder(n);
+            Circuit.Builder all = Circuit.builder(n);
+            for (int g = 0; g < 3000; g++) {
+                int q = rng.nextInt(n);
+                int p = (q + 1 + rng.nextInt(n - 1)) % n;
+                for (Circuit.Builder b : List.of(one, all)) {
+                    if (g % 3 == 0) {
+                        b.h(q);
+                    } else if (g % 3 == 1) {
+                        b.s(q);
+                    } else {
+                        b.cnot(q, p);
+                    }
                 }
             }
+            Circuit a = one.measure(0, 0).build();
+            Circuit b = all.measure().build();
+            double ta = best(() -> Bridge.tableaus().run(a, 1, 3), nanos);
+            double tb = best(() -> Bridge.tableaus().run(b, 1, 3), nanos);
+            double[] wa = TableauCost.words(a);
+            double[] wb = TableauCost.words(b);
+            perMeasure[i][0] = (double) n * ((n + 63) >>> 6);
+            perMeasure[i][1] = Math.max(0, tb - ta) / (n - 1);
+            gatePart[i][0] = 3000;
+            gatePart[i][1] = wa[0];
+            gatePart[i][2] = ta;
+            if (i == 1) {
+                int shots = 6400;
+                double tc = best(() -> Bridge.tableaus().run(b, shots, 3), nanos);
+                double tally = shots * (shot[0] + shot[1] * n);
+                batch = Math.max(0, tc - tb - tally) / ((shots / 64 - 1) * Math.max(1, wb[2]));
+            }
         }
-        Circuit a = one.measure(0, 0).build();
-        Circuit b = all.measure().build();
-        double ta = best(() -> Bridge.tableaus().run(a, 1, 3), nanos);
-        double tb = best(() -> Bridge.tableaus().run(b, 1, 3), nanos);
-        int shots = 6400;
-        double tc = best(() -> Bridge.tableaus().run(b, shots, 3), nanos);
-        double[] wa = TableauCost.words(a);
-        double[] wb = TableauCost.words(b);
-        double measure = Math.max(0, tb - ta) / Math.max(1, wb[1] - wa[1]);
-        double word = Math.max(0, ta - measure * wa[1]) / Math.max(1, wa[0]);
-        double tally = shots * (shot[0] + shot[1] * n);
-        double batch = Math.max(0, tc - tb - tally) / ((shots / 64 - 1) * Math.max(1, wb[2]));
-        return new double[] {Math.max(word, 1e-3), Math.max(measure, 1e-3), batch};
+        // measurement: t = m0 + m1 * words, through the two sizes
+        double m1 = Math.max(0, (perMeasure[1][1] - perMeasure[0][1])
+                / (perMeasure[1][0] - perMeasure[0][0]));
+        double m0 = Math.max(0, perMeasure[0][1] - m1 * perMeasure[0][0]);
+        // gates: t = G g0 + W g1 (after one measurement), through the two sizes
+        double[] rest = new double[2];
+        for (int i = 0; i < 2; i++) {
+            rest[i] = Math.max(0, gatePart[i][2] - (m0 + m1 * perMeasure[i][0]));
+        }
+        double g1 = Math.max(0, (rest[1] - rest[0]) / (gatePart[1][1] - gatePart[0][1]));
+        double g0 = Math.max(0, (rest[0] - g1 * gatePart[0][1]) / gatePart[0][0]);
+        return new double[] {g0, g1, m0, m1, batch};
     }
 
     private static double best(Runnable r, long nanos) {
@@ -514,8 +537,8 @@ public final class Calibration {
     }
 
     private double[] others() {
-        return new double[] {shotNanos, shotBitNanos, tableauWordNanos, tableauMeasureNanos,
-            tableauBatchNanos};
+        return new double[] {shotNanos, shotBitNanos, tableau[0], tableau[1], tableau[2],
+            tableau[3], tableau[4]};
     }
 
     /** Nanoseconds per shot drawn and tallied. */
@@ -528,19 +551,12 @@ public final class Calibration {
         return shotBitNanos;
     }
 
-    /** Nanoseconds per word of tableau gate work. */
-    double tableauWordNanos() {
-        return tableauWordNanos;
-    }
-
-    /** Nanoseconds per word of tableau measurement work. */
-    double tableauMeasureNanos() {
-        return tableauMeasureNanos;
-    }
-
-    /** Nanoseconds per word of a replayed 64-shot batch. */
-    double tableauBatchNanos() {
-        return tableauBatchNanos;
+    /**
+     * Tableau rates, nanoseconds: per gate, per gate word, per measurement, per measurement
+     * word, per word of a replayed batch.
+     */
+    double[] tableauRates() {
+        return tableau.clone();
     }
 
     /**

@@ -173,9 +173,10 @@ final class CostModel {
         }
         double words = e.tableauWords() + e.tableauMeasureWords() + e.tableauBatchWords();
         if (words > 0) {
-            double t = e.tableauWords() * cal.tableauWordNanos()
-                    + e.tableauMeasureWords() * cal.tableauMeasureNanos()
-                    + e.tableauBatchWords() * cal.tableauBatchNanos();
+            double[] r = cal.tableauRates();
+            double t = e.tableauGates() * r[0] + e.tableauWords() * r[1]
+                    + e.tableauMeasurements() * r[2] + e.tableauMeasureWords() * r[3]
+                    + e.tableauBatchWords() * r[4];
             total += t;
             lines.add(String.format(Locale.ROOT, "%s tableau words: %s", amount(words),
                     RunCost.secondsText(t * 1e-9)));

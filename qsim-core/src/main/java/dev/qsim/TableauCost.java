@@ -19,23 +19,24 @@ final class TableauCost {
     }
 
     /**
-     * Words of one run of the circuit: {gate words, measurement words}, and the words of one
-     * replayed 64-shot batch.
+     * Words of one run of the circuit: {gate words, measurement words, words of one replayed
+     * 64-shot batch, gates, measurements and resets}.
      */
     static double[] words(Circuit c) {
         int n = c.qubits();
         double half = (n + 63) >>> 6;
         double[] w = new double[3];
         count(c.instructions(), n, half, w);
-        return new double[] {w[0], w[1] * n * half, w[1] * half};
+        return new double[] {w[0], w[1] * n * half, w[1] * half, w[2], w[1]};
     }
 
-    /** Adds to w[0] the gate words, to w[1] the measurements and resets. */
+    /** Adds to w[0] the gate words, to w[1] the measurements and resets, to w[2] the gates. */
     private static void count(List<Instruction> list, int n, double half, double[] w) {
         for (Instruction in : list) {
             switch (in.kind()) {
                 case GATE:
                     w[0] += 4 * half * (in.targetsRaw().length + in.controlsRaw().length);
+                    w[2]++;
                     break;
                 case MEASURE:
                 case RESET:
@@ -50,6 +51,7 @@ final class TableauCost {
                     count(in.body(), n, half, body);
                     w[0] += body[0] * in.maxIterations();
                     w[1] += body[1] * in.maxIterations();
+                    w[2] += body[2] * in.maxIterations();
                     break;
                 }
                 default:
@@ -65,13 +67,15 @@ final class TableauCost {
         EngineWork e = new EngineWork();
         long table = HeapLayout.arrayBytes(StabilizerTableau.bytes(n));
         if (c.measuresAtEnd() || !hasControl(c.instructions())) {
-            e.tableau(words[0], words[1], Math.ceil(shots / 64.0) * words[2]);
+            e.tableau(words[3], words[0], words[4], words[1], Math.ceil(shots / 64.0)
+                    * words[2]);
             e.hold(table, "the tableau");
             e.hold((long) (words[2] / half) * 6 * HeapLayout.arrayBytes(8L * (long) half),
                     "the replay of the signs");
         } else {
             double copy = 4.0 * n * half;
-            e.tableau(shots * (words[0] + copy), shots * words[1], 0);
+            e.tableau(shots * words[3], shots * (words[0] + copy), shots * words[4],
+                    shots * words[1], 0);
             e.hold(2 * table, "the tableau and a copy for each shot");
         }
         e.draw(shots, c.clbits());

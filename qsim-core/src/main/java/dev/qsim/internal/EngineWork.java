@@ -45,7 +45,9 @@ public final class EngineWork {
     private long bytes;
     private double shots;
     private double shotBits;
+    private double tableauGates;
     private double tableauWords;
+    private double tableauMeasurements;
     private double tableauMeasureWords;
     private double tableauBatchWords;
 
@@ -89,12 +91,17 @@ public final class EngineWork {
     /**
      * Adds stabilizer tableau work.
      *
+     * @param gates gates applied
      * @param words words of gate work
+     * @param measurements measurements and resets
      * @param measureWords words of measurement work
      * @param batchWords words of replayed 64-shot batches
      * @return this
      */
-    public EngineWork tableau(double words, double measureWords, double batchWords) {
+    public EngineWork tableau(double gates, double words, double measurements,
+            double measureWords, double batchWords) {
+        tableauGates += gates;
+        tableauMeasurements += measurements;
         tableauWords += words;
         tableauMeasureWords += measureWords;
         tableauBatchWords += batchWords;
@@ -124,6 +131,16 @@ public final class EngineWork {
     /** @return the classical bits of all shots tallied */
     public double shotBits() {
         return shotBits;
+    }
+
+    /** @return the tableau's gates */
+    public double tableauGates() {
+        return tableauGates;
+    }
+
+    /** @return the tableau's measurements and resets */
+    public double tableauMeasurements() {
+        return tableauMeasurements;
     }
 
     /** @return the tableau's words of gate work */
