@@ -53,12 +53,19 @@ public final class KernelTimer {
         Amplitudes a = filled(n, single);
         Amplitudes other = kind == Workload.COPY ? filled(n, false) : null;
         double units = 1;
-        int[] rotate = {1, n / 2, n - 2};
+        // Targets spread over the whole register, low ones included: a kernel's speed depends
+        // on its target's position, and circuits use them all.
+        int spread = Math.min(n - 1, 8);
+        int[] rotate = new int[spread];
+        for (int r = 0; r < spread; r++) {
+            rotate[r] = r == 0 ? 0 : 1 + (int) ((long) (r - 1) * (n - 3) / Math.max(1, spread - 2));
+        }
         Runnable[] step = new Runnable[rotate.length];
         for (int r = 0; r < rotate.length; r++) {
-            int q = rotate[r];
-            int q2 = q == n - 2 ? n - 1 : q + 1;
-            int q3 = q == 1 ? n - 1 : q - 1;
+            int q = Math.min(rotate[r], n - 2);
+            int[] four = distinct(n, q);
+            int q2 = four[1];
+            int q3 = four[2];
             switch (kind) {
                 case Workload.DENSE1:
                     step[r] = planned(a, dense(new int[] {q}, NONE), threads);
@@ -74,7 +81,7 @@ public final class KernelTimer {
                     step[r] = planned(a, dense(new int[] {q3, q, q2}, NONE), threads);
                     break;
                 case Workload.DENSE4:
-                    step[r] = planned(a, dense(new int[] {0, q3, q, q2}, NONE), threads);
+                    step[r] = planned(a, dense(four, NONE), threads);
                     break;
                 case Workload.DIAGONAL:
                     step[r] = planned(a, new GateOp(GateOp.DIAGONAL, new int[] {q, q2}, NONE,
@@ -158,32 +165,51 @@ public final class KernelTimer {
                             + Workload.KINDS + ")");
             }
         }
-        return median(step, minNanos) / (units * Math.scalb(1.0, n));
+        return median(step, minNanos) / (units * Math.scalb(1.0, n) * step.length);
     }
 
     /**
-     * The lower quartile of the nanoseconds of one step, after a warm-up, timed for at least
-     * minNanos: robust against other work on the machine stealing a step's processor.
+     * The median nanoseconds of one round of the steps (the kind on each of the spread
+     * targets), after a warm-up, timed for at least minNanos: what a run sees, other work on
+     * the machine included.
      */
     private static double median(Runnable[] step, long minNanos) {
         boolean quick = minNanos < 10_000_000L;
+        Runnable all = () -> {
+            for (Runnable r : step) {
+                r.run();
+            }
+        };
         long warm = System.nanoTime();
         int w = 0;
-        while (w < (quick ? 2 : 3) || (System.nanoTime() - warm < minNanos / 4 && w < 30)) {
-            step[w % step.length].run();
+        while (w < (quick ? 1 : 2) || (System.nanoTime() - warm < minNanos / 4 && w < 10)) {
+            all.run();
             w++;
         }
-        double[] times = new double[64];
+        double[] times = new double[32];
         int count = 0;
         long start = System.nanoTime();
-        while (count < times.length && (count < (quick ? 3 : 8) || System.nanoTime() - start < minNanos)) {
-            Runnable s = step[count % step.length];
+        while (count < times.length && (count < (quick ? 3 : 5)
+                || System.nanoTime() - start < minNanos)) {
             long t0 = System.nanoTime();
-            s.run();
+            all.run();
             times[count++] = System.nanoTime() - t0;
         }
         Arrays.sort(times, 0, count);
-        return times[count / 4];
+        return times[count / 2];
+    }
+
+    /** Four distinct qubits: q, q + 1, then the highest ones not taken. */
+    private static int[] distinct(int n, int q) {
+        int[] out = {q, q + 1, -1, -1};
+        int next = n - 1;
+        for (int i = 2; i < 4; i++) {
+            while (next == q || next == q + 1 || next == out[2]) {
+                next--;
+            }
+            out[i] = next--;
+        }
+        return out;
     }
 
     private static Runnable planned(Amplitudes a, GateOp op, int threads) {

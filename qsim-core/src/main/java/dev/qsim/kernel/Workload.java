@@ -159,16 +159,19 @@ public final class Workload {
     }
 
     /**
-     * Counts a dense gate applied directly by the dense kernels (the density matrix does so).
+     * Counts passes of a dense gate applied directly by the dense kernels (the density matrix
+     * does so).
      *
      * @param targets the target count
      * @param controls the control count
-     * @param w the weight (expected count)
+     * @param w how many passes (an expected count may be fractional)
      * @return this count
      */
     public Workload dense(int targets, int controls, double w) {
         GateOp op = new GateOp(GateOp.DENSE, new int[targets], new int[controls], null, null);
-        add(kindOf(op), units(op) * w);
+        int kind = kindOf(op);
+        streamed[kind] += units(op) * w;
+        passes[kind] += w;
         return this;
     }
 
