@@ -10,7 +10,8 @@ import dev.qsim.stabilizer.StabilizerTableau;
  * Counts the stabilizer tableau's work in 64-bit words, following its steps: a gate on k qubits
  * rewrites the x and z columns of its qubits, {@code 4k·⌈n/64⌉} words; a measurement or reset
  * is counted as {@code n·⌈n/64⌉} words, priced at its own measured rate (Aaronson and
- * Gottesman 2004, Phys. Rev. A 70, 052328, section III: O(n) per gate, O(n²) per measurement). A circuit without conditions
+ * Gottesman 2004, Phys. Rev. A 70, 052328, section III: O(n) per gate, O(n²) per
+ * measurement). A circuit without conditions
  * is simulated once and its shots replayed in batches of 64, each measurement costing one
  * half-column per batch; any other circuit is simulated shot by shot from a copy of its prefix.
  */

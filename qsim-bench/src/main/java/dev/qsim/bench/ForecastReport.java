@@ -112,12 +112,13 @@ public final class ForecastReport {
         Files.writeString(csv, csv(rows), StandardCharsets.UTF_8);
         Files.writeString(svg, svg(rows, cal.describe()), StandardCharsets.UTF_8);
         System.out.println(summary(rows));
+        System.out.println(planTime(cal, threads));
     }
 
     private static void warmUp(int threads) {
         dev.qsim.Simulator sim = dev.qsim.Simulator.seeded(1).withThreads(threads);
         for (ForecastSet.Case c : ForecastSet.cases(18, threads)) {
-            if (c.circuit().qubits() <= 18) {
+            if (c.circuit().qubits() >= 16 && c.circuit().qubits() <= 18) {
                 sim = c.simulator();
                 sim.run(c.circuit(), Math.min(c.shots(), 20));
             }
@@ -181,6 +182,37 @@ public final class ForecastReport {
             }
         }
         return out;
+    }
+
+    /**
+     * The forecast time of a 10^4-gate circuit on 24 qubits (rotation layers with CZ bricks),
+     * median of five after one call that loads the classes.
+     */
+    static String planTime(Calibration cal, int threads) {
+        org.apache.commons.rng.UniformRandomProvider rng =
+                org.apache.commons.rng.simple.RandomSource.XO_RO_SHI_RO_128_PP.create(3L);
+        dev.qsim.Circuit.Builder b = dev.qsim.Circuit.builder(24);
+        int gates = 0;
+        while (gates < 10_000) {
+            for (int q = 0; q < 24 && gates < 10_000; q++, gates++) {
+                b.ry(q, 0.1 + rng.nextDouble());
+            }
+            for (int q = 0; q + 1 < 24 && gates < 10_000; q += 2, gates++) {
+                b.cz(q, q + 1);
+            }
+        }
+        dev.qsim.Circuit c = b.measure().build();
+        dev.qsim.Simulator sim = dev.qsim.Simulator.seeded(1).withThreads(threads);
+        sim.forecast(c, 1000, cal);
+        double[] t = new double[5];
+        for (int i = 0; i < t.length; i++) {
+            long t0 = System.nanoTime();
+            sim.forecast(c, 1000, cal);
+            t[i] = (System.nanoTime() - t0) * 1e-6;
+        }
+        Arrays.sort(t);
+        return String.format(Locale.ROOT, "plan-only: %.1f ms to forecast a %d-gate circuit on 24"
+                + " qubits (median of 5; with its cheaper settings)", t[2], c.size() - 24);
     }
 
     static String csv(List<Row> rows) {

@@ -55,7 +55,7 @@ public final class KernelTimer {
         double units = 1;
         // Targets spread over the whole register, low ones included: a kernel's speed depends
         // on its target's position, and circuits use them all.
-        int spread = Math.min(n - 1, 8);
+        int spread = Math.min(n - 1, n >= 20 ? 4 : 8);
         int[] rotate = new int[spread];
         for (int r = 0; r < spread; r++) {
             rotate[r] = r == 0 ? 0 : 1 + (int) ((long) (r - 1) * (n - 3) / Math.max(1, spread - 2));
@@ -174,7 +174,6 @@ public final class KernelTimer {
      * the machine included.
      */
     private static double median(Runnable[] step, long minNanos) {
-        boolean quick = minNanos < 10_000_000L;
         Runnable all = () -> {
             for (Runnable r : step) {
                 r.run();
@@ -182,14 +181,14 @@ public final class KernelTimer {
         };
         long warm = System.nanoTime();
         int w = 0;
-        while (w < (quick ? 1 : 2) || (System.nanoTime() - warm < minNanos / 4 && w < 10)) {
+        while (w < 1 || (System.nanoTime() - warm < minNanos / 4 && w < 10)) {
             all.run();
             w++;
         }
         double[] times = new double[32];
         int count = 0;
         long start = System.nanoTime();
-        while (count < times.length && (count < (quick ? 3 : 5)
+        while (count < times.length && (count < 3
                 || System.nanoTime() - start < minNanos)) {
             long t0 = System.nanoTime();
             all.run();
