@@ -45,6 +45,9 @@ final class AmplitudeCost {
             List<Instruction> gates = circuit.withoutMeasurements().instructions();
             Workload w = Workload.of(n, single);
             w.gates(fuse ? Fusion.shapes(gates) : plans(gates));
+            if (fuse) {
+                w.fusion(gates.size());
+            }
             boolean measured = false;
             for (int q : circuit.clbitSources()) {
                 measured |= q >= 0;
@@ -69,6 +72,9 @@ final class AmplitudeCost {
         Workload prefix = Workload.of(n, single);
         List<Instruction> head = list.subList(0, first);
         prefix.gates(fuse ? Fusion.shapes(head) : plans(head));
+        if (fuse) {
+            prefix.fusion(head.size());
+        }
         prefix.pass(Workload.COPY, 1);
         Workload shot = Workload.of(n, single);
         shot.pass(Workload.COPY, 1);
@@ -113,6 +119,9 @@ final class AmplitudeCost {
                 }
                 List<Instruction> run = list.subList(i, j);
                 w.gates(fuse ? Fusion.shapes(run) : plans(run));
+                if (fuse) {
+                    w.fusion(run.size());
+                }
                 i = j;
                 continue;
             }

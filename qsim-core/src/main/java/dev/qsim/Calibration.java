@@ -75,7 +75,8 @@ public final class Calibration {
         "copy", "measure", "sample", "reduce"};
 
     private static final String[] OTHER_KEYS = {"shot", "shot.bit", "tableau.gate",
-        "tableau.gate.word", "tableau.measure", "tableau.measure.word", "tableau.batch.word"};
+        "tableau.gate.word", "tableau.measure", "tableau.measure.word", "tableau.batch.word",
+        "plan.gate", "fuse.gate"};
 
     private static Calibration probe;
 
@@ -89,6 +90,8 @@ public final class Calibration {
     private final double shotNanos;
     private final double shotBitNanos;
     private final double[] tableau;
+    private final double planNanos;
+    private final double fuseNanos;
     private final String note;
 
     private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
@@ -102,6 +105,8 @@ public final class Calibration {
         this.shotNanos = other[0];
         this.shotBitNanos = other[1];
         this.tableau = Arrays.copyOfRange(other, 2, 7);
+        this.planNanos = other[7];
+        this.fuseNanos = other[8];
         this.note = note;
     }
 
@@ -153,12 +158,13 @@ public final class Calibration {
         boolean quick = source == Source.QUICK_PROBE;
         double[] shot = shotNanos(nanos, quick ? 20_000 : 100_000);
         double[] tab = tableauNanos(nanos, shot, quick);
+        double[] plan = planNanos(nanos);
         progress.accept(String.format(Locale.ROOT, "tallying %.0f ns per shot and %.1f per bit;"
                 + " tableau %.0f ns per gate and %.2f per word, %.0f ns per measurement and"
                 + " %.2f per word", shot[0], shot[1], tab[0], tab[1], tab[2], tab[3]));
         return new Calibration(source, Instant.now().truncatedTo(ChronoUnit.SECONDS),
                 KernelTimer.path(), all, sizes.clone(), r, new double[] {shot[0], shot[1], tab[0],
-                    tab[1], tab[2], tab[3], tab[4]}, "");
+                    tab[1], tab[2], tab[3], tab[4], plan[0], plan[1]}, "");
     }
 
     /**
@@ -237,6 +243,35 @@ public final class Calibration {
         double g1 = Math.max(0, (rest[1] - rest[0]) / (gatePart[1][1] - gatePart[0][1]));
         double g0 = Math.max(0, (rest[0] - g1 * gatePart[0][1]) / gatePart[0][0]);
         return new double[] {g0, g1, m0, m1, batch};
+    }
+
+    /**
+     * Nanoseconds to plan one gate, and to fuse one gate, on a random 16-qubit circuit of
+     * rotation layers with CZ and CNOT gates (the planning is timed on a storage without
+     * amplitudes, so no pass is included).
+     */
+    private static double[] planNanos(long nanos) {
+        UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(29L);
+        int n = 16;
+        Circuit.Builder b = Circuit.builder(n);
+        for (int layer = 0; layer < 40; layer++) {
+            for (int q = 0; q < n; q++) {
+                b.ry(q, 0.1 + rng.nextDouble());
+                b.rz(q, 0.1 + rng.nextDouble());
+            }
+            for (int q = layer % 2; q + 1 < n; q += 2) {
+                b.cz(q, q + 1);
+            }
+            b.cnot(rng.nextInt(n / 2), n / 2 + rng.nextInt(n / 2));
+        }
+        List<Instruction> gates = b.build().instructions();
+        List<dev.qsim.kernel.GateOp> plans = new java.util.ArrayList<>();
+        for (Instruction g : gates) {
+            plans.add(g.plan());
+        }
+        double plan = best(() -> Workload.of(n, false).gates(plans), nanos) / plans.size();
+        double fuse = best(() -> Fusion.fuse(gates), nanos) / gates.size();
+        return new double[] {plan, fuse};
     }
 
     private static double best(Runnable r, long nanos) {
@@ -369,6 +404,8 @@ public final class Calibration {
         sb.append("# qsim machine rates: nanoseconds per amplitude of each kind of pass\n");
         sb.append("# (columns: the sizes, in qubits), on one thread and on every processor\n");
         sb.append("format = ").append(FORMAT).append('\n');
+        sb.append("source = ").append(source == Source.CALIBRATED ? "calibrated" : "quick-probe")
+                .append('\n');
         sb.append("made = ").append(made).append('\n');
         sb.append("kernels = ").append(kernels).append('\n');
         sb.append("processors = ").append(processors).append('\n');
@@ -450,7 +487,13 @@ public final class Calibration {
         for (int i = 0; i < other.length; i++) {
             other[i] = number(p, OTHER_KEYS[i], 0, 1e9);
         }
-        return new Calibration(Source.CALIBRATED, made, kernels, processors, sizes, r, other, "");
+        String from = p.getProperty("source", "calibrated").trim();
+        if (!from.equals("calibrated") && !from.equals("quick-probe")) {
+            throw new IllegalArgumentException("'source' holds " + dev.qsim.internal.Checks
+                    .excerpt(from) + "; calibrated or quick-probe are allowed");
+        }
+        return new Calibration(from.equals("calibrated") ? Source.CALIBRATED : Source.QUICK_PROBE,
+                made, kernels, processors, sizes, r, other, "");
     }
 
     private static String value(Properties p, String key) {
@@ -538,7 +581,17 @@ public final class Calibration {
 
     private double[] others() {
         return new double[] {shotNanos, shotBitNanos, tableau[0], tableau[1], tableau[2],
-            tableau[3], tableau[4]};
+            tableau[3], tableau[4], planNanos, fuseNanos};
+    }
+
+    /** Nanoseconds to plan one gate (frame, conjugation, kernel layout), beyond its passes. */
+    double planNanos() {
+        return planNanos;
+    }
+
+    /** Nanoseconds per gate read by gate fusion (grouping and multiplying matrices). */
+    double fuseNanos() {
+        return fuseNanos;
     }
 
     /** Nanoseconds per shot drawn and tallied. */

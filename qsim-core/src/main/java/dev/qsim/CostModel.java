@@ -139,6 +139,8 @@ final class CostModel {
         double[] nanos = new double[Workload.KINDS];
         double[] passes = new double[Workload.KINDS];
         double[] inCache = new double[Workload.KINDS];
+        double planning = 0;
+        List<String> lines = new ArrayList<>();
         for (EngineWork.Part p : e.parts()) {
             Workload w = p.work();
             int n = w.qubits();
@@ -158,10 +160,16 @@ final class CostModel {
                 }
                 passes[k] += p.times() * w.passes(k);
             }
+            int busy = Math.max(1, Math.min(p.workers(), cal.processors()));
+            planning += p.times() * (w.planned() * cal.planNanos() + w.fused()
+                    * cal.fuseNanos()) / busy;
         }
-        double total = 0;
+        if (planning > 0) {
+            lines.add(String.format(Locale.ROOT, "planning and fusing the gates: %s",
+                    RunCost.secondsText(planning * 1e-9)));
+        }
+        double total = planning;
         double totalPasses = 0;
-        List<String> lines = new ArrayList<>();
         for (int k = 0; k < Workload.KINDS; k++) {
             total += nanos[k];
             totalPasses += passes[k];

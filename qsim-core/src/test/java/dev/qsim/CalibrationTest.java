@@ -53,6 +53,11 @@ class CalibrationTest {
         Calibration read = Calibration.read(f);
         assertEquals(probe.text(), read.text(), "same file text after a round trip");
         Calibration now = Calibration.current();
+        assertEquals(Calibration.Source.QUICK_PROBE, now.source(), "a saved probe stays one");
+        assertTrue(now.describe().startsWith("quick probe ("), now.describe());
+        assertTrue(!now.describe().contains("not used"), "the file was used: " + now.describe());
+        Files.writeString(f, probe.text().replace("source = quick-probe", "source = calibrated"));
+        now = Calibration.current();
         assertEquals(Calibration.Source.CALIBRATED, now.source(), now.describe());
         assertTrue(Calibration.saved().isPresent());
         for (int k = 0; k < Workload.KINDS; k++) {
@@ -76,6 +81,7 @@ class CalibrationTest {
             {good.replaceFirst("shot = .*\\n", ""), "'shot' is missing"},
             {good.replaceFirst("sizes = .*", "sizes = 20 12"), "ascending"},
             {good.replaceFirst("made = .*", "made = yesterday"), "yesterday"},
+            {good.replaceFirst("source = .*", "source = guessed"), "guessed"},
             {"x".repeat(70_000), "larger than"},
         };
         for (String[] c : cases) {

@@ -9,7 +9,8 @@ import java.util.Locale;
  * to 8 bytes, and under the G1 collector, for an array of at least half a heap region, whole
  * regions ("humongous" objects). The region size is the one given by
  * {@code -XX:G1HeapRegionSize}, else G1's own choice: the maximum heap over 2048, rounded down
- * to a power of two, between 1 MiB and 32 MiB. Sources: Oracle, "Java Platform, Standard
+ * to a power of two, between 1 MiB and 32 MiB (the JVM's own value is read when it tells it,
+ * through the HotSpot diagnostic bean). Sources: Oracle, "Java Platform, Standard
  * Edition HotSpot Virtual Machine Garbage Collection Tuning Guide", release 17, chapter 9
  * (Garbage-First Garbage Collector), sections on region size and humongous objects; the
  * 16-byte array header of the 64-bit JVM with compressed class pointers is common practice.
@@ -68,6 +69,21 @@ public final class HeapLayout {
         }
         if (!g1) {
             return 0;
+        }
+        try {
+            // The JVM's own value, through the HotSpot diagnostic bean (plain JMX, so that only
+            // java.management is needed).
+            Object data = ManagementFactory.getPlatformMBeanServer().invoke(
+                    new javax.management.ObjectName("com.sun.management:type=HotSpotDiagnostic"),
+                    "getVMOption", new Object[] {"G1HeapRegionSize"},
+                    new String[] {String.class.getName()});
+            Object value = ((javax.management.openmbean.CompositeData) data).get("value");
+            long v = size(String.valueOf(value));
+            if (v > 0) {
+                return v;
+            }
+        } catch (javax.management.JMException | RuntimeException e) {
+            // not a HotSpot JVM: the options and G1's rule below
         }
         for (String arg : ManagementFactory.getRuntimeMXBean().getInputArguments()) {
             if (arg.startsWith("-XX:G1HeapRegionSize=")) {

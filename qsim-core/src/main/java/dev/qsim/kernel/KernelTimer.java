@@ -75,7 +75,7 @@ public final class KernelTimer {
                     units = 0.5;
                     break;
                 case Workload.DENSE2:
-                    step[r] = planned(a, dense(new int[] {q, q2}, NONE), threads);
+                    step[r] = planned(a, dense(new int[] {q, four[2]}, NONE), threads);
                     break;
                 case Workload.DENSE3:
                     step[r] = planned(a, dense(new int[] {q3, q, q2}, NONE), threads);
@@ -84,8 +84,8 @@ public final class KernelTimer {
                     step[r] = planned(a, dense(four, NONE), threads);
                     break;
                 case Workload.DIAGONAL:
-                    step[r] = planned(a, new GateOp(GateOp.DIAGONAL, new int[] {q, q2}, NONE,
-                            phases(4), null), threads);
+                    step[r] = planned(a, new GateOp(GateOp.DIAGONAL, new int[] {q, four[2]},
+                            NONE, phases(4), null), threads);
                     break;
                 case Workload.PERMUTATION:
                     step[r] = planned(a, new GateOp(GateOp.MONOMIAL, new int[] {q},

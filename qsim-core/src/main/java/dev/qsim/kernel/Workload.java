@@ -59,6 +59,8 @@ public final class Workload {
     private final double[] passes = new double[KINDS];
     private double weight = 1;
     private int phaseTableLog = -1;
+    private double planned;
+    private double fused;
 
     private Workload(int qubits, boolean single) {
         this.qubits = qubits;
@@ -108,12 +110,25 @@ public final class Workload {
         }
     }
 
-    /** The work of a gate in its kind's units: wider dense gates count 2^(k-4) four-qubit ones. */
+    /**
+     * The work of a gate in its kind's units: the share of amplitudes where every control is 1;
+     * wider dense gates count 2^(k-4) four-qubit ones; a diagonal gate on several qubits or
+     * with controls skips its entries equal to 1 (so a controlled phase touches a quarter of
+     * the state), as {@code DiagonalKernels} does.
+     */
     private static double units(GateOp op) {
         double f = Math.scalb(1.0, -op.controls.length);
         int k = op.targets.length;
         if (op.shape == GateOp.DENSE && k > 4) {
             f *= Math.scalb(1.0, k - 4);
+        }
+        if (op.shape == GateOp.DIAGONAL && op.data != null && (k > 1 || op.controls.length > 0)) {
+            int d = 1 << k;
+            int moving = 0;
+            for (int j = 0; j < d; j++) {
+                moving += op.data[2 * j] == 1 && op.data[2 * j + 1] == 0 ? 0 : 1;
+            }
+            f *= moving / (double) d;
         }
         return f;
     }
@@ -125,8 +140,38 @@ public final class Workload {
      * @return this count
      */
     public Workload gates(List<GateOp> ops) {
+        planned += ops.size() * weight;
         Frame.schedule(phantom, ops, counter);
         return this;
+    }
+
+    /**
+     * Counts gates put through gate fusion before they are planned.
+     *
+     * @param count the gates fusion reads
+     * @return this count
+     */
+    public Workload fusion(int count) {
+        fused += count;
+        return this;
+    }
+
+    /**
+     * Returns the gates handed to the planner (each costs its planning besides its passes).
+     *
+     * @return the count, possibly fractional for expected counts
+     */
+    public double planned() {
+        return planned;
+    }
+
+    /**
+     * Returns the gates fusion reads.
+     *
+     * @return the count
+     */
+    public double fused() {
+        return fused;
     }
 
     /**
@@ -201,6 +246,8 @@ public final class Workload {
             passes[k] += other.passes[k] * times;
         }
         phaseTableLog = Math.max(phaseTableLog, other.phaseTableLog);
+        planned += other.planned * times;
+        fused += other.fused * times;
         return this;
     }
 
