@@ -156,7 +156,7 @@ public final class Calibration {
                     r[Workload.DENSE1][0][s], r[Workload.DENSE1][1][s], all));
         }
         boolean quick = source == Source.QUICK_PROBE;
-        double[] shot = shotNanos(nanos, quick ? 20_000 : 100_000);
+        double[] shot = shotNanos(nanos, quick ? 20_000 : 400_000);
         double[] tab = tableauNanos(nanos, shot, quick);
         double[] plan = planNanos(nanos);
         progress.accept(String.format(Locale.ROOT, "tallying %.0f ns per shot and %.1f per bit;"
@@ -169,11 +169,11 @@ public final class Calibration {
 
     /**
      * Nanoseconds per shot drawn from a final state and tallied beyond the sampling pass: per
-     * shot, and per classical bit of a shot (from registers of 4 and 16 bits).
+     * shot, and per classical bit of a shot (from registers of 4 and 20 bits).
      */
     private static double[] shotNanos(long nanos, int many) {
         double[] per = new double[2];
-        int[] widths = {4, 16};
+        int[] widths = {4, 20};
         for (int i = 0; i < 2; i++) {
             Circuit c = spread(widths[i]).measure().build();
             Simulator sim = Simulator.seeded(1).withThreads(1).withFusion(false);

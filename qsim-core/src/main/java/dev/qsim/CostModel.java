@@ -137,6 +137,7 @@ final class CostModel {
     private static RunCost price(Counted counted, int threads, Calibration cal) {
         EngineWork e = counted.work;
         double[] nanos = new double[Workload.KINDS];
+        double[] cacheNanos = new double[Workload.KINDS];
         double[] passes = new double[Workload.KINDS];
         double[] inCache = new double[Workload.KINDS];
         double planning = 0;
@@ -154,7 +155,7 @@ final class CostModel {
                 }
                 double cached = w.cached(k);
                 if (cached > 0) {
-                    nanos[k] += p.times() * cached * amps
+                    cacheNanos[k] += p.times() * cached * amps
                             * cal.cached(k, kernelThreads * p.workers());
                     inCache[k] += p.times() * cached;
                 }
@@ -171,17 +172,19 @@ final class CostModel {
         double total = planning;
         double totalPasses = 0;
         for (int k = 0; k < Workload.KINDS; k++) {
-            total += nanos[k];
+            total += nanos[k] + cacheNanos[k];
             totalPasses += passes[k];
-            if (passes[k] > 0 || nanos[k] > 0) {
-                String extra = k == Workload.BLOCK_STREAM || k == Workload.WINDOW_STREAM
-                        ? "" : inCache[k] > 0 ? String.format(Locale.ROOT, " (and %s in cache)",
-                        amount(inCache[k])) : "";
-                lines.add(String.format(Locale.ROOT, "%s %s%s: %s", amount(passes[k]),
-                        Workload.name(k), extra, RunCost.secondsText(nanos[k] * 1e-9)));
-            } else if (inCache[k] > 0) {
-                lines.add(String.format(Locale.ROOT, "%s %s in cache: %s", amount(inCache[k]),
-                        Workload.name(k), RunCost.secondsText(nanos[k] * 1e-9)));
+            if (passes[k] > 0) {
+                lines.add(String.format(Locale.ROOT, "%s %s pass%s: %s", amount(passes[k]),
+                        Workload.name(k), passes[k] == 1 ? "" : "es",
+                        RunCost.secondsText(nanos[k] * 1e-9)));
+            }
+        }
+        for (int k = 0; k < Workload.KINDS; k++) {
+            if (inCache[k] > 0) {
+                lines.add(String.format(Locale.ROOT, "%s %s in cache (state-sized units): %s",
+                        amount(inCache[k]), Workload.name(k),
+                        RunCost.secondsText(cacheNanos[k] * 1e-9)));
             }
         }
         double words = e.tableauWords() + e.tableauMeasureWords() + e.tableauBatchWords();
