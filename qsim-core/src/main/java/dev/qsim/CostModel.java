@@ -19,11 +19,6 @@ import dev.qsim.kernel.Workload;
 final class CostModel {
     /** A setting with fewer threads is proposed when it is this close to the fastest. */
     static final double THREAD_SLACK = 1.10;
-    /**
-     * From this many qubits (16 MiB states) independent workers share main memory's bandwidth,
-     * so together they are no faster than one state on every thread.
-     */
-    static final int SHARED_MEMORY_QUBITS = 20;
 
     private CostModel() {
     }
@@ -215,9 +210,10 @@ final class CostModel {
         }
         int busy = Math.min(workers, Math.max(1, cal.processors()));
         double alone = cal.nanos(k, n, 1) / busy;
-        if (n < SHARED_MEMORY_QUBITS) {
-            return alone; // each worker's state sits in its own core's cache
+        if (n < Parallel.MIN_PARALLEL_QUBITS) {
+            return alone; // small states: the rates on every processor were not measured apart
         }
+        // No faster than the machine was measured to go with every processor on one state.
         return Math.max(alone, cal.nanos(k, n, busy));
     }
 
