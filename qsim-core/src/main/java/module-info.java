@@ -16,6 +16,7 @@ module dev.qsim {
     requires transitive org.apache.commons.numbers.complex;
     requires transitive org.apache.commons.rng.api;
     requires org.apache.commons.rng.simple;
+    requires java.management;
     requires org.apache.commons.statistics.distribution;
     requires org.apache.commons.statistics.inference;
 

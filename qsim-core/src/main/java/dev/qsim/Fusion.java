@@ -114,6 +114,73 @@ final class Fusion {
      */
     static List<Instruction> fuse(List<Instruction> gates) {
         List<Instruction> out = new ArrayList<>();
+        group(gates, new Emitter() {
+            @Override
+            public void single(Instruction g) {
+                out.add(g);
+            }
+
+            @Override
+            public void block(List<Instruction> members, int[] qs) {
+                Operator m = Operator.identity(qs.length);
+                for (Instruction g : members) {
+                    m = expand(g, qs).times(m);
+                }
+                out.add(Instruction.gate(Gate.UNITARY, new double[0], m, qs, new int[0]));
+            }
+        });
+        return out;
+    }
+
+    /**
+     * Returns the kernel forms of {@link #fuse(List)}'s result without computing the fused
+     * matrices: the same blocks, each a dense gate on its qubits with a stand-in matrix (a
+     * product of Hadamards). Enough to plan and count the passes a run makes.
+     *
+     * @param gates instructions of kind GATE only, on at most 40 qubits
+     * @return the kernel forms, in order
+     */
+    static List<GateOp> shapes(List<Instruction> gates) {
+        List<GateOp> out = new ArrayList<>();
+        group(gates, new Emitter() {
+            @Override
+            public void single(Instruction g) {
+                out.add(g.plan());
+            }
+
+            @Override
+            public void block(List<Instruction> members, int[] qs) {
+                out.add(new GateOp(GateOp.DENSE, qs, new int[0], STAND_IN[qs.length], null));
+            }
+        });
+        return out;
+    }
+
+    /** Dense Hadamard products on 1 to MAX_QUBITS qubits: stand-ins for fused matrices. */
+    private static final double[][] STAND_IN = new double[MAX_QUBITS + 1][];
+
+    static {
+        for (int k = 1; k <= MAX_QUBITS; k++) {
+            int d = 1 << k;
+            double s = Math.pow(0.5, k / 2.0);
+            STAND_IN[k] = new double[2 * d * d];
+            for (int r = 0; r < d; r++) {
+                for (int c = 0; c < d; c++) {
+                    STAND_IN[k][2 * (r * d + c)] = (Integer.bitCount(r & c) & 1) == 0 ? s : -s;
+                }
+            }
+        }
+    }
+
+    /** Receives the greedy grouping's output: gates kept alone and fused blocks. */
+    private interface Emitter {
+        void single(Instruction g);
+
+        void block(List<Instruction> members, int[] qs);
+    }
+
+    /** The greedy grouping of {@link #fuse(List)}, reported to an emitter in order. */
+    private static void group(List<Instruction> gates, Emitter out) {
         List<Block> open = new ArrayList<>();
         for (Instruction g : gates) {
             long gm = qubitMask(g);
@@ -156,7 +223,7 @@ final class Fusion {
                     b.cost = cost(g);
                     open.add(b);
                 } else {
-                    out.add(g);
+                    out.single(g);
                 }
                 continue;
             }
@@ -173,12 +240,11 @@ final class Fusion {
         for (Block b : open) {
             emit(b, out);
         }
-        return out;
     }
 
-    private static void emit(Block b, List<Instruction> out) {
+    private static void emit(Block b, Emitter out) {
         if (b.gates.size() == 1) {
-            out.add(b.gates.get(0));
+            out.single(b.gates.get(0));
             return;
         }
         int[] qs = new int[b.size()];
@@ -188,11 +254,7 @@ final class Fusion {
                 qs[w++] = q;
             }
         }
-        Operator m = Operator.identity(qs.length);
-        for (Instruction g : b.gates) {
-            m = expand(g, qs).times(m);
-        }
-        out.add(Instruction.gate(Gate.UNITARY, new double[0], m, qs, new int[0]));
+        out.block(b.gates, qs);
     }
 
     /** The matrix of gate g (with its controls) on the block's qubits qs (bit j = qs[j]). */

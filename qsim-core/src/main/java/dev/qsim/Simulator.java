@@ -877,6 +877,37 @@ public final class Simulator implements CircuitRunner {
                 + explain(circuit, samples).engine());
     }
 
+    /**
+     * Predicts the cost of {@link #run(Circuit, int)} without running it: the engine, the wall
+     * time on this machine, the bytes held at the peak, the passes over memory, and cheaper
+     * settings that apply (see {@link RunCost}). Priced with {@link Calibration#current()}: the
+     * calibration file's rates, else a quick probe of about a second, once per JVM.
+     *
+     * @param circuit the circuit
+     * @param shots the shots, at least 1
+     * @return the prediction
+     * @throws IllegalArgumentException as {@link #run(Circuit, int)} would refuse the run
+     */
+    public RunCost forecast(Circuit circuit, int shots) {
+        return forecast(circuit, shots, Calibration.current());
+    }
+
+    /**
+     * Predicts the cost of {@link #run(Circuit, int)} with the given rates; see
+     * {@link #forecast(Circuit, int)}.
+     *
+     * @param circuit the circuit
+     * @param shots the shots, at least 1
+     * @param rates the machine's rates
+     * @return the prediction
+     * @throws IllegalArgumentException as {@link #run(Circuit, int)} would refuse the run
+     */
+    public RunCost forecast(Circuit circuit, int shots, Calibration rates) {
+        Objects.requireNonNull(rates, "rates");
+        explain(circuit, shots);
+        return CostModel.forecast(this, circuit, shots, rates);
+    }
+
     /** The widest register {@link #distribution(Circuit)} returns: {@value}. */
     public static final int MAX_DISTRIBUTION_CLBITS = 26;
 

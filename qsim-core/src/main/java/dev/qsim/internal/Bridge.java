@@ -166,6 +166,20 @@ public final class Bridge {
          */
         StateVector trajectoryState(Circuit circuit, NoiseModel model, long seed, int threads,
                 Precision precision);
+
+        /**
+         * Counts the work of a noisy run without running it: one density matrix, or the given
+         * number of trajectories.
+         *
+         * @param circuit the circuit
+         * @param model the noise model
+         * @param densityMatrix whether the density-matrix engine runs it (else trajectories)
+         * @param shots the shots
+         * @param threads threads
+         * @return the counted work
+         */
+        EngineWork work(Circuit circuit, NoiseModel model, boolean densityMatrix, int shots,
+                int threads);
     }
 
     /** The matrix-product-state engine (package {@code dev.qsim.mps}). */

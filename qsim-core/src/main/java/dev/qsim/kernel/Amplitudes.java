@@ -99,6 +99,20 @@ public final class Amplitudes {
     }
 
     /**
+     * Makes a storage with a size and no amplitudes, for planning passes without running them
+     * ({@link Workload}): its chunk table is empty, so no kernel may run on it.
+     *
+     * @param n qubits, {@code 1 <= n <= 40}
+     * @param single whether it stands for single precision
+     * @return the storage
+     */
+    static Amplitudes phantom(int n, boolean single) {
+        int chunkLog = Math.min(n, CHUNK_LOG);
+        return single ? new Amplitudes(n, chunkLog, null, new float[0][])
+                : new Amplitudes(n, chunkLog, new double[0][], null);
+    }
+
+    /**
      * Allocates a zero vector in single precision on n qubits.
      *
      * @param n qubits, {@code 1 <= n <= 40}

@@ -47,6 +47,15 @@ public final class Frame {
      * @param threads threads to use
      */
     public static void apply(Amplitudes a, List<GateOp> ops, int threads) {
+        schedule(a, ops, new Runner(a, threads));
+    }
+
+    /**
+     * The one planner of the gate path: takes frame gates into the frame, conjugates the rest
+     * and hands each pass over the amplitudes to {@code passes}, which runs it
+     * ({@link #apply}) or counts it ({@link Workload}).
+     */
+    static void schedule(Amplitudes a, List<GateOp> ops, Passes passes) {
         List<GateOp> out = new ArrayList<>(ops.size());
         for (GateOp op : ops) {
             if (!absorb(a, op)) {
@@ -54,7 +63,82 @@ public final class Frame {
             }
         }
         a.framed = a.flips != 0 || a.phases != null;
-        execute(a, out, threads);
+        execute(a, out, passes);
+    }
+
+    /**
+     * Receives the passes over the amplitudes that the planner decides on, in order. Internal.
+     */
+    interface Passes {
+        /** One gate alone, on double storage. */
+        void single(GateOp op, Plan plan);
+
+        /** A group of gates applied block by block while each block sits in cache. */
+        void blocked(List<GateOp> ops, Plan[] plans, int blockLog);
+
+        /** A single-precision window group (see {@link Windows}). */
+        void window(List<GateOp> ops, long mask, int low);
+
+        /** A lone single-qubit gate on single-precision storage. */
+        void floatSingle(GateOp op, double[] m2);
+
+        /** A permutation that moves chunk references only. */
+        void chunkMove(GateOp op);
+
+        /** The frame's phases applied in one pass. */
+        void phases(double[] p);
+    }
+
+    /** Returns the passes that run on the amplitudes of {@code a}. */
+    static Passes runner(Amplitudes a, int threads) {
+        return new Runner(a, threads);
+    }
+
+    /** The passes run on the amplitudes. */
+    private static final class Runner implements Passes {
+        private final Amplitudes a;
+        private final int threads;
+
+        Runner(Amplitudes a, int threads) {
+            this.a = a;
+            this.threads = threads;
+        }
+
+        @Override
+        public void single(GateOp op, Plan plan) {
+            plan.apply(threads);
+        }
+
+        @Override
+        public void blocked(List<GateOp> ops, Plan[] plans, int blockLog) {
+            Plan.applyBlocked(a, plans, blockLog, threads);
+        }
+
+        @Override
+        public void window(List<GateOp> ops, long mask, int low) {
+            Windows.applyGroup(a, ops, mask, low, threads);
+        }
+
+        @Override
+        public void floatSingle(GateOp op, double[] m2) {
+            long controls = 0;
+            for (int c : op.controls) {
+                controls |= 1L << c;
+            }
+            FloatSingleQubitKernels.dense1(a, op.targets[0], m2, controls, threads);
+        }
+
+        @Override
+        public void chunkMove(GateOp op) {
+            Object[] table = a.singles != null ? a.singles : a.chunks;
+            PermutationKernels.permuteChunks(table, a.chunkLog, op.targets, op.controls,
+                    op.perm);
+        }
+
+        @Override
+        public void phases(double[] p) {
+            applyPhases(a, p, threads);
+        }
     }
 
     /**
@@ -84,55 +168,68 @@ public final class Frame {
             if (!a.framed) {
                 return;
             }
-            if (a.phases != null && anyPhased(a)) {
-                // Phases that cancelled (S then S-dagger) cost no pass.
-                applyPhases(a, a.phases, threads);
-            }
-            List<GateOp> moves = new ArrayList<>();
-            for (int q = 0; q < a.n; q++) {
-                if (flipped(a, q)) {
-                    moves.add(xOp(q));
-                }
-            }
-            execute(a, moves, threads);
-            a.flips = 0;
-            a.phases = null;
-            a.framed = false;
+            settle(a, new Runner(a, threads));
         }
+    }
+
+    /** Settles the frame through {@code passes}: a phase pass if any phase is left, then moves. */
+    static void settle(Amplitudes a, Passes passes) {
+        if (a.phases != null && anyPhased(a)) {
+            // Phases that cancelled (S then S-dagger) cost no pass.
+            passes.phases(a.phases);
+        }
+        List<GateOp> moves = new ArrayList<>();
+        for (int q = 0; q < a.n; q++) {
+            if (flipped(a, q)) {
+                moves.add(xOp(q));
+            }
+        }
+        execute(a, moves, passes);
+        a.flips = 0;
+        a.phases = null;
+        a.framed = false;
     }
 
     /** Applies gates to the amplitudes as they are (no frame). */
     static void execute(Amplitudes a, List<GateOp> ops, int threads) {
+        execute(a, ops, new Runner(a, threads));
+    }
+
+    /** Hands the passes of gates on the amplitudes as they are (no frame) to {@code passes}. */
+    static void execute(Amplitudes a, List<GateOp> ops, Passes passes) {
         if (ops.isEmpty()) {
             return;
         }
         if (a.isSingle()) {
-            Windows.apply(a, ops, threads);
+            Windows.schedule(a, ops, passes);
             return;
         }
         int blockLog = Math.min(CACHE_LOG, a.chunkLog);
         boolean blocking = a.n > blockLog;
         List<Plan> group = new ArrayList<>();
+        List<GateOp> groupOps = new ArrayList<>();
         for (GateOp op : ops) {
             Plan p = op.plan(a);
             if (blocking && p.unitsPerBlock(blockLog) >= 0) {
                 group.add(p);
+                groupOps.add(op);
                 continue;
             }
-            flush(a, group, blockLog, threads);
-            p.apply(threads);
+            flush(group, groupOps, blockLog, passes);
+            passes.single(op, p);
         }
-        flush(a, group, blockLog, threads);
+        flush(group, groupOps, blockLog, passes);
     }
 
-    /** Applies a group of cache-blockable plans (one alone needs no blocking), then clears it. */
-    private static void flush(Amplitudes a, List<Plan> group, int blockLog, int threads) {
+    /** Passes on a group of cache-blockable plans (one alone needs no blocking), then clears it. */
+    private static void flush(List<Plan> group, List<GateOp> ops, int blockLog, Passes passes) {
         if (group.size() == 1) {
-            group.get(0).apply(threads);
+            passes.single(ops.get(0), group.get(0));
         } else if (group.size() > 1) {
-            Plan.applyBlocked(a, group.toArray(new Plan[0]), blockLog, threads);
+            passes.blocked(List.copyOf(ops), group.toArray(new Plan[0]), blockLog);
         }
         group.clear();
+        ops.clear();
     }
 
     static GateOp xOp(int q) {
@@ -350,14 +447,8 @@ public final class Frame {
      */
     private static void applyPhases(Amplitudes a, double[] p, int threads) {
         final int n = a.n;
-        int top = -1;
-        for (int q = 0; q < n; q++) {
-            if (phased(a, q)) {
-                top = q;
-            }
-        }
-        final int rl = Math.min(a.chunkLog, Math.max(Math.min(ROW_LOG, n), Math.min(top + 1,
-                MAX_ROW_LOG)));
+        int top = topPhased(a);
+        final int rl = phaseTableLog(a);
         final double[] table = tableOf(p, rl);
         final boolean rowPhases = top >= rl;
         boolean lowPhased = false;
@@ -422,6 +513,26 @@ public final class Frame {
                         }
                     }
                 });
+    }
+
+    private static int topPhased(Amplitudes a) {
+        int top = -1;
+        for (int q = 0; q < a.n; q++) {
+            if (phased(a, q)) {
+                top = q;
+            }
+        }
+        return top;
+    }
+
+    /**
+     * Log2 of the entries of the phase table that settling builds: the low qubits up to the
+     * highest phased one, within 2^16 entries; each piece of the pass builds its own copy too
+     * when phased qubits lie above the table as well as in it.
+     */
+    static int phaseTableLog(Amplitudes a) {
+        return Math.min(a.chunkLog, Math.max(Math.min(ROW_LOG, a.n), Math.min(topPhased(a) + 1,
+                MAX_ROW_LOG)));
     }
 
     /** The product of the frame phases of qubits 0 to count-1 for each of their combinations. */

@@ -53,6 +53,15 @@ public final class GateOp {
     }
 
     /**
+     * Returns a copy of the target qubits.
+     *
+     * @return the targets
+     */
+    public int[] targets() {
+        return targets.clone();
+    }
+
+    /**
      * Describes a (controlled) gate by its matrix, choosing the cheapest exact shape: diagonal
      * when every off-diagonal entry is zero, monomial when every row and column holds one
      * non-zero entry, dense otherwise.

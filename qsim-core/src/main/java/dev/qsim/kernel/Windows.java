@@ -55,15 +55,18 @@ public final class Windows {
      * @param threads threads to use
      */
     public static void apply(Amplitudes a, List<GateOp> ops, int threads) {
+        schedule(a, ops, Frame.runner(a, threads));
+    }
+
+    /** Decides the windows and lone passes of gates in order and hands them to {@code passes}. */
+    static void schedule(Amplitudes a, List<GateOp> ops, Frame.Passes passes) {
         final int w = Math.min(a.n, WINDOW_LOG);
         final int maxLow = Math.min(w, a.chunkLog);
         int i = 0;
         while (i < ops.size()) {
             GateOp first = ops.get(i);
             if (PermutationKernels.movesChunks(a, first)) {
-                Object[] table = a.singles != null ? a.singles : a.chunks;
-                PermutationKernels.permuteChunks(table, a.chunkLog, first.targets, first.controls,
-                        first.perm);
+                passes.chunkMove(first);
                 i++;
                 continue;
             }
@@ -84,13 +87,9 @@ public final class Windows {
                     ? FloatSingleQubitKernels.matrix2(first) : null;
             if (m2 != null) {
                 // A lone single-qubit gate: one direct pass beats copying windows in and out.
-                long controls = 0;
-                for (int c : first.controls) {
-                    controls |= 1L << c;
-                }
-                FloatSingleQubitKernels.dense1(a, first.targets[0], m2, controls, threads);
+                passes.floatSingle(first, m2);
             } else {
-                applyGroup(a, ops.subList(i, j), mask, l, threads);
+                passes.window(ops.subList(i, j), mask, l);
             }
             i = j;
         }
@@ -109,7 +108,7 @@ public final class Windows {
         return -1;
     }
 
-    private static void applyGroup(Amplitudes a, List<GateOp> ops, long mask, int l,
+    static void applyGroup(Amplitudes a, List<GateOp> ops, long mask, int l,
             int threads) {
         final int n = a.n;
         final int h = Long.bitCount(mask >>> l);

@@ -17,6 +17,7 @@ import dev.qsim.StateVector;
 import dev.qsim.Tally;
 import dev.qsim.internal.Bridge;
 import dev.qsim.internal.ClassicalState;
+import dev.qsim.internal.EngineWork;
 import dev.qsim.internal.Heap;
 import dev.qsim.internal.ShotRunner;
 import dev.qsim.kernel.Amplitudes;
@@ -62,6 +63,13 @@ final class NoiseEngines implements Bridge.Noise {
                     Complex.ONE}}));
 
     private static final int[] NONE = new int[0];
+
+    @Override
+    public EngineWork work(Circuit circuit, NoiseModel model, boolean densityMatrix, int shots,
+            int threads) {
+        return densityMatrix ? NoiseCost.densityMatrix(circuit, model, shots, threads)
+                : NoiseCost.trajectories(circuit, model, shots, threads);
+    }
 
     @Override
     public DensityMatrix densityMatrix(Circuit circuit, NoiseModel model, int threads) {

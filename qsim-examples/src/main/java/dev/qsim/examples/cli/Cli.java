@@ -57,7 +57,7 @@ import dev.qsim.stats.TallyFiles;
         versionProvider = Cli.VersionText.class,
         description = "Runs, draws and checks circuits written in OpenQASM 3.",
         subcommands = {Cli.Run.class, Cli.State.class, Cli.Draw.class, Cli.Compare.class,
-            Cli.Scale.class})
+            Cli.Scale.class, CalibrateCommand.class})
 public final class Cli implements Callable<Integer> {
 
     /** Exit code of success. */
@@ -67,7 +67,8 @@ public final class Cli implements Callable<Integer> {
     /** Exit code of bad input. */
     public static final int EXIT_BAD_INPUT = 2;
     /** The subcommand names. */
-    public static final Set<String> COMMANDS = Set.of("run", "state", "draw", "compare", "scale");
+    public static final Set<String> COMMANDS = Set.of("run", "state", "draw", "compare", "scale",
+            "calibrate");
     /** The most shots one run takes. */
     public static final int MAX_SHOTS = 10_000_000;
     /** The most qubits whose state {@code state} prints. */
@@ -261,6 +262,9 @@ public final class Cli implements Callable<Integer> {
                 "      --depolarizing 0.01 --readout-error 0.02",
                 "  java -jar qsim-examples.jar run qsim-examples/demo/bell.qasm \\",
                 "      --device qsim-examples/demo/longstone-pair.json",
+                "  java -jar qsim-examples.jar run circuit.qasm --plan-only",
+                "  java -jar qsim-examples.jar run circuit.qasm --budget-time 5min \\",
+                "      --budget-memory 8GiB",
                 "%nWith noise, circuits of up to 10 qubits that measure only at the end run on"
                         + " a density matrix, others by trajectories, one per shot.",
                 "%nThe same seed gives the same tally. With --svg, bars of the exact"
@@ -301,6 +305,8 @@ public final class Cli implements Callable<Integer> {
                         + " in 16 GiB) at about seven digits (default ${DEFAULT-VALUE};"
                         + " noiseless runs only)")
         Precision precision;
+        @CommandLine.Mixin
+        RunBudget budget = new RunBudget();
 
         /** The thread count of the run: {@code --threads}, or the library's default. */
         int threads() {
@@ -333,9 +339,12 @@ public final class Cli implements Callable<Integer> {
             } else {
                 sim = sim.withPrecision(precision);
             }
-            Tally tally;
-            Progress progress = Progress.start(spec.commandLine().getErr(), "running "
+            Progress progress = budget.check(spec, file, c, sim, shots, "running "
                     + count(shots, "shot"));
+            if (progress == null) {
+                return EXIT_OK; // --plan-only: the forecast was printed
+            }
+            Tally tally;
             try {
                 tally = sim.run(c, shots);
             } catch (IllegalArgumentException e) {

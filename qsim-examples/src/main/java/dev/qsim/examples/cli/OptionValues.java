@@ -75,6 +75,59 @@ final class OptionValues {
         }
     }
 
+    /**
+     * {@code --budget-time}: a positive duration with a unit, {@code 90s}, {@code 5min},
+     * {@code 2h} or {@code 250ms}; at most a year. Returns seconds.
+     */
+    static final class Duration implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            String t = value.strip().toLowerCase(Locale.ROOT);
+            String[] units = {"ms", "s", "min", "h"};
+            double[] scale = {1e-3, 1, 60, 3600};
+            for (int u = 0; u < units.length; u++) {
+                if (t.endsWith(units[u]) && !(units[u].equals("s") && t.endsWith("ms"))) {
+                    String number = t.substring(0, t.length() - units[u].length()).strip();
+                    double v = number.matches("\\d+(\\.\\d+)?") ? Double.parseDouble(number)
+                            * scale[u] : Double.NaN;
+                    if (v > 0 && v <= 366 * 86400.0) {
+                        return v;
+                    }
+                }
+            }
+            throw new TypeConversionException("'" + value + "' is not a duration such as 90s,"
+                    + " 5min, 2h or 250ms (above 0, at most a year)");
+        }
+    }
+
+    /**
+     * {@code --budget-memory}: a positive size with a binary unit, {@code 512MiB}, {@code 4GiB}
+     * (also {@code 512m}, {@code 4g}, {@code 64k}); at most 1 PiB. Returns bytes.
+     */
+    static final class Size implements ITypeConverter<Long> {
+        @Override
+        public Long convert(String value) {
+            String t = value.strip().toLowerCase(Locale.ROOT);
+            String[][] units = {{"kib", "k"}, {"mib", "m"}, {"gib", "g"}, {"tib", "t"}};
+            for (int u = 0; u < units.length; u++) {
+                for (String name : units[u]) {
+                    if (t.endsWith(name)) {
+                        String number = t.substring(0, t.length() - name.length()).strip();
+                        double v = number.matches("\\d+(\\.\\d+)?")
+                                ? Double.parseDouble(number) * Math.pow(1024, u + 1) : Double.NaN;
+                        if (v >= 1 && v <= Math.pow(1024, 5)) {
+                            return (long) v;
+                        }
+                        u = units.length;
+                        break;
+                    }
+                }
+            }
+            throw new TypeConversionException("'" + value + "' is not a memory size such as"
+                    + " 512MiB, 4GiB or 4g (above 0, at most 1 PiB)");
+        }
+    }
+
     /** {@code --seed}: any 64-bit whole number. */
     static final class Seed implements ITypeConverter<Long> {
         @Override

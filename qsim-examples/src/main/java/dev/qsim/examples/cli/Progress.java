@@ -39,6 +39,7 @@ public final class Progress implements AutoCloseable {
     private int drawn;
     private String what = "";
     private boolean closed;
+    private volatile double expectedSeconds;
 
     /**
      * Makes a progress display.
@@ -75,6 +76,40 @@ public final class Progress implements AutoCloseable {
      */
     public static Progress start(PrintWriter err, String label) {
         return new Progress(err, label, 0, System.console() != null, System::nanoTime);
+    }
+
+    /**
+     * Starts a line of unknown length with a predicted duration, drawn only when the JVM has a
+     * console: a bar of the elapsed share of the prediction and the predicted time left.
+     *
+     * @param err where the line goes
+     * @param label what is running
+     * @param seconds the predicted wall time
+     * @return the running display; close it when the work is done
+     */
+    public static Progress forecast(PrintWriter err, String label, double seconds) {
+        Progress p = new Progress(err, label, 0, System.console() != null, System::nanoTime);
+        p.expectedSeconds = seconds;
+        return p;
+    }
+
+    /**
+     * The text of a line with a predicted duration after {@code elapsed} seconds, such as
+     * {@code "running [#####-------] 2.0 s, about 6.1 s left (predicted)"}.
+     *
+     * @param label the label
+     * @param elapsed seconds so far
+     * @param expected predicted seconds in all
+     * @return the text
+     */
+    static String forecastLine(String label, double elapsed, double expected) {
+        double share = Math.min(1, elapsed / Math.max(expected, 1e-9));
+        int filled = (int) (BAR * share);
+        String left = elapsed <= expected ? String.format(Locale.ROOT, "about %.1f s left"
+                + " (predicted)", expected - elapsed) : String.format(Locale.ROOT, "%.1f s over"
+                + " the predicted %.1f s", elapsed - expected, expected);
+        return label + " [" + "#".repeat(filled) + "-".repeat(BAR - filled) + "] "
+                + String.format(Locale.ROOT, "%.1f s, ", elapsed) + left;
     }
 
     /**
@@ -178,7 +213,9 @@ public final class Progress implements AutoCloseable {
                 final long elapsed = clock.getAsLong() - start;
                 if (elapsed > QUIET_NANOS) {
                     synchronized (this) {
-                        paint(String.format(Locale.ROOT, "%s ... %.1f s", label, elapsed / 1e9));
+                        paint(expectedSeconds > 0 ? forecastLine(label, elapsed / 1e9,
+                                expectedSeconds) : String.format(Locale.ROOT, "%s ... %.1f s",
+                                label, elapsed / 1e9));
                     }
                 }
             }

@@ -1,0 +1,352 @@
+package dev.qsim.bench;
+
+import java.io.IOException;
+import java.lang.management.ManagementFactory;
+import java.lang.management.MemoryPoolMXBean;
+import java.lang.management.MemoryType;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.Paths;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Locale;
+
+import dev.qsim.Calibration;
+import dev.qsim.RunCost;
+
+/**
+ * The forecast accuracy report: for the fixed validation set ({@link ForecastSet}), the
+ * predicted wall time and peak bytes of each run ({@code Simulator.forecast}) against the
+ * measured ones, as a table (CSV) and an SVG log-log scatter with the ±30 % band, and a
+ * summary: the share of runs within ±30 % in time, the largest ratio either way, and the
+ * largest memory error over runs whose prediction is at least 16 MiB.
+ *
+ * <p>Measured time: the wall time of {@code run(circuit, shots)}; runs predicted under a second
+ * are run once to warm up, then three times, and the median kept. Measured memory: the peak
+ * of the heap pools that hold long-lived and large objects (under G1, the old generation,
+ * where every array of half a region or more goes) above their use after a full collection
+ * just before the run. Usage: {@code java -Xmx6g -cp qsim-bench.jar
+ * dev.qsim.bench.ForecastReport [--max N] [--threads T] [--fresh] [--csv F] [--svg F]};
+ * {@code --fresh} calibrates first (about a minute) instead of using the calibration file.
+ */
+public final class ForecastReport {
+    private static final long MIB = 1L << 20;
+
+    private ForecastReport() {
+    }
+
+    /**
+     * One measured case.
+     *
+     * @param name the case
+     * @param engine the engine
+     * @param qubits the qubits
+     * @param predicted predicted seconds
+     * @param measured measured seconds
+     * @param predictedBytes predicted peak bytes
+     * @param measuredBytes measured peak bytes
+     */
+    record Row(String name, String engine, int qubits, double predicted, double measured,
+            long predictedBytes, long measuredBytes) {
+        double ratio() {
+            return predicted / measured;
+        }
+    }
+
+    /**
+     * Runs the report.
+     *
+     * @param args the options
+     * @throws IOException if an output cannot be written
+     */
+    public static void main(String[] args) throws IOException {
+        int max = 28;
+        int threads = Runtime.getRuntime().availableProcessors();
+        boolean fresh = false;
+        Path csv = Paths.get("forecast.csv");
+        Path svg = Paths.get("forecast.svg");
+        for (int i = 0; i < args.length; i++) {
+            String a = args[i];
+            if (a.equals("--fresh")) {
+                fresh = true;
+                continue;
+            }
+            if (i + 1 >= args.length) {
+                throw new IllegalArgumentException("option " + a + " needs a value");
+            }
+            String v = args[++i];
+            switch (a) {
+                case "--max":
+                    max = Integer.parseInt(v);
+                    break;
+                case "--threads":
+                    threads = Integer.parseInt(v);
+                    break;
+                case "--csv":
+                    csv = Paths.get(v);
+                    break;
+                case "--svg":
+                    svg = Paths.get(v);
+                    break;
+                default:
+                    throw new IllegalArgumentException("unknown option " + a + "; use --max,"
+                            + " --threads, --fresh, --csv, --svg");
+            }
+        }
+        Calibration cal = fresh ? Calibration.measure(System.err::println)
+                : Calibration.current();
+        System.err.println("rates: " + cal.describe());
+        List<ForecastSet.Case> cases = ForecastSet.cases(max, threads);
+        warmUp(threads);
+        List<Row> rows = new ArrayList<>();
+        for (ForecastSet.Case c : cases) {
+            Row r = measure(c, cal);
+            rows.add(r);
+            System.err.printf(Locale.ROOT, "%-34s %-14s predicted %9.4f s measured %9.4f s"
+                    + " ratio %5.2f  memory %8.1f / %8.1f MiB%n", r.name(), r.engine(),
+                    r.predicted(), r.measured(), r.ratio(), r.predictedBytes() / (double) MIB,
+                    r.measuredBytes() / (double) MIB);
+        }
+        Files.writeString(csv, csv(rows), StandardCharsets.UTF_8);
+        Files.writeString(svg, svg(rows, cal.describe()), StandardCharsets.UTF_8);
+        System.out.println(summary(rows));
+        System.out.println(planTime(cal, threads));
+    }
+
+    private static void warmUp(int threads) {
+        dev.qsim.Simulator sim = dev.qsim.Simulator.seeded(1).withThreads(threads);
+        for (ForecastSet.Case c : ForecastSet.cases(18, threads)) {
+            if (c.circuit().qubits() >= 16 && c.circuit().qubits() <= 18) {
+                sim = c.simulator();
+                sim.run(c.circuit(), Math.min(c.shots(), 20));
+            }
+        }
+    }
+
+    static Row measure(ForecastSet.Case c, Calibration cal) {
+        RunCost cost = c.simulator().forecast(c.circuit(), c.shots(), cal);
+        double seconds;
+        long peak;
+        if (cost.seconds() < 1) {
+            c.simulator().run(c.circuit(), c.shots());
+            double[] t = new double[3];
+            long[] p = new long[3];
+            for (int i = 0; i < 3; i++) {
+                long[] m = timed(c);
+                t[i] = m[0] * 1e-9;
+                p[i] = m[1];
+            }
+            Arrays.sort(t);
+            Arrays.sort(p);
+            seconds = t[1];
+            peak = p[1];
+        } else {
+            long[] m = timed(c);
+            seconds = m[0] * 1e-9;
+            peak = m[1];
+        }
+        return new Row(c.name(), cost.engine().name(), c.circuit().qubits(), cost.seconds(),
+                seconds, cost.bytes(), peak);
+    }
+
+    /** {nanoseconds, peak bytes above the baseline} of one run. */
+    private static long[] timed(ForecastSet.Case c) {
+        List<MemoryPoolMXBean> pools = tenured();
+        System.gc();
+        System.gc();
+        long base = 0;
+        for (MemoryPoolMXBean p : pools) {
+            base += p.getUsage().getUsed();
+            p.resetPeakUsage();
+        }
+        long t0 = System.nanoTime();
+        c.simulator().run(c.circuit(), c.shots());
+        long t = System.nanoTime() - t0;
+        long peak = 0;
+        for (MemoryPoolMXBean p : pools) {
+            peak += p.getPeakUsage().getUsed();
+        }
+        return new long[] {t, Math.max(0, peak - base)};
+    }
+
+    /** The heap pools of long-lived objects (old or tenured generation). */
+    private static List<MemoryPoolMXBean> tenured() {
+        List<MemoryPoolMXBean> out = new ArrayList<>();
+        for (MemoryPoolMXBean p : ManagementFactory.getMemoryPoolMXBeans()) {
+            String name = p.getName().toLowerCase(Locale.ROOT);
+            if (p.getType() == MemoryType.HEAP && (name.contains("old")
+                    || name.contains("tenured"))) {
+                out.add(p);
+            }
+        }
+        return out;
+    }
+
+    /**
+     * The forecast time of a 10^4-gate circuit on 24 qubits (rotation layers with CZ bricks),
+     * median of five after one call that loads the classes.
+     */
+    static String planTime(Calibration cal, int threads) {
+        org.apache.commons.rng.UniformRandomProvider rng =
+                org.apache.commons.rng.simple.RandomSource.XO_RO_SHI_RO_128_PP.create(3L);
+        dev.qsim.Circuit.Builder b = dev.qsim.Circuit.builder(24);
+        int gates = 0;
+        while (gates < 10_000) {
+            for (int q = 0; q < 24 && gates < 10_000; q++, gates++) {
+                b.ry(q, 0.1 + rng.nextDouble());
+            }
+            for (int q = 0; q + 1 < 24 && gates < 10_000; q += 2, gates++) {
+                b.cz(q, q + 1);
+            }
+        }
+        dev.qsim.Circuit c = b.measure().build();
+        dev.qsim.Simulator sim = dev.qsim.Simulator.seeded(1).withThreads(threads);
+        sim.forecast(c, 1000, cal);
+        double[] t = new double[5];
+        for (int i = 0; i < t.length; i++) {
+            long t0 = System.nanoTime();
+            sim.forecast(c, 1000, cal);
+            t[i] = (System.nanoTime() - t0) * 1e-6;
+        }
+        Arrays.sort(t);
+        return String.format(Locale.ROOT, "plan-only: %.1f ms to forecast a %d-gate circuit on 24"
+                + " qubits (median of 5; with its cheaper settings)", t[2], c.size() - 24);
+    }
+
+    static String csv(List<Row> rows) {
+        StringBuilder sb = new StringBuilder("case,engine,qubits,predicted_s,measured_s,ratio,"
+                + "predicted_bytes,measured_bytes\n");
+        for (Row r : rows) {
+            sb.append(String.format(Locale.ROOT, "%s,%s,%d,%.6f,%.6f,%.4f,%d,%d%n", r.name(),
+                    r.engine(), r.qubits(), r.predicted(), r.measured(), r.ratio(),
+                    r.predictedBytes(), r.measuredBytes()));
+        }
+        return sb.toString();
+    }
+
+    static String summary(List<Row> rows) {
+        int within = 0;
+        double worst = 1;
+        String worstName = "";
+        double memWorst = 0;
+        int memCount = 0;
+        for (Row r : rows) {
+            double q = r.ratio();
+            if (q >= 0.7 && q <= 1.3) {
+                within++;
+            }
+            double either = Math.max(q, 1 / q);
+            if (either > worst) {
+                worst = either;
+                worstName = r.name();
+            }
+            if (r.predictedBytes() >= 16 * MIB) {
+                memCount++;
+                double e = Math.abs(r.predictedBytes() - r.measuredBytes())
+                        / (double) Math.max(1, r.measuredBytes());
+                memWorst = Math.max(memWorst, e);
+            }
+        }
+        return String.format(Locale.ROOT, "%d of %d runs (%.0f %%) within ±30 %% in time; largest"
+                + " ratio either way %.2f (%s); memory: largest error %.1f %% over the %d runs"
+                + " predicted at 16 MiB or more", within, rows.size(), 100.0 * within
+                / rows.size(), worst, worstName, 100 * memWorst, memCount);
+    }
+
+    /** The scatter: measured (x) against predicted (y), log-log, with y = x and the band. */
+    static String svg(List<Row> rows, String rates) {
+        double lo = Double.MAX_VALUE;
+        double hi = 0;
+        for (Row r : rows) {
+            lo = Math.min(lo, Math.min(r.predicted(), r.measured()));
+            hi = Math.max(hi, Math.max(r.predicted(), r.measured()));
+        }
+        double a = Math.floor(Math.log10(Math.max(lo, 1e-6)));
+        double b = Math.ceil(Math.log10(Math.max(hi, 1e-5)));
+        int w = 640;
+        int h = 640;
+        int m = 80;
+        StringBuilder sb = new StringBuilder();
+        sb.append("<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<svg xmlns=\"http://www.w3.org/"
+                + "2000/svg\" width=\"").append(w).append("\" height=\"").append(h + 40)
+                .append("\" font-family=\"sans-serif\" font-size=\"12\">\n");
+        sb.append("<rect width=\"100%\" height=\"100%\" fill=\"white\"/>\n");
+        sb.append("<text x=\"").append(w / 2).append("\" y=\"24\" text-anchor=\"middle\""
+                + " font-size=\"15\">Predicted against measured wall time (")
+                .append(rows.size()).append(" runs)</text>\n");
+        sb.append("<text x=\"").append(w / 2).append("\" y=\"42\" text-anchor=\"middle\">")
+                .append(escape(rates.length() > 90 ? rates.substring(0, 90) + "..." : rates))
+                .append("</text>\n");
+        int size = w - 2 * m;
+        // The ±30 % band and the diagonal.
+        StringBuilder band = new StringBuilder();
+        double[] xs = {a, b};
+        for (double x : xs) {
+            band.append(px(x, a, b, m, size)).append(',').append(py(x + Math.log10(1.3), a, b, m,
+                    size)).append(' ');
+        }
+        for (int i = xs.length - 1; i >= 0; i--) {
+            band.append(px(xs[i], a, b, m, size)).append(',').append(py(xs[i] + Math.log10(0.7),
+                    a, b, m, size)).append(' ');
+        }
+        sb.append("<clipPath id=\"plot\"><rect x=\"").append(m).append("\" y=\"").append(m)
+                .append("\" width=\"").append(size).append("\" height=\"").append(size)
+                .append("\"/></clipPath>\n");
+        sb.append("<polygon clip-path=\"url(#plot)\" points=\"").append(band.toString().trim())
+                .append("\" fill=\"#dce9f5\" stroke=\"none\"/>\n");
+        sb.append("<line x1=\"").append(px(a, a, b, m, size)).append("\" y1=\"")
+                .append(py(a, a, b, m, size)).append("\" x2=\"").append(px(b, a, b, m, size))
+                .append("\" y2=\"").append(py(b, a, b, m, size))
+                .append("\" stroke=\"#1b5fa8\"/>\n");
+        sb.append("<rect x=\"").append(m).append("\" y=\"").append(m).append("\" width=\"")
+                .append(size).append("\" height=\"").append(size)
+                .append("\" fill=\"none\" stroke=\"black\"/>\n");
+        for (int d = (int) a; d <= (int) b; d++) {
+            String label = d >= 0 ? String.format(Locale.ROOT, "%.0f s", Math.pow(10, d))
+                    : String.format(Locale.ROOT, "%s s", Math.pow(10, d));
+            sb.append("<text x=\"").append(px(d, a, b, m, size)).append("\" y=\"")
+                    .append(m + size + 18).append("\" text-anchor=\"middle\">").append(label)
+                    .append("</text>\n");
+            sb.append("<text x=\"").append(m - 6).append("\" y=\"").append(py(d, a, b, m, size)
+                    + 4).append("\" text-anchor=\"end\">").append(label).append("</text>\n");
+        }
+        sb.append("<text x=\"").append(w / 2).append("\" y=\"").append(m + size + 40)
+                .append("\" text-anchor=\"middle\">measured wall time (log)</text>\n");
+        sb.append("<text transform=\"translate(18,").append(h / 2).append(") rotate(-90)\""
+                + " text-anchor=\"middle\">predicted wall time (log)</text>\n");
+        String[] engines = {"AMPLITUDES", "TABLEAU", "DENSITY_MATRIX", "TRAJECTORIES"};
+        String[] colours = {"#1b5fa8", "#c4480c", "#2f8a3c", "#7b3294"};
+        for (Row r : rows) {
+            int e = Arrays.asList(engines).indexOf(r.engine());
+            sb.append("<circle cx=\"").append(px(Math.log10(r.measured()), a, b, m, size))
+                    .append("\" cy=\"").append(py(Math.log10(r.predicted()), a, b, m, size))
+                    .append("\" r=\"4\" fill=\"").append(colours[Math.max(0, e)])
+                    .append("\"><title>").append(escape(r.name())).append("</title></circle>\n");
+        }
+        for (int e = 0; e < engines.length; e++) {
+            int y = m + 16 + 18 * e;
+            sb.append("<circle cx=\"").append(m + 14).append("\" cy=\"").append(y - 4)
+                    .append("\" r=\"4\" fill=\"").append(colours[e]).append("\"/><text x=\"")
+                    .append(m + 24).append("\" y=\"").append(y).append("\">").append(engines[e])
+                    .append("</text>\n");
+        }
+        sb.append("<text x=\"").append(m + size - 8).append("\" y=\"").append(m + size - 10)
+                .append("\" text-anchor=\"end\">shaded: within ±30 %</text>\n");
+        sb.append("</svg>\n");
+        return sb.toString();
+    }
+
+    private static String px(double logx, double a, double b, int m, int size) {
+        return String.format(Locale.ROOT, "%.1f", m + size * (logx - a) / (b - a));
+    }
+
+    private static String py(double logy, double a, double b, int m, int size) {
+        return String.format(Locale.ROOT, "%.1f", m + size - size * (logy - a) / (b - a));
+    }
+
+    private static String escape(String s) {
+        return s.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;");
+    }
+}

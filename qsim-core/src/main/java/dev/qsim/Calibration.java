@@ -1,0 +1,674 @@
+package dev.qsim;
+
+import java.io.IOException;
+import java.io.StringReader;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.Paths;
+import java.nio.file.StandardCopyOption;
+import java.time.Instant;
+import java.time.format.DateTimeParseException;
+import java.time.temporal.ChronoUnit;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Locale;
+import java.util.Objects;
+import java.util.Properties;
+import java.util.function.Consumer;
+
+import org.apache.commons.rng.UniformRandomProvider;
+import org.apache.commons.rng.simple.RandomSource;
+
+import dev.qsim.internal.Bridge;
+import dev.qsim.internal.TextFiles;
+import dev.qsim.kernel.KernelTimer;
+import dev.qsim.kernel.Parallel;
+import dev.qsim.kernel.Workload;
+
+/**
+ * This machine's measured speeds, which {@link Simulator#forecast(Circuit, int)} uses to turn
+ * counted work into time: nanoseconds per amplitude for each kind of pass over memory (dense
+ * gates of one to four qubits, diagonal and permutation gates, cache-blocked groups, single
+ * precision windows, copies, measurements, sampling) at a few state sizes in and out of cache,
+ * on one thread and on every processor; nanoseconds per shot drawn; and the stabilizer
+ * tableau's time per word. Immutable and thread-safe.
+ *
+ * <p>{@link #measure(Consumer)} takes about a minute and {@link #save()} keeps the result in a
+ * small versioned text file in the user's configuration folder ({@link #file()}); without one,
+ * {@link #current()} makes a {@linkplain #quickProbe() quick probe} of a second or two, once per
+ * JVM. A file made on another number of processors or with other kernel loops (the scalar or
+ * the vector path) is reported stale and not used. Between measured sizes, rates are
+ * interpolated linearly in the qubit count; beyond them the nearest is used.
+ *
+ * <p>Method: counting passes over memory and pricing each with a measured rate is the
+ * bandwidth-or-compute bound reasoning of S. Williams, A. Waterman and D. Patterson,
+ * "Roofline: an insightful visual performance model for multicore architectures", Commun. ACM
+ * 52 (2009) 65, doi:10.1145/1498765.1498785, with rates measured per kernel instead of derived
+ * from peak figures.
+ *
+ * @since 0.1
+ */
+public final class Calibration {
+    /** The file format's version; a file of another version is ignored, with the reason. */
+    public static final int FORMAT = 1;
+    /** System property naming the folder of the calibration file (tests use a temporary one). */
+    public static final String FOLDER_PROPERTY = "qsim.config.dir";
+    /** The calibration file's name inside the folder. */
+    public static final String FILE_NAME = "machine-rates.properties";
+
+    /** How a set of rates was obtained. */
+    public enum Source {
+        /** Measured by {@link #measure(Consumer)}, kept in the calibration file. */
+        CALIBRATED,
+        /** The built-in quick probe of about a second. */
+        QUICK_PROBE
+    }
+
+    static final int[] FULL_SIZES = {12, 16, 20, 23};
+    static final int[] QUICK_SIZES = {12, 20};
+    private static final long FULL_NANOS = 150_000_000L;
+    private static final long QUICK_NANOS = 6_000_000L;
+    private static final long MAX_FILE_BYTES = 64 * 1024;
+    private static final String[] KEYS = {"dense1", "dense1-controlled", "dense2", "dense3",
+        "dense4", "diagonal", "permutation", "block-group", "window-group", "float1", "phases",
+        "copy", "measure", "sample", "reduce"};
+
+    private static final String[] OTHER_KEYS = {"shot", "shot.bit", "tableau.gate",
+        "tableau.gate.word", "tableau.measure", "tableau.measure.word", "tableau.batch.word",
+        "plan.gate", "fuse.gate"};
+
+    private static Calibration probe;
+
+    private final Source source;
+    private final Instant made;
+    private final String kernels;
+    private final int processors;
+    private final int[] sizes;
+    /** [kind][0: one thread, 1: all processors][size index], nanoseconds per unit. */
+    private final double[][][] rates;
+    private final double shotNanos;
+    private final double shotBitNanos;
+    private final double[] tableau;
+    private final double planNanos;
+    private final double fuseNanos;
+    private final String note;
+
+    private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
+            double[][][] rates, double[] other, String note) {
+        this.source = source;
+        this.made = made;
+        this.kernels = kernels;
+        this.processors = processors;
+        this.sizes = sizes;
+        this.rates = rates;
+        this.shotNanos = other[0];
+        this.shotBitNanos = other[1];
+        this.tableau = Arrays.copyOfRange(other, 2, 7);
+        this.planNanos = other[7];
+        this.fuseNanos = other[8];
+        this.note = note;
+    }
+
+    /**
+     * Measures this machine's rates: every kind of pass at 2^12, 2^16, 2^20 and 2^23 amplitudes
+     * (in cache to well out of it), on one thread and on every processor. About a minute;
+     * allocates up to 256 MiB.
+     *
+     * @param progress receives a line per size measured (may ignore it)
+     * @return the rates, {@link Source#CALIBRATED}, not yet saved
+     * @throws IllegalStateException if the heap cannot hold the 2^23-amplitude states
+     */
+    public static Calibration measure(Consumer<String> progress) {
+        Objects.requireNonNull(progress, "progress");
+        return run(Source.CALIBRATED, FULL_SIZES, FULL_NANOS, progress);
+    }
+
+    /**
+     * Returns the quick probe's rates (measured once per JVM, about a second): every kind at
+     * 2^12 and 2^20 amplitudes, on one thread and on every processor.
+     *
+     * @return the rates, {@link Source#QUICK_PROBE}
+     */
+    public static synchronized Calibration quickProbe() {
+        if (probe == null) {
+            probe = run(Source.QUICK_PROBE, QUICK_SIZES, QUICK_NANOS, line -> { });
+        }
+        return probe;
+    }
+
+    private static Calibration run(Source source, int[] sizes, long nanos,
+            Consumer<String> progress) {
+        int all = Parallel.defaultThreads();
+        for (int k = 0; k < Workload.KINDS; k++) {
+            KernelTimer.nanosPerUnit(k, sizes[0], 1, 1_000_000L); // compiled before timing
+        }
+        double[][][] r = new double[Workload.KINDS][2][sizes.length];
+        for (int s = 0; s < sizes.length; s++) {
+            for (int t = 0; t < 2; t++) {
+                int threads = t == 0 ? 1 : all;
+                for (int k = 0; k < Workload.KINDS; k++) {
+                    r[k][t][s] = KernelTimer.nanosPerUnit(k, sizes[s], threads, nanos);
+                }
+            }
+            progress.accept(String.format(Locale.ROOT, "2^%d amplitudes: dense 1-qubit %.2f ns"
+                    + " per amplitude on 1 thread, %.2f on %d", sizes[s],
+                    r[Workload.DENSE1][0][s], r[Workload.DENSE1][1][s], all));
+        }
+        boolean quick = source == Source.QUICK_PROBE;
+        double[] shot = shotNanos(nanos, quick ? 20_000 : 400_000);
+        double[] tab = tableauNanos(nanos, shot, quick);
+        double[] plan = planNanos(nanos);
+        progress.accept(String.format(Locale.ROOT, "tallying %.0f ns per shot and %.1f per bit;"
+                + " tableau %.0f ns per gate and %.2f per word, %.0f ns per measurement and"
+                + " %.2f per word", shot[0], shot[1], tab[0], tab[1], tab[2], tab[3]));
+        return new Calibration(source, Instant.now().truncatedTo(ChronoUnit.SECONDS),
+                KernelTimer.path(), all, sizes.clone(), r, new double[] {shot[0], shot[1], tab[0],
+                    tab[1], tab[2], tab[3], tab[4], plan[0], plan[1]}, "");
+    }
+
+    /**
+     * Nanoseconds per shot drawn from a final state and tallied beyond the sampling pass: per
+     * shot, and per classical bit of a shot (from registers of 4 and 20 bits).
+     */
+    private static double[] shotNanos(long nanos, int many) {
+        double[] per = new double[2];
+        int[] widths = {4, 20};
+        for (int i = 0; i < 2; i++) {
+            Circuit c = spread(widths[i]).measure().build();
+            Simulator sim = Simulator.seeded(1).withThreads(1).withFusion(false);
+            double few = best(() -> sim.run(c, 1), nanos);
+            double lots = best(() -> sim.run(c, many), nanos);
+            per[i] = Math.max(1, (lots - few) / many);
+        }
+        double bit = Math.max(0, (per[1] - per[0]) / (widths[1] - widths[0]));
+        return new double[] {Math.max(1, per[0] - bit * widths[0]), bit};
+    }
+
+    /**
+     * Tableau rates: nanoseconds per gate and per gate word, per measurement and per
+     * measurement word, and per word of a replayed 64-shot batch; from circuits of two sizes,
+     * each measured on one qubit and on all of them (a straight line through two points).
+     */
+    private static double[] tableauNanos(long nanos, double[] shot, boolean quick) {
+        int[] sizes = quick ? new int[] {64, 256} : new int[] {64, 512};
+        double[][] perMeasure = new double[2][2];
+        double[][] gatePart = new double[2][3];
+        double batch = 0;
+        for (int i = 0; i < 2; i++) {
+            int n = sizes[i];
+            UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(17L);
+            Circuit.Builder one = Circuit.builder(n);
+            Circuit.Builder all = Circuit.builder(n);
+            for (int g = 0; g < 3000; g++) {
+                int q = rng.nextInt(n);
+                int p = (q + 1 + rng.nextInt(n - 1)) % n;
+                for (Circuit.Builder b : List.of(one, all)) {
+                    if (g % 3 == 0) {
+                        b.h(q);
+                    } else if (g % 3 == 1) {
+                        b.s(q);
+                    } else {
+                        b.cnot(q, p);
+                    }
+                }
+            }
+            Circuit a = one.measure(0, 0).build();
+            Circuit b = all.measure().build();
+            double ta = best(() -> Bridge.tableaus().run(a, 1, 3), nanos);
+            double tb = best(() -> Bridge.tableaus().run(b, 1, 3), nanos);
+            double[] wa = TableauCost.words(a);
+            double[] wb = TableauCost.words(b);
+            perMeasure[i][0] = (double) n * ((n + 63) >>> 6);
+            perMeasure[i][1] = Math.max(0, tb - ta) / (n - 1);
+            gatePart[i][0] = 3000;
+            gatePart[i][1] = wa[0];
+            gatePart[i][2] = ta;
+            if (i == 1) {
+                int shots = 6400;
+                double tc = best(() -> Bridge.tableaus().run(b, shots, 3), nanos);
+                double tally = shots * (shot[0] + shot[1] * n);
+                batch = Math.max(0, tc - tb - tally) / ((shots / 64 - 1) * Math.max(1, wb[2]));
+            }
+        }
+        // measurement: t = m0 + m1 * words, through the two sizes
+        double m1 = Math.max(0, (perMeasure[1][1] - perMeasure[0][1])
+                / (perMeasure[1][0] - perMeasure[0][0]));
+        double m0 = Math.max(0, perMeasure[0][1] - m1 * perMeasure[0][0]);
+        // gates: t = G g0 + W g1 (after one measurement), through the two sizes
+        double[] rest = new double[2];
+        for (int i = 0; i < 2; i++) {
+            rest[i] = Math.max(0, gatePart[i][2] - (m0 + m1 * perMeasure[i][0]));
+        }
+        double g1 = Math.max(0, (rest[1] - rest[0]) / (gatePart[1][1] - gatePart[0][1]));
+        double g0 = Math.max(0, (rest[0] - g1 * gatePart[0][1]) / gatePart[0][0]);
+        return new double[] {g0, g1, m0, m1, batch};
+    }
+
+    /**
+     * Nanoseconds to plan one gate, and to fuse one gate, on a random 16-qubit circuit of
+     * rotation layers with CZ and CNOT gates (the planning is timed on a storage without
+     * amplitudes, so no pass is included).
+     */
+    private static double[] planNanos(long nanos) {
+        UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(29L);
+        int n = 16;
+        Circuit.Builder b = Circuit.builder(n);
+        for (int layer = 0; layer < 40; layer++) {
+            for (int q = 0; q < n; q++) {
+                b.ry(q, 0.1 + rng.nextDouble());
+                b.rz(q, 0.1 + rng.nextDouble());
+            }
+            for (int q = layer % 2; q + 1 < n; q += 2) {
+                b.cz(q, q + 1);
+            }
+            b.cnot(rng.nextInt(n / 2), n / 2 + rng.nextInt(n / 2));
+        }
+        List<Instruction> gates = b.build().instructions();
+        List<dev.qsim.kernel.GateOp> plans = new java.util.ArrayList<>();
+        for (Instruction g : gates) {
+            plans.add(g.plan());
+        }
+        double plan = best(() -> Workload.of(n, false).gates(plans), nanos) / plans.size();
+        double fuse = best(() -> Fusion.fuse(gates), nanos) / gates.size();
+        return new double[] {plan, fuse};
+    }
+
+    private static double best(Runnable r, long nanos) {
+        double[] t = new double[16];
+        int count = 0;
+        r.run();
+        long start = System.nanoTime();
+        while (count < t.length && (count < 3 || System.nanoTime() - start < nanos)) {
+            long t0 = System.nanoTime();
+            r.run();
+            t[count++] = System.nanoTime() - t0;
+        }
+        Arrays.sort(t, 0, count);
+        return t[count / 2];
+    }
+
+    /** A layer of Hadamards on n qubits (a spread distribution to sample from). */
+    static Circuit.Builder spread(int n) {
+        Circuit.Builder b = Circuit.builder(n);
+        for (int q = 0; q < n; q++) {
+            b.h(q);
+        }
+        return b;
+    }
+
+    /**
+     * Returns the rates {@link Simulator#forecast} uses: the calibration file's when it exists,
+     * reads and matches this machine (processors and kernel loops), else the quick probe's,
+     * whose {@link #describe()} then says why the file was not used.
+     *
+     * @return the rates
+     */
+    public static Calibration current() {
+        Path f = file();
+        String why;
+        if (!Files.exists(f)) {
+            why = "no calibration file at " + f + "; run the calibrate command for better"
+                    + " figures";
+        } else {
+            try {
+                Calibration c = read(f);
+                String stale = c.staleness();
+                if (stale == null) {
+                    return c;
+                }
+                why = "the calibration file " + f + " is stale: " + stale + "; calibrate again";
+            } catch (IOException | IllegalArgumentException e) {
+                why = "the calibration file " + f + " was not used: " + e.getMessage();
+            }
+        }
+        Calibration q = quickProbe();
+        return new Calibration(q.source, q.made, q.kernels, q.processors, q.sizes, q.rates,
+                q.others(), why);
+    }
+
+    /**
+     * Returns the calibration file's rates when the file exists, reads and matches this machine;
+     * never probes.
+     *
+     * @return the saved rates, or empty
+     */
+    public static java.util.Optional<Calibration> saved() {
+        Path f = file();
+        if (!Files.exists(f)) {
+            return java.util.Optional.empty();
+        }
+        try {
+            Calibration c = read(f);
+            return c.staleness() == null ? java.util.Optional.of(c) : java.util.Optional.empty();
+        } catch (IOException | IllegalArgumentException e) {
+            return java.util.Optional.empty();
+        }
+    }
+
+    /** Why this calibration does not describe the machine as it runs now, or null. */
+    String staleness() {
+        String now = KernelTimer.path();
+        if (!kernels.equals(now)) {
+            return "made with " + kernels + ", the kernels now run " + now;
+        }
+        int all = Parallel.defaultThreads();
+        if (processors != all) {
+            return "made on " + processors + " processor(s), this JVM has " + all;
+        }
+        return null;
+    }
+
+    /**
+     * Returns the calibration file: {@code machine-rates.properties} in the folder named by the
+     * system property {@value #FOLDER_PROPERTY}, else {@code $XDG_CONFIG_HOME/qsim}, else
+     * {@code ~/.config/qsim}.
+     *
+     * @return the path (the file may not exist)
+     */
+    public static Path file() {
+        String dir = System.getProperty(FOLDER_PROPERTY);
+        if (dir != null && !dir.isBlank()) {
+            return Paths.get(dir).resolve(FILE_NAME);
+        }
+        String xdg = System.getenv("XDG_CONFIG_HOME");
+        Path base = xdg != null && !xdg.isBlank() && Paths.get(xdg).isAbsolute() ? Paths.get(xdg)
+                : Paths.get(System.getProperty("user.home"), ".config");
+        return base.resolve("qsim").resolve(FILE_NAME);
+    }
+
+    /**
+     * Writes these rates to {@link #file()} (folders made as needed, the old file replaced in
+     * one move).
+     *
+     * @return the file written
+     * @throws IOException if it cannot be written
+     */
+    public Path save() throws IOException {
+        Path f = file().toAbsolutePath();
+        Files.createDirectories(f.getParent());
+        Path tmp = Files.createTempFile(f.getParent(), FILE_NAME, ".tmp");
+        try {
+            Files.writeString(tmp, text(), StandardCharsets.UTF_8);
+            Files.move(tmp, f, StandardCopyOption.REPLACE_EXISTING,
+                    StandardCopyOption.ATOMIC_MOVE);
+        } finally {
+            Files.deleteIfExists(tmp);
+        }
+        return f;
+    }
+
+    /** The file's text: a comment, then key = value lines. */
+    String text() {
+        StringBuilder sb = new StringBuilder();
+        sb.append("# qsim machine rates: nanoseconds per amplitude of each kind of pass\n");
+        sb.append("# (columns: the sizes, in qubits), on one thread and on every processor\n");
+        sb.append("format = ").append(FORMAT).append('\n');
+        sb.append("source = ").append(source == Source.CALIBRATED ? "calibrated" : "quick-probe")
+                .append('\n');
+        sb.append("made = ").append(made).append('\n');
+        sb.append("kernels = ").append(kernels).append('\n');
+        sb.append("processors = ").append(processors).append('\n');
+        sb.append("sizes =");
+        for (int s : sizes) {
+            sb.append(' ').append(s);
+        }
+        sb.append('\n');
+        for (int k = 0; k < Workload.KINDS; k++) {
+            for (int t = 0; t < 2; t++) {
+                sb.append("rate.").append(KEYS[k]).append(t == 0 ? ".one" : ".all").append(" =");
+                for (double v : rates[k][t]) {
+                    sb.append(' ').append(String.format(Locale.ROOT, "%.5g", v));
+                }
+                sb.append('\n');
+            }
+        }
+        double[] o = others();
+        for (int i = 0; i < OTHER_KEYS.length; i++) {
+            sb.append(OTHER_KEYS[i]).append(" = ").append(String.format(Locale.ROOT, "%.5g",
+                    o[i])).append('\n');
+        }
+        return sb.toString();
+    }
+
+    /**
+     * Reads a calibration file; every value is checked (finite, positive, sizes ascending).
+     *
+     * @param f the file
+     * @return the rates it holds
+     * @throws IOException if it cannot be read
+     * @throws IllegalArgumentException if it is not a calibration file of this format; the
+     *     message names the key and the value
+     */
+    static Calibration read(Path f) throws IOException {
+        String text = TextFiles.withoutBom(TextFiles.readUtf8(f, MAX_FILE_BYTES,
+                "a calibration file"));
+        Properties p = new Properties();
+        try {
+            p.load(new StringReader(text));
+        } catch (IllegalArgumentException | IOException e) {
+            throw new IllegalArgumentException("it is not a properties file: " + e.getMessage());
+        }
+        int format = (int) number(p, "format", 1, 1000);
+        if (format != FORMAT) {
+            throw new IllegalArgumentException("it has format " + format + ", this version reads"
+                    + " format " + FORMAT);
+        }
+        Instant made;
+        try {
+            made = Instant.parse(value(p, "made"));
+        } catch (DateTimeParseException e) {
+            throw new IllegalArgumentException("'made' is not a time: "
+                    + dev.qsim.internal.Checks.excerpt(value(p, "made")));
+        }
+        String kernels = value(p, "kernels");
+        int processors = (int) number(p, "processors", 1, Parallel.MAX_THREADS);
+        double[] s = numbers(p, "sizes", 1, 40, -1);
+        if (s.length < 1 || s.length > 16) {
+            throw new IllegalArgumentException("'sizes' has " + s.length + " values; 1 to 16"
+                    + " are allowed");
+        }
+        int[] sizes = new int[s.length];
+        for (int i = 0; i < s.length; i++) {
+            sizes[i] = (int) s[i];
+            if (sizes[i] != s[i] || (i > 0 && sizes[i] <= sizes[i - 1])) {
+                throw new IllegalArgumentException("'sizes' must be whole qubit counts in"
+                        + " ascending order");
+            }
+        }
+        double[][][] r = new double[Workload.KINDS][2][];
+        for (int k = 0; k < Workload.KINDS; k++) {
+            for (int t = 0; t < 2; t++) {
+                r[k][t] = numbers(p, "rate." + KEYS[k] + (t == 0 ? ".one" : ".all"), 0, 1e9,
+                        sizes.length);
+            }
+        }
+        double[] other = new double[OTHER_KEYS.length];
+        for (int i = 0; i < other.length; i++) {
+            other[i] = number(p, OTHER_KEYS[i], 0, 1e9);
+        }
+        String from = p.getProperty("source", "calibrated").trim();
+        if (!from.equals("calibrated") && !from.equals("quick-probe")) {
+            throw new IllegalArgumentException("'source' holds " + dev.qsim.internal.Checks
+                    .excerpt(from) + "; calibrated or quick-probe are allowed");
+        }
+        return new Calibration(from.equals("calibrated") ? Source.CALIBRATED : Source.QUICK_PROBE,
+                made, kernels, processors, sizes, r, other, "");
+    }
+
+    private static String value(Properties p, String key) {
+        String v = p.getProperty(key);
+        if (v == null) {
+            throw new IllegalArgumentException("the key '" + key + "' is missing");
+        }
+        return v.trim();
+    }
+
+    private static double number(Properties p, String key, double min, double max) {
+        return numbers(p, key, min, max, 1)[0];
+    }
+
+    /** Whitespace-separated numbers in [min, max]; {@code count} of them unless negative. */
+    private static double[] numbers(Properties p, String key, double min, double max,
+            int count) {
+        String v = value(p, key);
+        String[] parts = v.isEmpty() ? new String[0] : v.split("\\s+", 20);
+        if (count >= 0 && parts.length != count) {
+            throw new IllegalArgumentException("'" + key + "' has " + parts.length
+                    + " value(s); " + count + " expected");
+        }
+        double[] out = new double[parts.length];
+        for (int i = 0; i < parts.length; i++) {
+            double x;
+            try {
+                x = Double.parseDouble(parts[i]);
+            } catch (NumberFormatException e) {
+                x = Double.NaN;
+            }
+            if (!(x >= min && x <= max)) {
+                throw new IllegalArgumentException("'" + key + "' holds "
+                        + dev.qsim.internal.Checks.excerpt(parts[i]) + "; numbers from " + min
+                        + " to " + max + " are allowed");
+            }
+            out[i] = x;
+        }
+        return out;
+    }
+
+    /**
+     * Nanoseconds per unit of a kind of pass on a state of n qubits with the given threads.
+     * Below 2^16 amplitudes the kernels run on one thread whatever is asked.
+     */
+    double nanos(int kind, int n, int threads) {
+        if (kind == Workload.BLOCK_STREAM || kind == Workload.WINDOW_STREAM) {
+            // The group was timed with its in-cache gates; keep the streaming part.
+            double group = raw(kind, n, threads);
+            double inCache = KernelTimer.GROUP_GATES * cached(Workload.DENSE1, threads);
+            return Math.max(0.1 * group, group - inCache);
+        }
+        return raw(kind, n, threads);
+    }
+
+    /** Nanoseconds per unit of a kind done on blocks in cache, spread over the threads. */
+    double cached(int kind, int threads) {
+        return raw(kind, sizes[0], 1) / Math.max(1, Math.min(threads, processors));
+    }
+
+    private double raw(int kind, int n, int threads) {
+        double one = interpolate(rates[kind][0], n);
+        if (threads <= 1 || n < Parallel.MIN_PARALLEL_QUBITS) {
+            return one;
+        }
+        double all = interpolate(rates[kind][1], n);
+        if (threads >= processors || processors == 1) {
+            return all;
+        }
+        return one + (all - one) * (threads - 1) / (processors - 1);
+    }
+
+    private double interpolate(double[] v, int n) {
+        if (n <= sizes[0]) {
+            return v[0];
+        }
+        for (int i = 1; i < sizes.length; i++) {
+            if (n <= sizes[i]) {
+                double f = (n - sizes[i - 1]) / (double) (sizes[i] - sizes[i - 1]);
+                return v[i - 1] + f * (v[i] - v[i - 1]);
+            }
+        }
+        return v[v.length - 1];
+    }
+
+    private double[] others() {
+        return new double[] {shotNanos, shotBitNanos, tableau[0], tableau[1], tableau[2],
+            tableau[3], tableau[4], planNanos, fuseNanos};
+    }
+
+    /** Nanoseconds to plan one gate (frame, conjugation, kernel layout), beyond its passes. */
+    double planNanos() {
+        return planNanos;
+    }
+
+    /** Nanoseconds per gate read by gate fusion (grouping and multiplying matrices). */
+    double fuseNanos() {
+        return fuseNanos;
+    }
+
+    /** Nanoseconds per shot drawn and tallied. */
+    double shotNanos() {
+        return shotNanos;
+    }
+
+    /** Nanoseconds per classical bit of a shot tallied. */
+    double shotBitNanos() {
+        return shotBitNanos;
+    }
+
+    /**
+     * Tableau rates, nanoseconds: per gate, per gate word, per measurement, per measurement
+     * word, per word of a replayed batch.
+     */
+    double[] tableauRates() {
+        return tableau.clone();
+    }
+
+    /**
+     * Returns how these rates were obtained.
+     *
+     * @return the source
+     */
+    public Source source() {
+        return source;
+    }
+
+    /**
+     * Returns when the rates were measured (to the second).
+     *
+     * @return the time
+     */
+    public Instant made() {
+        return made;
+    }
+
+    /**
+     * Returns the kernel loops the rates were measured with, as {@code "scalar loops"} or the
+     * vector path's description.
+     *
+     * @return the description
+     */
+    public String kernels() {
+        return kernels;
+    }
+
+    /**
+     * Returns the processor count the rates were measured on.
+     *
+     * @return the processors
+     */
+    public int processors() {
+        return processors;
+    }
+
+    /**
+     * Says in words which rates these are, such as {@code "calibrated 2026-12-05T05:01:10Z
+     * (scalar loops, 2 processors)"} or {@code "quick probe (no calibration file at ...)"}.
+     *
+     * @return the description
+     */
+    public String describe() {
+        String what = (source == Source.CALIBRATED ? "calibrated " + made : "quick probe") + " ("
+                + kernels + ", " + processors + " processor" + (processors == 1 ? "" : "s")
+                + ")";
+        return note.isEmpty() ? what : what + "; " + note;
+    }
+
+    /**
+     * Returns {@link #describe()}.
+     *
+     * @return the text
+     */
+    @Override
+    public String toString() {
+        return describe();
+    }
+}

@@ -1,0 +1,160 @@
+package dev.qsim.internal;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Objects;
+
+import dev.qsim.kernel.Workload;
+
+/**
+ * The counted work of one run on one engine, before it is priced: passes over memory in
+ * {@link Workload}s (each repeated some number of times, on some threads, by some number of
+ * independent workers), the bytes held at the peak, the shots drawn and tallied, and the
+ * stabilizer tableau's words. Each engine fills one in its own counter; the run facade prices
+ * it. Mutable while filled. Internal.
+ */
+public final class EngineWork {
+    /**
+     * Counted passes done {@code times} times, each on {@code threads} kernel threads, spread
+     * over {@code workers} independent workers that share the machine.
+     *
+     * @param what what the part is, for reports
+     * @param work the passes
+     * @param times how many times they happen
+     * @param threads kernel threads per pass
+     * @param workers independent workers running parts at once
+     */
+    public record Part(String what, Workload work, double times, int threads, int workers) {
+        /**
+         * Checks the fields.
+         *
+         * @param what the description
+         * @param work the passes
+         * @param times the repetitions
+         * @param threads the threads
+         * @param workers the workers
+         */
+        public Part {
+            Objects.requireNonNull(what, "what");
+            Objects.requireNonNull(work, "work");
+        }
+    }
+
+    private final List<Part> parts = new ArrayList<>();
+    private final List<String> held = new ArrayList<>();
+    private long bytes;
+    private double shots;
+    private double shotBits;
+    private double tableauGates;
+    private double tableauWords;
+    private double tableauMeasurements;
+    private double tableauMeasureWords;
+    private double tableauBatchWords;
+
+    /**
+     * Adds counted passes.
+     *
+     * @param part the part
+     * @return this
+     */
+    public EngineWork add(Part part) {
+        parts.add(Objects.requireNonNull(part, "part"));
+        return this;
+    }
+
+    /**
+     * Adds bytes held at the peak of the run.
+     *
+     * @param b the bytes
+     * @param what what holds them, for reports
+     * @return this
+     */
+    public EngineWork hold(long b, String what) {
+        bytes += b;
+        held.add(what);
+        return this;
+    }
+
+    /**
+     * Adds shots drawn from a final distribution and tallied.
+     *
+     * @param s the shots
+     * @param width the classical bits of each
+     * @return this
+     */
+    public EngineWork draw(double s, int width) {
+        shots += s;
+        shotBits += s * width;
+        return this;
+    }
+
+    /**
+     * Adds stabilizer tableau work.
+     *
+     * @param gates gates applied
+     * @param words words of gate work
+     * @param measurements measurements and resets
+     * @param measureWords words of measurement work
+     * @param batchWords words of replayed 64-shot batches
+     * @return this
+     */
+    public EngineWork tableau(double gates, double words, double measurements,
+            double measureWords, double batchWords) {
+        tableauGates += gates;
+        tableauMeasurements += measurements;
+        tableauWords += words;
+        tableauMeasureWords += measureWords;
+        tableauBatchWords += batchWords;
+        return this;
+    }
+
+    /** @return the parts, in order */
+    public List<Part> parts() {
+        return List.copyOf(parts);
+    }
+
+    /** @return the bytes held at the peak */
+    public long bytes() {
+        return bytes;
+    }
+
+    /** @return what holds the bytes, in words */
+    public List<String> held() {
+        return List.copyOf(held);
+    }
+
+    /** @return the shots drawn and tallied */
+    public double shots() {
+        return shots;
+    }
+
+    /** @return the classical bits of all shots tallied */
+    public double shotBits() {
+        return shotBits;
+    }
+
+    /** @return the tableau's gates */
+    public double tableauGates() {
+        return tableauGates;
+    }
+
+    /** @return the tableau's measurements and resets */
+    public double tableauMeasurements() {
+        return tableauMeasurements;
+    }
+
+    /** @return the tableau's words of gate work */
+    public double tableauWords() {
+        return tableauWords;
+    }
+
+    /** @return the tableau's words of measurement work */
+    public double tableauMeasureWords() {
+        return tableauMeasureWords;
+    }
+
+    /** @return the tableau's words of replayed batches */
+    public double tableauBatchWords() {
+        return tableauBatchWords;
+    }
+}

@@ -1,0 +1,259 @@
+package dev.qsim.kernel;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+
+/**
+ * Times one pass of each {@link Workload} kind on this machine, through the kernels a run uses
+ * (whatever loops {@link #path()} names), for a cost model's rates. Every pass runs on a real
+ * state of the given size with unitary gates, so values stay bounded. Internal.
+ */
+public final class KernelTimer {
+    /** Gates in the group timed for the stream kinds. */
+    public static final int GROUP_GATES = 8;
+    private static final double H = Math.sqrt(0.5);
+    private static final int[] NONE = new int[0];
+
+    private KernelTimer() {
+    }
+
+    /**
+     * Names the loops the kernels run: the vector lanes' own description when the vector path
+     * is built in, else {@code "scalar loops"}. One place, so that a calibration made on the
+     * other path is known to be stale.
+     *
+     * @return the description
+     */
+    public static String path() {
+        try {
+            Class<?> lanes = Class.forName("dev.qsim.kernel.Lanes");
+            Object d = lanes.getMethod("describe").invoke(null);
+            return String.valueOf(d);
+        } catch (ReflectiveOperationException | LinkageError e) {
+            return "scalar loops";
+        }
+    }
+
+    /**
+     * Returns the median time of one pass of a kind, in nanoseconds per unit of that kind
+     * (per amplitude touched, so a controlled gate's pass over half the state is divided by
+     * half the state). For {@link Workload#BLOCK_STREAM} and {@link Workload#WINDOW_STREAM}
+     * the time is that of a whole group of {@value #GROUP_GATES} dense single-qubit gates on
+     * the low qubits, per amplitude; the caller subtracts the in-cache part.
+     *
+     * @param kind the kind
+     * @param n qubits of the state, 4 to 30
+     * @param threads threads, at least 1
+     * @param minNanos how long to keep timing after a warm-up, at least
+     * @return nanoseconds per unit
+     */
+    public static double nanosPerUnit(int kind, int n, int threads, long minNanos) {
+        boolean single = kind == Workload.WINDOW_STREAM || kind == Workload.FLOAT1;
+        Amplitudes a = filled(n, single);
+        Amplitudes other = kind == Workload.COPY ? filled(n, false) : null;
+        double units = 1;
+        // Targets spread over the whole register, low ones included: a kernel's speed depends
+        // on its target's position, and circuits use them all.
+        int spread = Math.min(n - 1, n >= 20 ? 4 : 8);
+        int[] rotate = new int[spread];
+        for (int r = 0; r < spread; r++) {
+            rotate[r] = r == 0 ? 0 : 1 + (int) ((long) (r - 1) * (n - 3) / Math.max(1, spread - 2));
+        }
+        Runnable[] step = new Runnable[rotate.length];
+        for (int r = 0; r < rotate.length; r++) {
+            int q = Math.min(rotate[r], n - 2);
+            int[] four = distinct(n, q);
+            int q2 = four[1];
+            int q3 = four[2];
+            switch (kind) {
+                case Workload.DENSE1:
+                    step[r] = planned(a, dense(new int[] {q}, NONE), threads);
+                    break;
+                case Workload.DENSE1_CONTROLLED:
+                    step[r] = planned(a, dense(new int[] {q}, new int[] {q2}), threads);
+                    units = 0.5;
+                    break;
+                case Workload.DENSE2:
+                    step[r] = planned(a, dense(new int[] {q, four[2]}, NONE), threads);
+                    break;
+                case Workload.DENSE3:
+                    step[r] = planned(a, dense(new int[] {q3, q, q2}, NONE), threads);
+                    break;
+                case Workload.DENSE4:
+                    step[r] = planned(a, dense(four, NONE), threads);
+                    break;
+                case Workload.DIAGONAL:
+                    step[r] = planned(a, new GateOp(GateOp.DIAGONAL, new int[] {q, four[2]},
+                            NONE, phases(4), null), threads);
+                    break;
+                case Workload.PERMUTATION:
+                    step[r] = planned(a, new GateOp(GateOp.MONOMIAL, new int[] {q},
+                            new int[] {q2}, new double[] {1, 0, 1, 0}, new int[] {1, 0}), threads);
+                    units = 0.5;
+                    break;
+                case Workload.BLOCK_STREAM: {
+                    int blockLog = Math.min(Frame.CACHE_LOG, a.chunkLog);
+                    Plan[] plans = new Plan[GROUP_GATES];
+                    for (int g = 0; g < GROUP_GATES; g++) {
+                        plans[g] = dense(new int[] {g % Math.max(1, blockLog)}, NONE).plan(a);
+                    }
+                    step[r] = () -> Plan.applyBlocked(a, plans, blockLog, threads);
+                    break;
+                }
+                case Workload.WINDOW_STREAM: {
+                    List<GateOp> ops = new ArrayList<>();
+                    for (int g = 0; g < GROUP_GATES; g++) {
+                        ops.add(dense(new int[] {g % Math.min(n, 8)}, NONE));
+                    }
+                    step[r] = () -> Windows.apply(a, ops, threads);
+                    break;
+                }
+                case Workload.FLOAT1: {
+                    List<GateOp> ops = List.of(dense(new int[] {q}, NONE));
+                    step[r] = () -> Windows.apply(a, ops, threads);
+                    break;
+                }
+                case Workload.PHASES: {
+                    double[] p = new double[4 * n];
+                    for (int x = 0; x < n; x++) {
+                        p[4 * x] = 1;
+                        p[4 * x + 2] = Math.cos(0.1 * (x + 1));
+                        p[4 * x + 3] = Math.sin(0.1 * (x + 1));
+                    }
+                    step[r] = () -> {
+                        a.phases = p.clone();
+                        a.framed = true;
+                        Frame.settle(a, threads);
+                    };
+                    break;
+                }
+                case Workload.COPY:
+                    step[r] = () -> a.copyFrom(other);
+                    break;
+                case Workload.MEASURE:
+                    step[r] = () -> Measurement.measure(a, q, 0.5, threads);
+                    break;
+                case Workload.SAMPLE: {
+                    double[] u = new double[1000];
+                    for (int s = 0; s < u.length; s++) {
+                        u[s] = (s + 0.5) / u.length;
+                    }
+                    long[] out = new long[u.length];
+                    step[r] = () -> {
+                        double[] sums = Reductions.blockSums(a, threads);
+                        double total = 0;
+                        for (double x : sums) {
+                            total += x;
+                        }
+                        double[] scaled = u.clone();
+                        for (int s = 0; s < scaled.length; s++) {
+                            scaled[s] *= total;
+                        }
+                        Reductions.pickIndices(a, sums, scaled, out, threads);
+                    };
+                    break;
+                }
+                case Workload.REDUCE: {
+                    double[] work = new double[32];
+                    int[] qs = {q};
+                    step[r] = () -> ReducedStates.of(a, qs, work);
+                    break;
+                }
+                default:
+                    throw new IllegalArgumentException("kind " + kind + " is not in [0, "
+                            + Workload.KINDS + ")");
+            }
+        }
+        return median(step, minNanos) / (units * Math.scalb(1.0, n) * step.length);
+    }
+
+    /**
+     * The median nanoseconds of one round of the steps (the kind on each of the spread
+     * targets), after a warm-up, timed for at least minNanos: what a run sees, other work on
+     * the machine included.
+     */
+    private static double median(Runnable[] step, long minNanos) {
+        Runnable all = () -> {
+            for (Runnable r : step) {
+                r.run();
+            }
+        };
+        long warm = System.nanoTime();
+        int w = 0;
+        while (w < 1 || (System.nanoTime() - warm < minNanos / 4 && w < 10)) {
+            all.run();
+            w++;
+        }
+        double[] times = new double[32];
+        int count = 0;
+        long start = System.nanoTime();
+        while (count < times.length && (count < 3
+                || System.nanoTime() - start < minNanos)) {
+            long t0 = System.nanoTime();
+            all.run();
+            times[count++] = System.nanoTime() - t0;
+        }
+        Arrays.sort(times, 0, count);
+        return times[count / 2];
+    }
+
+    /** Four distinct qubits: q, q + 1, then the highest ones not taken. */
+    private static int[] distinct(int n, int q) {
+        int[] out = {q, q + 1, -1, -1};
+        int next = n - 1;
+        for (int i = 2; i < 4; i++) {
+            while (next == q || next == q + 1 || next == out[2]) {
+                next--;
+            }
+            out[i] = next--;
+        }
+        return out;
+    }
+
+    private static Runnable planned(Amplitudes a, GateOp op, int threads) {
+        Plan p = op.plan(a);
+        return () -> p.apply(threads);
+    }
+
+    /** A state of equal amplitudes (norm 1). */
+    private static Amplitudes filled(int n, boolean single) {
+        Amplitudes a = single ? Amplitudes.allocateSingle(n) : Amplitudes.allocate(n);
+        double v = Math.scalb(1.0, -n) * Math.sqrt(Math.scalb(1.0, n));
+        if (single) {
+            for (float[] c : a.singles) {
+                Arrays.fill(c, (float) (v * H));
+            }
+        } else {
+            for (double[] c : a.chunks) {
+                Arrays.fill(c, v * H);
+            }
+        }
+        return a;
+    }
+
+    /** The Hadamard product H⊗...⊗H on the targets: unitary, every entry non-zero. */
+    private static GateOp dense(int[] targets, int[] controls) {
+        int d = 1 << targets.length;
+        double[] m = new double[2 * d * d];
+        double s = Math.scalb(1.0, 0);
+        for (int k = 0; k < targets.length; k++) {
+            s *= H;
+        }
+        for (int r = 0; r < d; r++) {
+            for (int c = 0; c < d; c++) {
+                m[2 * (r * d + c)] = (Integer.bitCount(r & c) & 1) == 0 ? s : -s;
+            }
+        }
+        return new GateOp(GateOp.DENSE, targets, controls, m, null);
+    }
+
+    private static double[] phases(int d) {
+        double[] p = new double[2 * d];
+        for (int j = 0; j < d; j++) {
+            p[2 * j] = Math.cos(0.3 * (j + 1));
+            p[2 * j + 1] = Math.sin(0.3 * (j + 1));
+        }
+        return p;
+    }
+}

@@ -1,0 +1,370 @@
+package dev.qsim.kernel;
+
+import java.util.List;
+
+/**
+ * Counts the passes over memory that a list of gates costs on a state of a given size, without
+ * a state: the gates go through the same planner as a run ({@link Frame#schedule}: lazy frame,
+ * conjugation, cache blocking in double precision, windows in single precision), on a storage
+ * that has a size but no amplitudes. Each pass is recorded by kind ({@link #KINDS} kinds) as
+ * the amplitudes it touches, in units of the whole state, and the kernel work done on blocks
+ * while they sit in cache is recorded apart. A cost model turns the counts into time with
+ * measured rates per kind. Not thread-safe. Internal.
+ */
+public final class Workload {
+    /** Kind: a dense single-qubit gate without controls. */
+    public static final int DENSE1 = 0;
+    /** Kind: a dense single-qubit gate with controls (rate per touched amplitude). */
+    public static final int DENSE1_CONTROLLED = 1;
+    /** Kind: a dense two-qubit gate. */
+    public static final int DENSE2 = 2;
+    /** Kind: a dense three-qubit gate. */
+    public static final int DENSE3 = 3;
+    /** Kind: a dense four-qubit gate (wider ones count 2^(k-4) of these). */
+    public static final int DENSE4 = 4;
+    /** Kind: a diagonal gate (phases only). */
+    public static final int DIAGONAL = 5;
+    /** Kind: a permutation with phases (X with controls, SWAP ...). */
+    public static final int PERMUTATION = 6;
+    /** Kind: streaming a cache-blocked group of double-precision gates through memory once. */
+    public static final int BLOCK_STREAM = 7;
+    /** Kind: reading and writing the windows of a single-precision group once. */
+    public static final int WINDOW_STREAM = 8;
+    /** Kind: a lone dense single-qubit gate on single-precision storage. */
+    public static final int FLOAT1 = 9;
+    /** Kind: the lazy frame's phases applied in one pass. */
+    public static final int PHASES = 10;
+    /** Kind: copying the state (one shot's start from a simulated prefix). */
+    public static final int COPY = 11;
+    /** Kind: measuring or resetting one qubit (its probability, then the projection). */
+    public static final int MEASURE = 12;
+    /** Kind: drawing shots from the final state (block sums, then picking indices). */
+    public static final int SAMPLE = 13;
+    /** Kind: the reduced state of a channel's qubits (a trajectory's branch probabilities). */
+    public static final int REDUCE = 14;
+    /** The number of kinds. */
+    public static final int KINDS = 15;
+
+    private static final String[] NAMES = {"dense 1-qubit", "controlled dense 1-qubit",
+        "dense 2-qubit", "dense 3-qubit", "dense 4-qubit", "diagonal", "permutation",
+        "cache-blocked group stream", "single-precision window stream",
+        "single-precision 1-qubit", "frame phases", "state copy", "measurement or reset",
+        "sampling", "reduced state"};
+
+    private final int qubits;
+    private final boolean single;
+    private final Amplitudes phantom;
+    private final double[] streamed = new double[KINDS];
+    private final double[] cached = new double[KINDS];
+    private final double[] passes = new double[KINDS];
+    private double weight = 1;
+    private int phaseTableLog = -1;
+    private double planned;
+    private double fused;
+
+    private Workload(int qubits, boolean single) {
+        this.qubits = qubits;
+        this.single = single;
+        this.phantom = Amplitudes.phantom(qubits, single);
+    }
+
+    /**
+     * Starts an empty count for a state of {@code qubits} qubits.
+     *
+     * @param qubits the qubits of the storage, 1 to 40
+     * @param single whether the storage is single precision
+     * @return the count
+     */
+    public static Workload of(int qubits, boolean single) {
+        return new Workload(qubits, single);
+    }
+
+    /**
+     * Returns the name of a kind, for reports.
+     *
+     * @param kind a kind
+     * @return its name
+     */
+    public static String name(int kind) {
+        return NAMES[kind];
+    }
+
+    /**
+     * Returns the kind of the pass a gate alone costs on double storage.
+     *
+     * @param op the gate
+     * @return its kind
+     */
+    public static int kindOf(GateOp op) {
+        int k = op.targets.length;
+        switch (op.shape) {
+            case GateOp.DIAGONAL:
+                return DIAGONAL;
+            case GateOp.MONOMIAL:
+                return PERMUTATION;
+            default:
+                if (k == 1) {
+                    return op.controls.length == 0 ? DENSE1 : DENSE1_CONTROLLED;
+                }
+                return Math.min(k, 4);
+        }
+    }
+
+    /**
+     * The work of a gate in its kind's units: the share of amplitudes where every control is 1;
+     * wider dense gates count 2^(k-4) four-qubit ones; a diagonal gate on several qubits or
+     * with controls skips its entries equal to 1 (so a controlled phase touches a quarter of
+     * the state), as {@code DiagonalKernels} does.
+     */
+    private static double units(GateOp op) {
+        double f = Math.scalb(1.0, -op.controls.length);
+        int k = op.targets.length;
+        if (op.shape == GateOp.DENSE && k > 4) {
+            f *= Math.scalb(1.0, k - 4);
+        }
+        if (op.shape == GateOp.DIAGONAL && op.data != null && (k > 1 || op.controls.length > 0)) {
+            int d = 1 << k;
+            int moving = 0;
+            for (int j = 0; j < d; j++) {
+                moving += op.data[2 * j] == 1 && op.data[2 * j + 1] == 0 ? 0 : 1;
+            }
+            f *= moving / (double) d;
+        }
+        return f;
+    }
+
+    /**
+     * Counts gates as a run applies them in one call ({@code Frame.apply}).
+     *
+     * @param ops the gates, in order
+     * @return this count
+     */
+    public Workload gates(List<GateOp> ops) {
+        planned += ops.size() * weight;
+        Frame.schedule(phantom, ops, counter);
+        return this;
+    }
+
+    /**
+     * Counts gates put through gate fusion before they are planned.
+     *
+     * @param count the gates fusion reads
+     * @return this count
+     */
+    public Workload fusion(int count) {
+        fused += count;
+        return this;
+    }
+
+    /**
+     * Returns the gates handed to the planner (each costs its planning besides its passes).
+     *
+     * @return the count, possibly fractional for expected counts
+     */
+    public double planned() {
+        return planned;
+    }
+
+    /**
+     * Returns the gates fusion reads.
+     *
+     * @return the count
+     */
+    public double fused() {
+        return fused;
+    }
+
+    /**
+     * Counts gates as {@link #gates} does, each pass weighted (an expected count, such as a
+     * noise branch taken with probability {@code weight}).
+     *
+     * @param ops the gates
+     * @param w the weight, 0 to 1
+     * @return this count
+     */
+    public Workload gates(List<GateOp> ops, double w) {
+        weight = w;
+        try {
+            return gates(ops);
+        } finally {
+            weight = 1;
+        }
+    }
+
+    /**
+     * Counts the settling of the lazy frame (before a reader of the amplitudes).
+     *
+     * @return this count
+     */
+    public Workload settle() {
+        if (phantom.framed) {
+            Frame.settle(phantom, counter);
+        }
+        return this;
+    }
+
+    /**
+     * Counts passes of a dense gate applied directly by the dense kernels (the density matrix
+     * does so).
+     *
+     * @param targets the target count
+     * @param controls the control count
+     * @param w how many passes (an expected count may be fractional)
+     * @return this count
+     */
+    public Workload dense(int targets, int controls, double w) {
+        GateOp op = new GateOp(GateOp.DENSE, new int[targets], new int[controls], null, null);
+        int kind = kindOf(op);
+        streamed[kind] += units(op) * w;
+        passes[kind] += w;
+        return this;
+    }
+
+    /**
+     * Counts passes of a kind that is not a gate (copy, measurement, sampling, reduced state).
+     *
+     * @param kind the kind
+     * @param count how many passes (an expected count may be fractional)
+     * @return this count
+     */
+    public Workload pass(int kind, double count) {
+        add(kind, count);
+        return this;
+    }
+
+    /**
+     * Adds another count of the same storage size, {@code times} over.
+     *
+     * @param other the other count
+     * @param times how many times it happens
+     * @return this count
+     */
+    public Workload addAll(Workload other, double times) {
+        for (int k = 0; k < KINDS; k++) {
+            streamed[k] += other.streamed[k] * times;
+            cached[k] += other.cached[k] * times;
+            passes[k] += other.passes[k] * times;
+        }
+        phaseTableLog = Math.max(phaseTableLog, other.phaseTableLog);
+        planned += other.planned * times;
+        fused += other.fused * times;
+        return this;
+    }
+
+    private void add(int kind, double units) {
+        streamed[kind] += units;
+        passes[kind] += weight == 1 ? 1 : weight;
+    }
+
+    /**
+     * Returns the qubits of the storage counted.
+     *
+     * @return the qubits
+     */
+    public int qubits() {
+        return qubits;
+    }
+
+    /**
+     * Tells whether the storage counted is single precision.
+     *
+     * @return whether single precision
+     */
+    public boolean single() {
+        return single;
+    }
+
+    /**
+     * Returns the passes over memory of a kind (a blocked group or window group is one pass of
+     * its stream kind).
+     *
+     * @param kind the kind
+     * @return the pass count, possibly fractional for expected counts
+     */
+    public double passes(int kind) {
+        return passes[kind];
+    }
+
+    /**
+     * Returns the amplitudes a kind's passes touch, in units of the whole state ({@code 2^n}).
+     *
+     * @param kind the kind
+     * @return the touched amount
+     */
+    public double streamed(int kind) {
+        return streamed[kind];
+    }
+
+    /**
+     * Returns the kernel work of a kind done inside cache-blocked groups or windows, in units
+     * of the whole state.
+     *
+     * @param kind the kind
+     * @return the amount
+     */
+    public double cached(int kind) {
+        return cached[kind];
+    }
+
+    /**
+     * Returns log2 of the entries of the largest phase table a frame settling builds (one
+     * table, and one more per thread's piece when phases sit above it too), or -1 if none.
+     *
+     * @return the log, or -1
+     */
+    public int phaseTableLog() {
+        return phaseTableLog;
+    }
+
+    /**
+     * Returns every pass over memory, of every kind.
+     *
+     * @return the total pass count
+     */
+    public double totalPasses() {
+        double t = 0;
+        for (double p : passes) {
+            t += p;
+        }
+        return t;
+    }
+
+    private final Frame.Passes counter = new Frame.Passes() {
+        @Override
+        public void single(GateOp op, Plan plan) {
+            add(kindOf(op), units(op) * weight);
+        }
+
+        @Override
+        public void blocked(List<GateOp> ops, Plan[] plans, int blockLog) {
+            add(BLOCK_STREAM, weight);
+            for (GateOp op : ops) {
+                cached[kindOf(op)] += units(op) * weight;
+            }
+        }
+
+        @Override
+        public void window(List<GateOp> ops, long mask, int low) {
+            add(WINDOW_STREAM, weight);
+            for (GateOp op : ops) {
+                cached[kindOf(op)] += units(op) * weight;
+            }
+        }
+
+        @Override
+        public void floatSingle(GateOp op, double[] m2) {
+            add(FLOAT1, units(op) * weight);
+        }
+
+        @Override
+        public void chunkMove(GateOp op) {
+            // Moves chunk references only: no pass over the amplitudes.
+        }
+
+        @Override
+        public void phases(double[] p) {
+            add(PHASES, weight);
+            phaseTableLog = Math.max(phaseTableLog, Frame.phaseTableLog(phantom));
+        }
+    };
+}

@@ -1,0 +1,277 @@
+package dev.qsim;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.List;
+
+import org.apache.commons.rng.UniformRandomProvider;
+import org.apache.commons.rng.simple.RandomSource;
+import org.junit.jupiter.api.Test;
+
+import dev.qsim.internal.EngineWork;
+import dev.qsim.internal.HeapLayout;
+import dev.qsim.kernel.Frame;
+import dev.qsim.kernel.GateOp;
+import dev.qsim.kernel.Workload;
+import dev.qsim.noise.Channel;
+import dev.qsim.noise.NoiseModel;
+
+/**
+ * The forecast's counting, exactly, on small circuits worked by hand. Passes follow the rules
+ * the engines document: a state-vector gate streams the state once unless it is an X or a
+ * single-qubit phase (kept in the lazy frame, {@link Frame}) or it joins a cache-blocked group
+ * of gates below qubit {@value Frame#CACHE_LOG} (one stream for the group); a controlled gate
+ * touches the half of the amplitudes where its control is 1; a density-matrix gate is
+ * {@code U} on the row qubits then {@code conj(U)} on the column qubits (two passes), a channel
+ * one pass of its superoperator (Horn and Johnson 1991, Topics in Matrix Analysis, Lemma
+ * 4.3.1). Sizes: {@code 2^n} amplitudes of 16 bytes in double precision, 8 in single, a density
+ * matrix {@code 4^n} entries of 16 bytes (common practice; Nielsen and Chuang 2010, §2.4).
+ */
+class ForecastCountTest {
+    private static final int N = 16; // above the cache block of 2^14 amplitudes
+
+    private static Workload only(EngineWork e) {
+        assertEquals(1, e.parts().size(), "parts");
+        return e.parts().get(0).work();
+    }
+
+    private static EngineWork sv(Circuit c, int shots, boolean fuse) {
+        return AmplitudeCost.work(c, shots, Precision.DOUBLE, fuse, 2);
+    }
+
+    @Test
+    void oneHadamardOnATopQubitIsOnePassThenOneSamplingPass() {
+        // h on qubit 15 >= 14 cannot be blocked: one dense pass; then one sampling pass.
+        Workload w = only(sv(Circuit.builder(N).h(15).measure().build(), 100, false));
+        assertEquals(1, w.passes(Workload.DENSE1), "dense passes");
+        assertEquals(1, w.streamed(Workload.DENSE1), "whole state touched once");
+        assertEquals(1, w.passes(Workload.SAMPLE), "sampling passes");
+        assertEquals(2, w.totalPasses(), "all passes");
+    }
+
+    @Test
+    void gatesBelowTheCacheBlockShareOneStream() {
+        // h on 0, 1, 2: all below 14, one blocked group: one stream, three gates in cache.
+        Workload w = only(sv(Circuit.builder(N).h(0).h(1).h(2).measure().build(), 10, false));
+        assertEquals(1, w.passes(Workload.BLOCK_STREAM), "group streams");
+        assertEquals(0, w.passes(Workload.DENSE1), "no lone dense pass");
+        assertEquals(3, w.cached(Workload.DENSE1), "gates done in cache");
+        assertEquals(2, w.totalPasses(), "group and sampling");
+    }
+
+    @Test
+    void frameGatesCostNoPassUntilSettled() {
+        // x(3), z(5), t(7) go to the frame; before sampling the frame settles: one pass for
+        // the phases and one permutation pass moving qubit 3's flip.
+        Workload w = only(sv(Circuit.builder(N).x(3).z(5).t(7).measure().build(), 10, false));
+        assertEquals(1, w.passes(Workload.PHASES), "phase pass");
+        assertEquals(1, w.passes(Workload.PERMUTATION), "flip moved");
+        assertEquals(0, w.passes(Workload.DENSE1), "no dense pass");
+        assertEquals(3, w.totalPasses(), "phases, flip and sampling");
+    }
+
+    @Test
+    void aControlledGateTouchesHalfTheState() {
+        // cnot(0, 15): X on 15 where qubit 0 is 1: one permutation pass over half the state.
+        Workload w = only(sv(Circuit.builder(N).cnot(0, 15).measure().build(), 10, false));
+        assertEquals(1, w.passes(Workload.PERMUTATION), "passes");
+        assertEquals(0.5, w.streamed(Workload.PERMUTATION), "half the amplitudes");
+    }
+
+    @Test
+    void fusionMergesARunOnOneQubitIntoOnePass() {
+        // h, ry, h on qubit 15: by Fusion's cost table a merged 1-qubit block costs 1 against
+        // 3 for the parts, so the run becomes one dense pass (unfused: three).
+        Circuit c = Circuit.builder(N).h(15).ry(15, 0.3).h(15).measure().build();
+        Workload fused = only(sv(c, 10, true));
+        assertEquals(1, fused.passes(Workload.DENSE1), "one fused pass");
+        assertEquals(2, fused.totalPasses(), "and the sampling pass");
+        Workload plain = only(sv(c, 10, false));
+        assertEquals(3, plain.passes(Workload.DENSE1), "unfused: three dense passes");
+    }
+
+    @Test
+    void shotByShotCountsThePrefixOnceAndTheRestPerShot() {
+        // h(15), measure(15 -> 0), h(15): the gate after the measurement makes it shot by shot.
+        // The prefix once (1 dense pass, 1 copy made); per shot a copy of the prefix state, one
+        // measurement and one dense pass; 10 shots.
+        Circuit c = Circuit.builder(N, 1).h(15).measure(15, 0).h(15).build();
+        EngineWork e = sv(c, 10, false);
+        assertEquals(2, e.parts().size(), "prefix and per-shot parts");
+        Workload prefix = e.parts().get(0).work();
+        Workload shot = e.parts().get(1).work();
+        assertEquals(1, prefix.passes(Workload.DENSE1), "prefix gate");
+        assertEquals(1, prefix.passes(Workload.COPY), "the working copy");
+        assertEquals(1, shot.passes(Workload.COPY), "a copy per shot");
+        assertEquals(1, shot.passes(Workload.MEASURE), "a measurement per shot");
+        assertEquals(1, shot.passes(Workload.DENSE1), "the gate after it");
+        assertEquals(10, e.parts().get(1).times(), "ten shots");
+        assertEquals(2 * HeapLayout.stateBytes(N, false), e.bytes(), "the state and its copy");
+    }
+
+    @Test
+    void stateBytesAreSixteenPerAmplitudeInDoubleAndEightInSingle() {
+        // 2^n amplitudes of 16 bytes (two doubles) or 8 (two floats), common practice; plus
+        // the array headers and, under G1, whole regions for large arrays.
+        for (int n : new int[] {10, 20, 26}) {
+            long chunks = 1L << Math.max(0, n - 24);
+            long payload = (16L << n) / chunks;
+            assertEquals(chunks * HeapLayout.arrayBytes(payload) + HeapLayout.arrayBytes(8
+                    * chunks), HeapLayout.stateBytes(n, false), "double, n = " + n);
+            assertEquals(chunks * HeapLayout.arrayBytes(payload / 2) + HeapLayout.arrayBytes(8
+                    * chunks), HeapLayout.stateBytes(n, true), "single, n = " + n);
+            long plain = 16L << n;
+            long taken = HeapLayout.stateBytes(n, false);
+            long slack = chunks * (HeapLayout.region() + 16) + 64;
+            assertTrue(taken >= plain && taken <= plain + slack, "n = " + n + ": " + taken);
+        }
+    }
+
+    @Test
+    void arrayHeaderAndRegionRounding() {
+        // A 64-bit HotSpot array: 16-byte header, sizes in multiples of 8 (common practice).
+        assertEquals(16, HeapLayout.arrayBytes(0));
+        assertEquals(24, HeapLayout.arrayBytes(1));
+        assertEquals(1040, HeapLayout.arrayBytes(1024));
+        long region = HeapLayout.region();
+        if (region > 0) {
+            // G1: an object of half a region or more takes whole regions (Oracle, HotSpot GC
+            // Tuning Guide, release 17, ch. 9, humongous objects).
+            assertEquals(region, HeapLayout.arrayBytes(region / 2));
+            assertEquals(2 * region, HeapLayout.arrayBytes(region));
+        }
+    }
+
+    @Test
+    void densityMatrixGatesAreTwoPassesAndChannelsOne() {
+        // h(0) then cnot(0, 1) on 3 qubits, depolarizing after one-qubit gates:
+        // h: 2 dense 1-qubit passes on the 6-qubit storage; its channel: 1 dense 2-qubit pass;
+        // cnot: 2 controlled passes over half the storage each.
+        NoiseModel noise = NoiseModel.builder().afterOneQubitGates(Channel.depolarizing(0.1))
+                .build();
+        Circuit c = Circuit.builder(3).h(0).cnot(0, 1).measure().build();
+        Simulator sim = Simulator.seeded(1).withNoise(noise)
+                .withEngine(Simulator.Engine.DENSITY_MATRIX);
+        RunCost cost = sim.forecast(c, 100, Calibration.quickProbe());
+        assertEquals(Simulator.Engine.DENSITY_MATRIX, cost.engine());
+        EngineWork e = dev.qsim.internal.Bridge.noise().work(c, noise, true, 100, 1);
+        Workload w = only(e);
+        assertEquals(6, w.qubits(), "storage qubits");
+        assertEquals(2, w.passes(Workload.DENSE1), "h on rows and columns");
+        assertEquals(1, w.passes(Workload.DENSE2), "the channel's superoperator");
+        assertEquals(1, w.streamed(Workload.DENSE1_CONTROLLED), "two passes over halves");
+        assertEquals(5, w.totalPasses(), "all passes");
+        assertTrue(e.bytes() >= 16L << 6, "at least 4^3 entries of 16 bytes");
+        assertEquals(5, cost.passes(), 1e-12, "the forecast's count");
+    }
+
+    @Test
+    void trajectoriesCountTheExpectedPauliBranches() {
+        // depolarizing(p) applies X, Y or Z with probability p (Nielsen and Chuang 2010,
+        // §8.3.4, Pauli form; see Channel.depolarizing), so after h(15) the expected dense
+        // passes per trajectory are 1 + p; plus one measurement per measured qubit.
+        double p = 0.3;
+        NoiseModel noise = NoiseModel.builder().afterOneQubitGates(Channel.depolarizing(p))
+                .build();
+        Circuit c = Circuit.builder(N, 1).h(15).measure(15, 0).build();
+        EngineWork e = dev.qsim.internal.Bridge.noise().work(c, noise, false, 8, 2);
+        EngineWork.Part part = e.parts().get(0);
+        assertEquals(8, part.times(), "one per shot");
+        assertEquals(2, part.workers(), "two workers");
+        assertEquals(1 + p, part.work().streamed(Workload.DENSE1), 1e-12, "expected passes");
+        assertEquals(1, part.work().passes(Workload.MEASURE), "one measurement");
+    }
+
+    @Test
+    void theTableauCountsWordsPerGateAndMeasurement() {
+        // 100 qubits: ceil(100/64) = 2 words per half column; a 1-qubit gate 4·2 words, a
+        // CNOT 4·2·2; a measurement n·2 = 200 words.
+        Circuit c = Circuit.builder(100).h(0).cnot(0, 1).measure(0, 0).build();
+        double[] w = TableauCost.words(c);
+        assertEquals(8 + 16, w[0], "gate words");
+        assertEquals(200, w[1], "measurement words");
+        assertEquals(2, w[3], "gates");
+        assertEquals(1, w[4], "measurements");
+    }
+
+    @Test
+    void fusionShapesMatchTheFusedGates() {
+        // The counting path plans the same blocks as the run's fusion.
+        UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(31L);
+        for (int trial = 0; trial < 20; trial++) {
+            Circuit.Builder b = Circuit.builder(10);
+            for (int g = 0; g < 60; g++) {
+                int q = rng.nextInt(10);
+                int r = (q + 1 + rng.nextInt(9)) % 10;
+                switch (rng.nextInt(4)) {
+                    case 0:
+                        b.h(q);
+                        break;
+                    case 1:
+                        b.rz(q, 0.3);
+                        break;
+                    case 2:
+                        b.cnot(q, r);
+                        break;
+                    default:
+                        b.ry(q, 0.7);
+                        break;
+                }
+            }
+            List<Instruction> gates = b.build().instructions();
+            List<Instruction> fused = Fusion.fuse(gates);
+            List<GateOp> shapes = Fusion.shapes(gates);
+            assertEquals(fused.size(), shapes.size(), "trial " + trial);
+            for (int i = 0; i < fused.size(); i++) {
+                assertEquals(java.util.Arrays.toString(fused.get(i).targets()),
+                        java.util.Arrays.toString(targets(shapes.get(i))), "trial " + trial
+                        + ", gate " + i);
+            }
+        }
+    }
+
+    private static int[] targets(GateOp op) {
+        return op.targets();
+    }
+
+    @Test
+    void forecastRefusesWhatTheRunRefuses() {
+        Circuit c = Circuit.builder(2).h(0).measure().build();
+        Simulator sim = Simulator.seeded(1);
+        IllegalArgumentException e = org.junit.jupiter.api.Assertions.assertThrows(
+                IllegalArgumentException.class, () -> sim.forecast(c, 0));
+        assertTrue(e.getMessage().contains("0"), e.getMessage());
+        Circuit t = Circuit.builder(2).t(0).measure().build();
+        e = org.junit.jupiter.api.Assertions.assertThrows(IllegalArgumentException.class,
+                () -> sim.withEngine(Simulator.Engine.TABLEAU).forecast(t, 10));
+        assertTrue(e.getMessage().contains("not a Clifford gate"), e.getMessage());
+    }
+
+    @Test
+    void cheaperSettingsAreOffered() {
+        Calibration cal = Calibration.quickProbe();
+        // A Clifford circuit of 20 qubits set to run on the state vector: the tableau and
+        // single precision are offered.
+        Circuit.Builder b = Circuit.builder(20);
+        for (int q = 0; q < 20; q++) {
+            b.h(q);
+        }
+        RunCost ideal = Simulator.seeded(1).withEngine(Simulator.Engine.AMPLITUDES)
+                .forecast(b.measure().build(), 100, cal);
+        assertEquals(Simulator.Engine.AMPLITUDES, ideal.engine());
+        assertTrue(ideal.alternatives().stream().anyMatch(a -> a.change().contains("TABLEAU")),
+                ideal.report());
+        assertTrue(ideal.alternatives().stream().anyMatch(a -> a.change().contains("SINGLE")),
+                ideal.report());
+        // A density-matrix run is offered trajectories.
+        NoiseModel noise = NoiseModel.builder().afterOneQubitGates(Channel.depolarizing(0.01))
+                .build();
+        RunCost dm = Simulator.seeded(1).withNoise(noise)
+                .withEngine(Simulator.Engine.DENSITY_MATRIX)
+                .forecast(Circuit.builder(8).h(0).measure().build(), 10, cal);
+        assertTrue(dm.alternatives().stream().anyMatch(a -> a.change().contains("TRAJECTORIES")),
+                dm.report());
+        assertTrue(dm.report().contains("DENSITY_MATRIX"), dm.report());
+    }
+}
