@@ -123,7 +123,7 @@ public final class CircuitBatch {
     /**
      * Returns an ideal batch of {@code shots} shots per program: comparison settings
      * {@link ComparisonSettings#defaults()}, 10,000 samples for a prediction that must be
-     * sampled, seed 0, Spark's default partition count, one thread per task.
+     * sampled, seed 0, the job's partition count (three per core), one thread per task.
      *
      * @param shots the shots per program, from 1 to 10,000,000
      * @return the batch
@@ -212,7 +212,8 @@ public final class CircuitBatch {
     /**
      * Returns this batch split into another number of partitions; results do not depend on it.
      *
-     * @param partitions 0 for Spark's default parallelism, or from 1 to 2^20
+     * @param partitions 0 for three per core of Spark's default parallelism (at most one per
+     *     item), or from 1 to 2^20
      * @return the new batch
      * @throws IllegalArgumentException if the count is out of range
      */
@@ -323,7 +324,7 @@ public final class CircuitBatch {
         for (int i = 0; i < sorted.size(); i++) {
             indexed.add(new Item(i, sorted.get(i)));
         }
-        int p = Slices.partitions(spark, partitions);
+        int p = Slices.partitions(spark, partitions, indexed.size());
         // parallelize cuts a list into contiguous slices, as Slices.of does.
         return results(spark, Slices.context(spark).parallelize(indexed, p));
     }
@@ -362,7 +363,7 @@ public final class CircuitBatch {
             throw new IllegalArgumentException("a batch needs at least one program; the table"
                     + " is empty");
         }
-        int p = Slices.partitions(spark, partitions);
+        int p = Slices.partitions(spark, partitions, n);
         JavaRDD<Item> items = programs.select("name", "program").orderBy("name", "program")
                 .javaRDD().zipWithIndex()
                 .mapToPair(t -> new Tuple2<Long, Item>(t._2(), new Item(t._2(), new Program(

@@ -86,8 +86,8 @@ public final class ParameterSweep {
     }
 
     /**
-     * Returns an exact sweep without gradients, seed 0, Spark's default partition count and
-     * one thread per task.
+     * Returns an exact sweep without gradients, seed 0, the job's partition count (three per
+     * core) and one thread per task.
      *
      * @param circuit the recipe of the circuit; its parameters must be exactly the points'
      *     names
@@ -145,7 +145,8 @@ public final class ParameterSweep {
     /**
      * Returns this sweep split into another number of partitions; results do not depend on it.
      *
-     * @param partitions 0 for Spark's default parallelism, or from 1 to 2^20
+     * @param partitions 0 for three per core of Spark's default parallelism (at most one per
+     *     item), or from 1 to 2^20
      * @return the new sweep
      * @throws IllegalArgumentException if the count is out of range
      */
@@ -211,7 +212,7 @@ public final class ParameterSweep {
                 threads);
         eval.prepare();
         eval.row(0); // on the driver: bad input fails here, before any work is sent out
-        int p = Slices.partitions(spark, partitions);
+        int p = Slices.partitions(spark, partitions, points.size());
         JavaRDD<long[]> slices = Slices.context(spark).parallelize(Slices.of(points.size(), p),
                 p);
         JavaRDD<Row> rows = slices.mapPartitions(eval);

@@ -42,16 +42,34 @@ final class Slices {
         return (n / p) * k + (n % p) * k / p;
     }
 
-    /** The partitions to use: the given count, or Spark's default parallelism for 0. */
-    static int partitions(SparkSession spark, int asked) {
-        return asked > 0 ? asked : Math.max(1, spark.sparkContext().defaultParallelism());
+    /**
+     * Tasks per core when the partition count is left to the job: {@value}, the "2-3 tasks per
+     * CPU core" of Spark's tuning guide (Apache Spark documentation, "Tuning Spark", section
+     * "Level of Parallelism"), so that items of unequal cost balance over the cores.
+     */
+    static final int TASKS_PER_CORE = 3;
+
+    /**
+     * The partitions to use: the given count, or for 0 {@value #TASKS_PER_CORE} per core of
+     * Spark's default parallelism, at most one per item (and at least 1).
+     */
+    static int partitions(SparkSession spark, int asked, long items) {
+        return asked > 0 ? asked : defaultPartitions(spark.sparkContext().defaultParallelism(),
+                items);
     }
 
-    /** Checks a partition count setting: 0 (Spark's default) or 1 to {@value #MAX_PARTITIONS}. */
+    /** {@value #TASKS_PER_CORE} partitions per core, at most one per item, at least one. */
+    static int defaultPartitions(int cores, long items) {
+        long p = Math.min((long) TASKS_PER_CORE * Math.max(1, cores), items);
+        return (int) Math.max(1, Math.min(p, MAX_PARTITIONS));
+    }
+
+    /** Checks a partition count: 0 (the job's choice) or 1 to {@value #MAX_PARTITIONS}. */
     static int requirePartitions(int partitions) {
         if (partitions < 0 || partitions > MAX_PARTITIONS) {
-            throw new IllegalArgumentException("the partition count must be 0 (Spark's default"
-                    + " parallelism) or from 1 to " + MAX_PARTITIONS + " but was " + partitions);
+            throw new IllegalArgumentException("the partition count must be 0 (three per core,"
+                    + " chosen by the job) or from 1 to " + MAX_PARTITIONS + " but was "
+                    + partitions);
         }
         return partitions;
     }

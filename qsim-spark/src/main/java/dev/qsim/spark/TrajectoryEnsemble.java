@@ -69,8 +69,8 @@ public final class TrajectoryEnsemble {
     }
 
     /**
-     * Returns an ensemble of {@code trajectories} trajectories with seed 0, Spark's default
-     * partition count and one thread per task.
+     * Returns an ensemble of {@code trajectories} trajectories with seed 0, the job's
+     * partition count (three per core) and one thread per task.
      *
      * @param circuit the recipe of the circuit (at most 63 classical bits)
      * @param noise the recipe of the noise model
@@ -103,7 +103,8 @@ public final class TrajectoryEnsemble {
      * Returns this ensemble split into another number of partitions; the tally does not
      * depend on it.
      *
-     * @param partitions 0 for Spark's default parallelism, or from 1 to 2^20
+     * @param partitions 0 for three per core of Spark's default parallelism (at most one per
+     *     item), or from 1 to 2^20
      * @return the new ensemble
      * @throws IllegalArgumentException if the count is out of range
      */
@@ -141,7 +142,7 @@ public final class TrajectoryEnsemble {
         Runner runner = new Runner(circuit, noise, seed, threads);
         runner.prepare();
         runner.simulator.runTrajectories(runner.made, 0, 1);
-        int p = Slices.partitions(spark, partitions);
+        int p = Slices.partitions(spark, partitions, trajectories);
         List<long[][]> parts = Slices.context(spark).parallelize(Slices.of(trajectories, p), p)
                 .mapPartitions(runner).collect();
         Map<Long, Long> sum = new HashMap<>();

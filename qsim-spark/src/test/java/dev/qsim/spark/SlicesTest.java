@@ -50,6 +50,19 @@ class SlicesTest {
     }
 
     @Test
+    void theDefaultIsThreeTasksPerCoreAndAtMostOnePerItem() {
+        // "2-3 tasks per CPU core" (Apache Spark documentation, "Tuning Spark", Level of
+        // Parallelism): three per core, never an empty partition, never none.
+        assertEquals(6, Slices.defaultPartitions(2, 200));
+        assertEquals(3, Slices.defaultPartitions(2, 3));
+        assertEquals(1, Slices.defaultPartitions(2, 1));
+        assertEquals(1, Slices.defaultPartitions(0, 0));
+        assertEquals(3, Slices.defaultPartitions(1, 1_000_000));
+        assertEquals(Slices.MAX_PARTITIONS, Slices.defaultPartitions(Integer.MAX_VALUE,
+                Long.MAX_VALUE));
+    }
+
+    @Test
     void settingsOutOfRangeAreRefusedByValue() {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
                 () -> Slices.requirePartitions(Slices.MAX_PARTITIONS + 1));

@@ -81,8 +81,8 @@ public final class RandomizedBenchmarking {
     }
 
     /**
-     * Returns a benchmark with exact survival probabilities, seed 0 and Spark's default
-     * partition count.
+     * Returns a benchmark with exact survival probabilities, seed 0 and the job's
+     * partition count (three per core).
      *
      * @param noise the recipe of the noise model (such as
      *     {@link Recipe#deviceNoise(String)}); made once here to check it
@@ -152,14 +152,15 @@ public final class RandomizedBenchmarking {
      * Returns this benchmark split into another number of partitions; results do not depend
      * on it.
      *
-     * @param partitions 0 for Spark's default parallelism, or from 1 to 2^20
+     * @param partitions 0 for three per core of Spark's default parallelism (at most one per
+     *     item), or from 1 to 2^20
      * @return the new benchmark
      * @throws IllegalArgumentException if the count is out of range
      */
     public RandomizedBenchmarking withPartitions(int partitions) {
         if (partitions < 0 || partitions > (1 << 20)) {
-            throw new IllegalArgumentException("the partition count must be 0 (Spark's default"
-                    + " parallelism) or from 1 to " + (1 << 20) + " but was " + partitions);
+            throw new IllegalArgumentException("the partition count must be 0 (three per core,"
+                    + " chosen by the job) or from 1 to " + (1 << 20) + " but was " + partitions);
         }
         return new RandomizedBenchmarking(noise, lengths, sequences, shots, seed, partitions);
     }
@@ -213,8 +214,10 @@ public final class RandomizedBenchmarking {
     public Results run(SparkSession spark) {
         Objects.requireNonNull(spark, "spark");
         long n = (long) lengths.length * sequences;
-        int p = partitions > 0 ? partitions : Math.max(1,
-                spark.sparkContext().defaultParallelism());
+        // Left to the job: three partitions per core, at most one per sequence, as the other
+        // jobs (Slices.TASKS_PER_CORE).
+        int p = partitions > 0 ? partitions : (int) Math.max(1, Math.min(n,
+                3L * Math.max(1, spark.sparkContext().defaultParallelism())));
         List<long[]> slices = new ArrayList<>();
         for (int k = 0; k < p; k++) {
             slices.add(new long[] {(n / p) * k + (n % p) * k / p,

@@ -138,8 +138,9 @@ public final class SparkTool implements Callable<Integer> {
                 description = "Spark master (default: local[*] unless spark-submit set one)")
         String master;
         @Option(names = "--partitions", defaultValue = "0", paramLabel = "P",
-                description = "partitions of the job, 1 to 1,048,576, or 0 for Spark's default"
-                        + " parallelism (default ${DEFAULT-VALUE}); results do not depend on it")
+                description = "partitions of the job, 1 to 1,048,576, or 0 for three per core of"
+                        + " Spark's default parallelism, at most one per item (default"
+                        + " ${DEFAULT-VALUE}); results do not depend on it")
         int partitions;
         @Option(names = "--threads", defaultValue = "1", paramLabel = "T",
                 description = "threads of each simulation within a task, 1 to 256 (default"

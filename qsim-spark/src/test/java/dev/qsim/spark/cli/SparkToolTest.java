@@ -13,8 +13,16 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.stream.Stream;
 
+import org.apache.spark.sql.Dataset;
+import org.apache.spark.sql.Row;
+import org.apache.spark.sql.RowFactory;
+import org.apache.spark.sql.SparkSession;
+import org.apache.spark.sql.types.DataTypes;
+import org.apache.spark.sql.types.StructField;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+
+import dev.qsim.spark.LocalSpark;
 
 /** The tool's commands, run in this JVM on local[2], against closed forms and by their output. */
 class SparkToolTest {
@@ -120,6 +128,89 @@ class SparkToolTest {
         assertTrue(o.out().startsWith("9 sequences in"), o.out());
         assertTrue(o.out().contains("fit: p = ") && o.out().contains("the noise model's 0.011"),
                 o.out());
+    }
+
+    /** A table's columns as "name type" (Spark's simple type names), in order. */
+    private static List<String> columns(Dataset<Row> table) {
+        List<String> out = new ArrayList<>();
+        for (StructField f : table.schema().fields()) {
+            out.add(f.name() + " " + f.dataType().simpleString());
+        }
+        return out;
+    }
+
+    @Test
+    void batchTablesReadBackFromParquetWithTheDocumentedSchema() throws IOException {
+        // The programs as a Parquet table (columns name and program), written by Spark.
+        Path table = dir.resolve("programs.parquet");
+        Path out = dir.resolve("b");
+        List<String> written = new ArrayList<>();
+        SparkSession spark = LocalSpark.start();
+        try {
+            List<Row> programs = List.of(
+                    RowFactory.create("ghz5", Files.readString(DEMO.resolve("ghz5.qasm"))),
+                    RowFactory.create("bell", Files.readString(DEMO.resolve("bell.qasm"))));
+            spark.createDataFrame(programs, DataTypes.createStructType(List.of(
+                    DataTypes.createStructField("name", DataTypes.StringType, false),
+                    DataTypes.createStructField("program", DataTypes.StringType, false))))
+                    .coalesce(1).write().parquet(table.toString());
+            Outcome o = tool("batch", "--table", table.toString(), "--shots", "1000",
+                    "--seed", "5", "--out", out.toString());
+            assertEquals(0, o.code(), o.err());
+            assertTrue(o.out().contains("2 programs in"), o.out());
+            Dataset<Row> circuits = spark.read().parquet(out.resolve("circuits").toString());
+            Dataset<Row> outcomes = spark.read().parquet(out.resolve("outcomes").toString());
+            // The schemas of docs/spark.md ("Results: schemas"), column for column.
+            assertEquals(List.of("index bigint", "circuit string", "qubits int", "clbits int",
+                    "shots bigint", "engine string", "prediction string",
+                    "prediction_samples bigint", "distance double", "distance_low double",
+                    "distance_high double", "observed_distance double", "passes boolean",
+                    "impossible_rate double", "outcomes int", "problem string"),
+                    columns(circuits));
+            assertEquals(List.of("index bigint", "circuit string", "bits string",
+                    "count bigint", "frequency double", "predicted double"), columns(outcomes));
+            // One row per program, in name order; one row per outcome seen.
+            List<Row> c = circuits.orderBy("index").collectAsList();
+            assertEquals(List.of("bell", "ghz5"), c.stream().map(r -> r.getString(1)).toList());
+            for (int i = 0; i < 2; i++) {
+                Row r = c.get(i);
+                assertEquals(i, r.getLong(0));
+                assertEquals(1000L, r.getLong(4));
+                List<Row> seen = outcomes.where("index = " + i).orderBy("bits").collectAsList();
+                assertEquals(r.getInt(14), seen.size());
+                // A Bell pair and a GHZ state read all zeros or all ones, each with
+                // probability 1/2 (Nielsen and Chuang 2010, section 1.3.6; Greenberger, Horne
+                // and Zeilinger 1989).
+                int width = r.getInt(3);
+                assertEquals(List.of("0".repeat(width), "1".repeat(width)),
+                        seen.stream().map(x -> x.getString(2)).toList());
+                long total = 0;
+                for (Row x : seen) {
+                    assertEquals(r.getString(1), x.getString(1));
+                    assertEquals(0.5, x.getDouble(5), 1e-12);
+                    assertEquals(x.getLong(3) / 1000.0, x.getDouble(4), 0.0);
+                    total += x.getLong(3);
+                    written.add(x.getLong(0) + "," + x.getString(1) + "," + x.getString(2)
+                            + "," + x.getLong(3));
+                }
+                assertEquals(1000, total);
+            }
+        } finally {
+            LocalSpark.stop();
+        }
+        // The same batch again, as CSV on 3 partitions, gives the same outcome rows (each
+        // program seeded by its index).
+        Path again = dir.resolve("again");
+        Outcome o = tool("batch", "--table", table.toString(), "--shots", "1000", "--seed", "5",
+                "--partitions", "3", "--format", "csv", "--out", again.toString());
+        assertEquals(0, o.code(), o.err());
+        List<String> read = new ArrayList<>();
+        for (String[] r : csv(again.resolve("outcomes"))) {
+            read.add(String.join(",", r[0], r[1], r[2], r[3]));
+        }
+        read.sort(null);
+        written.sort(null);
+        assertEquals(written, read);
     }
 
     @Test
