@@ -66,10 +66,14 @@ final class SpeedCommand implements Callable<Integer> {
     @Option(names = "--seed", defaultValue = "1", paramLabel = "S",
             description = "seed of the circuits and the batch (default ${DEFAULT-VALUE})")
     long seed;
+    @Option(names = "--resamples", defaultValue = "100", paramLabel = "R",
+            description = "draws per candidate distance of each comparison, 20 to 100,000; at"
+                    + " 16 qubits the comparison is most of a circuit's time (default"
+                    + " ${DEFAULT-VALUE})")
+    int resamples;
 
-    /** The comparison settings of every way: fewer draws than the default, all equal. */
-    private static final ComparisonSettings SETTINGS = ComparisonSettings.defaults()
-            .withResamples(100).withThreads(1);
+    /** The comparison settings of every way, all equal; set in {@link #call()}. */
+    private ComparisonSettings settings;
 
     @Override
     public Integer call() throws InterruptedException, ExecutionException {
@@ -78,14 +82,17 @@ final class SpeedCommand implements Callable<Integer> {
         check(layers, 1, 1000, "--layers");
         check(shots, 1, 1_000_000, "--shots");
         check(repeats, 1, 20, "--repeats");
+        check(resamples, ComparisonSettings.MIN_RESAMPLES, 100_000, "--resamples");
+        settings = ComparisonSettings.defaults().withResamples(resamples).withThreads(1);
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
         List<CircuitBatch.Program> programs = programs(circuits, qubits, layers, seed);
         List<CircuitBatch.Program> warm = programs.subList(0, Math.min(20, circuits));
         double loadBefore = load();
         err.println(SparkTool.f("speed: %d random circuits of %d qubits and %d layers, %d shots"
-                + " each; %d processors, load average %.2f", circuits, qubits, layers, shots,
-                Runtime.getRuntime().availableProcessors(), loadBefore));
+                + " each, %d resamples; %d processors, load average %.2f", circuits, qubits,
+                layers, shots, resamples, Runtime.getRuntime().availableProcessors(),
+                loadBefore));
         err.flush();
         double[][] times = new double[4][repeats];
         double[] reference = plain(warm, 1);
@@ -130,9 +137,9 @@ final class SpeedCommand implements Callable<Integer> {
         double p2 = median(times[1]);
         double s1 = median(times[2]);
         double s2 = median(times[3]);
-        out.println(SparkTool.f("batch of %d circuits, %d qubits, %d layers, %d shots (median of"
-                + " %d runs; every way gave identical results)", circuits, qubits, layers, shots,
-                repeats));
+        out.println(SparkTool.f("batch of %d circuits, %d qubits, %d layers, %d shots, %d"
+                + " resamples (median of %d runs; every way gave identical results)", circuits,
+                qubits, layers, shots, resamples, repeats));
         out.println(SparkTool.f("  plain loop, 1 thread     %8.2f s", p1));
         out.println(SparkTool.f("  plain loop, 2 threads    %8.2f s", p2));
         out.println(SparkTool.f("  Spark local[1]           %8.2f s  (session start %.2f s,"
@@ -223,12 +230,12 @@ final class SpeedCommand implements Callable<Integer> {
         Tally tally = Simulator.seeded(itemSeed).withThreads(1).run(c, shots);
         Simulator.Prediction p = Simulator.seeded(ItemSeeds.of(itemSeed, 1)).withThreads(1)
                 .predict(c, 10_000);
-        return TallyComparison.of(tally, p.probabilities(), SETTINGS
+        return TallyComparison.of(tally, p.probabilities(), settings
                 .withPredictionShots(p.samples())).distance();
     }
 
     private double[] spark(SparkSession spark, List<CircuitBatch.Program> programs) {
-        CircuitBatch.Results r = CircuitBatch.of(shots).withSeed(seed).withComparison(SETTINGS)
+        CircuitBatch.Results r = CircuitBatch.of(shots).withSeed(seed).withComparison(settings)
                 .run(spark, programs);
         List<Row> rows = r.circuits().collectAsList();
         r.release();

@@ -255,6 +255,9 @@ class SparkToolTest {
         assertTrue(o.err().contains("at least 3 distinct lengths"), o.err());
         o = tool("speed", "--qubits", "40");
         assertTrue(o.err().contains("--qubits: 40 is not a whole number from 2 to 24"), o.err());
+        o = tool("speed", "--resamples", "5");
+        assertTrue(o.err().contains("--resamples: 5 is not a whole number from 20 to 100000"),
+                o.err());
         o = tool("--version");
         assertTrue(o.out().startsWith("qsim-spark "), o.out());
     }
