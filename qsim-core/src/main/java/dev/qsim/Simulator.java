@@ -654,7 +654,7 @@ public final class Simulator implements CircuitRunner {
                         circuit.clbits(), shots, rng());
             case TRAJECTORIES:
                 requireDoubleForNoise();
-                return Bridge.noise().trajectories(circuit, noise, shots, seed, threads,
+                return Bridge.noise().trajectories(circuit, noise, 0, shots, seed, threads,
                         precision);
             case MATRIX_PRODUCT:
                 return Bridge.matrixProducts().run(circuit, shots, seed, bondLimit, truncation);
@@ -662,6 +662,42 @@ public final class Simulator implements CircuitRunner {
                 return AmplitudeEngine.run(circuit, shots, newState(circuit), rng(),
                         fuses(circuit), threads);
         }
+    }
+
+    /**
+     * Runs one slice of a trajectory ensemble: trajectories {@code first} to
+     * {@code first + count - 1} of the ensemble that {@link #run(Circuit, int)} takes on the
+     * {@link Engine#TRAJECTORIES} engine with this seed and noise, and tallies their classical
+     * bits. Trajectory {@code t} draws from its own generator seeded from the seed and
+     * {@code t} alone, so the slices of any split of {@code [0, n)} add up, count for count, to
+     * {@code withEngine(Engine.TRAJECTORIES).run(circuit, n)}, whichever machine or thread ran
+     * each slice. This runs trajectories whatever the engine setting (without noise, each is one
+     * ideal shot).
+     *
+     * @param circuit the circuit, at most 63 classical bits
+     * @param first the index of the first trajectory, at least 0
+     * @param count the number of trajectories, at least 1, with {@code first + count} at most
+     *     {@code Long.MAX_VALUE}
+     * @return a tally of width {@code circuit.clbits()} and {@code count} shots
+     * @throws IllegalArgumentException if {@code first < 0}, {@code count < 1}, the slice
+     *     passes {@code Long.MAX_VALUE}, the precision is not double, or trajectories cannot run
+     *     the circuit (the message says why)
+     * @throws IllegalStateException if the heap cannot hold the state or the outcomes
+     * @since 0.1
+     */
+    public Tally runTrajectories(Circuit circuit, long first, int count) {
+        Objects.requireNonNull(circuit, "circuit");
+        Checks.requireAtLeast(first, 0, "the first trajectory's index");
+        Checks.requireShots(count);
+        if (first > Long.MAX_VALUE - count) {
+            throw refuse("the slice of " + count + " trajectories from index " + first
+                    + " passes the last index " + Long.MAX_VALUE + "; the first index may be at"
+                    + " most " + (Long.MAX_VALUE - count));
+        }
+        requireTrajectories(circuit);
+        requireDoubleForNoise();
+        return Bridge.noise().trajectories(circuit, noise, first, count, seed, threads,
+                precision);
     }
 
     /**

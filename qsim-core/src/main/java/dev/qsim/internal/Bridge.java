@@ -141,18 +141,20 @@ public final class Bridge {
                 long budgetBytes);
 
         /**
-         * Runs Monte Carlo wave-function trajectories, one shot each.
+         * Runs Monte Carlo wave-function trajectories {@code first} to
+         * {@code first + shots - 1} of the seed's ensemble, one shot each.
          *
          * @param circuit any circuit with at most 63 classical bits
          * @param model the noise model
+         * @param first the index of the first trajectory, at least 0
          * @param shots the trajectory count
          * @param seed the seed
          * @param threads threads
          * @param precision the state vectors' precision
          * @return the tally
          */
-        Tally trajectories(Circuit circuit, NoiseModel model, int shots, long seed, int threads,
-                Precision precision);
+        Tally trajectories(Circuit circuit, NoiseModel model, long first, int shots, long seed,
+                int threads, Precision precision);
 
         /**
          * Returns the state at the end of trajectory 0.

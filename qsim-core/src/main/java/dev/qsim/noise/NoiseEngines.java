@@ -342,8 +342,8 @@ final class NoiseEngines implements Bridge.Noise {
     }
 
     @Override
-    public Tally trajectories(Circuit circuit, NoiseModel model, int shots, long seed,
-            int threads, Precision precision) {
+    public Tally trajectories(Circuit circuit, NoiseModel model, long first, int shots,
+            long seed, int threads, Precision precision) {
         int width = circuit.clbits();
         Compiled compiled = new Compiled(circuit.instructions(), model);
         long[] keys = Heap.allocate(8L * shots, "the outcomes of " + shots + " trajectories",
@@ -360,7 +360,7 @@ final class NoiseEngines implements Bridge.Noise {
                 a.clear();
                 a.set(0, 1, 0);
                 classical.clear();
-                backend.rng = trajectoryRng(seed, t);
+                backend.rng = trajectoryRng(seed, first + t);
                 ShotRunner.run(circuit.instructions(), 0, classical, circuit.variables(),
                         backend);
                 long key = 0;
