@@ -51,7 +51,7 @@ import dev.qsim.kernel.Workload;
  */
 public final class Calibration {
     /** The file format's version; a file of another version is ignored, with the reason. */
-    public static final int FORMAT = 1;
+    public static final int FORMAT = 2;
     /** System property naming the folder of the calibration file (tests use a temporary one). */
     public static final String FOLDER_PROPERTY = "qsim.config.dir";
     /** The calibration file's name inside the folder. */
@@ -76,7 +76,7 @@ public final class Calibration {
 
     private static final String[] OTHER_KEYS = {"shot", "shot.bit", "tableau.gate",
         "tableau.gate.word", "tableau.measure", "tableau.measure.word", "tableau.batch.word",
-        "plan.gate", "fuse.gate"};
+        "plan.gate", "fuse.gate", "mps.unit"};
 
     private static Calibration probe;
 
@@ -92,6 +92,7 @@ public final class Calibration {
     private final double[] tableau;
     private final double planNanos;
     private final double fuseNanos;
+    private final double mpsUnitNanos;
     private final String note;
 
     private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
@@ -107,6 +108,7 @@ public final class Calibration {
         this.tableau = Arrays.copyOfRange(other, 2, 7);
         this.planNanos = other[7];
         this.fuseNanos = other[8];
+        this.mpsUnitNanos = other[9];
         this.note = note;
     }
 
@@ -159,12 +161,41 @@ public final class Calibration {
         double[] shot = shotNanos(nanos, quick ? 20_000 : 400_000);
         double[] tab = tableauNanos(nanos, shot, quick);
         double[] plan = planNanos(nanos);
+        double mps = mpsUnitNanos(nanos);
         progress.accept(String.format(Locale.ROOT, "tallying %.0f ns per shot and %.1f per bit;"
                 + " tableau %.0f ns per gate and %.2f per word, %.0f ns per measurement and"
                 + " %.2f per word", shot[0], shot[1], tab[0], tab[1], tab[2], tab[3]));
         return new Calibration(source, Instant.now().truncatedTo(ChronoUnit.SECONDS),
                 KernelTimer.path(), all, sizes.clone(), r, new double[] {shot[0], shot[1], tab[0],
-                    tab[1], tab[2], tab[3], tab[4], plan[0], plan[1]}, "");
+                    tab[1], tab[2], tab[3], tab[4], plan[0], plan[1], mps}, "");
+    }
+
+    /**
+     * Nanoseconds per unit of matrix-product-state work ({@link MpsCost}): two-site updates on
+     * the middle bonds of a 12-qubit chain held at bond dimension 32, each a split of a
+     * 64 x 64 block, {@code 64³} units.
+     */
+    private static double mpsUnitNanos(long nanos) {
+        UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(31L);
+        int n = 12;
+        int chi = 32;
+        dev.qsim.mps.MatrixProductState s = dev.qsim.mps.MatrixProductState.zero(n, chi, 0);
+        for (int layer = 0; layer < 2 * n; layer++) {
+            for (int q = layer % 2; q + 1 < n; q += 2) {
+                s.apply(Gates.u(1 + rng.nextDouble(), rng.nextDouble(), rng.nextDouble())
+                        .tensor(Gates.u(1 + rng.nextDouble(), 0.3, 0.7)).times(Gates.CNOT), q,
+                        q + 1);
+            }
+        }
+        Operator g = Gates.u(1.1, 0.2, 0.3).tensor(Gates.u(0.7, 0.4, 0.9)).times(Gates.CNOT);
+        int mid = n / 2;
+        double perGate = best(() -> {
+            for (int r = 0; r < 8; r++) {
+                s.apply(g, mid - 1 + (r & 1), mid + (r & 1));
+            }
+        }, nanos) / 8;
+        double block = 2.0 * chi;
+        return perGate / (block * block * block);
     }
 
     /**
@@ -581,7 +612,7 @@ public final class Calibration {
 
     private double[] others() {
         return new double[] {shotNanos, shotBitNanos, tableau[0], tableau[1], tableau[2],
-            tableau[3], tableau[4], planNanos, fuseNanos};
+            tableau[3], tableau[4], planNanos, fuseNanos, mpsUnitNanos};
     }
 
     /** Nanoseconds to plan one gate (frame, conjugation, kernel layout), beyond its passes. */
@@ -592,6 +623,11 @@ public final class Calibration {
     /** Nanoseconds per gate read by gate fusion (grouping and multiplying matrices). */
     double fuseNanos() {
         return fuseNanos;
+    }
+
+    /** Nanoseconds per unit of matrix-product-state work ({@link MpsCost}). */
+    double mpsUnitNanos() {
+        return mpsUnitNanos;
     }
 
     /** Nanoseconds per shot drawn and tallied. */

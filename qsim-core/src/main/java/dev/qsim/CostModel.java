@@ -12,8 +12,9 @@ import dev.qsim.kernel.Workload;
 
 /**
  * Turns a run's counted work into a {@link RunCost}: each engine counts its own steps (one
- * counter per engine: {@link AmplitudeCost}, {@link TableauCost}, and the noise engines'
- * {@code NoiseCost} behind the bridge; a new engine adds its counter and a case here), and
+ * counter per engine: {@link AmplitudeCost}, {@link TableauCost}, {@link MpsCost}, and the
+ * noise engines' {@code NoiseCost} behind the bridge; a new engine adds its counter and a case
+ * here), and
  * this class prices the counts with a {@link Calibration}'s rates and lists cheaper settings.
  */
 final class CostModel {
@@ -113,6 +114,9 @@ final class CostModel {
                 e = Bridge.noise().work(c, sim.noise(), false, shots, threads);
                 trajectories = shots;
                 break;
+            case MATRIX_PRODUCT:
+                e = MpsCost.work(c, shots, sim.bondLimit());
+                break;
             default:
                 e = AmplitudeCost.work(c, shots, precision, sim.fusion()
                         && c.qubits() >= Fusion.MIN_STATE_QUBITS, threads);
@@ -191,6 +195,13 @@ final class CostModel {
             total += t;
             lines.add(String.format(Locale.ROOT, "%s tableau words: %s", amount(words),
                     RunCost.secondsText(t * 1e-9)));
+        }
+        if (e.mpsUnits() > 0) {
+            double t = e.mpsUnits() * cal.mpsUnitNanos();
+            total += t;
+            lines.add(String.format(Locale.ROOT, "%s block updates of the matrix product state"
+                    + " (bond dimension up to %.0f, an upper bound): %s", amount(e.mpsUpdates()),
+                    e.mpsLargestBond(), RunCost.secondsText(t * 1e-9)));
         }
         if (e.shots() > 0) {
             double t = e.shots() * cal.shotNanos() + e.shotBits() * cal.shotBitNanos();

@@ -50,6 +50,9 @@ public final class EngineWork {
     private double tableauMeasurements;
     private double tableauMeasureWords;
     private double tableauBatchWords;
+    private double mpsUnits;
+    private long mpsUpdates;
+    private double mpsLargestBond;
 
     /**
      * Adds counted passes.
@@ -106,6 +109,49 @@ public final class EngineWork {
         tableauMeasureWords += measureWords;
         tableauBatchWords += batchWords;
         return this;
+    }
+
+    /**
+     * Adds matrix-product-state work: decomposition units ({@code m n min(m, n)} for each
+     * {@code m x n} block split), the block updates and the largest bond dimension reached.
+     *
+     * @param units the units
+     * @param updates the block updates
+     * @param largestBond the largest bond dimension
+     * @return this
+     */
+    public EngineWork mps(double units, long updates, double largestBond) {
+        mpsUnits += units;
+        mpsUpdates += updates;
+        mpsLargestBond = Math.max(mpsLargestBond, largestBond);
+        return this;
+    }
+
+    /**
+     * Returns the matrix-product-state units counted.
+     *
+     * @return the units
+     */
+    public double mpsUnits() {
+        return mpsUnits;
+    }
+
+    /**
+     * Returns the matrix-product-state block updates counted.
+     *
+     * @return the updates
+     */
+    public long mpsUpdates() {
+        return mpsUpdates;
+    }
+
+    /**
+     * Returns the largest bond dimension of the matrix product state.
+     *
+     * @return the bond dimension
+     */
+    public double mpsLargestBond() {
+        return mpsLargestBond;
     }
 
     /** @return the parts, in order */

@@ -786,7 +786,7 @@ public final class Cli implements Callable<Integer> {
                     long warm = System.nanoTime();
                     // Warm-up, so the timing sees compiled code: longer at the first size, since
                     // the vector loops run about 100 times slower until the JIT compiles them.
-                    long warmUp = n == from ? 400_000_000L : 20_000_000L;
+                    long warmUp = n == min ? 400_000_000L : 20_000_000L;
                     do {
                         s.apply(layer);
                     } while (System.nanoTime() - warm < warmUp);
