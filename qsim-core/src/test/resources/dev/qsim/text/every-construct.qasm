@@ -1,10 +1,10 @@
-// Power-on self-test of the (invented) Quillfield Instruments "Wren-5" demonstrator: five
+// Power-on self-test of the (invented) Quillfield Instruments "Ratchet-5" demonstrator: five
 // qubits, ten classical bits. It uses every construct the qsim reader supports (see
 // docs/openqasm.md); EveryConstructTest checks the distribution it must give, derived at the
 // end of this file. Read it with the input tilt = pi/3 and dt = 1 ns.
 OPENQASM 3.0;
 include "stdgates.inc";
-pragma wren5 calibration-table 7     // a pragma: ignored
+pragma ratchet5 calibration-table 7     // a pragma: ignored
 
 /* ---- declarations ---- */
 input float tilt;                    // from the reader's settings
