@@ -116,6 +116,7 @@ final class CostModel {
                 break;
             case MATRIX_PRODUCT:
                 e = MpsCost.work(c, shots, sim.bondLimit());
+                precision = Precision.DOUBLE; // its tensors are always double precision
                 break;
             default:
                 e = AmplitudeCost.work(c, shots, precision, sim.fusion()

@@ -58,6 +58,9 @@ class MpsCostTest {
         RunCost cost = Simulator.seeded(1).withEngine(Simulator.Engine.MATRIX_PRODUCT)
                 .forecast(b.build(), 1);
         assertEquals(Simulator.Engine.MATRIX_PRODUCT, cost.engine());
+        // The tensors are double precision whatever the setting (the engine's contract).
+        assertEquals(Precision.DOUBLE, Simulator.seeded(1).withPrecision(Precision.SINGLE)
+                .withEngine(Simulator.Engine.MATRIX_PRODUCT).forecast(b.build(), 1).precision());
         assertTrue(cost.seconds() > 0 && cost.bytes() > 0, cost::toString);
     }
 }
