@@ -21,7 +21,8 @@ import org.apache.commons.math3.util.Pair;
  * 106, 180504, eq. 3 and the text after it). Immutable.
  *
  * <p>The fit is Levenberg-Marquardt (Moré 1978, "The Levenberg-Marquardt algorithm:
- * implementation and theory", Lecture Notes in Mathematics 630, 105) as Apache Commons Math 3.6
+ * implementation and theory", in Numerical Analysis, Dundee 1977, Springer, pp. 105-116,
+ * doi:10.1007/BFb0067700) as Apache Commons Math 3.6
  * implements it, every point weighted equally. Standard errors come from the covariance
  * {@code s² (JᵀJ)⁻¹} at the optimum with {@code s²} the residual sum of squares over
  * {@code n - 3} (common practice for nonlinear least squares; Seber and Wild 2003, Nonlinear
