@@ -14,6 +14,10 @@ import dev.qsim.kernel.Workload;
  * it. Mutable while filled. Internal.
  */
 public final class EngineWork {
+    /** An empty count, for a counter to fill. */
+    public EngineWork() {
+    }
+
     /**
      * Counted passes done {@code times} times, each on {@code threads} kernel threads, spread
      * over {@code workers} independent workers that share the machine.
@@ -154,52 +158,92 @@ public final class EngineWork {
         return mpsLargestBond;
     }
 
-    /** @return the parts, in order */
+    /**
+     * Returns the parts, in order.
+     *
+     * @return the parts, in order
+     */
     public List<Part> parts() {
         return List.copyOf(parts);
     }
 
-    /** @return the bytes held at the peak */
+    /**
+     * Returns the bytes held at the peak.
+     *
+     * @return the bytes held at the peak
+     */
     public long bytes() {
         return bytes;
     }
 
-    /** @return what holds the bytes, in words */
+    /**
+     * Returns what holds the bytes, in words.
+     *
+     * @return what holds the bytes, in words
+     */
     public List<String> held() {
         return List.copyOf(held);
     }
 
-    /** @return the shots drawn and tallied */
+    /**
+     * Returns the shots drawn and tallied.
+     *
+     * @return the shots drawn and tallied
+     */
     public double shots() {
         return shots;
     }
 
-    /** @return the classical bits of all shots tallied */
+    /**
+     * Returns the classical bits of all shots tallied.
+     *
+     * @return the classical bits of all shots tallied
+     */
     public double shotBits() {
         return shotBits;
     }
 
-    /** @return the tableau's gates */
+    /**
+     * Returns the tableau's gates.
+     *
+     * @return the tableau's gates
+     */
     public double tableauGates() {
         return tableauGates;
     }
 
-    /** @return the tableau's measurements and resets */
+    /**
+     * Returns the tableau's measurements and resets.
+     *
+     * @return the tableau's measurements and resets
+     */
     public double tableauMeasurements() {
         return tableauMeasurements;
     }
 
-    /** @return the tableau's words of gate work */
+    /**
+     * Returns the tableau's words of gate work.
+     *
+     * @return the tableau's words of gate work
+     */
     public double tableauWords() {
         return tableauWords;
     }
 
-    /** @return the tableau's words of measurement work */
+    /**
+     * Returns the tableau's words of measurement work.
+     *
+     * @return the tableau's words of measurement work
+     */
     public double tableauMeasureWords() {
         return tableauMeasureWords;
     }
 
-    /** @return the tableau's words of replayed batches */
+    /**
+     * Returns the tableau's words of replayed batches.
+     *
+     * @return the tableau's words of replayed batches
+     */
     public double tableauBatchWords() {
         return tableauBatchWords;
     }
