@@ -109,32 +109,33 @@ public final class MatrixProductReport {
                 String[] parts = value.split(",");
                 o.chis = new int[parts.length];
                 for (int k = 0; k < parts.length; k++) {
-                    o.chis[k] = (int) within(name, number(name, parts[k].trim()), 2, 4096);
+                    long chi = PlainOptions.number(name, parts[k].trim());
+                    o.chis[k] = (int) PlainOptions.within(name, chi, 2, 4096);
                 }
                 continue;
             }
-            long v = number(name, value);
+            long v = PlainOptions.number(name, value);
             switch (name) {
                 case "--fit-from":
-                    o.fitFrom = (int) within(name, v, 2, 4096);
+                    o.fitFrom = (int) PlainOptions.within(name, v, 2, 4096);
                     break;
                 case "--chain-qubits":
-                    o.chainQubits = (int) within(name, v, 4, 64);
+                    o.chainQubits = (int) PlainOptions.within(name, v, 4, 64);
                     break;
                 case "--millis":
-                    o.millis = within(name, v, 10, 600_000);
+                    o.millis = PlainOptions.within(name, v, 10, 600_000);
                     break;
                 case "--qubits":
-                    o.qubits = (int) within(name, v, 2, 100_000);
+                    o.qubits = (int) PlainOptions.within(name, v, 2, 100_000);
                     break;
                 case "--depth":
-                    o.depth = (int) within(name, v, 1, 10_000);
+                    o.depth = (int) PlainOptions.within(name, v, 1, 10_000);
                     break;
                 case "--bond-limit":
-                    o.bondLimit = (int) within(name, v, 1, 4096);
+                    o.bondLimit = (int) PlainOptions.within(name, v, 1, 4096);
                     break;
                 case "--runs":
-                    o.runs = (int) within(name, v, 1, 100);
+                    o.runs = (int) PlainOptions.within(name, v, 1, 100);
                     break;
                 default:
                     o.seed = v;
@@ -153,22 +154,7 @@ public final class MatrixProductReport {
         return o;
     }
 
-    private static long number(String name, String value) {
-        try {
-            return Long.parseLong(value);
-        } catch (NumberFormatException e) {
-            throw new IllegalArgumentException("option " + name + " needs a whole number but"
-                    + " got '" + value + "'", e);
-        }
-    }
 
-    private static long within(String name, long v, long lo, long hi) {
-        if (v < lo || v > hi) {
-            throw new IllegalArgumentException("option " + name + " must be in [" + lo + ", " + hi
-                    + "] but was " + v);
-        }
-        return v;
-    }
 
     /** A Haar-random two-qubit unitary (Gram-Schmidt on complex Gaussian columns). */
     static Operator randomUnitary(UniformRandomProvider rng) {

@@ -86,22 +86,16 @@ public final class PrecisionReport {
                 throw new IllegalArgumentException("option " + name + " needs a value");
             }
             String value = args[++i];
-            long v;
-            try {
-                v = Long.parseLong(value);
-            } catch (NumberFormatException e) {
-                throw new IllegalArgumentException("option " + name + " needs a whole number but"
-                        + " got '" + value + "'", e);
-            }
+            long v = PlainOptions.number(name, value);
             switch (name) {
                 case "--qubits":
-                    o.qubits = (int) within(name, v, 2, 26);
+                    o.qubits = (int) PlainOptions.within(name, v, 2, 26);
                     break;
                 case "--gates":
-                    o.gates = (int) within(name, v, 1, 10_000_000);
+                    o.gates = (int) PlainOptions.within(name, v, 1, 10_000_000);
                     break;
                 case "--threads":
-                    o.threads = (int) within(name, v, 1, 256);
+                    o.threads = (int) PlainOptions.within(name, v, 1, 256);
                     break;
                 default:
                     o.seed = v;
@@ -111,13 +105,6 @@ public final class PrecisionReport {
         return o;
     }
 
-    private static long within(String name, long v, long lo, long hi) {
-        if (v < lo || v > hi) {
-            throw new IllegalArgumentException("option " + name + " must be in [" + lo + ", " + hi
-                    + "] but was " + v);
-        }
-        return v;
-    }
 
     /** One-gate circuits of the random circuit, in order. */
     static List<Circuit> gates(int n, int count, long seed) {
