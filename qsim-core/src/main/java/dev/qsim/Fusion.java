@@ -32,12 +32,14 @@ final class Fusion {
      */
     private static final double[] SCALAR_DENSE_COST = {0, 1.0, 3.4, 8.0, 12.0};
     /**
-     * The same with the vector loops, every target at or above a vector's amplitudes: time per
-     * amplitude at 24 qubits, one thread, about 0.7, 1.5, 2.6 and 7.3 ns for k = 1 to 4 (the
-     * decisions record has the runs). A 2-target block costs about two 1-qubit passes, so
-     * fusion pays where it merges gates on the same qubits, not where it merely saves a pass.
+     * The same with the vector loops, every target at or above a vector's amplitudes. Above the
+     * cache block every gate now runs inside a window or block in cache (the planner pulls gates
+     * on disjoint qubits together), so these are in-cache costs: time per amplitude at 16 qubits,
+     * one thread, 0.41-0.54 ns for a dense 1-qubit gate and 1.2-1.3 ns for a dense 2-qubit one
+     * (JDK 17 and 25), k = 3 and 4 about 5 and 15 times k = 1 (the decisions record has the
+     * runs). Merging only pays where it merges gates on the same qubits.
      */
-    private static final double[] VECTOR_DENSE_COST = {0, 1.0, 2.1, 3.7, 10.5};
+    private static final double[] VECTOR_DENSE_COST = {0, 1.0, 2.6, 5.0, 15.0};
     /**
      * With the vector loops, a block of two or more targets with one inside a vector (qubit 0
      * or 1 with 512-bit vectors) runs on the scalar loops, which are faster there than lane

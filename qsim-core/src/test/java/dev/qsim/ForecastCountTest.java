@@ -82,13 +82,17 @@ class ForecastCountTest {
     @Test
     void fusionMergesARunOnOneQubitIntoOnePass() {
         // h, ry, h on qubit 15: by Fusion's cost table a merged 1-qubit block costs 1 against
-        // 3 for the parts, so the run becomes one dense pass (unfused: three).
+        // 3 for the parts, so the run becomes one dense pass. Unfused, the three gates on a
+        // qubit above the cache block go into one window: one stream pass, three dense units
+        // done in cache.
         Circuit c = Circuit.builder(N).h(15).ry(15, 0.3).h(15).measure().build();
         Workload fused = only(sv(c, 10, true));
         assertEquals(1, fused.passes(Workload.DENSE1), "one fused pass");
         assertEquals(2, fused.totalPasses(), "and the sampling pass");
         Workload plain = only(sv(c, 10, false));
-        assertEquals(3, plain.passes(Workload.DENSE1), "unfused: three dense passes");
+        assertEquals(0, plain.passes(Workload.DENSE1), "unfused: no lone dense pass");
+        assertEquals(1, plain.passes(Workload.WINDOW_STREAM), "unfused: one window");
+        assertEquals(3, plain.cached(Workload.DENSE1), "unfused: three gates in cache");
     }
 
     @Test

@@ -76,7 +76,7 @@ public final class Frame {
         /** A group of gates applied block by block while each block sits in cache. */
         void blocked(List<GateOp> ops, Plan[] plans, int blockLog);
 
-        /** A single-precision window group (see {@link Windows}). */
+        /** A group of gates gathered into windows, either precision (see {@link Windows}). */
         void window(List<GateOp> ops, long mask, int low);
 
         /** A lone single-qubit gate on single-precision storage. */
@@ -195,41 +195,26 @@ public final class Frame {
         execute(a, ops, new Runner(a, threads));
     }
 
-    /** Hands the passes of gates on the amplitudes as they are (no frame) to {@code passes}. */
+    /**
+     * Hands the passes of gates on the amplitudes as they are (no frame) to {@code passes}: gates
+     * grouped for cache blocking or windows ({@link Windows#schedule}); a double-precision state
+     * that fits one cache block runs gate by gate.
+     */
     static void execute(Amplitudes a, List<GateOp> ops, Passes passes) {
         if (ops.isEmpty()) {
             return;
         }
-        if (a.isSingle()) {
+        if (a.isSingle() || a.n > Math.min(CACHE_LOG, a.chunkLog)) {
             Windows.schedule(a, ops, passes);
             return;
         }
-        int blockLog = Math.min(CACHE_LOG, a.chunkLog);
-        boolean blocking = a.n > blockLog;
-        List<Plan> group = new ArrayList<>();
-        List<GateOp> groupOps = new ArrayList<>();
         for (GateOp op : ops) {
-            Plan p = op.plan(a);
-            if (blocking && p.unitsPerBlock(blockLog) >= 0) {
-                group.add(p);
-                groupOps.add(op);
-                continue;
+            if (PermutationKernels.movesChunks(a, op)) {
+                passes.chunkMove(op);
+            } else {
+                passes.single(op, op.plan(a));
             }
-            flush(group, groupOps, blockLog, passes);
-            passes.single(op, p);
         }
-        flush(group, groupOps, blockLog, passes);
-    }
-
-    /** Passes on a group of cache-blockable plans (one alone needs no blocking), then clears it. */
-    private static void flush(List<Plan> group, List<GateOp> ops, int blockLog, Passes passes) {
-        if (group.size() == 1) {
-            passes.single(ops.get(0), group.get(0));
-        } else if (group.size() > 1) {
-            passes.blocked(List.copyOf(ops), group.toArray(new Plan[0]), blockLog);
-        }
-        group.clear();
-        ops.clear();
     }
 
     static GateOp xOp(int q) {

@@ -76,12 +76,68 @@ final class PermutationKernels {
             }
             return DenseKernels.plan(a, targets, controls, m);
         }
+        if (pure) {
+            final int[] swaps = swapSequence(perm);
+            return new LayoutPlan(a, targets, controls) {
+                @Override
+                void run(long from, long to) {
+                    swapSequenceBlocks(a, l, swaps, from, to);
+                }
+            };
+        }
         return new LayoutPlan(a, targets, controls) {
             @Override
             void run(long from, long to) {
-                monomialBlocks(a, l, perm, phase, pure, from, to);
+                monomialBlocks(a, l, perm, phase, from, to);
             }
         };
+    }
+
+    /**
+     * A permutation of the target basis states as a sequence of exchanges, pairs
+     * {@code (j, k)} flattened: each cycle {@code j0 -> j1 -> ... -> j(m-1) -> j0} of
+     * {@code perm} becomes the exchanges of {@code j0} with {@code j1}, then {@code j2}, up to
+     * {@code j(m-1)} (a cycle of length m is m - 1 transpositions; common practice). SWAP is one
+     * exchange.
+     */
+    static int[] swapSequence(int[] perm) {
+        final int d = perm.length;
+        final boolean[] seen = new boolean[d];
+        final int[] out = new int[2 * d];
+        int k = 0;
+        for (int j0 = 0; j0 < d; j0++) {
+            if (seen[j0]) {
+                continue;
+            }
+            seen[j0] = true;
+            for (int j = perm[j0]; j != j0; j = perm[j]) {
+                seen[j] = true;
+                out[k++] = j0;
+                out[k++] = j;
+            }
+        }
+        return java.util.Arrays.copyOf(out, k);
+    }
+
+    /** A permutation without phases: exchanges of whole runs, with the vector loops if any. */
+    private static void swapSequenceBlocks(Amplitudes a, Layout l, int[] swaps, long from,
+            long to) {
+        final double[][] arr = new double[l.d][];
+        final int[] off = new int[l.d];
+        final int[] starts = l.starts;
+        final int run = l.run;
+        final LaneKernels lanes = a.lanes;
+        for (long o = from; o < to; o++) {
+            l.locate(a, o, arr, off);
+            for (int p = 0; p < swaps.length; p += 2) {
+                final int j = swaps[p];
+                final int k = swaps[p + 1];
+                for (int t = 0; t < starts.length; t++) {
+                    swapRuns(lanes, arr[j], (off[j] + starts[t]) << 1, arr[k],
+                            (off[k] + starts[t]) << 1, run);
+                }
+            }
+        }
     }
 
     /** X on one qubit, no controls: swaps the halves of each block without arithmetic. */
@@ -292,8 +348,9 @@ final class PermutationKernels {
         }
     }
 
+    /** A permutation with phases, amplitude by amplitude. */
     private static void monomialBlocks(Amplitudes a, Layout l, int[] perm, double[] phase,
-            boolean pure, long from, long to) {
+            long from, long to) {
         final int d = l.d;
         final double[][] arr = new double[d][];
         final int[] off = new int[d];
@@ -314,15 +371,10 @@ final class PermutationKernels {
                     for (int j = 0; j < d; j++) {
                         final int dst = perm[j];
                         final int x = (off[dst] + e) << 1;
-                        if (pure) {
-                            arr[dst][x] = vr[j];
-                            arr[dst][x + 1] = vi[j];
-                        } else {
-                            final double pr = phase[2 * j];
-                            final double pi = phase[2 * j + 1];
-                            arr[dst][x] = pr * vr[j] - pi * vi[j];
-                            arr[dst][x + 1] = pr * vi[j] + pi * vr[j];
-                        }
+                        final double pr = phase[2 * j];
+                        final double pi = phase[2 * j + 1];
+                        arr[dst][x] = pr * vr[j] - pi * vi[j];
+                        arr[dst][x + 1] = pr * vi[j] + pi * vr[j];
                     }
                 }
             }

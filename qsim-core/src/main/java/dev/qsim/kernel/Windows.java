@@ -1,5 +1,6 @@
 package dev.qsim.kernel;
 
+import java.util.ArrayList;
 import java.util.List;
 
 /**
@@ -58,41 +59,131 @@ public final class Windows {
         schedule(a, ops, Frame.runner(a, threads));
     }
 
-    /** Decides the windows and lone passes of gates in order and hands them to {@code passes}. */
+    /**
+     * How many gates past the first gate of a group the scheduler looks at for gates to pull
+     * into the group. Bounds the planning time at {@code LOOKAHEAD} steps a gate.
+     */
+    static final int LOOKAHEAD = 256;
+
+    /**
+     * Decides the groups and lone passes of gates and hands them to {@code passes}, in an
+     * order that gives every amplitude the same result as the gates in list order.
+     *
+     * <p>A group starts at the first gate not yet scheduled and takes, from the next
+     * {@value #LOOKAHEAD} gates, each one that fits the window with the group and acts on no
+     * qubit (target or control) of a gate passed over before it: such a gate commutes with every
+     * gate it is moved ahead of, because their qubits are disjoint (common practice of gate
+     * scheduling; M. A. Nielsen and I. L. Chuang, "Quantum Computation and Quantum Information",
+     * 2010, sec. 2.1.7: operators on different tensor factors commute). A passed-over gate's
+     * qubits stay closed for the rest of the scan.
+     *
+     * <p>Double precision: a group whose targets all lie in the low cache block runs in place,
+     * block by block ({@link Passes#blocked}); a group reaching above it is gathered into windows
+     * ({@link Passes#window}); a lone gate runs alone. Single precision: every group runs in
+     * windows (computed in double), except a lone single-qubit gate, which has a direct pass.
+     */
     static void schedule(Amplitudes a, List<GateOp> ops, Frame.Passes passes) {
+        final int size = ops.size();
         final int w = Math.min(a.n, WINDOW_LOG);
         final int maxLow = Math.min(w, a.chunkLog);
-        int i = 0;
-        while (i < ops.size()) {
+        final int blockLog = Math.min(Frame.CACHE_LOG, a.chunkLog);
+        final boolean single = a.isSingle();
+        final boolean[] done = new boolean[size];
+        final long[] touch = new long[size];
+        final boolean[] chunkMove = new boolean[size];
+        for (int i = 0; i < size; i++) {
+            GateOp op = ops.get(i);
+            long t = op.targetMask;
+            for (int c : op.controls) {
+                t |= 1L << c;
+            }
+            touch[i] = t;
+            chunkMove[i] = PermutationKernels.movesChunks(a, op);
+        }
+        final long all = a.n >= 64 ? -1L : (1L << a.n) - 1;
+        final List<GateOp> group = new ArrayList<>();
+        int next = 0;
+        while (next < size) {
+            final int i = next;
+            done[i] = true;
             GateOp first = ops.get(i);
-            if (PermutationKernels.movesChunks(a, first)) {
+            if (chunkMove[i]) {
                 passes.chunkMove(first);
-                i++;
+                next = advance(done, i);
                 continue;
             }
+            group.clear();
+            group.add(first);
             long mask = first.targetMask;
             int l = lowBits(mask, w, maxLow, 0);
-            int j = i + 1;
-            while (j < ops.size() && !PermutationKernels.movesChunks(a, ops.get(j))) {
-                long wider = mask | ops.get(j).targetMask;
-                int l2 = lowBits(wider, w, maxLow, Math.min(MIN_RUN_LOG, l));
-                if (l2 < 0) {
-                    break;
+            if (l >= 0) {
+                long closed = 0;
+                final int end = (int) Math.min(size, (long) i + 1 + LOOKAHEAD);
+                for (int j = i + 1; j < end && (closed & all) != all; j++) {
+                    if (done[j]) {
+                        continue;
+                    }
+                    if ((touch[j] & closed) != 0 || chunkMove[j]) {
+                        closed |= touch[j];
+                        continue;
+                    }
+                    long wider = mask | ops.get(j).targetMask;
+                    int l2 = lowBits(wider, w, maxLow, Math.min(MIN_RUN_LOG, l));
+                    if (l2 < 0) {
+                        closed |= touch[j];
+                        continue;
+                    }
+                    done[j] = true;
+                    group.add(ops.get(j));
+                    mask = wider;
+                    l = l2;
                 }
-                mask = wider;
-                l = l2;
-                j++;
             }
-            double[] m2 = j == i + 1 && a.singles != null
-                    ? FloatSingleQubitKernels.matrix2(first) : null;
+            hand(a, group, mask, l, single, blockLog, passes);
+            next = advance(done, i);
+        }
+    }
+
+    /** The first index after {@code i} not yet scheduled, or the size. */
+    private static int advance(boolean[] done, int i) {
+        int k = i + 1;
+        while (k < done.length && done[k]) {
+            k++;
+        }
+        return k;
+    }
+
+    /** Hands one group to {@code passes} as the pass it is run by. */
+    private static void hand(Amplitudes a, List<GateOp> group, long mask, int l, boolean single,
+            int blockLog, Frame.Passes passes) {
+        final GateOp first = group.get(0);
+        if (single) {
+            double[] m2 = group.size() == 1 ? FloatSingleQubitKernels.matrix2(first) : null;
             if (m2 != null) {
                 // A lone single-qubit gate: one direct pass beats copying windows in and out.
                 passes.floatSingle(first, m2);
             } else {
-                passes.window(ops.subList(i, j), mask, l);
+                passes.window(List.copyOf(group), mask, l);
             }
-            i = j;
+            return;
         }
+        if (group.size() == 1 || l < 0) {
+            passes.single(first, first.plan(a));
+            return;
+        }
+        if (a.n > blockLog && (mask >>> blockLog) == 0) {
+            Plan[] plans = new Plan[group.size()];
+            boolean blockable = true;
+            for (int x = 0; x < plans.length && blockable; x++) {
+                plans[x] = group.get(x).plan(a);
+                blockable = plans[x].unitsPerBlock(blockLog) >= 0;
+            }
+            if (blockable) {
+                passes.blocked(List.copyOf(group), plans, blockLog);
+                return;
+            }
+        }
+        passes.window(List.copyOf(group), mask, l);
     }
 
     /**
