@@ -21,7 +21,8 @@ import org.junit.jupiter.params.provider.CsvSource;
  * using the vector loops and one the scalar ones, through the engine's gate path (lazy frame,
  * cache blocking, windows). Double precision must agree to 1e-13 per amplitude part and single
  * precision to 1e-6 (the issue's bounds; a few roundings of O(1) numbers, IEEE 754-2019 §4.3);
- * the vector gate loops are written to give the same bits. The scalar loops are in turn checked
+ * the double vector gate loops use fused multiply-adds, so they differ from the scalar loops in the
+ * last places (IEEE 754-2019 §5.4.1). The scalar loops are in turn checked
  * against the definition of a controlled k-qubit gate (Nielsen and Chuang 2010, §4.3) in
  * {@link KernelsTest}; here small states are also compared with that definition directly.
  * Results must not depend on the thread count (the project's rule: fixed work units). Runs only

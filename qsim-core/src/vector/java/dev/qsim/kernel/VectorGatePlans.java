@@ -646,6 +646,17 @@ final class VectorGatePlans {
             double[] imLanes, int at) {
         final DoubleVector re = DoubleVector.fromArray(D, reLanes, at);
         final DoubleVector im = DoubleVector.fromArray(D, imLanes, at);
+        if (zero(imLanes, at)) {
+            // Real factors (CZ's -1, Z): no lane swap. Equal to the complex formula but for the
+            // sign of a zero result (x + 0 * y = x for finite y).
+            for (int s : starts) {
+                final int end = (off + s + run) << 1;
+                for (int x = (off + s) << 1; x < end; x += L) {
+                    DoubleVector.fromArray(D, a, x).mul(re).intoArray(a, x);
+                }
+            }
+            return;
+        }
         for (int s : starts) {
             final int end = (off + s + run) << 1;
             for (int x = (off + s) << 1; x < end; x += L) {
@@ -653,6 +664,16 @@ final class VectorGatePlans {
                 w.mul(re).add(w.rearrange(SWAP).mul(im)).intoArray(a, x);
             }
         }
+    }
+
+    /** Whether the L lanes from {@code at} are all zero. */
+    private static boolean zero(double[] lanes, int at) {
+        for (int i = at; i < at + L; i++) {
+            if (lanes[i] != 0) {
+                return false;
+            }
+        }
+        return true;
     }
 
     /** As above, only in the lanes of {@code change}. */

@@ -13,10 +13,13 @@ import jdk.incubator.vector.VectorShuffle;
 
 /**
  * Vector loops for single-qubit gates without controls on double storage, the frame's phases
- * and the precision conversions, on re/im-interleaved arrays. Each computes, lane by lane,
- * exactly the products and sums of the scalar loop it stands for
- * ({@link DenseSingleQubitKernels}, {@link DiagonalKernels}, {@link Frame}), in the same order,
- * so the results are the same bits; leftovers shorter than a vector run those scalar formulas.
+ * and the precision conversions, on re/im-interleaved arrays. The gate loops compute the sums of
+ * the scalar loop they stand for ({@link DenseSingleQubitKernels}) in the same order but with
+ * fused multiply-adds (IEEE 754-2019 §5.4.1: one rounding for a product and a sum), which
+ * measured 1.1-1.2 times as fast in cache; they agree with the scalar loops to a few units in
+ * the last place, and leftovers shorter than a vector run the same fused formulas ({@code pair}),
+ * so an amplitude's bits do not depend on which loop or thread reaches it. The phase loops give
+ * the scalar loops' bits ({@link DiagonalKernels}, {@link Frame}).
  *
  * <p>Complex products on interleaved parts: for a factor {@code c = cr + i ci} and a vector
  * {@code w} of amplitudes, {@code c w = cr w + (ci * SIGN) swap(w)}, where {@code swap}
@@ -170,8 +173,8 @@ final class VectorPairs {
                 }
                 final DoubleVector a = DoubleVector.fromArray(D, u, x0 + k);
                 final DoubleVector c = DoubleVector.fromArray(D, v, y0 + k);
-                a.mul(m00).add(c.mul(m01)).intoArray(u, x0 + k);
-                a.mul(m10).add(c.mul(m11)).intoArray(v, y0 + k);
+                c.fma(m01, a.mul(m00)).intoArray(u, x0 + k);
+                c.fma(m11, a.mul(m10)).intoArray(v, y0 + k);
             }
         }
         sink = touch;
@@ -195,8 +198,8 @@ final class VectorPairs {
                 }
                 final DoubleVector a = DoubleVector.fromArray(D, u, x0 + k);
                 final DoubleVector c = DoubleVector.fromArray(D, v, y0 + k);
-                a.mul(d0).add(c.rearrange(SWAP).mul(o01)).intoArray(u, x0 + k);
-                c.mul(d1).add(a.rearrange(SWAP).mul(o10)).intoArray(v, y0 + k);
+                c.rearrange(SWAP).fma(o01, a.mul(d0)).intoArray(u, x0 + k);
+                a.rearrange(SWAP).fma(o10, c.mul(d1)).intoArray(v, y0 + k);
             }
         }
         sink = touch;
@@ -226,10 +229,8 @@ final class VectorPairs {
                 final DoubleVector c = DoubleVector.fromArray(D, v, y0 + k);
                 final DoubleVector as = a.rearrange(SWAP);
                 final DoubleVector cs = c.rearrange(SWAP);
-                a.mul(m00r).add(as.mul(m00i)).add(c.mul(m01r)).add(cs.mul(m01i))
-                        .intoArray(u, x0 + k);
-                a.mul(m10r).add(as.mul(m10i)).add(c.mul(m11r)).add(cs.mul(m11i))
-                        .intoArray(v, y0 + k);
+                cs.fma(m01i, c.fma(m01r, as.fma(m00i, a.mul(m00r)))).intoArray(u, x0 + k);
+                cs.fma(m11i, c.fma(m11r, as.fma(m10i, a.mul(m10r)))).intoArray(v, y0 + k);
             }
         }
         sink = touch;
@@ -243,7 +244,7 @@ final class VectorPairs {
         final VectorShuffle<Double> high = r.high;
         for (int x = start; x < end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.rearrange(low).mul(ca).add(w.rearrange(high).mul(cb)).intoArray(psi, x);
+            w.rearrange(high).fma(cb, w.rearrange(low).mul(ca)).intoArray(psi, x);
         }
     }
 
@@ -254,7 +255,7 @@ final class VectorPairs {
         final VectorShuffle<Double> ps = r.partnerSwapped;
         for (int x = start; x < end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.mul(dd).add(w.rearrange(ps).mul(oo)).intoArray(psi, x);
+            w.rearrange(ps).fma(oo, w.mul(dd)).intoArray(psi, x);
         }
     }
 
@@ -270,8 +271,8 @@ final class VectorPairs {
         final VectorShuffle<Double> highSwapped = r.highSwapped;
         for (int x = start; x < end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.rearrange(low).mul(car).add(w.rearrange(lowSwapped).mul(cai))
-                    .add(w.rearrange(high).mul(cbr)).add(w.rearrange(highSwapped).mul(cbi))
+            w.rearrange(highSwapped).fma(cbi, w.rearrange(high).fma(cbr,
+                    w.rearrange(lowSwapped).fma(cai, w.rearrange(low).mul(car))))
                     .intoArray(psi, x);
         }
     }
@@ -298,9 +299,9 @@ final class VectorPairs {
             final DoubleVector c = DoubleVector.fromArray(D, v, vo + x);
             final DoubleVector as = a.rearrange(SWAP);
             final DoubleVector cs = c.rearrange(SWAP);
-            a.blend(a.mul(m00r).add(as.mul(m00i)).add(c.mul(m01r)).add(cs.mul(m01i)), k)
+            a.blend(cs.fma(m01i, c.fma(m01r, as.fma(m00i, a.mul(m00r)))), k)
                     .intoArray(u, uo + x);
-            c.blend(a.mul(m10r).add(as.mul(m10i)).add(c.mul(m11r)).add(cs.mul(m11i)), k)
+            c.blend(cs.fma(m11i, c.fma(m11r, as.fma(m10i, a.mul(m10r)))), k)
                     .intoArray(v, vo + x);
         }
         for (int x = bound; x < len; x += 2) {
@@ -329,8 +330,8 @@ final class VectorPairs {
         final VectorShuffle<Double> highSwapped = r.highSwapped;
         for (int x = start; x < bound; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.blend(w.rearrange(low).mul(car).add(w.rearrange(lowSwapped).mul(cai))
-                    .add(w.rearrange(high).mul(cbr)).add(w.rearrange(highSwapped).mul(cbi)), k)
+            w.blend(w.rearrange(highSwapped).fma(cbi, w.rearrange(high).fma(cbr,
+                    w.rearrange(lowSwapped).fma(cai, w.rearrange(low).mul(car)))), k)
                     .intoArray(psi, x);
         }
         final int s2 = 2 << q;
@@ -344,27 +345,31 @@ final class VectorPairs {
         }
     }
 
-    /** One pair by the scalar formulas of {@link DenseSingleQubitKernels}. */
+    /**
+     * One pair by the formulas of the vector loops above, lane for lane: the same fused
+     * multiply-adds in the same order, so an amplitude gets the same bits whichever loop reaches
+     * it.
+     */
     private static void pair(double[] u, int x, double[] v, int y, double[] m, int kind) {
         final double ar = u[x];
         final double ai = u[x + 1];
         final double br = v[y];
         final double bi = v[y + 1];
         if (kind == LaneKernels.REAL) {
-            u[x] = m[0] * ar + m[2] * br;
-            u[x + 1] = m[0] * ai + m[2] * bi;
-            v[y] = m[4] * ar + m[6] * br;
-            v[y + 1] = m[4] * ai + m[6] * bi;
+            u[x] = Math.fma(br, m[2], ar * m[0]);
+            u[x + 1] = Math.fma(bi, m[2], ai * m[0]);
+            v[y] = Math.fma(br, m[6], ar * m[4]);
+            v[y + 1] = Math.fma(bi, m[6], ai * m[4]);
         } else if (kind == LaneKernels.CROSS) {
-            u[x] = m[0] * ar - m[3] * bi;
-            u[x + 1] = m[0] * ai + m[3] * br;
-            v[y] = m[6] * br - m[5] * ai;
-            v[y + 1] = m[6] * bi + m[5] * ar;
+            u[x] = Math.fma(bi, -m[3], ar * m[0]);
+            u[x + 1] = Math.fma(br, m[3], ai * m[0]);
+            v[y] = Math.fma(ai, -m[5], br * m[6]);
+            v[y + 1] = Math.fma(ar, m[5], bi * m[6]);
         } else {
-            u[x] = m[0] * ar - m[1] * ai + m[2] * br - m[3] * bi;
-            u[x + 1] = m[0] * ai + m[1] * ar + m[2] * bi + m[3] * br;
-            v[y] = m[4] * ar - m[5] * ai + m[6] * br - m[7] * bi;
-            v[y + 1] = m[4] * ai + m[5] * ar + m[6] * bi + m[7] * br;
+            u[x] = Math.fma(bi, -m[3], Math.fma(br, m[2], Math.fma(ai, -m[1], ar * m[0])));
+            u[x + 1] = Math.fma(br, m[3], Math.fma(bi, m[2], Math.fma(ar, m[1], ai * m[0])));
+            v[y] = Math.fma(bi, -m[7], Math.fma(br, m[6], Math.fma(ai, -m[5], ar * m[4])));
+            v[y + 1] = Math.fma(br, m[7], Math.fma(bi, m[6], Math.fma(ar, m[5], ai * m[4])));
         }
     }
 
