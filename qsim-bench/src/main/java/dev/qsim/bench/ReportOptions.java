@@ -32,7 +32,8 @@ import dev.qsim.Precision;
         synopsisHeading = "",
         description = {
             "Times each gate kernel on states of min..max qubits next to a memory-bandwidth probe",
-            "(copy and triad) measured in the same run.",
+            "(copy and triad) measured in the same run. The probe is a Java loop, itself scalar:",
+            "not a ceiling. --reference adds the C reference kernel's figures.",
             "CSV (" + CsvOutput.HEADER_START,
             "     " + CsvOutput.HEADER_END + ")",
             "on standard output or --csv FILE; progress on standard error."},
@@ -40,7 +41,7 @@ import dev.qsim.Precision;
         sortOptions = false,
         footer = {
             "Values may be given as --name value or --name=value.",
-            "Exit status: 0 done, 1 bad options or unwritable file, 2 not enough heap."},
+            "Exit status: 0 done, 1 bad options, reference or unwritable file, 2 not enough heap."},
         usageHelpWidth = 124)
 final class ReportOptions {
     /** Largest qubit count accepted by {@code --min} and {@code --max}. */
@@ -61,7 +62,7 @@ final class ReportOptions {
     @Spec
     private CommandSpec spec;
 
-    @Option(names = "--help", usageHelp = true, order = 14, description = "print this and exit")
+    @Option(names = "--help", usageHelp = true, order = 15, description = "print this and exit")
     private boolean help;
 
     private int min = 10;
@@ -78,6 +79,7 @@ final class ReportOptions {
     private List<Precision> precisions = List.of(Precision.DOUBLE);
     private Path csv;
     private Path svg;
+    private Path reference;
 
     private ReportOptions() {
     }
@@ -202,6 +204,15 @@ final class ReportOptions {
         svg = path("--svg", value);
     }
 
+    @Option(names = "--reference", paramLabel = "FILE", order = 14,
+            description = {"the C reference kernel's output (../shared/ceiling: 'ceiling gates N'"
+                + " for each n,", "'ceiling stream MIB'): adds reference_gb_per_s,"
+                + " fraction_of_reference and", "reference_copy_gb_per_s, and its dense gate to"
+                + " the plot; qsim-bench/scaling-with-reference.sh", "makes one in the same run"})
+    private void reference(String value) {
+        reference = path("--reference", value);
+    }
+
     /**
      * Reads the command line.
      *
@@ -271,6 +282,11 @@ final class ReportOptions {
             throw new IllegalArgumentException("--csv and --svg name the same file '" + csv
                     + "'");
         }
+        if (reference != null && (reference.equals(csv) || reference.equals(svg))) {
+            throw new IllegalArgumentException("--reference names the file '" + reference
+                    + "' that " + (reference.equals(csv) ? "--csv" : "--svg") + " would"
+                    + " overwrite");
+        }
         final TreeSet<Integer> sizes = new TreeSet<>();
         if (circuitQubits != null) {
             if (Boolean.FALSE.equals(circuit)) {
@@ -291,7 +307,7 @@ final class ReportOptions {
         }
         final int t = threads > 0 ? threads : Math.min(defaultThreads, MAX_THREADS);
         return new ReportSettings(min, max, t, kernels, targets, millis, List.copyOf(sizes), csv,
-                svg, noise, precisions, mps);
+                svg, noise, precisions, mps, reference);
     }
 
     private ParameterException bad(String message) {

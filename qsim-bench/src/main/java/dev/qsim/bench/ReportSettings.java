@@ -22,10 +22,12 @@ import dev.qsim.Precision;
  * @param noise whether the noise rows are measured
  * @param precisions the precisions to measure in: double, single, or double then single
  * @param mps whether the matrix-product-state rows are measured ({@link BondRows})
+ * @param reference the file of the C reference kernel's output ({@link CeilingReference}), or
+ *     {@code null} for none
  */
 record ReportSettings(int min, int max, int threads, List<String> kernels, List<String> targets,
         long millis, List<Integer> circuitQubits, Path csv, Path svg, boolean noise,
-        List<Precision> precisions, boolean mps) {
+        List<Precision> precisions, boolean mps, Path reference) {
 
     /** Bytes of one amplitude in the widest precision measured: the largest state's. */
     int widestBytesPerAmplitude() {

@@ -6,6 +6,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.OptionalDouble;
 import java.util.TreeMap;
 
 import dev.qsim.Precision;
@@ -13,7 +14,7 @@ import dev.qsim.Precision;
 /**
  * Draws the scaling report as a self-contained SVG 1.1 document: time per gate (ns, logarithmic
  * y axis with a tick per decade) against qubit count, one polyline per kernel and precision, and
- * the main-memory floor as a dashed line. Hand-written markup, no dependencies.
+ * the Java copy loop's floor as a dashed line. Hand-written markup, no dependencies.
  *
  * <p>A kernel's point at {@code n} is its row for target {@code mid} if there is one, else the
  * arithmetic mean of {@code ns_per_gate} over the targets measured at that {@code n}. Rows in
@@ -25,7 +26,14 @@ import dev.qsim.Precision;
  * so this is a main-memory floor at every {@code n}: a kernel whose state fits in a cache can
  * run below it. When there are single-precision rows, a dotted second floor does the same for
  * {@code 2 * 8 * 2^n} bytes. Only state-vector gate rows (one pass over {@code 2^n}
- * amplitudes) set the floor; the noise rows' probe is measured at other sizes.
+ * amplitudes) set the floor; the noise rows' probe is measured at other sizes. The probe is a
+ * Java loop compiled to scalar code, so the floor is labelled as the Java copy loop's: a lower
+ * bound on the machine's bandwidth, not a ceiling.
+ *
+ * <p>With a {@link CeilingReference}, a solid grey line draws the C reference kernel's dense
+ * gate at each {@code n} where a double-precision state-vector gate row was measured and the
+ * reference has that size at the rows' thread count: {@code 32 * 2^n / reference_gb_per_s}
+ * nanoseconds, its time per gate (the kernel counts 32 bytes an amplitude).
  */
 final class ScalingPlot {
     static final int WIDTH = 960;
@@ -45,6 +53,9 @@ final class ScalingPlot {
     /** Dash pattern of a single-precision series. */
     private static final String SINGLE_DASHES = "6 4";
 
+    /** Colour of the C reference kernel's line: grey, drawn wide behind the series. */
+    private static final String REFERENCE_COLOUR = "#9a9a9a";
+
     private ScalingPlot() {
     }
 
@@ -57,6 +68,20 @@ final class ScalingPlot {
      * @throws IllegalArgumentException if there are no rows
      */
     static String svg(List<ReportRow> rows, String title, String subtitle) {
+        return svg(rows, title, subtitle, null);
+    }
+
+    /**
+     * Returns the SVG of the rows with the C reference kernel's dense gate drawn as a line.
+     *
+     * @param rows the measured rows, at least one
+     * @param title the first title line
+     * @param subtitle the second title line (JDK, CPU, threads)
+     * @param reference the C kernel's figures, or {@code null} for no reference line
+     * @throws IllegalArgumentException if there are no rows
+     */
+    static String svg(List<ReportRow> rows, String title, String subtitle,
+            CeilingReference reference) {
         if (rows.isEmpty()) {
             throw new IllegalArgumentException("there are no rows to plot");
         }
@@ -77,12 +102,16 @@ final class ScalingPlot {
             }
         }
 
+        final TreeMap<Integer, Double> referenceLine = reference == null ? new TreeMap<>()
+                : referenceLine(rows, reference);
+
         int minN = Integer.MAX_VALUE;
         int maxN = Integer.MIN_VALUE;
         double minY = Double.POSITIVE_INFINITY;
         double maxY = 0;
         final List<TreeMap<Integer, Double>> all = new ArrayList<>(series.values());
         all.addAll(floors.values());
+        all.add(referenceLine);
         for (TreeMap<Integer, Double> s : all) {
             for (Map.Entry<Integer, Double> e : s.entrySet()) {
                 minN = Math.min(minN, e.getKey());
@@ -162,7 +191,12 @@ final class ScalingPlot {
                 + " (log scale)</text>%n", 26, (TOP + BOTTOM) / 2, 26, (TOP + BOTTOM) / 2));
         sb.append("</g>\n");
 
-        // The floors, then one polyline with markers per kernel and precision.
+        // The reference, the floors, then one polyline with markers per kernel and precision.
+        if (!referenceLine.isEmpty()) {
+            sb.append("<polyline class=\"reference\" fill=\"none\" stroke=\"")
+                    .append(REFERENCE_COLOUR).append("\" stroke-width=\"4\" points=\"")
+                    .append(points(referenceLine, axes)).append("\"/>\n");
+        }
         for (Map.Entry<Precision, TreeMap<Integer, Double>> e : floors.entrySet()) {
             sb.append("<polyline class=\"floor\" data-precision=\"")
                     .append(Workloads.precisionName(e.getKey())).append("\" fill=\"none\""
@@ -196,7 +230,7 @@ final class ScalingPlot {
         int ly = TOP + 8;
         sb.append(String.format(Locale.ROOT, "<rect x=\"%d\" y=\"%d\" width=\"%d\" height=\"%d\""
                 + " fill=\"#fafafa\" stroke=\"#cccccc\"/>%n", lx - 10, ly - 12, WIDTH - lx - 6,
-                28 * (series.size() + floors.size()) + 8));
+                28 * (series.size() + floors.size() + (referenceLine.isEmpty() ? 0 : 1)) + 8));
         for (String name : series.keySet()) {
             final ReportRow r = first.get(name);
             final int k = style.get(r.kernel());
@@ -221,8 +255,16 @@ final class ScalingPlot {
                     floorDashes(p)));
             // The single floor's label is shorter so it stays inside the legend box.
             sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\">%s</text>%n", lx + 40,
-                    ly + 10, p == Precision.SINGLE ? "memory floor (single)"
-                    : "main-memory floor"));
+                    ly + 10, p == Precision.SINGLE ? "Java copy (single)"
+                    : "Java copy loop (scalar)"));
+            ly += 28;
+        }
+        if (!referenceLine.isEmpty()) {
+            sb.append(String.format(Locale.ROOT, "<line x1=\"%d\" y1=\"%d\" x2=\"%d\""
+                    + " y2=\"%d\" stroke=\"%s\" stroke-width=\"4\"/>%n", lx, ly + 6, lx + 30,
+                    ly + 6, REFERENCE_COLOUR));
+            sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\">C reference dense"
+                    + " gate</text>%n", lx + 40, ly + 10));
             ly += 28;
         }
         sb.append("</g>\n");
@@ -230,9 +272,10 @@ final class ScalingPlot {
                 ? floors.containsKey(Precision.DOUBLE) ? "32 \u00b7 2^n bytes (16 \u00b7 2^n in"
                 + " single precision)" : "16 \u00b7 2^n bytes" : "32 \u00b7 2^n bytes";
         sb.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" font-size=\"11\""
-                + " fill=\"#666666\">floor: %s at the main-memory copy GB/s of each n; a state"
-                + " in a cache can run below it; points: target mid, else the mean</text>%n",
-                LEFT - 80, HEIGHT - 12, floorBytes));
+                + " fill=\"#666666\">dashed: %s at the Java copy loop's GB/s (scalar, not a"
+                + " ceiling)%s; points: target mid, else the mean</text>%n",
+                LEFT - 80, HEIGHT - 12, floorBytes, referenceLine.isEmpty() ? ""
+                : "; grey: the C kernel's dense gate"));
         sb.append("</svg>\n");
         return sb.toString();
     }
@@ -288,6 +331,26 @@ final class ScalingPlot {
             }
         }
         return floor;
+    }
+
+    /**
+     * The C reference kernel's time per dense gate, {@code 32 * 2^n / reference_gb_per_s} ns, at
+     * each {@code n} where a double-precision state-vector gate row was measured and the
+     * reference has that size at the row's thread count.
+     */
+    static TreeMap<Integer, Double> referenceLine(List<ReportRow> rows,
+            CeilingReference reference) {
+        final TreeMap<Integer, Double> line = new TreeMap<>();
+        for (ReportRow r : rows) {
+            if (r.precision() == Precision.DOUBLE && r.vectorQubits() == r.n()
+                    && r.passes() == 1) {
+                final OptionalDouble gbps = reference.dense(r.n(), r.threads());
+                if (gbps.isPresent()) {
+                    line.put(r.n(), ReportRow.bytesMoved(r.n()) / gbps.getAsDouble());
+                }
+            }
+        }
+        return line;
     }
 
     /** The dash pattern of a floor: dashed in double precision, dotted in single. */

@@ -61,7 +61,24 @@ import dev.qsim.examples.cli.Progress;
  * {@code double} or {@code single}. Progress and comment lines (starting {@code #}) go to
  * standard error, so the CSV stays clean.
  *
- * <p>Exit status: 0 on success, 1 for bad arguments or an output file that cannot be written,
+ * <p>The probe is a Java loop, which the just-in-time compiler turns into scalar code: its
+ * rate is a lower bound on the machine's bandwidth, not a ceiling. The ceiling comes from the C
+ * reference kernel of {@code ../shared/ceiling} (vectorised, {@code -O3 -march=native}): with
+ * {@code --reference FILE}, a file of its output lines ({@link CeilingReference}: one
+ * {@code ceiling gates N} run for each {@code n} from {@code --min} to {@code --max} at the
+ * report's thread count, and optionally {@code ceiling stream}), read and checked before
+ * anything is measured, three columns follow {@code ns_per_pass}:
+ * {@code reference_gb_per_s}, the C kernel's dense 2x2 gate at that size and thread count
+ * (median over targets, 32 bytes an amplitude as in {@code gb_per_s}); {@code
+ * fraction_of_reference} = {@code gb_per_s / reference_gb_per_s}; {@code
+ * reference_copy_gb_per_s}, its STREAM copy (best of its repetitions, empty without a stream
+ * line). The plot draws the C dense gate's time per gate, {@code 32 * 2^n / reference_gb_per_s}
+ * ns, as a line of its own. {@code qsim-bench/scaling-with-reference.sh} runs the C kernel and
+ * this report back to back, so the reference comes from the same run. Without
+ * {@code --reference} the columns are as before.
+ *
+ * <p>Exit status: 0 on success, 1 for bad arguments, a reference file that cannot be read or
+ * is malformed, or an output file that cannot be written,
  * 2 if the heap cannot hold the largest state next to the probe. Before measuring, the largest
  * state is allocated once through the core's public API: the core checks the heap and refuses a
  * state that does not fit with a message naming the bytes needed, the maximum heap and the
@@ -133,6 +150,21 @@ public final class ScalingReport {
             err.println("error: " + unwritable.get());
             return 1;
         }
+        // The reference is read and checked before anything is measured.
+        CeilingReference reference = null;
+        if (options.reference() != null) {
+            try {
+                reference = CeilingReference.read(options.reference());
+                reference.requireSizes(options.min(), options.max(), options.threads());
+            } catch (IOException | SecurityException e) {
+                err.println("error: cannot read --reference file '" + options.reference() + "': "
+                        + e);
+                return 1;
+            } catch (IllegalArgumentException e) {
+                err.println("error: " + e.getMessage());
+                return 1;
+            }
+        }
         // The probe first, then the largest state next to it, so that the core's answer (and
         // the -Xmx it suggests) counts the probe's arrays.
         final long maxHeap = Runtime.getRuntime().maxMemory();
@@ -157,19 +189,19 @@ public final class ScalingReport {
             }
             final CsvOutput csv;
             try {
-                csv = CsvOutput.open(options.csv(), out);
+                csv = CsvOutput.open(options.csv(), out, reference);
             } catch (IOException | SecurityException e) {
                 err.println("error: cannot write --csv file '" + options.csv() + "': " + e);
                 return 1;
             }
             try (csv) {
-                return report(options, maxHeap, probe, csv, err, bar);
+                return report(options, maxHeap, probe, reference, csv, err, bar);
             }
         }
     }
 
     private static int report(ReportSettings options, long maxHeap, BandwidthProbe probe,
-            CsvOutput csv, PrintWriter err, boolean bar) {
+            CeilingReference reference, CsvOutput csv, PrintWriter err, boolean bar) {
         final long probeLength = probe.capacity();
         final String environment = "java " + System.getProperty("java.version") + " ("
                 + System.getProperty("java.vm.name") + "), cpu " + cpuModel() + ", "
@@ -186,6 +218,18 @@ public final class ScalingReport {
                 + " amplitude of B bytes: 16 in double precision, 8 in single); GB = 1e9 bytes");
         err.println("# probe (McCalpin 1995): copy b[i] = a[i] moves 2 * 8 * len bytes, triad"
                 + " a[i] = b[i] + s * c[i] moves 3 * 8 * len, len = 2^(n+1) doubles");
+        err.println("# the probe is a Java loop that the JIT compiles to scalar code: a lower"
+                + " bound on this machine's bandwidth, not a ceiling");
+        if (reference == null) {
+            err.println("# for the C reference kernel's figures beside it, pass --reference FILE"
+                    + " of its output (../shared/ceiling; qsim-bench/scaling-with-reference.sh"
+                    + " runs both)");
+        } else {
+            err.println("# reference: " + reference.describe(options.threads()));
+            err.println("# reference_gb_per_s: the C dense gate at the row's size and thread"
+                    + " count (32 bytes an amplitude, median over targets); fraction_of_reference"
+                    + " = gb_per_s / reference_gb_per_s");
+        }
         err.println("# diagonal (rz) and permutation (X) gates go to the core's lazy frame: a"
                 + " batch of them ends with one read, which applies the frame in one pass, and"
                 + " the batch time includes it; their GB/s is nominal (bytes a pass per gate"
@@ -252,7 +296,8 @@ public final class ScalingReport {
                     + (options.precisions().size() > 1 ? "double and single"
                     : Workloads.precisionName(options.precisions().get(0))) + " precision";
             try {
-                Files.writeString(options.svg(), ScalingPlot.svg(rows, title, subtitle),
+                Files.writeString(options.svg(), ScalingPlot.svg(rows, title, subtitle,
+                        reference),
                         StandardCharsets.UTF_8);
             } catch (IOException | SecurityException e) {
                 err.println("error: cannot write --svg file '" + options.svg() + "': " + e);

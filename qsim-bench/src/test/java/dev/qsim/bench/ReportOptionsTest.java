@@ -33,7 +33,7 @@ class ReportOptionsTest {
     void defaultsWhenNoOptions() {
         assertEquals(new ReportSettings(10, 26, 3, KERNELS, THREE, 300,
             List.of(20, 21, 22, 23, 24, 25, 26), null, null, false, List.of(Precision.DOUBLE),
-            false),
+            false, null),
             parse(3));
         // The fusion comparison starts at n = 20 by default, so a small range has none.
         assertEquals(List.of(), parse(1, "--max", "19").circuitQubits());
@@ -46,10 +46,10 @@ class ReportOptionsTest {
         ReportSettings o = parse(1, "--min", "4", "--max=7", "--threads", "2",
             "--kernels=diagonal,dense", "--targets", "all,low", "--millis", "15", "--circuit",
             "on", "--circuit-qubits=7,5", "--csv", "a.csv", "--svg=b.svg", "--noise", "on",
-            "--precision=both", "--mps=on");
+            "--precision=both", "--mps=on", "--reference", "c.txt");
         assertEquals(new ReportSettings(4, 7, 2, List.of("diagonal", "dense"),
             List.of("all", "low"), 15, List.of(5, 7), Path.of("a.csv"), Path.of("b.svg"), true,
-            List.of(Precision.DOUBLE, Precision.SINGLE), true), o);
+            List.of(Precision.DOUBLE, Precision.SINGLE), true, Path.of("c.txt")), o);
         // --help asks for the usage instead of settings.
         assertEquals(Optional.empty(), ReportOptions.parse(new String[] {"--help"}, 1));
         assertEquals(List.of(), parse(1, "--max", "22", "--circuit", "off").circuitQubits());
@@ -100,7 +100,10 @@ class ReportOptionsTest {
             + " only once",
         "--min 4 --max 6 extra     | unknown option 'extra'; allowed: --min, --max, --threads,"
             + " --kernels, --targets, --millis, --circuit, --circuit-qubits, --noise, --mps,"
-            + " --precision, --csv, --svg, --help",
+            + " --precision, --csv, --svg, --reference, --help",
+        "--csv r --reference r     | --reference names the file 'r' that --csv would overwrite",
+        "--svg r --reference r     | --reference names the file 'r' that --svg would overwrite",
+        "--reference=              | --reference needs a file name but was empty",
     })
     void badOptionsAreNamed(String args, String expected) {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
@@ -170,8 +173,10 @@ class ReportOptionsTest {
                 "time a 20-layer circuit with fusion on and off (default on, at n >= 20)",
                 "--circuit-qubits=N,N,...", "--noise=on|off", "density matrix of 6..14 qubits",
                 "--precision=P", "double, single or both (default double)", "--csv=FILE",
-                "--svg=FILE", "--help", "--name value or --name=value",
-                "Exit status: 0 done, 1 bad options or unwritable file, 2 not enough heap.")) {
+                "--svg=FILE", "--reference=FILE", "fraction_of_reference", "not a ceiling",
+                "--help", "--name value or --name=value",
+                "Exit status: 0 done, 1 bad options, reference or unwritable file, 2 not enough"
+                    + " heap.")) {
             assertTrue(help.contains(text), text + " in\n" + help);
         }
         assertEquals(ReportOptions.usage(), help);

@@ -121,7 +121,7 @@ class ScalingPlotTest {
         assertEquals(denseDoubleColour, denseSingleColour);
         String text = doc.getDocumentElement().getTextContent();
         assertTrue(text.contains("dense (single)"), text);
-        assertTrue(text.contains("memory floor (single)"), text);
+        assertTrue(text.contains("Java copy (single)"), text);
         assertTrue(text.contains("16 bytes each, 8 in single precision"), text);
     }
 
@@ -155,7 +155,7 @@ class ScalingPlotTest {
         for (String k : kernels) {
             assertTrue(text.contains(k), text);
         }
-        assertTrue(text.contains("main-memory floor"), text);
+        assertTrue(text.contains("Java copy loop (scalar)"), text);
         // Decade ticks: the plotted values run from 819.2 ns (the floor at n = 10) to 98304 ns
         // (dense mid at n = 14), so the axis spans the decades 100 ns .. 100 us.
         assertTrue(text.contains("100 ns") && text.contains("1 \u00b5s")
@@ -184,7 +184,7 @@ class ScalingPlotTest {
         assertEquals("a&amp;b&lt;c&gt;&quot;&apos;", ScalingPlot.escape("a&b<c>\"'"));
     }
 
-    private static Document parse(String svg) throws Exception {
+    static Document parse(String svg) throws Exception {
         DocumentBuilderFactory f = DocumentBuilderFactory.newInstance();
         f.setNamespaceAware(true);
         f.setFeature("http://apache.org/xml/features/disallow-doctype-decl", true);

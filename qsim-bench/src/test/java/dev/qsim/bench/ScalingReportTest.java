@@ -190,7 +190,7 @@ class ScalingReportTest {
         String text = doc.getDocumentElement().getTextContent();
         assertTrue(text.contains("dense (single)"), text);
         assertTrue(text.contains("circuit-fused (single)"), text);
-        assertTrue(text.contains("memory floor (single)"), text);
+        assertTrue(text.contains("Java copy (single)"), text);
         assertTrue(text.contains("double and single precision"), text);
     }
 
@@ -203,6 +203,13 @@ class ScalingReportTest {
         assertEquals(0, status, err.toString(StandardCharsets.UTF_8));
         String[] lines = out.toString(StandardCharsets.UTF_8).split("\\R");
         assertEquals(3, lines.length, String.join("\n", lines));
+        // Without --reference: the columns as before, and the comment lines say what the Java
+        // probe is not and how to get the C reference.
+        assertEquals(CsvOutput.HEADER, lines[0]);
+        String errText = err.toString(StandardCharsets.UTF_8);
+        assertTrue(errText.contains("# the probe is a Java loop that the JIT compiles to scalar"
+            + " code: a lower bound on this machine's bandwidth, not a ceiling"), errText);
+        assertTrue(errText.contains("pass --reference FILE"), errText);
         checkRow(lines[1], 5, "dense", "low", "single");
         checkRow(lines[2], 5, "dense", "high", "single");
     }
@@ -369,6 +376,82 @@ class ScalingReportTest {
             + " chi\\^\\d+\\.\\d\\d.*"), e);
         assertEquals(2 * 16 * 256 / 1e6, new ReportRow(24, "mps-two-qubit", "chi=8", 1, 1e6,
             1, 1, 8, 1).gbps(), 1e-12);
+    }
+
+    @Test
+    void referenceColumnsFromTheCKernel(@TempDir Path dir) throws Exception {
+        // The C kernel's real output at n = 9 and 10 on one thread (CeilingReferenceTest has
+        // its source): the reference columns are its dense gate (31.45 and 48.08 GB/s) and
+        // STREAM copy (46.60 GB/s), and fraction_of_reference = gb_per_s / reference_gb_per_s.
+        Path reference = dir.resolve("ceiling.txt");
+        Files.writeString(reference, CeilingReferenceTest.captured(), StandardCharsets.UTF_8);
+        Path svg = dir.resolve("plot.svg");
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int status = run(out, err, "--min", "9", "--max", "10", "--threads", "1", "--kernels",
+            "dense", "--targets", "mid", "--millis", "5", "--circuit", "off", "--reference",
+            reference.toString(), "--svg", svg.toString());
+        String errText = err.toString(StandardCharsets.UTF_8);
+        assertEquals(0, status, errText);
+        String[] lines = out.toString(StandardCharsets.UTF_8).split("\\R");
+        assertEquals(CsvOutput.HEADER + CsvOutput.REFERENCE_COLUMNS, lines[0]);
+        assertEquals(3, lines.length, String.join("\n", lines));
+        List<String> expected = List.of("31.450", "48.080");
+        for (int i = 1; i <= 2; i++) {
+            String[] cells = lines[i].split(",", -1);
+            assertEquals(15, cells.length, lines[i]);
+            assertEquals(String.valueOf(8 + i), cells[0]);
+            assertEquals(expected.get(i - 1), cells[12], lines[i]);
+            double gb = Double.parseDouble(cells[6]);
+            // Tolerance: gb_per_s and the fraction are printed with 3 decimals.
+            assertEquals(gb / Double.parseDouble(cells[12]), Double.parseDouble(cells[13]),
+                0.0005 + 0.0005 / Double.parseDouble(cells[12]), lines[i]);
+            assertEquals("46.600", cells[14], lines[i]);
+        }
+        assertTrue(errText.contains("# reference: --reference file '" + reference + "': C dense"
+            + " gate at threads=1, n = [9, 10]; STREAM copy 46.60 GB/s, triad 39.46 GB/s"),
+            errText);
+        assertTrue(errText.contains("fraction_of_reference = gb_per_s / reference_gb_per_s"),
+            errText);
+        assertFalse(errText.contains("pass --reference FILE"), errText);
+        assertTrue(Files.readString(svg, StandardCharsets.UTF_8).contains("<polyline"
+            + " class=\"reference\""));
+    }
+
+    @Test
+    void badReferenceExitsOneBeforeMeasuring(@TempDir Path dir) throws Exception {
+        Path reference = dir.resolve("ceiling.txt");
+        Files.writeString(reference, CeilingReferenceTest.captured(), StandardCharsets.UTF_8);
+        Path csv = dir.resolve("never.csv");
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        // n = 11 was not measured by the C kernel, nor were two threads.
+        assertEquals(1, run(out, err, "--min", "9", "--max", "11", "--threads", "1",
+            "--reference", reference.toString(), "--csv", csv.toString()));
+        String line = err.toString(StandardCharsets.UTF_8).strip();
+        assertTrue(line.startsWith("error: --reference file '" + reference + "' has no"
+            + " dense-gate rate ('test=gate_summary gate=u') for n = [11] at threads=1"), line);
+        assertFalse(line.contains("\n"), line);
+        err.reset();
+        assertEquals(1, run(out, err, "--min", "9", "--max", "10", "--threads", "2",
+            "--reference", reference.toString(), "--csv", csv.toString()));
+        assertTrue(err.toString(StandardCharsets.UTF_8).contains("for n = [9, 10] at"
+            + " threads=2"), err::toString);
+        // A malformed file names the line; a folder cannot be read.
+        Files.writeString(reference, "# run 1\nn=9 gbs=31.45\n", StandardCharsets.UTF_8);
+        err.reset();
+        assertEquals(1, run(out, err, "--min", "9", "--max", "9", "--reference",
+            reference.toString()));
+        assertEquals("error: --reference file '" + reference + "' line 2 is not a line of the C"
+            + " kernel's output (tab-separated key=value fields, or # for a comment): field 1 is"
+            + " 'n=9 gbs=31.45': 'n=9 gbs=31.45'", err.toString(StandardCharsets.UTF_8).strip());
+        err.reset();
+        assertEquals(1, run(out, err, "--min", "9", "--max", "9", "--reference",
+            dir.toString()));
+        assertTrue(err.toString(StandardCharsets.UTF_8).startsWith("error: cannot read"
+            + " --reference file '" + dir + "': "), err::toString);
+        assertEquals("", out.toString(StandardCharsets.UTF_8));
+        assertFalse(Files.exists(csv), csv.toString());
     }
 
     static Document parse(Path svg) throws Exception {
