@@ -10,6 +10,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.HashMap;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import java.util.OptionalDouble;
 import java.util.TreeMap;
@@ -259,11 +260,11 @@ final class CeilingReference {
                 .append(dense.getOrDefault(threads, new TreeMap<>()).keySet());
         final OptionalDouble c = copy(threads);
         final OptionalDouble t = triad(threads);
-        sb.append(c.isPresent() || t.isPresent() ? String.format(java.util.Locale.ROOT,
+        sb.append(c.isPresent() || t.isPresent() ? String.format(Locale.ROOT,
                 "; STREAM copy %s GB/s, triad %s GB/s (best of its repetitions)",
-                c.isPresent() ? String.format(java.util.Locale.ROOT, "%.2f", c.getAsDouble())
+                c.isPresent() ? String.format(Locale.ROOT, "%.2f", c.getAsDouble())
                         : "not measured",
-                t.isPresent() ? String.format(java.util.Locale.ROOT, "%.2f", t.getAsDouble())
+                t.isPresent() ? String.format(Locale.ROOT, "%.2f", t.getAsDouble())
                         : "not measured")
                 : "; no STREAM lines at that thread count (reference_copy_gb_per_s stays"
                         + " empty)");
