@@ -21,7 +21,6 @@ import java.util.function.Consumer;
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 
-import dev.qsim.internal.Bridge;
 import dev.qsim.internal.TextFiles;
 import dev.qsim.kernel.KernelTimer;
 import dev.qsim.kernel.Parallel;
@@ -81,7 +80,7 @@ public final class Calibration {
     /** Tableau rates, in the order of {@link TableauCost}'s terms. */
     private static final String[] TABLEAU_KEYS = {"tableau.run", "tableau.table.word",
         "tableau.gate", "tableau.gate.word", "tableau.measure", "tableau.measure.column",
-        "tableau.measure.word", "tableau.batch.step", "tableau.batch.row"};
+        "tableau.measure.word", "tableau.batch.step", "tableau.batch.row", "tableau.shot"};
 
     private static final String[] OTHER_KEYS = otherKeys();
 
@@ -102,11 +101,47 @@ public final class Calibration {
     private final double[][][] rates;
     private final double shotNanos;
     private final double shotBitNanos;
-    private final double[] tableau;
     private final double planNanos;
     private final double fuseNanos;
-    private final double mpsUnitNanos;
+    /** The tableau's and the matrix product state's rates, measured when first asked for. */
+    private final Extras extras;
     private final String note;
+
+    /**
+     * The rates of the engines other than the state vector: given (a calibration) or measured
+     * on first use (the quick probe, so that a forecast of a state-vector run does not pay for
+     * the tableau's and the matrix product state's timing). Thread-safe.
+     */
+    private static final class Extras {
+        private final long nanos;
+        private double[] tableau;
+        private double mps;
+
+        Extras(double[] tableau, double mps) {
+            this.nanos = 0;
+            this.tableau = tableau;
+            this.mps = mps;
+        }
+
+        Extras(long nanos) {
+            this.nanos = nanos;
+            this.mps = Double.NaN;
+        }
+
+        synchronized double[] tableau() {
+            if (tableau == null) {
+                tableau = tableauNanos(nanos, true);
+            }
+            return tableau;
+        }
+
+        synchronized double mps() {
+            if (Double.isNaN(mps)) {
+                mps = mpsUnitNanos(nanos, true);
+            }
+            return mps;
+        }
+    }
 
     private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
             double[][][] rates, double[] other, String note) {
@@ -119,10 +154,26 @@ public final class Calibration {
         this.shotNanos = other[0];
         this.shotBitNanos = other[1];
         int t = TableauCost.TERMS;
-        this.tableau = Arrays.copyOfRange(other, 2, 2 + t);
         this.planNanos = other[2 + t];
         this.fuseNanos = other[3 + t];
-        this.mpsUnitNanos = other[4 + t];
+        this.extras = new Extras(Arrays.copyOfRange(other, 2, 2 + t), other[4 + t]);
+        this.note = note;
+    }
+
+    /** The quick probe's rates, its other engines' rates measured on first use. */
+    private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
+            double[][][] rates, double[] shot, double[] plan, Extras extras, String note) {
+        this.source = source;
+        this.made = made;
+        this.kernels = kernels;
+        this.processors = processors;
+        this.sizes = sizes;
+        this.rates = rates;
+        this.shotNanos = shot[0];
+        this.shotBitNanos = shot[1];
+        this.planNanos = plan[0];
+        this.fuseNanos = plan[1];
+        this.extras = extras;
         this.note = note;
     }
 
@@ -142,7 +193,9 @@ public final class Calibration {
 
     /**
      * Returns the quick probe's rates (measured once per JVM, about a second): every kind at
-     * 2^12 and 2^20 amplitudes, on one thread and on every processor.
+     * 2^12 and 2^20 amplitudes, on one thread and on every processor, after a warm-up of the
+     * loops; the tableau's and the matrix product state's rates when a forecast first needs
+     * them.
      *
      * @return the rates, {@link Source#QUICK_PROBE}
      */
@@ -165,15 +218,27 @@ public final class Calibration {
     private static Calibration measureAll(Source source, int[] sizes, long nanos,
             Consumer<String> progress) {
         int all = Parallel.defaultThreads();
-        // Every kind round after round on a small state until the JIT has had WARM_NANOS to
-        // compile the loops (the vector path's loops are slow until C2 has compiled them, a
-        // few tenths of a second after the first call), then a round on every thread count.
-        long until = System.nanoTime() + WARM_NANOS;
-        do {
+        // Every kind round after round on the smallest size for at least WARM_NANOS and until
+        // the JIT compiler has been idle for a whole round (its total compilation time did
+        // not grow), at most four times WARM_NANOS: the vector path's loops run a hundred
+        // times slower until C2 has compiled them, which takes a few tenths of a second after
+        // their first call on this machine. Then a round on every thread.
+        java.lang.management.CompilationMXBean jit = java.lang.management.ManagementFactory
+                .getCompilationMXBean();
+        boolean watch = jit != null && jit.isCompilationTimeMonitoringSupported();
+        long start = System.nanoTime();
+        while (true) {
+            long before = watch ? jit.getTotalCompilationTime() : 0;
             for (int k = 0; k < Workload.KINDS; k++) {
                 KernelTimer.nanosPerUnit(k, sizes[0], 1, 0);
             }
-        } while (System.nanoTime() < until);
+            KernelTimer.blockGateNanos(sizes[0], 1, 0, false);
+            long spent = System.nanoTime() - start;
+            boolean idle = !watch || jit.getTotalCompilationTime() == before;
+            if ((idle && spent >= WARM_NANOS) || spent >= 4 * WARM_NANOS) {
+                break;
+            }
+        }
         KernelTimer.nanosPerUnit(Workload.DENSE1, Parallel.MIN_PARALLEL_QUBITS, all, 0);
         double[][][] r = new double[ROWS][2][sizes.length];
         boolean quick = source == Source.QUICK_PROBE;
@@ -190,16 +255,21 @@ public final class Calibration {
                     r[Workload.DENSE1][0][s], r[Workload.DENSE1][1][s], all));
         }
         double[] shot = shotNanos(nanos, quick ? 20_000 : 400_000);
-        double[] tab = tableauNanos(nanos, shot, quick);
         double[] plan = planNanos(nanos);
-        double mps = mpsUnitNanos(nanos, quick);
+        Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+        if (quick) {
+            return new Calibration(source, now, KernelTimer.path(), all, sizes.clone(), r, shot,
+                    plan, new Extras(nanos), "");
+        }
+        double[] tab = tableauNanos(nanos, false);
+        double mps = mpsUnitNanos(nanos, false);
         progress.accept(String.format(Locale.ROOT, "tallying %.0f ns per shot and %.1f per bit;"
                 + " tableau %.0f ns per gate and %.2f per word, %.0f ns per measurement, %.2f"
                 + " per column and %.2f per word", shot[0], shot[1], tab[TableauCost.GATES],
                 tab[TableauCost.GATE_WORDS], tab[TableauCost.MEASUREMENTS],
                 tab[TableauCost.MEASURE_COLUMNS], tab[TableauCost.MEASURE_WORDS]));
-        return new Calibration(source, Instant.now().truncatedTo(ChronoUnit.SECONDS),
-                KernelTimer.path(), all, sizes.clone(), r, others(shot, tab, plan, mps), "");
+        return new Calibration(source, now, KernelTimer.path(), all, sizes.clone(), r,
+                others(shot, tab, plan, mps), "");
     }
 
     /**
@@ -259,15 +329,17 @@ public final class Calibration {
      * without measurements (per run and per table word from what the lengths share, per gate
      * where the table is one word high and per gate word where it is many), the longer one
      * with every qubit measured once (per measurement, per column, per word), and that one
-     * with many shots (per replayed step and row). The tally's share of each run (the shot
-     * rates) is taken off first.
+     * with many shots (per replayed step and row, per shot: the tableau's tally is fitted
+     * with it, not priced at the state vector's shot rates).
      */
-    private static double[] tableauNanos(long nanos, double[] shot, boolean quick) {
+    private static double[] tableauNanos(long nanos, boolean quick) {
         int[] sizes = quick ? new int[] {32, 160, 640} : new int[] {32, 96, 256, 512, 1024};
         int shots = quick ? 640 : 3200;
         long each = Math.max(1_000_000L, quick ? nanos : nanos / 3);
         List<double[]> x = new ArrayList<>();
         List<Double> y = new ArrayList<>();
+        // Through the library call a user makes: its checks and engine choice cost per gate.
+        Simulator tableau = Simulator.seeded(3).withEngine(Simulator.Engine.TABLEAU);
         for (int pass = 0; pass < 2; pass++) {
             boolean warm = pass == 0;
             for (int n : sizes) {
@@ -283,10 +355,10 @@ public final class Calibration {
                 for (Object[] run : runs) {
                     Circuit c = (Circuit) run[0];
                     int s = (Integer) run[1];
-                    double t = best(() -> Bridge.tableaus().run(c, s, 3), warm ? 0 : each);
+                    double t = best(() -> tableau.run(c, s), warm ? 0 : each);
                     if (!warm) {
                         x.add(TableauCost.terms(c, s));
-                        y.add(t - s * (shot[0] + shot[1] * c.clbits()));
+                        y.add(t);
                     }
                 }
             }
@@ -411,7 +483,8 @@ public final class Calibration {
     }
 
     /**
-     * Nanoseconds to plan one gate, and to fuse one gate, on a random 16-qubit circuit of
+     * Nanoseconds to plan one gate (with the run's check of the circuit and choice of engine,
+     * {@link Simulator#explain}), and to fuse one gate, on a random 16-qubit circuit of
      * rotation layers with CZ and CNOT gates (the planning is timed on a storage without
      * amplitudes, so no pass is included).
      */
@@ -436,7 +509,11 @@ public final class Calibration {
         }
         double plan = best(() -> Workload.of(n, false).gates(plans), nanos) / plans.size();
         double fuse = best(() -> Fusion.fuse(gates), nanos) / gates.size();
-        return new double[] {plan, fuse};
+        // A run also checks the circuit and chooses its engine, per gate.
+        Circuit c = b.build();
+        Simulator sim = Simulator.seeded(1);
+        double choose = best(() -> sim.explain(c, 1000), nanos) / gates.size();
+        return new double[] {plan + choose, fuse};
     }
 
     private static double best(Runnable r, long nanos) {
@@ -489,7 +566,8 @@ public final class Calibration {
         }
         Calibration q = quickProbe();
         return new Calibration(q.source, q.made, q.kernels, q.processors, q.sizes, q.rates,
-                q.others(), why);
+                new double[] {q.shotNanos, q.shotBitNanos}, new double[] {q.planNanos,
+                    q.fuseNanos}, q.extras, why);
     }
 
     /**
@@ -753,8 +831,8 @@ public final class Calibration {
     }
 
     private double[] others() {
-        return others(new double[] {shotNanos, shotBitNanos}, tableau,
-                new double[] {planNanos, fuseNanos}, mpsUnitNanos);
+        return others(new double[] {shotNanos, shotBitNanos}, extras.tableau(),
+                new double[] {planNanos, fuseNanos}, extras.mps());
     }
 
     /** The values of {@link #OTHER_KEYS} in order. */
@@ -792,7 +870,7 @@ public final class Calibration {
 
     /** Nanoseconds per unit of matrix-product-state work ({@link MpsCost}). */
     double mpsUnitNanos() {
-        return mpsUnitNanos;
+        return extras.mps();
     }
 
     /** Nanoseconds per shot drawn and tallied. */
@@ -807,7 +885,7 @@ public final class Calibration {
 
     /** Tableau rates, nanoseconds per unit of each of {@link TableauCost}'s terms. */
     double[] tableauRates() {
-        return tableau.clone();
+        return extras.tableau().clone();
     }
 
     /**

@@ -15,8 +15,9 @@ import dev.qsim.stabilizer.StabilizerTableau;
  * and those words; making or copying a table writes its {@code 4n·⌈n/64⌉} words. A circuit
  * without conditions is simulated once and its shots replayed in batches of 64: each batch
  * takes every measurement again as one step that flips at most n rows of the sign column,
- * counted as one step and n rows. Any other circuit is simulated shot by shot from a copy of
- * its table.
+ * counted as one step and n rows, its outcome bits unpacked for the tally. Any other circuit
+ * is simulated shot by shot from a copy of its table. The tally's share is priced with the
+ * tableau's own rates (per shot, and within each replayed step), not the state vector's.
  */
 final class TableauCost {
     /** Term: runs (one table made, the replay recorded, the tally built). */
@@ -37,8 +38,13 @@ final class TableauCost {
     static final int BATCH_STEPS = 7;
     /** Term: rows of the sign column a replayed measurement may flip (n per step). */
     static final int BATCH_ROWS = 8;
+    /**
+     * Term: shots tallied. A replayed batch unpacks each measurement's bit for its 64 shots,
+     * so the tally's work per bit is part of a replayed step's.
+     */
+    static final int SHOTS = 9;
     /** The number of terms. */
-    static final int TERMS = 9;
+    static final int TERMS = 10;
 
     private TableauCost() {
     }
@@ -108,7 +114,6 @@ final class TableauCost {
         double table = 4.0 * n * half;
         double[] once = once(c);
         double[] t = new double[TERMS];
-        t[RUNS] = 1;
         if (!hasControl(c.instructions())) {
             System.arraycopy(once, 0, t, 0, TERMS);
             t[RUNS] = 1;
@@ -121,7 +126,9 @@ final class TableauCost {
                 t[k] = shots * once[k];
             }
             t[TABLE_WORDS] = (2 + shots) * table;
+            t[RUNS] = 1;
         }
+        t[SHOTS] = shots;
         return t;
     }
 
@@ -139,7 +146,6 @@ final class TableauCost {
         } else {
             e.hold(2 * table, "the tableau and a copy for each shot");
         }
-        e.draw(shots, c.clbits());
         return e;
     }
 

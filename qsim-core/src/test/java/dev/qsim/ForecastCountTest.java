@@ -204,6 +204,7 @@ class ForecastCountTest {
         assertEquals(3, r[TableauCost.BATCH_STEPS], "replayed steps");
         assertEquals(300, r[TableauCost.BATCH_ROWS], "replayed rows");
         assertEquals(1, r[TableauCost.MEASUREMENTS], "simulated once");
+        assertEquals(130, r[TableauCost.SHOTS], "shots tallied");
         // Y is applied as its catalogue decomposition into the tableau's primitives; each
         // primitive on one qubit rewrites 8 words here.
         Circuit y = Circuit.builder(100).y(3).build();

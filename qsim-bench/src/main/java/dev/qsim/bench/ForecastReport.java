@@ -24,8 +24,8 @@ import dev.qsim.RunCost;
  * largest memory error over runs whose prediction is at least 16 MiB.
  *
  * <p>Measured time: the wall time of {@code run(circuit, shots)}; runs predicted under a second
- * are run until two runs in a row agree within 10 % (at most 8: the JIT's warm-up is not part of
- * the forecast), then three times, and the median kept. Measured memory: the peak
+ * are run for half a second at least and until two runs in a row agree within 10 % (at most
+ * 40: the JIT's warm-up is not part of the forecast), then three times, and the median kept. Measured memory: the peak
  * of the heap pools that hold long-lived and large objects (under G1, the old generation,
  * where every array of half a region or more goes) above their use after a full collection
  * just before the run. An array under half a region is born in the young generation, which
@@ -162,14 +162,17 @@ public final class ForecastReport {
         double seconds;
         long peak;
         if (cost.seconds() < 1) {
-            // Warm until two runs in a row agree within 10 % (the JIT has compiled this
-            // case's loops: a cold 16-qubit run took twice its steady time), at most 8 runs.
+            // Warm for half a second at least and until two runs in a row agree within 10 %
+            // (the JIT has compiled this case's loops: a cold 16-qubit run took twice its
+            // steady time, a 200-qubit tableau run three times), at most 40 runs.
             double last = Double.MAX_VALUE;
-            for (int i = 0; i < 8; i++) {
+            long warm = System.nanoTime();
+            for (int i = 0; i < 40; i++) {
                 long t0 = System.nanoTime();
                 c.simulator().run(c.circuit(), c.shots());
-                double t = System.nanoTime() - t0;
-                if (Math.abs(t - last) <= 0.1 * Math.min(t, last)) {
+                long t1 = System.nanoTime();
+                double t = t1 - t0;
+                if (Math.abs(t - last) <= 0.1 * Math.min(t, last) && t1 - warm >= 500_000_000L) {
                     break;
                 }
                 last = t;

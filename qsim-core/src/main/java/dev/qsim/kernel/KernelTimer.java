@@ -77,9 +77,13 @@ public final class KernelTimer {
         // Targets spread over the whole register, low ones included: a kernel's speed depends
         // on its target's position, and circuits use them all.
         int spread = Math.min(n - 1, brief ? 2 : n >= 20 ? 4 : 8);
+        if (!positional(kind)) {
+            spread = 1; // the same pass whatever the position: one is enough
+        }
         int[] rotate = new int[spread];
         for (int r = 0; r < spread; r++) {
-            rotate[r] = r == 0 ? 0 : 1 + (int) ((long) (r - 1) * (n - 3) / Math.max(1, spread - 2));
+            rotate[r] = r == 0 ? 0 : spread == 2 ? n / 2
+                    : 1 + (int) ((long) (r - 1) * (n - 3) / Math.max(1, spread - 2));
         }
         Runnable[] step = new Runnable[rotate.length];
         for (int r = 0; r < rotate.length; r++) {
@@ -240,7 +244,7 @@ public final class KernelTimer {
      * @param threads threads, at least 1
      * @param minNanos how long to keep timing each group, at least
      * @param brief whether to skip the warm-up round
-     * @return nanoseconds per amplitude and gate, at least a hundredth of the short group's
+     * @return nanoseconds per amplitude and gate, at least half the long group's per gate
      */
     public static double blockGateNanos(int n, int threads, long minNanos, boolean brief) {
         Amplitudes a = filled(0, n, false);
@@ -256,11 +260,28 @@ public final class KernelTimer {
             t[i] = median(step, minNanos, !brief);
         }
         double per = (t[1] - t[0]) / (LONG_GROUP - GROUP_GATES);
-        return Math.max(0.01 * t[0] / GROUP_GATES, per) / Math.scalb(1.0, n);
+        // A difference of two timings can come out near zero on a noisy machine; a gate in
+        // cache costs at least half the long group's time per gate (the stream is shared).
+        return Math.max(0.5 * t[1] / LONG_GROUP, per) / Math.scalb(1.0, n);
     }
 
     /** Gates in the longer group of {@link #blockGateNanos}. */
-    private static final int LONG_GROUP = 16;
+    private static final int LONG_GROUP = 40;
+
+    /** Whether a kind's timed pass depends on the target position it is given. */
+    private static boolean positional(int kind) {
+        switch (kind) {
+            case Workload.BLOCK_STREAM:
+            case Workload.WINDOW_STREAM:
+            case Workload.WINDOW_STREAM_DOUBLE:
+            case Workload.PHASES:
+            case Workload.COPY:
+            case Workload.SAMPLE:
+                return false;
+            default:
+                return true;
+        }
+    }
 
     /** Four distinct qubits: q, q + 1, then the highest ones not taken. */
     private static int[] distinct(int n, int q) {
