@@ -23,13 +23,13 @@ import dev.qsim.RunCost;
  * summary: the share of runs within ±30 % in time, the largest ratio either way, and the
  * largest memory error over runs whose prediction is at least 16 MiB.
  *
- * <p>Measured time: the wall time of {@code run(circuit, shots)}; runs predicted under a second
- * are run for half a second at least and until two runs in a row agree within 10 % (at most
- * 40: the JIT's warm-up is not part of the forecast), then three times, and the median kept.
- * Measured memory: the peak of the heap pools that hold long-lived and large objects (under G1, the old generation,
- * where every array of half a region or more goes) above their use after a full collection
- * just before the run. An array under half a region is born in the young generation, which
- * this measurement does not see; the report therefore wants {@code -XX:G1HeapRegionSize=1m},
+ * <p>Measured time: the wall time of {@code run(circuit, shots)}; runs predicted under a second are
+ * run for half a second at least and until two runs in a row agree within 10 % (at most 40: the
+ * JIT's warm-up is not part of the forecast), then three times, and the median kept. Measured
+ * memory: the peak of the heap pools that hold long-lived and large objects (under G1, the old
+ * generation, where every array of half a region or more goes) above their use after a full
+ * collection just before the run. An array under half a region is born in the young generation,
+ * which this measurement does not see; the report therefore wants {@code -XX:G1HeapRegionSize=1m},
  * so that every array of 512 KiB or more (the states, the lazy frame's 1 MiB phase tables) is
  * seen, and says so on standard error when the region is larger. Usage: {@code java -Xmx6g
  * -XX:G1HeapRegionSize=1m -cp qsim-bench.jar dev.qsim.bench.ForecastReport [--max N]
