@@ -61,7 +61,7 @@ public final class Calibration {
     public enum Source {
         /** Measured by {@link #measure(Consumer)}, kept in the calibration file. */
         CALIBRATED,
-        /** The built-in quick probe of about a second. */
+        /** The built-in quick probe of a second or two. */
         QUICK_PROBE
     }
 
@@ -192,7 +192,7 @@ public final class Calibration {
     }
 
     /**
-     * Returns the quick probe's rates (measured once per JVM, about a second): every kind at
+     * Returns the quick probe's rates (measured once per JVM, a second or two): every kind at
      * 2^12 and 2^20 amplitudes, on one thread and on every processor, after a warm-up of the
      * loops; the tableau's and the matrix product state's rates when a forecast first needs
      * them.
