@@ -10,6 +10,7 @@ import java.nio.file.StandardCopyOption;
 import java.time.Instant;
 import java.time.format.DateTimeParseException;
 import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
@@ -20,7 +21,6 @@ import java.util.function.Consumer;
 import org.apache.commons.rng.UniformRandomProvider;
 import org.apache.commons.rng.simple.RandomSource;
 
-import dev.qsim.internal.Bridge;
 import dev.qsim.internal.TextFiles;
 import dev.qsim.kernel.KernelTimer;
 import dev.qsim.kernel.Parallel;
@@ -51,7 +51,7 @@ import dev.qsim.kernel.Workload;
  */
 public final class Calibration {
     /** The file format's version; a file of another version is ignored, with the reason. */
-    public static final int FORMAT = 2;
+    public static final int FORMAT = 3;
     /** System property naming the folder of the calibration file (tests use a temporary one). */
     public static final String FOLDER_PROPERTY = "qsim.config.dir";
     /** The calibration file's name inside the folder. */
@@ -61,7 +61,7 @@ public final class Calibration {
     public enum Source {
         /** Measured by {@link #measure(Consumer)}, kept in the calibration file. */
         CALIBRATED,
-        /** The built-in quick probe of about a second. */
+        /** The built-in quick probe of a second or two. */
         QUICK_PROBE
     }
 
@@ -72,28 +72,76 @@ public final class Calibration {
     private static final long MAX_FILE_BYTES = 64 * 1024;
     private static final String[] KEYS = {"dense1", "dense1-controlled", "dense2", "dense3",
         "dense4", "diagonal", "permutation", "block-group", "window-group", "float1", "phases",
-        "copy", "measure", "sample", "reduce"};
+        "copy", "measure", "sample", "reduce", "window-group-double", "block-gate"};
+    /** The rate row of one more dense 1-qubit gate in a cache-blocked group, per amplitude. */
+    private static final int BLOCK_GATE = Workload.KINDS;
+    private static final int ROWS = Workload.KINDS + 1;
 
-    private static final String[] OTHER_KEYS = {"shot", "shot.bit", "tableau.gate",
-        "tableau.gate.word", "tableau.measure", "tableau.measure.word", "tableau.batch.word",
-        "plan.gate", "fuse.gate", "mps.unit"};
+    /** Tableau rates, in the order of {@link TableauCost}'s terms. */
+    private static final String[] TABLEAU_KEYS = {"tableau.run", "tableau.table.word",
+        "tableau.gate", "tableau.gate.word", "tableau.measure", "tableau.measure.column",
+        "tableau.measure.word", "tableau.batch.step", "tableau.batch.row", "tableau.shot"};
+
+    private static final String[] OTHER_KEYS = otherKeys();
 
     private static Calibration probe;
+
+    /** Wall time the kernels are run on small states before any is timed (the JIT's work). */
+    private static final long WARM_NANOS = 300_000_000L;
 
     private final Source source;
     private final Instant made;
     private final String kernels;
     private final int processors;
     private final int[] sizes;
-    /** [kind][0: one thread, 1: all processors][size index], nanoseconds per unit. */
+    /**
+     * [kind][0: one thread, 1: all processors][size index], nanoseconds per unit; the row
+     * after the kinds ({@link #BLOCK_GATE}) is one more gate in a cache-blocked group.
+     */
     private final double[][][] rates;
     private final double shotNanos;
     private final double shotBitNanos;
-    private final double[] tableau;
     private final double planNanos;
     private final double fuseNanos;
-    private final double mpsUnitNanos;
+    /** The tableau's and the matrix product state's rates, measured when first asked for. */
+    private final Extras extras;
     private final String note;
+
+    /**
+     * The rates of the engines other than the state vector: given (a calibration) or measured
+     * on first use (the quick probe, so that a forecast of a state-vector run does not pay for
+     * the tableau's and the matrix product state's timing). Thread-safe.
+     */
+    private static final class Extras {
+        private final long nanos;
+        private double[] tableau;
+        private double mps;
+
+        Extras(double[] tableau, double mps) {
+            this.nanos = 0;
+            this.tableau = tableau;
+            this.mps = mps;
+        }
+
+        Extras(long nanos) {
+            this.nanos = nanos;
+            this.mps = Double.NaN;
+        }
+
+        synchronized double[] tableau() {
+            if (tableau == null) {
+                tableau = tableauNanos(nanos, true);
+            }
+            return tableau;
+        }
+
+        synchronized double mps() {
+            if (Double.isNaN(mps)) {
+                mps = mpsUnitNanos(nanos, true);
+            }
+            return mps;
+        }
+    }
 
     private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
             double[][][] rates, double[] other, String note) {
@@ -105,10 +153,27 @@ public final class Calibration {
         this.rates = rates;
         this.shotNanos = other[0];
         this.shotBitNanos = other[1];
-        this.tableau = Arrays.copyOfRange(other, 2, 7);
-        this.planNanos = other[7];
-        this.fuseNanos = other[8];
-        this.mpsUnitNanos = other[9];
+        int t = TableauCost.TERMS;
+        this.planNanos = other[2 + t];
+        this.fuseNanos = other[3 + t];
+        this.extras = new Extras(Arrays.copyOfRange(other, 2, 2 + t), other[4 + t]);
+        this.note = note;
+    }
+
+    /** The quick probe's rates, its other engines' rates measured on first use. */
+    private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
+            double[][][] rates, double[] shot, double[] plan, Extras extras, String note) {
+        this.source = source;
+        this.made = made;
+        this.kernels = kernels;
+        this.processors = processors;
+        this.sizes = sizes;
+        this.rates = rates;
+        this.shotNanos = shot[0];
+        this.shotBitNanos = shot[1];
+        this.planNanos = plan[0];
+        this.fuseNanos = plan[1];
+        this.extras = extras;
         this.note = note;
     }
 
@@ -127,8 +192,10 @@ public final class Calibration {
     }
 
     /**
-     * Returns the quick probe's rates (measured once per JVM, about a second): every kind at
-     * 2^12 and 2^20 amplitudes, on one thread and on every processor.
+     * Returns the quick probe's rates (measured once per JVM, a second or two): every kind at
+     * 2^12 and 2^20 amplitudes, on one thread and on every processor, after a warm-up of the
+     * loops; the tableau's and the matrix product state's rates when a forecast first needs
+     * them.
      *
      * @return the rates, {@link Source#QUICK_PROBE}
      */
@@ -141,33 +208,78 @@ public final class Calibration {
 
     private static Calibration run(Source source, int[] sizes, long nanos,
             Consumer<String> progress) {
+        try {
+            return measureAll(source, sizes, nanos, progress);
+        } finally {
+            KernelTimer.release();
+        }
+    }
+
+    private static Calibration measureAll(Source source, int[] sizes, long nanos,
+            Consumer<String> progress) {
         int all = Parallel.defaultThreads();
-        for (int k = 0; k < Workload.KINDS; k++) {
-            KernelTimer.nanosPerUnit(k, sizes[0], 1, 1_000_000L); // compiled before timing
-        }
-        double[][][] r = new double[Workload.KINDS][2][sizes.length];
-        for (int s = 0; s < sizes.length; s++) {
-            for (int t = 0; t < 2; t++) {
-                int threads = t == 0 ? 1 : all;
-                for (int k = 0; k < Workload.KINDS; k++) {
-                    r[k][t][s] = KernelTimer.nanosPerUnit(k, sizes[s], threads, nanos);
-                }
+        // Every kind round after round on the smallest size for at least WARM_NANOS and until
+        // the JIT compiler has been idle for a whole round (its total compilation time did
+        // not grow), at most four times WARM_NANOS: the vector path's loops run a hundred
+        // times slower until C2 has compiled them, which takes a few tenths of a second after
+        // their first call on this machine. Then a round on every thread.
+        java.lang.management.CompilationMXBean jit = java.lang.management.ManagementFactory
+                .getCompilationMXBean();
+        boolean watch = jit != null && jit.isCompilationTimeMonitoringSupported();
+        long start = System.nanoTime();
+        while (true) {
+            long before = watch ? jit.getTotalCompilationTime() : 0;
+            for (int k = 0; k < Workload.KINDS; k++) {
+                KernelTimer.nanosPerUnit(k, sizes[0], 1, 0);
             }
-            progress.accept(String.format(Locale.ROOT, "2^%d amplitudes: dense 1-qubit %.2f ns"
-                    + " per amplitude on 1 thread, %.2f on %d", sizes[s],
-                    r[Workload.DENSE1][0][s], r[Workload.DENSE1][1][s], all));
+            KernelTimer.blockGateNanos(sizes[0], 1, 0, false);
+            long spent = System.nanoTime() - start;
+            boolean idle = !watch || jit.getTotalCompilationTime() == before;
+            if ((idle && spent >= WARM_NANOS) || spent >= 4 * WARM_NANOS) {
+                break;
+            }
         }
+        KernelTimer.nanosPerUnit(Workload.DENSE1, Parallel.MIN_PARALLEL_QUBITS, all, 0);
+        double[][][] r = new double[ROWS][2][sizes.length];
         boolean quick = source == Source.QUICK_PROBE;
+        // A calibration times every size twice, a minute apart, and keeps the lower median of
+        // each rate: other work on the machine only ever slows a timing down, and a burst of
+        // it during one sweep (seen on the shared machine of record: one rate three times its
+        // neighbours) then does not reach the file. The quick probe sweeps once.
+        int sweeps = quick ? 1 : 2;
+        for (int sweep = 0; sweep < sweeps; sweep++) {
+            for (int s = 0; s < sizes.length; s++) {
+                for (int t = 0; t < 2; t++) {
+                    int threads = t == 0 ? 1 : all;
+                    for (int k = 0; k < ROWS; k++) {
+                        double v = k == BLOCK_GATE
+                                ? KernelTimer.blockGateNanos(sizes[s], threads, nanos, quick)
+                                : KernelTimer.nanosPerUnit(k, sizes[s], threads, nanos, quick);
+                        r[k][t][s] = sweep == 0 ? v : Math.min(r[k][t][s], v);
+                    }
+                }
+                progress.accept(String.format(Locale.ROOT, "%s2^%d amplitudes: dense 1-qubit"
+                        + " %.2f ns per amplitude on 1 thread, %.2f on %d", sweep == 0 ? ""
+                        : "again, ", sizes[s], r[Workload.DENSE1][0][s],
+                        r[Workload.DENSE1][1][s], all));
+            }
+        }
         double[] shot = shotNanos(nanos, quick ? 20_000 : 400_000);
-        double[] tab = tableauNanos(nanos, shot, quick);
         double[] plan = planNanos(nanos);
-        double mps = mpsUnitNanos(nanos);
+        Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+        if (quick) {
+            return new Calibration(source, now, KernelTimer.path(), all, sizes.clone(), r, shot,
+                    plan, new Extras(nanos), "");
+        }
+        double[] tab = tableauNanos(nanos, false);
+        double mps = mpsUnitNanos(nanos, false);
         progress.accept(String.format(Locale.ROOT, "tallying %.0f ns per shot and %.1f per bit;"
-                + " tableau %.0f ns per gate and %.2f per word, %.0f ns per measurement and"
-                + " %.2f per word", shot[0], shot[1], tab[0], tab[1], tab[2], tab[3]));
-        return new Calibration(source, Instant.now().truncatedTo(ChronoUnit.SECONDS),
-                KernelTimer.path(), all, sizes.clone(), r, new double[] {shot[0], shot[1], tab[0],
-                    tab[1], tab[2], tab[3], tab[4], plan[0], plan[1], mps}, "");
+                + " tableau %.0f ns per gate and %.2f per word, %.0f ns per measurement, %.2f"
+                + " per column and %.2f per word", shot[0], shot[1], tab[TableauCost.GATES],
+                tab[TableauCost.GATE_WORDS], tab[TableauCost.MEASUREMENTS],
+                tab[TableauCost.MEASURE_COLUMNS], tab[TableauCost.MEASURE_WORDS]));
+        return new Calibration(source, now, KernelTimer.path(), all, sizes.clone(), r,
+                others(shot, tab, plan, mps), "");
     }
 
     /**
@@ -175,7 +287,7 @@ public final class Calibration {
      * the middle bonds of a 12-qubit chain held at bond dimension 32, each a split of a
      * 64 x 64 block, {@code 64³} units.
      */
-    private static double mpsUnitNanos(long nanos) {
+    private static double mpsUnitNanos(long nanos, boolean quick) {
         UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(31L);
         int n = 12;
         int chi = 32;
@@ -197,7 +309,7 @@ public final class Calibration {
         for (int warm = 0; warm < 6; warm++) {
             eight.run(); // the decomposition's loops compiled before timing
         }
-        double perGate = best(eight, Math.max(nanos, 30_000_000L)) / 8;
+        double perGate = best(eight, quick ? nanos : Math.max(nanos, 30_000_000L)) / 8;
         double block = 2.0 * chi;
         return perGate / (block * block * block);
     }
@@ -221,67 +333,168 @@ public final class Calibration {
     }
 
     /**
-     * Tableau rates: nanoseconds per gate and per gate word, per measurement and per
-     * measurement word, and per word of a replayed 64-shot batch; from circuits of two sizes,
-     * each measured on one qubit and on all of them (a straight line through two points).
+     * Tableau rates, nanoseconds per unit of each of {@link TableauCost}'s terms, fitted by
+     * least squares (relative residuals, no rate below zero) to runs at several sizes, chosen
+     * so that each term dominates somewhere: random H, S and CNOT circuits of two lengths
+     * without measurements (per run and per table word from what the lengths share, per gate
+     * where the table is one word high and per gate word where it is many), the longer one
+     * with every qubit measured once (per measurement, per column, per word), and that one
+     * with many shots (per replayed step and row, per shot: the tableau's tally is fitted
+     * with it, not priced at the state vector's shot rates).
      */
-    private static double[] tableauNanos(long nanos, double[] shot, boolean quick) {
-        int[] sizes = quick ? new int[] {64, 256} : new int[] {64, 512};
-        double[][] perMeasure = new double[2][2];
-        double[][] gatePart = new double[2][3];
-        double batch = 0;
-        for (int i = 0; i < 2; i++) {
-            int n = sizes[i];
-            UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(17L);
-            Circuit.Builder one = Circuit.builder(n);
-            Circuit.Builder all = Circuit.builder(n);
-            for (int g = 0; g < 3000; g++) {
-                int q = rng.nextInt(n);
-                int p = (q + 1 + rng.nextInt(n - 1)) % n;
-                for (Circuit.Builder b : List.of(one, all)) {
-                    if (g % 3 == 0) {
-                        b.h(q);
-                    } else if (g % 3 == 1) {
-                        b.s(q);
-                    } else {
-                        b.cnot(q, p);
+    private static double[] tableauNanos(long nanos, boolean quick) {
+        int[] sizes = quick ? new int[] {32, 160, 640} : new int[] {32, 96, 256, 512, 1024};
+        int shots = quick ? 640 : 3200;
+        long each = Math.max(1_000_000L, quick ? nanos : nanos / 3);
+        List<double[]> x = new ArrayList<>();
+        List<Double> y = new ArrayList<>();
+        // Through the library call a user makes: its checks and engine choice cost per gate.
+        Simulator tableau = Simulator.seeded(3).withEngine(Simulator.Engine.TABLEAU);
+        for (int pass = 0; pass < 2; pass++) {
+            boolean warm = pass == 0;
+            for (int n : sizes) {
+                if (warm && n > sizes[1]) {
+                    continue; // the small sizes compile the loops; no rows from them
+                }
+                Circuit shortRun = clifford(n, 600).build();
+                Circuit.Builder longGates = clifford(n, 3000);
+                Circuit longRun = longGates.build();
+                Circuit measured = clifford(n, 600).measure().build();
+                Object[][] runs = {{shortRun, 1}, {longRun, 1}, {measured, 1},
+                    {measured, shots}};
+                for (Object[] run : runs) {
+                    Circuit c = (Circuit) run[0];
+                    int s = (Integer) run[1];
+                    double t = best(() -> tableau.run(c, s), warm ? 0 : each);
+                    if (!warm) {
+                        x.add(TableauCost.terms(c, s));
+                        y.add(t);
                     }
                 }
             }
-            Circuit a = one.measure(0, 0).build();
-            Circuit b = all.measure().build();
-            double ta = best(() -> Bridge.tableaus().run(a, 1, 3), nanos);
-            double tb = best(() -> Bridge.tableaus().run(b, 1, 3), nanos);
-            double[] wa = TableauCost.words(a);
-            double[] wb = TableauCost.words(b);
-            perMeasure[i][0] = (double) n * ((n + 63) >>> 6);
-            perMeasure[i][1] = Math.max(0, tb - ta) / (n - 1);
-            gatePart[i][0] = 3000;
-            gatePart[i][1] = wa[0];
-            gatePart[i][2] = ta;
-            if (i == 1) {
-                int shots = 6400;
-                double tc = best(() -> Bridge.tableaus().run(b, shots, 3), nanos);
-                double tally = shots * (shot[0] + shot[1] * n);
-                batch = Math.max(0, tc - tb - tally) / ((shots / 64 - 1) * Math.max(1, wb[2]));
+        }
+        return nonNegativeFit(x, y);
+    }
+
+    /** Random H, S and CNOT gates on n qubits, seeded. */
+    private static Circuit.Builder clifford(int n, int gates) {
+        UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(17L);
+        Circuit.Builder b = Circuit.builder(n);
+        for (int g = 0; g < gates; g++) {
+            int q = rng.nextInt(n);
+            int p = (q + 1 + rng.nextInt(n - 1)) % n;
+            if (g % 3 == 0) {
+                b.h(q);
+            } else if (g % 3 == 1) {
+                b.s(q);
+            } else {
+                b.cnot(q, p);
             }
         }
-        // measurement: t = m0 + m1 * words, through the two sizes
-        double m1 = Math.max(0, (perMeasure[1][1] - perMeasure[0][1])
-                / (perMeasure[1][0] - perMeasure[0][0]));
-        double m0 = Math.max(0, perMeasure[0][1] - m1 * perMeasure[0][0]);
-        // gates: t = G g0 + W g1 (after one measurement), through the two sizes
-        double[] rest = new double[2];
-        for (int i = 0; i < 2; i++) {
-            rest[i] = Math.max(0, gatePart[i][2] - (m0 + m1 * perMeasure[i][0]));
-        }
-        double g1 = Math.max(0, (rest[1] - rest[0]) / (gatePart[1][1] - gatePart[0][1]));
-        double g0 = Math.max(0, (rest[0] - g1 * gatePart[0][1]) / gatePart[0][0]);
-        return new double[] {g0, g1, m0, m1, batch};
+        return b;
     }
 
     /**
-     * Nanoseconds to plan one gate, and to fuse one gate, on a random 16-qubit circuit of
+     * Least squares with no coefficient below zero, residuals relative to y: solves the
+     * normal equations on the columns still in play, and while some coefficient is negative,
+     * takes the most negative out (the active-set idea of C. L. Lawson and R. J. Hanson,
+     * "Solving Least Squares Problems", Prentice-Hall 1974, chapter 23, in its simplest
+     * form). Columns that are zero in every row, or that depend on the others, get 0.
+     */
+    static double[] nonNegativeFit(List<double[]> x, List<Double> y) {
+        int m = x.get(0).length;
+        boolean[] on = new boolean[m];
+        for (double[] row : x) {
+            for (int j = 0; j < m; j++) {
+                on[j] |= row[j] != 0;
+            }
+        }
+        while (true) {
+            double[] c = leastSquares(x, y, on);
+            int worst = -1;
+            for (int j = 0; j < m; j++) {
+                if (on[j] && c[j] < 0 && (worst < 0 || c[j] < c[worst])) {
+                    worst = j;
+                }
+            }
+            if (worst < 0) {
+                return c;
+            }
+            on[worst] = false;
+        }
+    }
+
+    /**
+     * Weighted least squares (rows divided by |y|) over the columns marked on, by the normal
+     * equations on columns scaled to unit size; a column that depends on the others (its
+     * pivot vanishes) is marked off and gets 0.
+     */
+    private static double[] leastSquares(List<double[]> x, List<Double> y, boolean[] on) {
+        int m = on.length;
+        while (true) {
+            int k = 0;
+            int[] idx = new int[m];
+            for (int j = 0; j < m; j++) {
+                if (on[j]) {
+                    idx[k++] = j;
+                }
+            }
+            double[] scale = new double[k];
+            for (int i = 0; i < x.size(); i++) {
+                double w = 1 / Math.max(1e-9, Math.abs(y.get(i)));
+                for (int j = 0; j < k; j++) {
+                    scale[j] = Math.max(scale[j], Math.abs(x.get(i)[idx[j]] * w));
+                }
+            }
+            double[][] a = new double[k][k + 1];
+            for (int i = 0; i < x.size(); i++) {
+                double w = 1 / Math.max(1e-9, Math.abs(y.get(i)));
+                double[] row = x.get(i);
+                for (int j = 0; j < k; j++) {
+                    double xj = row[idx[j]] * w / scale[j];
+                    for (int l = 0; l < k; l++) {
+                        a[j][l] += xj * row[idx[l]] * w / scale[l];
+                    }
+                    a[j][k] += xj * y.get(i) * w;
+                }
+            }
+            // Elimination without pivoting (the matrix is symmetric, positive semidefinite).
+            int dependent = -1;
+            for (int j = 0; j < k && dependent < 0; j++) {
+                if (a[j][j] < 1e-9) {
+                    dependent = idx[j];
+                    break;
+                }
+                for (int r = j + 1; r < k; r++) {
+                    double f = a[r][j] / a[j][j];
+                    for (int l = j; l <= k; l++) {
+                        a[r][l] -= f * a[j][l];
+                    }
+                }
+            }
+            if (dependent >= 0) {
+                on[dependent] = false;
+                continue;
+            }
+            double[] d = new double[k];
+            for (int j = k - 1; j >= 0; j--) {
+                double v = a[j][k];
+                for (int l = j + 1; l < k; l++) {
+                    v -= a[j][l] * d[l];
+                }
+                d[j] = v / a[j][j];
+            }
+            double[] c = new double[m];
+            for (int j = 0; j < k; j++) {
+                c[idx[j]] = d[j] / scale[j];
+            }
+            return c;
+        }
+    }
+
+    /**
+     * Nanoseconds to plan one gate (with the run's check of the circuit and choice of engine,
+     * {@link Simulator#explain}), and to fuse one gate, on a random 16-qubit circuit of
      * rotation layers with CZ and CNOT gates (the planning is timed on a storage without
      * amplitudes, so no pass is included).
      */
@@ -306,7 +519,11 @@ public final class Calibration {
         }
         double plan = best(() -> Workload.of(n, false).gates(plans), nanos) / plans.size();
         double fuse = best(() -> Fusion.fuse(gates), nanos) / gates.size();
-        return new double[] {plan, fuse};
+        // A run also checks the circuit and chooses its engine, per gate.
+        Circuit c = b.build();
+        Simulator sim = Simulator.seeded(1);
+        double choose = best(() -> sim.explain(c, 1000), nanos) / gates.size();
+        return new double[] {plan + choose, fuse};
     }
 
     private static double best(Runnable r, long nanos) {
@@ -359,7 +576,8 @@ public final class Calibration {
         }
         Calibration q = quickProbe();
         return new Calibration(q.source, q.made, q.kernels, q.processors, q.sizes, q.rates,
-                q.others(), why);
+                new double[] {q.shotNanos, q.shotBitNanos}, new double[] {q.planNanos,
+                    q.fuseNanos}, q.extras, why);
     }
 
     /**
@@ -449,7 +667,7 @@ public final class Calibration {
             sb.append(' ').append(s);
         }
         sb.append('\n');
-        for (int k = 0; k < Workload.KINDS; k++) {
+        for (int k = 0; k < ROWS; k++) {
             for (int t = 0; t < 2; t++) {
                 sb.append("rate.").append(KEYS[k]).append(t == 0 ? ".one" : ".all").append(" =");
                 for (double v : rates[k][t]) {
@@ -511,8 +729,8 @@ public final class Calibration {
                         + " ascending order");
             }
         }
-        double[][][] r = new double[Workload.KINDS][2][];
-        for (int k = 0; k < Workload.KINDS; k++) {
+        double[][][] r = new double[ROWS][2][];
+        for (int k = 0; k < ROWS; k++) {
             for (int t = 0; t < 2; t++) {
                 r[k][t] = numbers(p, "rate." + KEYS[k] + (t == 0 ? ".one" : ".all"), 0, 1e9,
                         sizes.length);
@@ -575,18 +793,26 @@ public final class Calibration {
      * Below 2^16 amplitudes the kernels run on one thread whatever is asked.
      */
     double nanos(int kind, int n, int threads) {
-        if (kind == Workload.BLOCK_STREAM || kind == Workload.WINDOW_STREAM) {
+        if (kind == Workload.BLOCK_STREAM || kind == Workload.WINDOW_STREAM
+                || kind == Workload.WINDOW_STREAM_DOUBLE) {
             // The group was timed with its in-cache gates; keep the streaming part.
             double group = raw(kind, n, threads);
-            double inCache = KernelTimer.GROUP_GATES * cached(Workload.DENSE1, threads);
+            double inCache = KernelTimer.GROUP_GATES * raw(BLOCK_GATE, n, threads);
             return Math.max(0.1 * group, group - inCache);
         }
         return raw(kind, n, threads);
     }
 
-    /** Nanoseconds per unit of a kind done on blocks in cache, spread over the threads. */
-    double cached(int kind, int threads) {
-        return raw(kind, sizes[0], 1) / Math.max(1, Math.min(threads, processors));
+    /**
+     * Nanoseconds per unit of a kind done on blocks in cache, in a state of n qubits: the
+     * kind's rate on a state that fits in cache, times how much slower or faster one more gate
+     * in a blocked group runs at n qubits on {@code threads} threads than in that small state;
+     * {@code workers} independent states at once share the processors.
+     */
+    double cached(int kind, int n, int threads, int workers) {
+        double small = raw(BLOCK_GATE, sizes[0], 1);
+        double scale = small > 0 ? raw(BLOCK_GATE, n, threads) / small : 1;
+        return raw(kind, sizes[0], 1) * scale / Math.max(1, Math.min(workers, processors));
     }
 
     private double raw(int kind, int n, int threads) {
@@ -615,8 +841,31 @@ public final class Calibration {
     }
 
     private double[] others() {
-        return new double[] {shotNanos, shotBitNanos, tableau[0], tableau[1], tableau[2],
-            tableau[3], tableau[4], planNanos, fuseNanos, mpsUnitNanos};
+        return others(new double[] {shotNanos, shotBitNanos}, extras.tableau(),
+                new double[] {planNanos, fuseNanos}, extras.mps());
+    }
+
+    /** The values of {@link #OTHER_KEYS} in order. */
+    private static double[] others(double[] shot, double[] tab, double[] plan, double mps) {
+        double[] o = new double[OTHER_KEYS.length];
+        o[0] = shot[0];
+        o[1] = shot[1];
+        System.arraycopy(tab, 0, o, 2, TableauCost.TERMS);
+        o[2 + TableauCost.TERMS] = plan[0];
+        o[3 + TableauCost.TERMS] = plan[1];
+        o[4 + TableauCost.TERMS] = mps;
+        return o;
+    }
+
+    private static String[] otherKeys() {
+        String[] k = new String[TABLEAU_KEYS.length + 5];
+        k[0] = "shot";
+        k[1] = "shot.bit";
+        System.arraycopy(TABLEAU_KEYS, 0, k, 2, TABLEAU_KEYS.length);
+        k[2 + TABLEAU_KEYS.length] = "plan.gate";
+        k[3 + TABLEAU_KEYS.length] = "fuse.gate";
+        k[4 + TABLEAU_KEYS.length] = "mps.unit";
+        return k;
     }
 
     /** Nanoseconds to plan one gate (frame, conjugation, kernel layout), beyond its passes. */
@@ -631,7 +880,7 @@ public final class Calibration {
 
     /** Nanoseconds per unit of matrix-product-state work ({@link MpsCost}). */
     double mpsUnitNanos() {
-        return mpsUnitNanos;
+        return extras.mps();
     }
 
     /** Nanoseconds per shot drawn and tallied. */
@@ -644,12 +893,9 @@ public final class Calibration {
         return shotBitNanos;
     }
 
-    /**
-     * Tableau rates, nanoseconds: per gate, per gate word, per measurement, per measurement
-     * word, per word of a replayed batch.
-     */
+    /** Tableau rates, nanoseconds per unit of each of {@link TableauCost}'s terms. */
     double[] tableauRates() {
-        return tableau.clone();
+        return extras.tableau().clone();
     }
 
     /**

@@ -156,7 +156,7 @@ final class CostModel {
                 double cached = w.cached(k);
                 if (cached > 0) {
                     cacheNanos[k] += p.times() * cached * amps
-                            * cal.cached(k, kernelThreads * p.workers());
+                            * cal.cached(k, n, kernelThreads, p.workers());
                     inCache[k] += p.times() * cached;
                 }
                 passes[k] += p.times() * w.passes(k);
@@ -187,15 +187,19 @@ final class CostModel {
                         RunCost.secondsText(cacheNanos[k] * 1e-9)));
             }
         }
-        double words = e.tableauWords() + e.tableauMeasureWords() + e.tableauBatchWords();
-        if (words > 0) {
+        double[] tab = e.tableauTerms();
+        if (tab.length > 0) {
             double[] r = cal.tableauRates();
-            double t = e.tableauGates() * r[0] + e.tableauWords() * r[1]
-                    + e.tableauMeasurements() * r[2] + e.tableauMeasureWords() * r[3]
-                    + e.tableauBatchWords() * r[4];
+            double t = 0;
+            for (int i = 0; i < tab.length; i++) {
+                t += tab[i] * r[i];
+            }
             total += t;
-            lines.add(String.format(Locale.ROOT, "%s tableau words: %s", amount(words),
-                    RunCost.secondsText(t * 1e-9)));
+            lines.add(String.format(Locale.ROOT, "%s tableau gates (%s words), %s measurements"
+                    + " (%s words), %s replayed measurement steps: %s",
+                    amount(tab[TableauCost.GATES]), amount(tab[TableauCost.GATE_WORDS]),
+                    amount(tab[TableauCost.MEASUREMENTS]), amount(tab[TableauCost.MEASURE_WORDS]),
+                    amount(tab[TableauCost.BATCH_STEPS]), RunCost.secondsText(t * 1e-9)));
         }
         if (e.mpsUnits() > 0) {
             double t = e.mpsUnits() * cal.mpsUnitNanos();

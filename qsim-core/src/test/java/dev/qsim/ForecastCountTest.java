@@ -91,7 +91,7 @@ class ForecastCountTest {
         assertEquals(2, fused.totalPasses(), "and the sampling pass");
         Workload plain = only(sv(c, 10, false));
         assertEquals(0, plain.passes(Workload.DENSE1), "unfused: no lone dense pass");
-        assertEquals(1, plain.passes(Workload.WINDOW_STREAM), "unfused: one window");
+        assertEquals(1, plain.passes(Workload.WINDOW_STREAM_DOUBLE), "unfused: one window");
         assertEquals(3, plain.cached(Workload.DENSE1), "unfused: three gates in cache");
     }
 
@@ -189,14 +189,66 @@ class ForecastCountTest {
 
     @Test
     void theTableauCountsWordsPerGateAndMeasurement() {
-        // 100 qubits: ceil(100/64) = 2 words per half column; a 1-qubit gate 4·2 words, a
-        // CNOT 4·2·2; a measurement n·2 = 200 words.
+        // Aaronson and Gottesman 2004, Phys. Rev. A 70, 052328, section III: a gate rewrites
+        // the x and z columns of its qubits, a measurement walks every column. 100 qubits:
+        // ceil(100/64) = 2 words per half column, so a column pair is 4·2 words; H on one
+        // qubit 8 words, CNOT on two 16; a measurement 100 columns of 2 words = 200 words.
         Circuit c = Circuit.builder(100).h(0).cnot(0, 1).measure(0, 0).build();
-        double[] w = TableauCost.words(c);
-        assertEquals(8 + 16, w[0], "gate words");
-        assertEquals(200, w[1], "measurement words");
-        assertEquals(2, w[3], "gates");
-        assertEquals(1, w[4], "measurements");
+        double[] w = TableauCost.terms(c, 1);
+        assertEquals(1, w[TableauCost.RUNS], "one run");
+        assertEquals(4 * 100 * 2, w[TableauCost.TABLE_WORDS], "x and z tables, 2n rows each");
+        assertEquals(2, w[TableauCost.GATES], "gates");
+        assertEquals(8 + 16, w[TableauCost.GATE_WORDS], "gate words");
+        assertEquals(1, w[TableauCost.MEASUREMENTS], "measurements");
+        assertEquals(100, w[TableauCost.MEASURE_COLUMNS], "measurement columns");
+        assertEquals(200, w[TableauCost.MEASURE_WORDS], "measurement words");
+        // 130 shots replay in ceil(130/64) = 3 batches, each taking the measurement again and
+        // flipping at most n = 100 rows of the sign column.
+        double[] r = TableauCost.terms(c, 130);
+        assertEquals(3, r[TableauCost.BATCH_STEPS], "replayed steps");
+        assertEquals(300, r[TableauCost.BATCH_ROWS], "replayed rows");
+        assertEquals(1, r[TableauCost.MEASUREMENTS], "simulated once");
+        assertEquals(130, r[TableauCost.SHOTS], "shots tallied");
+        // Y is applied as its catalogue decomposition into the tableau's primitives; each
+        // primitive on one qubit rewrites 8 words here.
+        Circuit y = Circuit.builder(100).y(3).build();
+        int steps = Gate.Y.cliffordSteps().size();
+        assertEquals(8.0 * steps, TableauCost.terms(y, 1)[TableauCost.GATE_WORDS],
+                "Y's primitive steps");
+    }
+
+    @Test
+    void theLeastSquaresFitRecoversRatesAndKeepsThemNonNegative() {
+        // y = 2 + 3 x1 exactly (and x2 unused by the truth): least squares returns the exact
+        // coefficients of a consistent system (Lawson and Hanson 1974, chapter 23); a column
+        // whose unconstrained coefficient would be negative is held at 0.
+        List<double[]> x = new java.util.ArrayList<>();
+        List<Double> y = new java.util.ArrayList<>();
+        for (int i = 1; i <= 6; i++) {
+            x.add(new double[] {1, i, 0});
+            y.add(2.0 + 3.0 * i);
+        }
+        double[] c = Calibration.nonNegativeFit(x, y);
+        assertEquals(2, c[0], 1e-9, "intercept");
+        assertEquals(3, c[1], 1e-9, "slope");
+        assertEquals(0, c[2], 0, "a column of zeros");
+        List<double[]> x2 = new java.util.ArrayList<>();
+        List<Double> y2 = new java.util.ArrayList<>();
+        for (int i = 1; i <= 6; i++) {
+            x2.add(new double[] {1, i});
+            y2.add(10.0 - 0.5 * i); // falls with x: the slope would be negative
+        }
+        double[] d = Calibration.nonNegativeFit(x2, y2);
+        assertEquals(0, d[1], 0, "held at zero");
+        // Then the intercept alone, least squares with weights 1/y²: sum (1 - c/y)²/... is
+        // minimised at c = sum(1/y) / sum(1/y²) (worked by hand from the normal equation).
+        double s1 = 0;
+        double s2 = 0;
+        for (double v : y2) {
+            s1 += 1 / v;
+            s2 += 1 / (v * v);
+        }
+        assertEquals(s1 / s2, d[0], 1e-9, "the weighted mean");
     }
 
     @Test

@@ -49,11 +49,7 @@ public final class EngineWork {
     private long bytes;
     private double shots;
     private double shotBits;
-    private double tableauGates;
-    private double tableauWords;
-    private double tableauMeasurements;
-    private double tableauMeasureWords;
-    private double tableauBatchWords;
+    private double[] tableau = new double[0];
     private double mpsUnits;
     private long mpsUpdates;
     private double mpsLargestBond;
@@ -96,22 +92,20 @@ public final class EngineWork {
     }
 
     /**
-     * Adds stabilizer tableau work.
+     * Adds stabilizer tableau work: counts of the terms its cost model prices (runs, table
+     * words, gates, gate words, measurements, their columns and words, replayed steps and
+     * rows), added term by term.
      *
-     * @param gates gates applied
-     * @param words words of gate work
-     * @param measurements measurements and resets
-     * @param measureWords words of measurement work
-     * @param batchWords words of replayed 64-shot batches
+     * @param terms the counts
      * @return this
      */
-    public EngineWork tableau(double gates, double words, double measurements,
-            double measureWords, double batchWords) {
-        tableauGates += gates;
-        tableauMeasurements += measurements;
-        tableauWords += words;
-        tableauMeasureWords += measureWords;
-        tableauBatchWords += batchWords;
+    public EngineWork tableau(double[] terms) {
+        if (tableau.length < terms.length) {
+            tableau = java.util.Arrays.copyOf(tableau, terms.length);
+        }
+        for (int i = 0; i < terms.length; i++) {
+            tableau[i] += terms[i];
+        }
         return this;
     }
 
@@ -204,47 +198,11 @@ public final class EngineWork {
     }
 
     /**
-     * Returns the tableau's gates.
+     * Returns the stabilizer tableau's counted terms (empty if none).
      *
-     * @return the tableau's gates
+     * @return a copy of the counts
      */
-    public double tableauGates() {
-        return tableauGates;
-    }
-
-    /**
-     * Returns the tableau's measurements and resets.
-     *
-     * @return the tableau's measurements and resets
-     */
-    public double tableauMeasurements() {
-        return tableauMeasurements;
-    }
-
-    /**
-     * Returns the tableau's words of gate work.
-     *
-     * @return the tableau's words of gate work
-     */
-    public double tableauWords() {
-        return tableauWords;
-    }
-
-    /**
-     * Returns the tableau's words of measurement work.
-     *
-     * @return the tableau's words of measurement work
-     */
-    public double tableauMeasureWords() {
-        return tableauMeasureWords;
-    }
-
-    /**
-     * Returns the tableau's words of replayed batches.
-     *
-     * @return the tableau's words of replayed batches
-     */
-    public double tableauBatchWords() {
-        return tableauBatchWords;
+    public double[] tableauTerms() {
+        return tableau.clone();
     }
 }

@@ -40,7 +40,11 @@ public final class KernelTimer {
      * (per amplitude touched, so a controlled gate's pass over half the state is divided by
      * half the state). For {@link Workload#BLOCK_STREAM} and {@link Workload#WINDOW_STREAM}
      * the time is that of a whole group of {@value #GROUP_GATES} dense single-qubit gates on
-     * the low qubits, per amplitude; the caller subtracts the in-cache part.
+     * the low qubits, per amplitude; for {@link Workload#WINDOW_STREAM_DOUBLE}, a group on
+     * double storage through {@link Windows} with two of its targets on the two highest qubits
+     * (a window gathered from runs of 2^12 amplitudes, as for targets above the cache block);
+     * the caller subtracts the in-cache part. The states are kept between calls of the same
+     * size until {@link #release()}.
      *
      * @param kind the kind
      * @param n qubits of the state, 4 to 30
@@ -49,16 +53,37 @@ public final class KernelTimer {
      * @return nanoseconds per unit
      */
     public static double nanosPerUnit(int kind, int n, int threads, long minNanos) {
+        return nanosPerUnit(kind, n, threads, minNanos, false);
+    }
+
+    /**
+     * As {@link #nanosPerUnit(int, int, int, long)}; {@code brief} times two target positions
+     * (the lowest and a high one) instead of up to eight and skips the warm-up round, for a
+     * quick probe whose loops were already run on a small state.
+     *
+     * @param kind the kind
+     * @param n qubits of the state, 4 to 30
+     * @param threads threads, at least 1
+     * @param minNanos how long to keep timing, at least
+     * @param brief whether to time two positions without a warm-up round
+     * @return nanoseconds per unit
+     */
+    public static double nanosPerUnit(int kind, int n, int threads, long minNanos,
+            boolean brief) {
         boolean single = kind == Workload.WINDOW_STREAM || kind == Workload.FLOAT1;
-        Amplitudes a = filled(n, single);
-        Amplitudes other = kind == Workload.COPY ? filled(n, false) : null;
+        Amplitudes a = filled(single ? 2 : 0, n, single);
+        Amplitudes other = kind == Workload.COPY ? filled(1, n, false) : null;
         double units = 1;
         // Targets spread over the whole register, low ones included: a kernel's speed depends
         // on its target's position, and circuits use them all.
-        int spread = Math.min(n - 1, n >= 20 ? 4 : 8);
+        int spread = Math.min(n - 1, brief ? 2 : n >= 20 ? 4 : 8);
+        if (!positional(kind)) {
+            spread = 1; // the same pass whatever the position: one is enough
+        }
         int[] rotate = new int[spread];
         for (int r = 0; r < spread; r++) {
-            rotate[r] = r == 0 ? 0 : 1 + (int) ((long) (r - 1) * (n - 3) / Math.max(1, spread - 2));
+            rotate[r] = r == 0 ? 0 : spread == 2 ? n / 2
+                    : 1 + (int) ((long) (r - 1) * (n - 3) / Math.max(1, spread - 2));
         }
         Runnable[] step = new Runnable[rotate.length];
         for (int r = 0; r < rotate.length; r++) {
@@ -105,6 +130,16 @@ public final class KernelTimer {
                     List<GateOp> ops = new ArrayList<>();
                     for (int g = 0; g < GROUP_GATES; g++) {
                         ops.add(dense(new int[] {g % Math.min(n, 8)}, NONE));
+                    }
+                    step[r] = () -> Windows.apply(a, ops, threads);
+                    break;
+                }
+                case Workload.WINDOW_STREAM_DOUBLE: {
+                    List<GateOp> ops = new ArrayList<>();
+                    for (int g = 0; g < GROUP_GATES; g++) {
+                        int t = g < GROUP_GATES - 2 ? g % Math.max(1, n - 2)
+                                : n - GROUP_GATES + g;
+                        ops.add(dense(new int[] {t}, NONE));
                     }
                     step[r] = () -> Windows.apply(a, ops, threads);
                     break;
@@ -165,7 +200,7 @@ public final class KernelTimer {
                             + Workload.KINDS + ")");
             }
         }
-        return median(step, minNanos) / (units * Math.scalb(1.0, n) * step.length);
+        return median(step, minNanos, !brief) / (units * Math.scalb(1.0, n) * step.length);
     }
 
     /**
@@ -173,7 +208,7 @@ public final class KernelTimer {
      * targets), after a warm-up, timed for at least minNanos: what a run sees, other work on
      * the machine included.
      */
-    private static double median(Runnable[] step, long minNanos) {
+    private static double median(Runnable[] step, long minNanos, boolean warmUp) {
         Runnable all = () -> {
             for (Runnable r : step) {
                 r.run();
@@ -181,7 +216,7 @@ public final class KernelTimer {
         };
         long warm = System.nanoTime();
         int w = 0;
-        while (w < 1 || (System.nanoTime() - warm < minNanos / 4 && w < 10)) {
+        while (warmUp && (w < 1 || (System.nanoTime() - warm < minNanos / 4 && w < 10))) {
             all.run();
             w++;
         }
@@ -196,6 +231,56 @@ public final class KernelTimer {
         }
         Arrays.sort(times, 0, count);
         return times[count / 2];
+    }
+
+    /**
+     * Returns the time of one more dense single-qubit gate in a cache-blocked group, per
+     * amplitude: the median time of a group of {@value #LONG_GROUP} gates less that of
+     * {@value #GROUP_GATES}, over the difference. This is the in-cache rate a run sees on
+     * {@code threads} threads, each block in its own thread's cache (two threads need not
+     * halve it: they share the memory bus and, on some machines, the cache).
+     *
+     * @param n qubits of the state, 4 to 30
+     * @param threads threads, at least 1
+     * @param minNanos how long to keep timing each group, at least
+     * @param brief whether to skip the warm-up round
+     * @return nanoseconds per amplitude and gate, at least half the long group's per gate
+     */
+    public static double blockGateNanos(int n, int threads, long minNanos, boolean brief) {
+        Amplitudes a = filled(0, n, false);
+        int blockLog = Math.min(Frame.CACHE_LOG, a.chunkLog);
+        double[] t = new double[2];
+        int[] sizes = {GROUP_GATES, LONG_GROUP};
+        for (int i = 0; i < 2; i++) {
+            Plan[] plans = new Plan[sizes[i]];
+            for (int g = 0; g < plans.length; g++) {
+                plans[g] = dense(new int[] {g % Math.max(1, blockLog)}, NONE).plan(a);
+            }
+            Runnable[] step = {() -> Plan.applyBlocked(a, plans, blockLog, threads)};
+            t[i] = median(step, minNanos, !brief);
+        }
+        double per = (t[1] - t[0]) / (LONG_GROUP - GROUP_GATES);
+        // A difference of two timings can come out near zero on a noisy machine; a gate in
+        // cache costs at least half the long group's time per gate (the stream is shared).
+        return Math.max(0.5 * t[1] / LONG_GROUP, per) / Math.scalb(1.0, n);
+    }
+
+    /** Gates in the longer group of {@link #blockGateNanos}. */
+    private static final int LONG_GROUP = 40;
+
+    /** Whether a kind's timed pass depends on the target position it is given. */
+    private static boolean positional(int kind) {
+        switch (kind) {
+            case Workload.BLOCK_STREAM:
+            case Workload.WINDOW_STREAM:
+            case Workload.WINDOW_STREAM_DOUBLE:
+            case Workload.PHASES:
+            case Workload.COPY:
+            case Workload.SAMPLE:
+                return false;
+            default:
+                return true;
+        }
     }
 
     /** Four distinct qubits: q, q + 1, then the highest ones not taken. */
@@ -216,9 +301,28 @@ public final class KernelTimer {
         return () -> p.apply(threads);
     }
 
-    /** A state of equal amplitudes (norm 1). */
-    private static Amplitudes filled(int n, boolean single) {
-        Amplitudes a = single ? Amplitudes.allocateSingle(n) : Amplitudes.allocate(n);
+    /**
+     * Frees the states kept between calls (call when a calibration is done: up to 2^23
+     * amplitudes in each of three states).
+     */
+    public static synchronized void release() {
+        Arrays.fill(KEPT, null);
+    }
+
+    /** States kept between calls: two double, one single. */
+    private static final Amplitudes[] KEPT = new Amplitudes[3];
+
+    /**
+     * A state of equal amplitudes (norm 1): the kept one of that slot, refilled, if it has the
+     * size (a pass's speed can depend on the values earlier kinds left), else a new one.
+     */
+    private static synchronized Amplitudes filled(int slot, int n, boolean single) {
+        Amplitudes a = KEPT[slot];
+        if (a == null || a.n != n || a.isSingle() != single || a.framed) {
+            KEPT[slot] = null;
+            a = single ? Amplitudes.allocateSingle(n) : Amplitudes.allocate(n);
+            KEPT[slot] = a;
+        }
         double v = Math.scalb(1.0, -n) * Math.sqrt(Math.scalb(1.0, n));
         if (single) {
             for (float[] c : a.singles) {

@@ -5,7 +5,7 @@ import java.util.List;
 /**
  * Counts the passes over memory that a list of gates costs on a state of a given size, without
  * a state: the gates go through the same planner as a run ({@link Frame#schedule}: lazy frame,
- * conjugation, cache blocking in double precision, windows in single precision), on a storage
+ * conjugation, cache blocking, gathered windows), on a storage
  * that has a size but no amplitudes. Each pass is recorded by kind ({@link #KINDS} kinds) as
  * the amplitudes it touches, in units of the whole state, and the kernel work done on blocks
  * while they sit in cache is recorded apart. A cost model turns the counts into time with
@@ -30,6 +30,11 @@ public final class Workload {
     public static final int BLOCK_STREAM = 7;
     /** Kind: reading and writing the windows of a single-precision group once. */
     public static final int WINDOW_STREAM = 8;
+    /**
+     * Kind: reading and writing the windows of a double-precision group once (twice the bytes
+     * of a single-precision window; see {@link Windows}).
+     */
+    public static final int WINDOW_STREAM_DOUBLE = 15;
     /** Kind: a lone dense single-qubit gate on single-precision storage. */
     public static final int FLOAT1 = 9;
     /** Kind: the lazy frame's phases applied in one pass. */
@@ -43,13 +48,13 @@ public final class Workload {
     /** Kind: the reduced state of a channel's qubits (a trajectory's branch probabilities). */
     public static final int REDUCE = 14;
     /** The number of kinds. */
-    public static final int KINDS = 15;
+    public static final int KINDS = 16;
 
     private static final String[] NAMES = {"dense 1-qubit", "controlled dense 1-qubit",
         "dense 2-qubit", "dense 3-qubit", "dense 4-qubit", "diagonal", "permutation",
         "cache-blocked group stream", "single-precision window stream",
         "single-precision 1-qubit", "frame phases", "state copy", "measurement or reset",
-        "sampling", "reduced state"};
+        "sampling", "reduced state", "double-precision window stream"};
 
     private final int qubits;
     private final boolean single;
@@ -345,7 +350,8 @@ public final class Workload {
 
         @Override
         public void window(List<GateOp> ops, long mask, int low) {
-            add(WINDOW_STREAM, weight);
+            // A window moves its amplitudes in and out at the storage's precision.
+            add(single ? WINDOW_STREAM : WINDOW_STREAM_DOUBLE, weight);
             for (GateOp op : ops) {
                 cached[kindOf(op)] += units(op) * weight;
             }
