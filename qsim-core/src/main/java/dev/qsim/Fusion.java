@@ -158,7 +158,10 @@ final class Fusion {
         return out;
     }
 
-    /** Dense Hadamard products on 1 to MAX_QUBITS qubits: stand-ins for fused matrices. */
+    /**
+     * Dense Hadamard products on 1 to MAX_QUBITS qubits with complex column phases: stand-ins
+     * for fused matrices.
+     */
     private static final double[][] STAND_IN = new double[MAX_QUBITS + 1][];
 
     static {
@@ -168,7 +171,11 @@ final class Fusion {
             STAND_IN[k] = new double[2 * d * d];
             for (int r = 0; r < d; r++) {
                 for (int c = 0; c < d; c++) {
-                    STAND_IN[k][2 * (r * d + c)] = (Integer.bitCount(r & c) & 1) == 0 ? s : -s;
+                    // Column phases make the stand-in complex, as fused products are: the
+                    // counter then prices a fused 1-qubit block with the complex loops.
+                    double v = (Integer.bitCount(r & c) & 1) == 0 ? s : -s;
+                    STAND_IN[k][2 * (r * d + c)] = v * Math.cos(0.7 * c);
+                    STAND_IN[k][2 * (r * d + c) + 1] = v * Math.sin(0.7 * c);
                 }
             }
         }

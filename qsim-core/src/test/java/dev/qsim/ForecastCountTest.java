@@ -42,10 +42,11 @@ class ForecastCountTest {
 
     @Test
     void oneHadamardOnATopQubitIsOnePassThenOneSamplingPass() {
-        // h on qubit 15 >= 14 cannot be blocked: one dense pass; then one sampling pass.
+        // h on qubit 15 >= 14 cannot be blocked: one dense pass (H is real: the loops with half
+        // the arithmetic); then one sampling pass.
         Workload w = only(sv(Circuit.builder(N).h(15).measure().build(), 100, false));
-        assertEquals(1, w.passes(Workload.DENSE1), "dense passes");
-        assertEquals(1, w.streamed(Workload.DENSE1), "whole state touched once");
+        assertEquals(1, w.passes(Workload.DENSE1_HALF), "dense passes");
+        assertEquals(1, w.streamed(Workload.DENSE1_HALF), "whole state touched once");
         assertEquals(1, w.passes(Workload.SAMPLE), "sampling passes");
         assertEquals(2, w.totalPasses(), "all passes");
     }
@@ -55,8 +56,8 @@ class ForecastCountTest {
         // h on 0, 1, 2: all below 14, one blocked group: one stream, three gates in cache.
         Workload w = only(sv(Circuit.builder(N).h(0).h(1).h(2).measure().build(), 10, false));
         assertEquals(1, w.passes(Workload.BLOCK_STREAM), "group streams");
-        assertEquals(0, w.passes(Workload.DENSE1), "no lone dense pass");
-        assertEquals(3, w.cached(Workload.DENSE1), "gates done in cache");
+        assertEquals(0, w.passes(Workload.DENSE1_HALF), "no lone dense pass");
+        assertEquals(3, w.cached(Workload.DENSE1_HALF), "gates done in cache");
         assertEquals(2, w.totalPasses(), "group and sampling");
     }
 
@@ -90,9 +91,9 @@ class ForecastCountTest {
         assertEquals(1, fused.passes(Workload.DENSE1), "one fused pass");
         assertEquals(2, fused.totalPasses(), "and the sampling pass");
         Workload plain = only(sv(c, 10, false));
-        assertEquals(0, plain.passes(Workload.DENSE1), "unfused: no lone dense pass");
+        assertEquals(0, plain.passes(Workload.DENSE1_HALF), "unfused: no lone dense pass");
         assertEquals(1, plain.passes(Workload.WINDOW_STREAM_DOUBLE), "unfused: one window");
-        assertEquals(3, plain.cached(Workload.DENSE1), "unfused: three gates in cache");
+        assertEquals(3, plain.cached(Workload.DENSE1_HALF), "unfused: three gates in cache");
     }
 
     @Test
@@ -105,11 +106,11 @@ class ForecastCountTest {
         assertEquals(2, e.parts().size(), "prefix and per-shot parts");
         Workload prefix = e.parts().get(0).work();
         Workload shot = e.parts().get(1).work();
-        assertEquals(1, prefix.passes(Workload.DENSE1), "prefix gate");
+        assertEquals(1, prefix.passes(Workload.DENSE1_HALF), "prefix gate");
         assertEquals(1, prefix.passes(Workload.COPY), "the working copy");
         assertEquals(1, shot.passes(Workload.COPY), "a copy per shot");
         assertEquals(1, shot.passes(Workload.MEASURE), "a measurement per shot");
-        assertEquals(1, shot.passes(Workload.DENSE1), "the gate after it");
+        assertEquals(1, shot.passes(Workload.DENSE1_HALF), "the gate after it");
         assertEquals(10, e.parts().get(1).times(), "ten shots");
         assertEquals(2 * HeapLayout.stateBytes(N, false), e.bytes(), "the state and its copy");
     }
@@ -174,7 +175,8 @@ class ForecastCountTest {
     void trajectoriesCountTheExpectedPauliBranches() {
         // depolarizing(p) applies X, Y or Z with probability p (Nielsen and Chuang 2010,
         // §8.3.4, Pauli form; see Channel.depolarizing), so after h(15) the expected dense
-        // passes per trajectory are 1 + p; plus one measurement per measured qubit.
+        // passes per trajectory are 1 + p, all with half the arithmetic (H, X and Z are real, Y
+        // is shaped like RX); plus one measurement per measured qubit.
         double p = 0.3;
         NoiseModel noise = NoiseModel.builder().afterOneQubitGates(Channel.depolarizing(p))
                 .build();
@@ -183,7 +185,7 @@ class ForecastCountTest {
         EngineWork.Part part = e.parts().get(0);
         assertEquals(8, part.times(), "one per shot");
         assertEquals(2, part.workers(), "two workers");
-        assertEquals(1 + p, part.work().streamed(Workload.DENSE1), 1e-12, "expected passes");
+        assertEquals(1 + p, part.work().streamed(Workload.DENSE1_HALF), 1e-12, "expected passes");
         assertEquals(1, part.work().passes(Workload.MEASURE), "one measurement");
     }
 

@@ -12,8 +12,13 @@ import java.util.List;
  * measured rates per kind. Not thread-safe. Internal.
  */
 public final class Workload {
-    /** Kind: a dense single-qubit gate without controls. */
+    /** Kind: a dense single-qubit gate without controls, complex entries. */
     public static final int DENSE1 = 0;
+    /**
+     * Kind: a dense single-qubit gate without controls whose matrix is real (H, RY) or shaped
+     * like RX (real diagonal, imaginary off-diagonal): loops with half the arithmetic.
+     */
+    public static final int DENSE1_HALF = 16;
     /** Kind: a dense single-qubit gate with controls (rate per touched amplitude). */
     public static final int DENSE1_CONTROLLED = 1;
     /** Kind: a dense two-qubit gate. */
@@ -48,13 +53,14 @@ public final class Workload {
     /** Kind: the reduced state of a channel's qubits (a trajectory's branch probabilities). */
     public static final int REDUCE = 14;
     /** The number of kinds. */
-    public static final int KINDS = 16;
+    public static final int KINDS = 17;
 
     private static final String[] NAMES = {"dense 1-qubit", "controlled dense 1-qubit",
         "dense 2-qubit", "dense 3-qubit", "dense 4-qubit", "diagonal", "permutation",
         "cache-blocked group stream", "single-precision window stream",
         "single-precision 1-qubit", "frame phases", "state copy", "measurement or reset",
-        "sampling", "reduced state", "double-precision window stream"};
+        "sampling", "reduced state", "double-precision window stream",
+        "dense 1-qubit, half arithmetic"};
 
     private final int qubits;
     private final boolean single;
@@ -109,7 +115,11 @@ public final class Workload {
                 return PERMUTATION;
             default:
                 if (k == 1) {
-                    return op.controls.length == 0 ? DENSE1 : DENSE1_CONTROLLED;
+                    if (op.controls.length > 0) {
+                        return DENSE1_CONTROLLED;
+                    }
+                    return op.data == null || LaneKernels.kind(op.data) == LaneKernels.COMPLEX
+                            ? DENSE1 : DENSE1_HALF;
                 }
                 return Math.min(k, 4);
         }
