@@ -209,13 +209,13 @@ public final class Calibration {
     private static Calibration run(Source source, int[] sizes, long nanos,
             Consumer<String> progress) {
         try {
-            return measureAll(source, sizes, nanos, progress);
+            return timeEveryRate(source, sizes, nanos, progress);
         } finally {
             KernelTimer.release();
         }
     }
 
-    private static Calibration measureAll(Source source, int[] sizes, long nanos,
+    private static Calibration timeEveryRate(Source source, int[] sizes, long nanos,
             Consumer<String> progress) {
         int all = Parallel.defaultThreads();
         // Every kind round after round on the smallest size for at least WARM_NANOS and until
