@@ -70,7 +70,7 @@ class ValidationTest {
     }
 
     @Test
-    void measureAllNeedsEnoughClbits() {
+    void measuringEveryQubitNeedsEnoughClbits() {
         Circuit.Builder b = Circuit.builder(3, 2);
         fails(IllegalArgumentException.class, b::measure, "2 clbit(s) for 3 qubit(s)");
         fails(IllegalArgumentException.class, () -> Circuit.builder(0), "qubit count", "0");
