@@ -59,10 +59,11 @@ final class PermutationKernels {
             if (p != null) {
                 return p;
             }
+            final int[] exchange = {0, 1};
             return new LayoutPlan(a, targets, controls) {
                 @Override
                 void run(long from, long to) {
-                    swapBlocks(a, l, from, to);
+                    swapSequenceBlocks(a, l, exchange, from, to);
                 }
             };
         }
@@ -329,22 +330,6 @@ final class PermutationKernels {
         @Override
         long unitsPerBlock(int blockLog) {
             return -1;
-        }
-    }
-
-    /** A plain or controlled X: swap the two halves. */
-    private static void swapBlocks(Amplitudes a, Layout l, long from, long to) {
-        final double[][] arr = new double[2][];
-        final int[] off = new int[2];
-        final int[] starts = l.starts;
-        final int run = l.run;
-        for (long o = from; o < to; o++) {
-            l.locate(a, o, arr, off);
-            final double[] u = arr[0];
-            final double[] v = arr[1];
-            for (int t = 0; t < starts.length; t++) {
-                swapRuns(null, u, (off[0] + starts[t]) << 1, v, (off[1] + starts[t]) << 1, run);
-            }
         }
     }
 
