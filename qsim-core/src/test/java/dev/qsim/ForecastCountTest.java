@@ -230,7 +230,7 @@ class ForecastCountTest {
             x.add(new double[] {1, i, 0});
             y.add(2.0 + 3.0 * i);
         }
-        double[] c = Calibration.nonNegativeFit(x, y);
+        double[] c = EngineRates.nonNegativeFit(x, y);
         assertEquals(2, c[0], 1e-9, "intercept");
         assertEquals(3, c[1], 1e-9, "slope");
         assertEquals(0, c[2], 0, "a column of zeros");
@@ -240,7 +240,7 @@ class ForecastCountTest {
             x2.add(new double[] {1, i});
             y2.add(10.0 - 0.5 * i); // falls with x: the slope would be negative
         }
-        double[] d = Calibration.nonNegativeFit(x2, y2);
+        double[] d = EngineRates.nonNegativeFit(x2, y2);
         assertEquals(0, d[1], 0, "held at zero");
         // Then the intercept alone, least squares with weights 1/y²: sum (1 - c/y)²/... is
         // minimised at c = sum(1/y) / sum(1/y²) (worked by hand from the normal equation).
