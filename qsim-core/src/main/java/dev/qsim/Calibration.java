@@ -138,21 +138,13 @@ public final class Calibration {
         }
     }
 
+    /** Rates with every other rate measured: {@code other} in the order of the file's keys. */
     private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
             double[][][] rates, double[] other, String note) {
-        this.source = source;
-        this.made = made;
-        this.kernels = kernels;
-        this.processors = processors;
-        this.sizes = sizes;
-        this.rates = rates;
-        this.shotNanos = other[0];
-        this.shotBitNanos = other[1];
-        int t = TableauCost.TERMS;
-        this.planNanos = other[2 + t];
-        this.fuseNanos = other[3 + t];
-        this.extras = new Extras(Arrays.copyOfRange(other, 2, 2 + t), other[4 + t]);
-        this.note = note;
+        this(source, made, kernels, processors, sizes, rates, new double[] {other[0], other[1]},
+                new double[] {other[2 + TableauCost.TERMS], other[3 + TableauCost.TERMS]},
+                new Extras(Arrays.copyOfRange(other, 2, 2 + TableauCost.TERMS),
+                        other[4 + TableauCost.TERMS]), note);
     }
 
     /** The quick probe's rates, its other engines' rates measured on first use. */
