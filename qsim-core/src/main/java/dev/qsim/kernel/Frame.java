@@ -208,6 +208,8 @@ public final class Frame {
             Windows.schedule(a, ops, passes);
             return;
         }
+        // One block holds the whole state: a merged run's table would serve it once, and
+        // building it costs more than the gates (see TableKernels), so gates run one by one.
         for (GateOp op : ops) {
             if (PermutationKernels.movesChunks(a, op)) {
                 passes.chunkMove(op);

@@ -12,6 +12,11 @@ public final class GateOp {
     public static final int DIAGONAL = 1;
     /** Shape: a monomial matrix (one non-zero per column). */
     public static final int MONOMIAL = 2;
+    /**
+     * Shape: a run of diagonal and monomial gates merged by the planner into one monomial on
+     * all their qubits, applied from full tables ({@link TableKernels}).
+     */
+    public static final int TABLE = 3;
 
     final int shape;
     final int[] targets;
@@ -19,6 +24,8 @@ public final class GateOp {
     final double[] data;
     final int[] perm;
     final long targetMask;
+    /** The gates of a {@link #TABLE} run, in order; else null. */
+    final GateOp[] parts;
 
     /**
      * Describes a gate; see {@link DenseKernels#plan}, {@link DiagonalKernels#plan} and
@@ -31,7 +38,13 @@ public final class GateOp {
      * @param perm the permutation of a monomial gate, else null. Not copied.
      */
     public GateOp(int shape, int[] targets, int[] controls, double[] data, int[] perm) {
+        this(shape, targets, controls, data, perm, null);
+    }
+
+    private GateOp(int shape, int[] targets, int[] controls, double[] data, int[] perm,
+            GateOp[] parts) {
         this.shape = shape;
+        this.parts = parts;
         this.targets = targets;
         this.controls = controls;
         this.data = data;
@@ -44,7 +57,7 @@ public final class GateOp {
     }
 
     /**
-     * Returns the shape: {@link #DENSE}, {@link #DIAGONAL} or {@link #MONOMIAL}.
+     * Returns the shape: {@link #DENSE}, {@link #DIAGONAL}, {@link #MONOMIAL} or {@link #TABLE}.
      *
      * @return the shape
      */
@@ -113,6 +126,18 @@ public final class GateOp {
     }
 
     /**
+     * Describes a run of diagonal and monomial gates as one {@link #TABLE} gate on the given
+     * qubits, every one a target or control of some part, without controls of its own.
+     *
+     * @param qubits the qubits of the parts, ascending. Kept, not copied.
+     * @param parts the gates in order, each {@link #DIAGONAL} or {@link #MONOMIAL}. Kept.
+     * @return the run
+     */
+    static GateOp table(int[] qubits, GateOp[] parts) {
+        return new GateOp(TABLE, qubits, new int[0], null, null, parts);
+    }
+
+    /**
      * Prepares the gate for a storage, with given qubit numbers (the gate's own, or its
      * qubits renumbered inside a window).
      *
@@ -127,6 +152,8 @@ public final class GateOp {
                 return DiagonalKernels.plan(a, t, c, data);
             case MONOMIAL:
                 return PermutationKernels.plan(a, t, c, perm, data);
+            case TABLE:
+                return TableKernels.plan(a, t, this);
             default:
                 return DenseKernels.plan(a, t, c, data);
         }

@@ -38,13 +38,13 @@ public final class KernelTimer {
     /**
      * Returns the median time of one pass of a kind, in nanoseconds per unit of that kind
      * (per amplitude touched, so a controlled gate's pass over half the state is divided by
-     * half the state). For {@link Workload#BLOCK_STREAM} and {@link Workload#WINDOW_STREAM}
-     * the time is that of a whole group of {@value #GROUP_GATES} dense single-qubit gates on
-     * the low qubits, per amplitude; for {@link Workload#WINDOW_STREAM_DOUBLE}, a group on
-     * double storage through {@link Windows} with two of its targets on the two highest qubits
-     * (a window gathered from runs of 2^12 amplitudes, as for targets above the cache block);
-     * the caller subtracts the in-cache part. The states are kept between calls of the same
-     * size until {@link #release()}.
+     * half the state). For {@link Workload#BLOCK_STREAM} the time is that of a whole group of
+     * {@value #GROUP_GATES} dense single-qubit gates on the low qubits, per amplitude; for
+     * {@link Workload#WINDOW_STREAM} and {@link Workload#WINDOW_STREAM_DOUBLE}, a group on
+     * single or double storage through {@link Windows} with two of its targets on the two
+     * highest qubits (a window gathered from runs of 2^12 amplitudes, as for targets above the
+     * cache block); the caller subtracts the in-cache part. The states are kept between calls
+     * of the same size until {@link #release()}.
      *
      * @param kind the kind
      * @param n qubits of the state, 4 to 30
@@ -120,6 +120,14 @@ public final class KernelTimer {
                             new int[] {q2}, new double[] {1, 0, 1, 0}, new int[] {1, 0}), threads);
                     units = 0.5;
                     break;
+                case Workload.TABLE_DIAGONAL:
+                case Workload.TABLE_GATHER: {
+                    // A ladder on the low qubits (up to a window's); its tables are built once,
+                    // as a run builds them once for all the windows of a group.
+                    step[r] = planned(a, ladder(Math.min(n, TableKernels.MAX_LOG),
+                            kind == Workload.TABLE_GATHER), threads);
+                    break;
+                }
                 case Workload.BLOCK_STREAM: {
                     int blockLog = Math.min(Frame.CACHE_LOG, a.chunkLog);
                     Plan[] plans = new Plan[GROUP_GATES];
@@ -129,14 +137,7 @@ public final class KernelTimer {
                     step[r] = () -> Plan.applyBlocked(a, plans, blockLog, threads);
                     break;
                 }
-                case Workload.WINDOW_STREAM: {
-                    List<GateOp> ops = new ArrayList<>();
-                    for (int g = 0; g < GROUP_GATES; g++) {
-                        ops.add(dense(new int[] {g % Math.min(n, 8)}, NONE));
-                    }
-                    step[r] = () -> Windows.apply(a, ops, threads);
-                    break;
-                }
+                case Workload.WINDOW_STREAM:
                 case Workload.WINDOW_STREAM_DOUBLE: {
                     List<GateOp> ops = new ArrayList<>();
                     for (int g = 0; g < GROUP_GATES; g++) {
@@ -271,6 +272,23 @@ public final class KernelTimer {
     /** Gates in the longer group of {@link #blockGateNanos}. */
     private static final int LONG_GROUP = 40;
 
+    /** A merged ladder of CZ (or CNOT) gates on qubits 0 to k - 1. */
+    private static GateOp ladder(int k, boolean flips) {
+        GateOp[] parts = new GateOp[k - 1];
+        int[] qs = new int[k];
+        for (int q = 0; q < k; q++) {
+            qs[q] = q;
+        }
+        for (int q = 0; q + 1 < k; q++) {
+            parts[q] = flips
+                    ? new GateOp(GateOp.MONOMIAL, new int[] {q + 1}, new int[] {q},
+                            new double[] {1, 0, 1, 0}, new int[] {1, 0})
+                    : new GateOp(GateOp.DIAGONAL, new int[] {q + 1}, new int[] {q},
+                            new double[] {1, 0, -1, 0}, null);
+        }
+        return GateOp.table(qs, parts);
+    }
+
     /** Whether a kind's timed pass depends on the target position it is given. */
     private static boolean positional(int kind) {
         switch (kind) {
@@ -280,6 +298,8 @@ public final class KernelTimer {
             case Workload.PHASES:
             case Workload.COPY:
             case Workload.SAMPLE:
+            case Workload.TABLE_DIAGONAL:
+            case Workload.TABLE_GATHER:
                 return false;
             default:
                 return true;

@@ -95,6 +95,16 @@ final class LaneCheck {
         onesOnly[4] = 1;
         gate(k, in, chunkLog, new GateOp(GateOp.DIAGONAL, new int[] {3, 4}, NONE,
                 onesOnly, null), "diagonal of ones");
+        // Merged runs of diagonal gates: real factors (signs) and complex ones.
+        double[] cz = {1, 0, 1, 0, 1, 0, -1, 0};
+        double[] cp = {1, 0, 1, 0, 1, 0, Math.cos(0.7), Math.sin(0.7)};
+        for (double[] f : new double[][] {cz, cp}) {
+            GateOp[] run = {new GateOp(GateOp.DIAGONAL, new int[] {0, 1}, NONE, f, null),
+                new GateOp(GateOp.DIAGONAL, new int[] {1, 2}, NONE, f, null),
+                new GateOp(GateOp.DIAGONAL, new int[] {2, 0}, NONE, f, null)};
+            gate(k, in, chunkLog, GateOp.table(new int[] {0, 1, 2}, run),
+                    f == cz ? "merged signs" : "merged phases");
+        }
         // The frame's settling pass: phases on low and high qubits, then a read.
         Amplitudes[] both = pair(k, in, chunkLog, false);
         for (Amplitudes a : both) {

@@ -176,6 +176,17 @@ abstract class LaneKernels {
     abstract void scaleByTable(double[] psi, int off, double[] table, int count);
 
     /**
+     * Multiplies {@code psi[off + x]} by {@code f[x]} for {@code x} in {@code [0, len)}: one
+     * rounding per element, as the scalar loop.
+     *
+     * @param psi the array. Modified.
+     * @param off first offset
+     * @param f the factors. Not modified.
+     * @param len doubles
+     */
+    abstract void multiply(double[] psi, int off, double[] f, int len);
+
+    /**
      * {@link #scaleByTable} on a single-precision array.
      *
      * @param psi the array. Modified.

@@ -153,7 +153,10 @@ public final class Windows {
         return k;
     }
 
-    /** Hands one group to {@code passes} as the pass it is run by. */
+    /**
+     * Hands one group to {@code passes} as the pass it is run by, runs of diagonal and monomial
+     * gates merged ({@link TableKernels#mergeRuns}).
+     */
     private static void hand(Amplitudes a, List<GateOp> group, long mask, int l, boolean single,
             int blockLog, Frame.Passes passes) {
         final GateOp first = group.get(0);
@@ -163,7 +166,7 @@ public final class Windows {
                 // A lone single-qubit gate: one direct pass beats copying windows in and out.
                 passes.floatSingle(first, m2);
             } else {
-                passes.window(List.copyOf(group), mask, l);
+                passes.window(inWindow(a.n, group, mask, l), mask, l);
             }
             return;
         }
@@ -172,18 +175,38 @@ public final class Windows {
             return;
         }
         if (a.n > blockLog && (mask >>> blockLog) == 0) {
-            Plan[] plans = new Plan[group.size()];
+            List<GateOp> ops = TableKernels.mergeRuns(group, identity(a.n), blockLog, a.n);
+            Plan[] plans = new Plan[ops.size()];
             boolean blockable = true;
             for (int x = 0; x < plans.length && blockable; x++) {
-                plans[x] = group.get(x).plan(a);
+                plans[x] = ops.get(x).plan(a);
                 blockable = plans[x].unitsPerBlock(blockLog) >= 0;
             }
             if (blockable) {
-                passes.blocked(List.copyOf(group), plans, blockLog);
+                passes.blocked(List.copyOf(ops), plans, blockLog);
                 return;
             }
         }
-        passes.window(List.copyOf(group), mask, l);
+        passes.window(inWindow(a.n, group, mask, l), mask, l);
+    }
+
+    /** The group's gates with runs merged for the window of {@code mask} and {@code l}. */
+    private static List<GateOp> inWindow(int n, List<GateOp> group, long mask, int l) {
+        final int[] position = new int[n];
+        int next = l;
+        for (int q = 0; q < n; q++) {
+            position[q] = q < l ? q : ((mask >>> q) & 1) != 0 ? next++ : -1;
+        }
+        return List.copyOf(TableKernels.mergeRuns(group, position, next, n));
+    }
+
+    /** Each qubit at its own bit. */
+    static int[] identity(int n) {
+        final int[] position = new int[n];
+        for (int q = 0; q < n; q++) {
+            position[q] = q;
+        }
+        return position;
     }
 
     /**

@@ -52,15 +52,25 @@ public final class Workload {
     public static final int SAMPLE = 13;
     /** Kind: the reduced state of a channel's qubits (a trajectory's branch probabilities). */
     public static final int REDUCE = 14;
+    /**
+     * Kind: a run of diagonal gates merged into one multiplication by a table of factors
+     * ({@link TableKernels}), per amplitude of the state.
+     */
+    public static final int TABLE_DIAGONAL = 17;
+    /**
+     * Kind: a run of diagonal and monomial gates with a permutation, merged into one gather
+     * through a table of sources ({@link TableKernels}), per amplitude of the state.
+     */
+    public static final int TABLE_GATHER = 18;
     /** The number of kinds. */
-    public static final int KINDS = 17;
+    public static final int KINDS = 19;
 
     private static final String[] NAMES = {"dense 1-qubit", "controlled dense 1-qubit",
         "dense 2-qubit", "dense 3-qubit", "dense 4-qubit", "diagonal", "permutation",
         "cache-blocked group stream", "single-precision window stream",
         "single-precision 1-qubit", "frame phases", "state copy", "measurement or reset",
         "sampling", "reduced state", "double-precision window stream",
-        "dense 1-qubit, half arithmetic"};
+        "dense 1-qubit, half arithmetic", "merged diagonal run", "merged permutation run"};
 
     private final int qubits;
     private final boolean single;
@@ -113,6 +123,13 @@ public final class Workload {
                 return DIAGONAL;
             case GateOp.MONOMIAL:
                 return PERMUTATION;
+            case GateOp.TABLE:
+                for (GateOp part : op.parts) {
+                    if (part.shape != GateOp.DIAGONAL) {
+                        return TABLE_GATHER;
+                    }
+                }
+                return TABLE_DIAGONAL;
             default:
                 if (k == 1) {
                     if (op.controls.length > 0) {

@@ -131,6 +131,13 @@ class ScalarLoops extends LaneKernels {
     }
 
     @Override
+    void multiply(double[] psi, int off, double[] f, int len) {
+        for (int x = 0; x < len; x++) {
+            psi[off + x] *= f[x];
+        }
+    }
+
+    @Override
     void scaleByTable(float[] psi, int off, double[] table, int count) {
         for (int j = 0; j < 2 * count; j += 2) {
             scale(psi, off + j, off + j + 2, table[j], table[j + 1]);

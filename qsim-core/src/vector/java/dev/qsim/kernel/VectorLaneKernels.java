@@ -82,6 +82,11 @@ final class VectorLaneKernels extends LaneKernels {
     }
 
     @Override
+    void multiply(double[] psi, int off, double[] f, int len) {
+        VectorPairs.multiply(psi, off, f, len);
+    }
+
+    @Override
     void scaleByTable(float[] psi, int off, double[] table, int count) {
         VectorPairs.scaleByTable(psi, off, table, count);
     }

@@ -429,6 +429,18 @@ final class VectorPairs {
         }
     }
 
+    /** See {@link LaneKernels#multiply(double[], int, double[], int)}. */
+    static void multiply(double[] psi, int off, double[] f, int len) {
+        int j = 0;
+        for (; j + L <= len; j += L) {
+            DoubleVector.fromArray(D, psi, off + j).mul(DoubleVector.fromArray(D, f, j))
+                    .intoArray(psi, off + j);
+        }
+        for (; j < len; j++) {
+            psi[off + j] *= f[j];
+        }
+    }
+
     /** See {@link LaneKernels#scaleByTable(float[], int, double[], int)}. */
     static void scaleByTable(float[] psi, int off, double[] table, int count) {
         final int len = count << 1;
