@@ -94,10 +94,14 @@ final class EngineRates {
                 if (warm && n > sizes[1]) {
                     continue; // the small sizes compile the loops; no rows from them
                 }
-                Circuit shortRun = clifford(n, 600).build();
-                Circuit.Builder longGates = clifford(n, 3000);
-                Circuit longRun = longGates.build();
-                Circuit measured = clifford(n, 600).measure().build();
+                // Gates in proportion to the qubits (10 and 30 a qubit, as circuits of some
+                // depth have): a measurement's cost depends on how scrambled the table is. With
+                // a fixed 600 gates most of 1,024 qubits were never touched, their measurements
+                // took the cheap deterministic path, and the fitted rate per word came out near
+                // 0, half the time of scrambled circuits at 1,000 qubits.
+                Circuit shortRun = clifford(n, Math.max(600, 10 * n)).build();
+                Circuit longRun = clifford(n, Math.max(3000, 30 * n)).build();
+                Circuit measured = clifford(n, Math.max(600, 10 * n)).measure().build();
                 Object[][] runs = {{shortRun, 1}, {longRun, 1}, {measured, 1},
                     {measured, shots}};
                 for (Object[] run : runs) {
