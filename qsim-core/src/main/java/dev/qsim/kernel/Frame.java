@@ -552,7 +552,8 @@ public final class Frame {
         }
     }
 
-    private static void scaleRow(double[] psi, int off, double[] table, int count) {
+    /** Multiplies {@code count} amplitudes at {@code off} by a table of factors (scalar loop). */
+    static void scaleRow(double[] psi, int off, double[] table, int count) {
         final int end = 2 * count;
         for (int j = 0; j < end; j += 2) {
             final double tr = table[j];

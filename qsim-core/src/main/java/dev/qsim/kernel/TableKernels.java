@@ -327,14 +327,7 @@ final class TableKernels {
                     } else if (lanes != null) {
                         lanes.scaleByTable(psi, off, factor, 1 << b);
                     } else {
-                        for (int x = 0; x < len; x += 2) {
-                            final double tr = factor[x];
-                            final double ti = factor[x + 1];
-                            final double re = psi[off + x];
-                            final double im = psi[off + x + 1];
-                            psi[off + x] = tr * re - ti * im;
-                            psi[off + x + 1] = tr * im + ti * re;
-                        }
+                        Frame.scaleRow(psi, off, factor, 1 << b);
                     }
                     continue;
                 }

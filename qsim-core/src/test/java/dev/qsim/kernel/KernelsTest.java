@@ -3,6 +3,7 @@ package dev.qsim.kernel;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 
+import java.util.List;
 import java.util.SplittableRandom;
 
 import org.junit.jupiter.params.ParameterizedTest;
@@ -51,6 +52,22 @@ class KernelsTest {
             out[2 * i + 1] = si;
         }
         return out;
+    }
+
+    /**
+     * Runs the gates through the planner ({@link Frame#execute}) on a storage loaded with
+     * {@code in} and asserts every element within 1e-12 of {@code expected} (1e-4 in single
+     * precision, whose storage rounds each element to float).
+     */
+    static void assertExecutes(double[] expected, double[] in, int n, int chunkLog,
+            boolean single, List<GateOp> ops, int threads) {
+        Amplitudes a = single ? loadSingle(in, n, chunkLog) : load(in, n, chunkLog);
+        Frame.execute(a, ops, threads);
+        double[] got = unload(a);
+        double tol = single ? 1e-4 : 1e-12;
+        for (int i = 0; i < got.length; i++) {
+            assertEquals(expected[i], got[i], tol, "element " + i);
+        }
     }
 
     static double[] randomVector(int n, SplittableRandom r) {

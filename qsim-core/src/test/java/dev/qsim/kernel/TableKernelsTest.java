@@ -154,14 +154,7 @@ class TableKernelsTest {
             expected = KernelsTest.reference(expected, n, op.targets, op.controls, dense[0]);
         }
         assertTrue(merged(ops, n, chunkLog) > 0, "some runs merge");
-        Amplitudes a = single ? KernelsTest.loadSingle(in, n, chunkLog)
-                : KernelsTest.load(in, n, chunkLog);
-        Frame.execute(a, ops, threads);
-        double[] got = KernelsTest.unload(a);
-        double tol = single ? 1e-4 : 1e-12;
-        for (int i = 0; i < got.length; i++) {
-            assertEquals(expected[i], got[i], tol, "element " + i);
-        }
+        KernelsTest.assertExecutes(expected, in, n, chunkLog, single, ops, threads);
     }
 
     @Test
