@@ -70,6 +70,27 @@ class KernelsTest {
         }
     }
 
+    /**
+     * A random monomial gate: a permutation of the target basis states, with a random phase on
+     * each when {@code phases}; its dense matrix goes to {@code dense[0]} for the reference.
+     */
+    static GateOp randomMonomial(int[] targets, int[] controls, boolean phases,
+            SplittableRandom r, double[][] dense) {
+        int d = 1 << targets.length;
+        double[] m = new double[2 * d * d];
+        int[] perm = pickDistinct(d, d, r);
+        double[] phase = new double[2 * d];
+        for (int j = 0; j < d; j++) {
+            double phi = phases ? r.nextDouble(0, 2 * Math.PI) : 0;
+            phase[2 * j] = Math.cos(phi);
+            phase[2 * j + 1] = Math.sin(phi);
+            m[2 * (perm[j] * d + j)] = phase[2 * j];
+            m[2 * (perm[j] * d + j) + 1] = phase[2 * j + 1];
+        }
+        dense[0] = m;
+        return new GateOp(GateOp.MONOMIAL, targets, controls, phase, perm);
+    }
+
     static double[] randomVector(int n, SplittableRandom r) {
         double[] v = new double[2 << n];
         for (int i = 0; i < v.length; i++) {

@@ -54,17 +54,7 @@ class ScheduleTest {
             }
             default: {
                 // Monomial: a pure permutation (case 2, as SWAP or a Toffoli) or with phases.
-                int[] perm = KernelsTest.pickDistinct(d, d, r);
-                double[] phase = new double[2 * d];
-                for (int j = 0; j < d; j++) {
-                    double phi = g % 4 == 2 ? 0 : r.nextDouble(0, 2 * Math.PI);
-                    phase[2 * j] = Math.cos(phi);
-                    phase[2 * j + 1] = Math.sin(phi);
-                    m[2 * (perm[j] * d + j)] = phase[2 * j];
-                    m[2 * (perm[j] * d + j) + 1] = phase[2 * j + 1];
-                }
-                dense[0] = m;
-                return new GateOp(GateOp.MONOMIAL, targets, controls, phase, perm);
+                return KernelsTest.randomMonomial(targets, controls, g % 4 != 2, r, dense);
             }
         }
     }
