@@ -107,11 +107,20 @@ final class EngineRates {
                 for (Object[] run : runs) {
                     Circuit c = (Circuit) run[0];
                     int s = (Integer) run[1];
-                    double t = best(() -> tableau.run(c, s), warm ? 0 : each);
-                    if (!warm) {
-                        x.add(TableauCost.terms(c, s));
-                        y.add(t);
+                    // The calibration's warm pass runs each small case for a while: the
+                    // tableau's runs of a fraction of a millisecond took 3 to 5 times as long
+                    // before the JIT had compiled their per-run steps (a 20-qubit run: 0.63 ms
+                    // predicted from a barely warm calibration, 0.14 measured after 2 s).
+                    if (warm) {
+                        long until = System.nanoTime() + (quick ? 0 : 4 * each);
+                        do {
+                            tableau.run(c, s);
+                        } while (System.nanoTime() < until);
+                        continue;
                     }
+                    double t = best(() -> tableau.run(c, s), each);
+                    x.add(TableauCost.terms(c, s));
+                    y.add(t);
                 }
             }
         }

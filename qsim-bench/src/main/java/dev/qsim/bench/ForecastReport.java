@@ -24,8 +24,8 @@ import dev.qsim.RunCost;
  * largest memory error over runs whose prediction is at least 16 MiB.
  *
  * <p>Measured time: the wall time of {@code run(circuit, shots)}; runs predicted under a second are
- * run for half a second at least and until two runs in a row agree within 10 % (at most 40: the
- * JIT's warm-up is not part of the forecast), then three times in a row, and the median kept.
+ * run for two seconds at least and until two runs in a row agree within 10 % (at most 2,000:
+ * the JIT's warm-up is not part of the forecast), then three times in a row, and the median kept.
  * Measured memory: the peak of the heap pools that hold long-lived and large objects (under G1,
  * the old generation, where every array of half a region or more goes) above their use after a
  * full collection just before the run; for runs under a second, in three runs of their own (the
@@ -167,6 +167,9 @@ public final class ForecastReport {
         } while (System.nanoTime() - start < WARM_NANOS);
     }
 
+    /** How long a case predicted under a second is run before it is timed, at least. */
+    private static final long WARM_CASE = 2_000_000_000L;
+
     /** How long {@link #warmUp} runs the small cases, at least. */
     private static final long WARM_NANOS = 3_000_000_000L;
 
@@ -175,17 +178,19 @@ public final class ForecastReport {
         double seconds;
         long peak;
         if (cost.seconds() < 1) {
-            // Warm for half a second at least and until two runs in a row agree within 10 %
-            // (the JIT has compiled this case's loops: a cold 16-qubit run took twice its
-            // steady time, a 200-qubit tableau run three times), at most 40 runs.
+            // Warm for two seconds at least and until two runs in a row agree within 10 %
+            // (the JIT has compiled this case's loops and its per-run code: a cold 16-qubit
+            // run took twice its steady time, a 200-qubit tableau run three times, and a
+            // 4 ms run of 16 qubits still took twice its time after 40 runs, its time after
+            // 600), at most 2,000 runs.
             double last = Double.MAX_VALUE;
             long warm = System.nanoTime();
-            for (int i = 0; i < 40; i++) {
+            for (int i = 0; i < 2000; i++) {
                 long t0 = System.nanoTime();
                 c.simulator().run(c.circuit(), c.shots());
                 long t1 = System.nanoTime();
                 double t = t1 - t0;
-                if (Math.abs(t - last) <= 0.1 * Math.min(t, last) && t1 - warm >= 500_000_000L) {
+                if (Math.abs(t - last) <= 0.1 * Math.min(t, last) && t1 - warm >= WARM_CASE) {
                     break;
                 }
                 last = t;
