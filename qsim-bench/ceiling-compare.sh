@@ -32,17 +32,8 @@ java=${JAVA:-java}
 xmx=${XMX:-4g}
 cores=$(nproc)
 
-if [ ! -f "$jar" ]; then
-  echo "no $jar: build it first with  mvn -q -B -DskipTests package" >&2
-  exit 1
-fi
-if [ ! -f "$ceiling_c" ]; then
-  echo "no C reference kernel at $ceiling_c; set CEILING_C" >&2
-  exit 1
-fi
-tmp=$(mktemp -d)
-trap 'rm -rf "$tmp"' EXIT
-gcc -std=gnu11 -O3 -march=native -fopenmp "$ceiling_c" -o "$tmp/ceiling" -lm
+# shellcheck source=ceiling-common.sh
+. "$root/qsim-bench/ceiling-common.sh"
 
 qsim() {
   "$java" -Xmx"$xmx" -XX:+UseTransparentHugePages --add-modules jdk.incubator.vector \

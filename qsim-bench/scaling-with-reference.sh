@@ -41,20 +41,11 @@ if ((min < 4 || max > 34 || min > max)); then
   echo "MIN..MAX must lie in 4..34 (the C kernel's sizes) but was $min..$max" >&2
   exit 1
 fi
-if [ ! -f "$jar" ]; then
-  echo "no $jar: build it first with  mvn -q -B -DskipTests package" >&2
-  exit 1
-fi
-if [ ! -f "$ceiling_c" ]; then
-  echo "no C reference kernel at $ceiling_c; set CEILING_C" >&2
-  exit 1
-fi
+# shellcheck source=ceiling-common.sh
+. "$root/qsim-bench/ceiling-common.sh"
 args=("$@")
 [ $# -eq 0 ] && args=(--kernels dense --targets all --circuit off)
 mkdir -p "$out"
-tmp=$(mktemp -d)
-trap 'rm -rf "$tmp"' EXIT
-gcc -std=gnu11 -O3 -march=native -fopenmp "$ceiling_c" -o "$tmp/ceiling" -lm
 
 # The Java probe's three arrays of 2^(max+1) doubles, at least 2^24 (HeapBudget), in MiB.
 len=$((1 << (max + 1)))
