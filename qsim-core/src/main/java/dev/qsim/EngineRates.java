@@ -102,17 +102,21 @@ final class EngineRates {
                 Circuit shortRun = clifford(n, Math.max(600, 10 * n)).build();
                 Circuit longRun = clifford(n, Math.max(3000, 30 * n)).build();
                 Circuit measured = clifford(n, Math.max(600, 10 * n)).measure().build();
+                // One measured qubit with many shots: a replayed step per batch instead of n,
+                // so the tally's cost per shot is told apart from the replay's per step (with
+                // every qubit measured the two grow together, shots/64 steps a qubit).
+                Circuit measuredOne = clifford(n, Math.max(600, 10 * n)).measure(0, 0).build();
                 Object[][] runs = {{shortRun, 1}, {longRun, 1}, {measured, 1},
-                    {measured, shots}};
+                    {measured, shots}, {measuredOne, 4 * shots}};
                 for (Object[] run : runs) {
                     Circuit c = (Circuit) run[0];
                     int s = (Integer) run[1];
                     // The calibration's warm pass runs each small case for a while: the
-                    // tableau's runs of a fraction of a millisecond took 3 to 5 times as long
-                    // before the JIT had compiled their per-run steps (a 20-qubit run: 0.63 ms
-                    // predicted from a barely warm calibration, 0.14 measured after 2 s).
+                    // tableau's runs of a fraction of a millisecond took 3 to 8 times as long
+                    // before the JIT had compiled their steps (a 20-qubit run with 1,000 shots:
+                    // 1.1 ms in its first 0.2 s, 0.24 after 0.8 s, 0.14 from 1.2 s on).
                     if (warm) {
-                        long until = System.nanoTime() + (quick ? 0 : 4 * each);
+                        long until = System.nanoTime() + (quick ? 0 : 10 * each);
                         do {
                             tableau.run(c, s);
                         } while (System.nanoTime() < until);
