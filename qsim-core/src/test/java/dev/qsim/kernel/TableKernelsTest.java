@@ -9,6 +9,7 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.SplittableRandom;
+import java.util.function.IntUnaryOperator;
 
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -100,6 +101,17 @@ class TableKernelsTest {
             }
         });
         return count[0];
+    }
+
+    /** {@code count} random gates of {@link #randomOp} on {@code qs}, gate g of kind kind(g). */
+    private static List<GateOp> randomRun(int[] qs, int count, IntUnaryOperator kind,
+            SplittableRandom r) {
+        List<GateOp> ops = new ArrayList<>();
+        double[][] dense = new double[1][];
+        for (int g = 0; g < count; g++) {
+            ops.add(randomOp(qs, r, kind.applyAsInt(g), dense));
+        }
+        return ops;
     }
 
     /** Every qubit below {@code n}. */
@@ -200,12 +212,7 @@ class TableKernelsTest {
         int n = 19;
         SplittableRandom r = new SplittableRandom(5);
         double[] in = KernelsTest.randomVector(n, r);
-        List<GateOp> ops = new ArrayList<>();
-        double[][] dense = new double[1][];
-        int[] qs = {1, 2, 4, 6, 7, 10, 13};
-        for (int g = 0; g < 40; g++) {
-            ops.add(randomOp(qs, r, g % 4, dense));
-        }
+        List<GateOp> ops = randomRun(new int[] {1, 2, 4, 6, 7, 10, 13}, 40, g -> g % 4, r);
         double[][] got = new double[2][];
         for (int threads = 1; threads <= 2; threads++) {
             Amplitudes a = KernelsTest.load(in, n, 14);
@@ -223,12 +230,8 @@ class TableKernelsTest {
         int n = 19;
         SplittableRandom r = new SplittableRandom(11);
         double[] in = KernelsTest.randomVector(n, r);
-        List<GateOp> ops = new ArrayList<>();
-        double[][] dense = new double[1][];
-        int[] qs = {0, 2, 3, 5, 8, 9, 11, 12};
-        for (int g = 0; g < 30; g++) {
-            ops.add(randomOp(qs, r, g % 2 == 0 ? 0 : 2, dense));
-        }
+        List<GateOp> ops = randomRun(new int[] {0, 2, 3, 5, 8, 9, 11, 12}, 30,
+                g -> g % 2 == 0 ? 0 : 2, r);
         assertTrue(merged(ops, n, n) > 0, "the run merges");
         Amplitudes merged = KernelsTest.load(in, n, n);
         Frame.execute(merged, ops, 1);
