@@ -31,8 +31,8 @@ import dev.qsim.kernel.Workload;
  *
  * <p>{@link #measure(Consumer)} takes about a minute and {@link #save()} keeps the result in a
  * small versioned text file in the user's configuration folder ({@link #file()}); without one,
- * {@link #current()} makes a {@linkplain #quickProbe() quick probe} of a second or two, once per
- * JVM. A file made on another number of processors or with other kernel loops (the scalar or
+ * {@link #current()} makes a {@linkplain #quickProbe() quick probe} of two to three seconds, once
+ * per JVM. A file made on another number of processors or with other kernel loops (the scalar or
  * the vector path) is reported stale and not used. Between measured sizes, rates are
  * interpolated linearly in the qubit count; beyond them the nearest is used.
  *
@@ -56,14 +56,14 @@ public final class Calibration {
     public enum Source {
         /** Measured by {@link #measure(Consumer)}, kept in the calibration file. */
         CALIBRATED,
-        /** The built-in quick probe of a second or two. */
+        /** The built-in quick probe of two to three seconds. */
         QUICK_PROBE
     }
 
     static final int[] FULL_SIZES = {12, 16, 20, 23};
     static final int[] QUICK_SIZES = {12, 20};
     private static final long FULL_NANOS = 150_000_000L;
-    private static final long QUICK_NANOS = 6_000_000L;
+    private static final long QUICK_NANOS = 3_000_000L;
     private static final long MAX_FILE_BYTES = 64 * 1024;
     private static final String[] KEYS = {"dense1", "dense1-controlled", "dense2", "dense3",
         "dense4", "diagonal", "permutation", "block-group", "window-group", "float1", "phases",
@@ -180,10 +180,11 @@ public final class Calibration {
     }
 
     /**
-     * Returns the quick probe's rates (measured once per JVM, a second or two): every kind at
-     * 2^12 and 2^20 amplitudes, on one thread and on every processor, after a warm-up of the
-     * loops; the tableau's and the matrix product state's rates when a forecast first needs
-     * them.
+     * Returns the quick probe's rates (measured once per JVM, two to three seconds): every kind
+     * at 2^12 and 2^20 amplitudes, on one thread and on every processor, after a warm-up of the
+     * loops, in two sweeps keeping the lower time of each (the first sweep can catch a loop
+     * the JIT compiler is still compiling); the tableau's and the matrix product state's rates
+     * when a forecast first needs them.
      *
      * @return the rates, {@link Source#QUICK_PROBE}
      */
@@ -208,12 +209,14 @@ public final class Calibration {
         int all = Parallel.defaultThreads();
         // Every kind round after round on the smallest size for at least WARM_NANOS and until
         // the JIT compiler has been idle for a whole round (its total compilation time did
-        // not grow), at most four times WARM_NANOS: the vector path's loops run a hundred
-        // times slower until C2 has compiled them, which takes a few tenths of a second after
-        // their first call on this machine. Then a round on every thread.
+        // not grow), at most four times WARM_NANOS (twice for the quick probe): the vector
+        // path's loops run a hundred times slower until C2 has compiled them, which takes a few
+        // tenths of a second after their first call on this machine. Then a round on every
+        // thread.
         java.lang.management.CompilationMXBean jit = java.lang.management.ManagementFactory
                 .getCompilationMXBean();
         boolean watch = jit != null && jit.isCompilationTimeMonitoringSupported();
+        boolean quick = source == Source.QUICK_PROBE;
         long start = System.nanoTime();
         while (true) {
             long before = watch ? jit.getTotalCompilationTime() : 0;
@@ -223,19 +226,20 @@ public final class Calibration {
             KernelTimer.blockGateNanos(sizes[0], 1, 0, false);
             long spent = System.nanoTime() - start;
             boolean idle = !watch || jit.getTotalCompilationTime() == before;
-            if ((idle && spent >= WARM_NANOS) || spent >= 4 * WARM_NANOS) {
+            if ((idle && spent >= WARM_NANOS) || spent >= (quick ? 2 : 4) * WARM_NANOS) {
                 break;
             }
         }
         KernelTimer.nanosPerUnit(Workload.DENSE1, Parallel.MIN_PARALLEL_QUBITS, all, 0);
         double[][][] r = new double[ROWS][2][sizes.length];
-        boolean quick = source == Source.QUICK_PROBE;
         // A calibration times every size twice, a minute apart, and keeps the lower median of
         // each rate: other work on the machine only ever slows a timing down, and a burst of
         // it during one sweep (seen on the shared machine of record: one rate three times its
-        // neighbours) then does not reach the file. The quick probe sweeps once.
-        int sweeps = quick ? 1 : 2;
-        for (int sweep = 0; sweep < sweeps; sweep++) {
+        // neighbours) then does not reach the file. The quick probe sweeps twice too, right
+        // after each other: with the vector path's loops its first sweep caught loops still
+        // being compiled (rates of 50 to 200 ns an amplitude at 2^12 against 0.4 to 5, so a
+        // 4 s run was forecast at 1.5 to 4 minutes); its second sweep finds them compiled.
+        for (int sweep = 0; sweep < 2; sweep++) {
             for (int s = 0; s < sizes.length; s++) {
                 for (int t = 0; t < 2; t++) {
                     int threads = t == 0 ? 1 : all;

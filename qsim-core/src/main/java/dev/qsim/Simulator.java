@@ -917,7 +917,8 @@ public final class Simulator implements CircuitRunner {
      * Predicts the cost of {@link #run(Circuit, int)} without running it: the engine, the wall
      * time on this machine, the bytes held at the peak, the passes over memory, and cheaper
      * settings that apply (see {@link RunCost}). Priced with {@link Calibration#current()}: the
-     * calibration file's rates, else a quick probe of about a second, once per JVM.
+     * calibration file's rates, else a quick probe of two to three seconds, once per
+     * JVM.
      *
      * @param circuit the circuit
      * @param shots the shots, at least 1

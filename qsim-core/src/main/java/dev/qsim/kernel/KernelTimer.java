@@ -204,15 +204,17 @@ public final class KernelTimer {
                             + Workload.KINDS + ")");
             }
         }
-        return median(step, minNanos, !brief) / (units * Math.scalb(1.0, n) * step.length);
+        return median(step, minNanos, brief) / (units * Math.scalb(1.0, n) * step.length);
     }
 
     /**
-     * The median nanoseconds of one round of the steps (the kind on each of the spread
-     * targets), after a warm-up, timed for at least minNanos: what a run sees, other work on
-     * the machine included.
+     * The nanoseconds of one round of the steps (the kind on each of the spread targets),
+     * timed for at least minNanos. A full timing warms up first and returns the median of at
+     * least three rounds: what a run sees, other work on the machine included. A brief one
+     * (the quick probe, which times every kind twice and keeps the lower) skips the warm-up
+     * and returns the lowest of at least two rounds.
      */
-    private static double median(Runnable[] step, long minNanos, boolean warmUp) {
+    private static double median(Runnable[] step, long minNanos, boolean brief) {
         Runnable all = () -> {
             for (Runnable r : step) {
                 r.run();
@@ -220,21 +222,22 @@ public final class KernelTimer {
         };
         long warm = System.nanoTime();
         int w = 0;
-        while (warmUp && (w < 1 || (System.nanoTime() - warm < minNanos / 4 && w < 10))) {
+        while (!brief && (w < 1 || (System.nanoTime() - warm < minNanos / 4 && w < 10))) {
             all.run();
             w++;
         }
         double[] times = new double[32];
         int count = 0;
+        int least = brief ? 2 : 3;
         long start = System.nanoTime();
-        while (count < times.length && (count < 3
+        while (count < times.length && (count < least
                 || System.nanoTime() - start < minNanos)) {
             long t0 = System.nanoTime();
             all.run();
             times[count++] = System.nanoTime() - t0;
         }
         Arrays.sort(times, 0, count);
-        return times[count / 2];
+        return brief ? times[0] : times[count / 2];
     }
 
     /**
@@ -261,7 +264,7 @@ public final class KernelTimer {
                 plans[g] = dense(new int[] {g % Math.max(1, blockLog)}, NONE).plan(a);
             }
             Runnable[] step = {() -> Plan.applyBlocked(a, plans, blockLog, threads)};
-            t[i] = median(step, minNanos, !brief);
+            t[i] = median(step, minNanos, brief);
         }
         double per = (t[1] - t[0]) / (LONG_GROUP - GROUP_GATES);
         // A difference of two timings can come out near zero on a noisy machine; a gate in

@@ -26,8 +26,8 @@ import dev.qsim.Calibration;
             "  java -jar qsim-examples.jar calibrate --show",
             "%nThe file is machine-rates.properties in $XDG_CONFIG_HOME/qsim (else"
                     + " ~/.config/qsim), or in the folder of the system property"
-                    + " qsim.config.dir. Without it, forecasts use a quick probe of about a"
-                    + " second. A file made on another processor count or with other kernel"
+                    + " qsim.config.dir. Without it, forecasts use a quick probe of two to"
+                    + " three seconds. A file made on another processor count or with other kernel"
                     + " loops is stale and not used."})
 final class CalibrateCommand implements Callable<Integer> {
     @Spec
