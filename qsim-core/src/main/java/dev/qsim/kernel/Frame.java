@@ -111,7 +111,7 @@ public final class Frame {
 
         @Override
         public void blocked(List<GateOp> ops, Plan[] plans, int blockLog) {
-            Plan.applyBlocked(a, plans, blockLog, threads);
+            Plan.applyBlocked(a, GatePairs.pairUp(a, ops, plans), blockLog, threads);
         }
 
         @Override

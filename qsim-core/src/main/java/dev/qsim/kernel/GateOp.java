@@ -57,6 +57,18 @@ public final class GateOp {
     }
 
     /**
+     * Whether this is a dense single-qubit gate without controls whose matrix is real (H, RY)
+     * or shaped like RX (real diagonal, imaginary off-diagonal): its loops do half the
+     * arithmetic of a complex one.
+     *
+     * @return whether it is
+     */
+    public boolean halfArithmetic() {
+        return shape == DENSE && targets.length == 1 && controls.length == 0
+                && LaneKernels.kind(data) != LaneKernels.COMPLEX;
+    }
+
+    /**
      * Returns the shape: {@link #DENSE}, {@link #DIAGONAL}, {@link #MONOMIAL} or {@link #TABLE}.
      *
      * @return the shape

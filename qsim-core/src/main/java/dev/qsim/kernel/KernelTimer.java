@@ -98,6 +98,27 @@ public final class KernelTimer {
                 case Workload.DENSE1_HALF:
                     step[r] = planned(a, hadamard(q), threads);
                     break;
+                case Workload.DENSE1_HALF_PAIR: {
+                    // Two gates in one sweep where the vector loops pair them (targets at or
+                    // above a vector); the scalar loops never pair, and time them one by one.
+                    int low = a.lanes == null ? 0 : a.lanes.amplitudeLog();
+                    int first = Math.min(Math.max(q, low), n - 1);
+                    int second = first + 1 < n ? first + 1 : first - 1;
+                    GateOp h1 = hadamard(first);
+                    GateOp h2 = hadamard(second);
+                    if (GatePairs.pairable(a.lanes, a.chunkLog, h1, first, h2, second)) {
+                        Plan p = GatePairs.plan(a, first, h1.data, second, h2.data);
+                        step[r] = () -> p.apply(threads);
+                    } else {
+                        Runnable one = planned(a, h1, threads);
+                        Runnable two = planned(a, h2, threads);
+                        step[r] = () -> {
+                            one.run();
+                            two.run();
+                        };
+                    }
+                    break;
+                }
                 case Workload.DENSE1_CONTROLLED:
                     step[r] = planned(a, dense(new int[] {q}, new int[] {q2}), threads);
                     units = 0.5;

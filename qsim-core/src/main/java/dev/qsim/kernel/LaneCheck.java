@@ -105,6 +105,26 @@ final class LaneCheck {
             gate(k, in, chunkLog, GateOp.table(new int[] {0, 1, 2}, run),
                     f == cz ? "merged signs" : "merged phases");
         }
+        // Two gates with half the arithmetic in one sweep, against the two scalar passes.
+        double[][] half = {matrices(r)[1], matrices(r)[2]};
+        for (int[] qs : new int[][] {{k.amplitudeLog(), N - 1}, {N - 1, k.amplitudeLog()},
+                {N - 2, N - 1}}) {
+            for (double[] m1 : half) {
+                for (double[] m2 : half) {
+                    GateOp g1 = new GateOp(GateOp.DENSE, new int[] {qs[0]}, NONE, m1, null);
+                    GateOp g2 = new GateOp(GateOp.DENSE, new int[] {qs[1]}, NONE, m2, null);
+                    if (!GatePairs.pairable(k, chunkLog, g1, qs[0], g2, qs[1])) {
+                        continue;
+                    }
+                    Amplitudes[] two = pair(k, in, chunkLog, false);
+                    g1.plan(two[0]).apply(1);
+                    g2.plan(two[0]).apply(1);
+                    GatePairs.plan(two[1], qs[0], m1, qs[1], m2).apply(1);
+                    compare(two, "paired gates on " + qs[0] + " and " + qs[1] + " (chunks of 2^"
+                            + chunkLog + ")");
+                }
+            }
+        }
         // The frame's settling pass: phases on low and high qubits, then a read.
         Amplitudes[] both = pair(k, in, chunkLog, false);
         for (Amplitudes a : both) {

@@ -8,17 +8,18 @@ package dev.qsim.kernel;
  * {@code jdk.incubator.vector} API, is compiled apart from the rest of the library
  * ({@code src/vector/java}) and loaded only when that module is present. Internal.
  *
- * <p>Contract: every double-precision gate loop here computes, lane by lane, the same IEEE 754
- * operations in the same order as the scalar loop it replaces (products, then sums left to
- * right, no fused multiply-add), so both paths give the same bits; {@link LaneCheck} verifies
- * this before an implementation is used. The single-precision gate loops (the {@code float[]}
- * forms of {@code pairs} and {@code blocks}) may compute in float lanes, within a few float
- * roundings of the scalar loops (which compute in double and round once), as long as every
- * element gets the same bits whichever loop reaches it (results independent of the thread
- * count). Sums ({@link #sumSquares}, {@link #innerSums}, the Pauli sums) add in a fixed lane
- * order instead of index order: equal to the scalar sums within rounding, and the same for any
- * thread count, since every block is summed by one call. Offsets are in array
- * elements (two per amplitude); lengths in amplitudes unless said. Unchecked.
+ * <p>Contract: every double-precision gate loop here computes, lane by lane, the sums of the
+ * scalar loop it replaces in the same order, with fused multiply-adds, so both paths agree to a
+ * few units in the last place and an element's bits do not depend on which loop or thread
+ * reaches it; {@link LaneCheck} verifies this before an implementation is used. The
+ * single-precision gate loops (the {@code float[]} forms of {@code pairs} and {@code blocks})
+ * may compute in float lanes, within a few float roundings of the scalar loops (which compute
+ * in double and round once), as long as every element gets the same bits whichever loop
+ * reaches it (results independent of the thread count). Sums ({@link #sumSquares},
+ * {@link #innerSums}, the Pauli sums) add in a fixed lane order instead of index order: equal to
+ * the scalar sums within rounding, and the same for any thread count, since every block is
+ * summed by one call. Offsets are in array elements (two per amplitude); lengths in amplitudes
+ * unless said. Unchecked.
  */
 abstract class LaneKernels {
     /** Kind of a 2x2 matrix: general complex entries. */
@@ -80,6 +81,27 @@ abstract class LaneKernels {
      * @param kind {@link #kind} of {@code m}
      */
     abstract void blocks(double[] psi, int start, int end, int q, double[] m, int kind);
+
+    /**
+     * Two single-qubit gates in one sweep: blocks of {@code 2^(max(q1, q2) + 1)} amplitudes over
+     * the offsets {@code [start, end)} of one array, first {@code m1} on the pairs
+     * {@code (i, i + 2^q1)}, then {@code m2} on the pairs {@code (i, i + 2^q2)}; every element
+     * gets the same bits as {@link #blocks(double[], int, int, int, double[], int) blocks} with
+     * {@code m1} followed by {@code blocks} with {@code m2}. {@code start} and {@code end} are
+     * multiples of the block.
+     *
+     * @param psi the array. Modified.
+     * @param start first offset
+     * @param end end offset
+     * @param q1 the first gate's target, at least {@link #amplitudeLog()}
+     * @param m1 its matrix, length 8, of kind {@code kind1}. Not modified.
+     * @param kind1 {@link #REAL} or {@link #CROSS}
+     * @param q2 the second gate's target, at least {@link #amplitudeLog()}, not {@code q1}
+     * @param m2 its matrix, length 8, of kind {@code kind2}. Not modified.
+     * @param kind2 {@link #REAL} or {@link #CROSS}
+     */
+    abstract void pairBlocks(double[] psi, int start, int end, int q1, double[] m1, int kind1,
+            int q2, double[] m2, int kind2);
 
     /**
      * {@link #pairs} on single-precision arrays, in double or in float arithmetic (see the class

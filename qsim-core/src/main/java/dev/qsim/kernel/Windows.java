@@ -166,7 +166,7 @@ public final class Windows {
                 // A lone single-qubit gate: one direct pass beats copying windows in and out.
                 passes.floatSingle(first, m2);
             } else {
-                passes.window(inWindow(a.n, group, mask, l), mask, l);
+                passes.window(inWindow(a, group, mask, l), mask, l);
             }
             return;
         }
@@ -175,7 +175,8 @@ public final class Windows {
             return;
         }
         if (a.n > blockLog && (mask >>> blockLog) == 0) {
-            List<GateOp> ops = TableKernels.mergeRuns(group, identity(a.n), blockLog, a.n);
+            List<GateOp> ops = GatePairs.arrange(a.lanes, a.chunkLog,
+                    TableKernels.mergeRuns(group, identity(a.n), blockLog, a.n), null);
             Plan[] plans = new Plan[ops.size()];
             boolean blockable = true;
             for (int x = 0; x < plans.length && blockable; x++) {
@@ -187,17 +188,31 @@ public final class Windows {
                 return;
             }
         }
-        passes.window(inWindow(a.n, group, mask, l), mask, l);
+        passes.window(inWindow(a, group, mask, l), mask, l);
     }
 
-    /** The group's gates with runs merged for the window of {@code mask} and {@code l}. */
-    private static List<GateOp> inWindow(int n, List<GateOp> group, long mask, int l) {
+    /**
+     * The group's gates with runs merged for the window of {@code mask} and {@code l}, and
+     * pairable gates next to each other ({@link GatePairs#arrange}).
+     */
+    private static List<GateOp> inWindow(Amplitudes a, List<GateOp> group, long mask, int l) {
+        int[] position = positions(a.n, mask, l);
+        int wl = l + Long.bitCount(mask >>> l);
+        return List.copyOf(GatePairs.arrange(a.lanes, wl,
+                TableKernels.mergeRuns(group, position, wl, a.n), position));
+    }
+
+    /**
+     * Each qubit's bit in the windows of {@code mask} and {@code l}: the low bits stay, the
+     * targets above them follow in order, every other qubit is -1 (it selects the window).
+     */
+    static int[] positions(int n, long mask, int l) {
         final int[] position = new int[n];
         int next = l;
         for (int q = 0; q < n; q++) {
             position[q] = q < l ? q : ((mask >>> q) & 1) != 0 ? next++ : -1;
         }
-        return List.copyOf(TableKernels.mergeRuns(group, position, next, n));
+        return position;
     }
 
     /** Each qubit at its own bit. */
@@ -271,6 +286,8 @@ public final class Windows {
         for (int r = 0; r < runStart.length; r++) {
             runStart[r] = deposit(r, high);
         }
+        // Adjacent single-qubit gates that run as one sweep (they have no controls at all).
+        final boolean[] paired = GatePairs.starts(a.lanes, wl, ops, map);
         final boolean par = n >= Parallel.MIN_PARALLEL_QUBITS;
         Parallel.forRange(threads, 1L << (n - wl), par, (from, to) -> {
             Amplitudes s = scratch(wl).useLanes(a.lanes);
@@ -278,8 +295,11 @@ public final class Windows {
             Plan[] plans = new Plan[k];
             long[] units = new long[k];
             for (int x = 0; x < k; x++) {
-                plans[x] = ops.get(x).plan(s, targets[x], controls[x]);
-                units[x] = plans[x].units();
+                plans[x] = paired[x] ? GatePairs.plan(s, targets[x][0], ops.get(x).data,
+                        targets[x + 1][0], ops.get(x + 1).data)
+                        : x > 0 && paired[x - 1] ? null
+                        : ops.get(x).plan(s, targets[x], controls[x]);
+                units[x] = plans[x] == null ? 0 : plans[x].units();
             }
             for (long win = from; win < to; win++) {
                 long base = deposit(win, free);
@@ -294,7 +314,7 @@ public final class Windows {
                     a.readRaw(base | runStart[r], l, buf, r << (l + 1));
                 }
                 for (int x = 0; x < k; x++) {
-                    if ((base & outer[x]) == outer[x]) {
+                    if (plans[x] != null && (base & outer[x]) == outer[x]) {
                         plans[x].run(0, units[x]);
                     }
                 }

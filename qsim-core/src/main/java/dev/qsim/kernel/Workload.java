@@ -62,15 +62,21 @@ public final class Workload {
      * through a table of sources ({@link TableKernels}), per amplitude of the state.
      */
     public static final int TABLE_GATHER = 18;
+    /**
+     * Kind: two adjacent dense single-qubit gates with half the arithmetic run in one sweep in
+     * cache ({@link GatePairs}, vector loops only), per amplitude of the state and pair.
+     */
+    public static final int DENSE1_HALF_PAIR = 19;
     /** The number of kinds. */
-    public static final int KINDS = 19;
+    public static final int KINDS = 20;
 
     private static final String[] NAMES = {"dense 1-qubit", "controlled dense 1-qubit",
         "dense 2-qubit", "dense 3-qubit", "dense 4-qubit", "diagonal", "permutation",
         "cache-blocked group stream", "single-precision window stream",
         "single-precision 1-qubit", "frame phases", "state copy", "measurement or reset",
         "sampling", "reduced state", "double-precision window stream",
-        "dense 1-qubit, half arithmetic", "merged diagonal run", "merged permutation run"};
+        "dense 1-qubit, half arithmetic", "merged diagonal run", "merged permutation run",
+        "paired dense 1-qubit, half arithmetic"};
 
     private final int qubits;
     private final boolean single;
@@ -370,17 +376,28 @@ public final class Workload {
         @Override
         public void blocked(List<GateOp> ops, Plan[] plans, int blockLog) {
             add(BLOCK_STREAM, weight);
-            for (GateOp op : ops) {
-                cached[kindOf(op)] += units(op) * weight;
-            }
+            inCache(ops, GatePairs.starts(phantom.lanes, phantom.chunkLog, ops, null));
         }
 
         @Override
         public void window(List<GateOp> ops, long mask, int low) {
             // A window moves its amplitudes in and out at the storage's precision.
             add(single ? WINDOW_STREAM : WINDOW_STREAM_DOUBLE, weight);
-            for (GateOp op : ops) {
-                cached[kindOf(op)] += units(op) * weight;
+            int wl = low + Long.bitCount(mask >>> low);
+            inCache(ops, GatePairs.starts(phantom.lanes, wl, ops,
+                    Windows.positions(qubits, mask, low)));
+        }
+
+        /** The kernel work of a group in cache, pairs of gates run in one sweep apart. */
+        private void inCache(List<GateOp> ops, boolean[] paired) {
+            for (int i = 0; i < ops.size(); i++) {
+                if (paired[i]) {
+                    cached[DENSE1_HALF_PAIR] += weight;
+                    i++;
+                } else {
+                    GateOp op = ops.get(i);
+                    cached[kindOf(op)] += units(op) * weight;
+                }
             }
         }
 

@@ -74,6 +74,13 @@ class ScalarLoops extends LaneKernels {
     }
 
     @Override
+    void pairBlocks(double[] psi, int start, int end, int q1, double[] m1, int kind1, int q2,
+            double[] m2, int kind2) {
+        blocks(psi, start, end, q1, m1, kind1);
+        blocks(psi, start, end, q2, m2, kind2);
+    }
+
+    @Override
     void pairs(float[] u, int uo, float[] v, int vo, int count, double[] m, int kind) {
         for (int k = 0; k < 2 * count; k += 2) {
             pair(u, uo + k, v, vo + k, m, kind);

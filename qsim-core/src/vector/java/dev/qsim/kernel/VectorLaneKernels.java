@@ -42,6 +42,12 @@ final class VectorLaneKernels extends LaneKernels {
     }
 
     @Override
+    void pairBlocks(double[] psi, int start, int end, int q1, double[] m1, int kind1, int q2,
+            double[] m2, int kind2) {
+        VectorPairs.pairBlocks(psi, start, end, q1, m1, kind1, q2, m2, kind2);
+    }
+
+    @Override
     void pairs(float[] u, int uo, float[] v, int vo, int count, double[] m, int kind) {
         VectorFloatPairs.pairs(u, uo, v, vo, count, m, kind);
     }

@@ -236,6 +236,160 @@ final class VectorPairs {
         sink = touch;
     }
 
+    /**
+     * See {@link LaneKernels#pairBlocks}: two gates of the {@code REAL} or {@code CROSS} kind on
+     * targets at or above a vector, in one sweep. Each step loads the four amplitudes' vectors
+     * that both gates mix, applies the first gate to the two pairs along its target and the
+     * second to the two pairs along its own, with the formulas of {@link #runsReal} and
+     * {@link #runsCross}, and stores them: every element gets the bits the two gates give one
+     * after the other, with half the loads and stores (in cache, those loops are bound by
+     * moving data, not by arithmetic).
+     */
+    static void pairBlocks(double[] psi, int start, int end, int q1, double[] m1, int kind1,
+            int q2, double[] m2, int kind2) {
+        final int s1 = 2 << q1;
+        final int s2 = 2 << q2;
+        if (kind1 == LaneKernels.REAL) {
+            if (kind2 == LaneKernels.REAL) {
+                pairsRealReal(psi, start, end, s1, m1, s2, m2);
+            } else {
+                pairsRealCross(psi, start, end, s1, m1, s2, m2);
+            }
+        } else if (kind2 == LaneKernels.REAL) {
+            pairsCrossReal(psi, start, end, s1, m1, s2, m2);
+        } else {
+            pairsCrossCross(psi, start, end, s1, m1, s2, m2);
+        }
+    }
+
+    private static void pairsRealReal(double[] psi, int start, int end, int s1, double[] m,
+            int s2, double[] n) {
+        final DoubleVector a00 = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector a01 = DoubleVector.broadcast(D, m[2]);
+        final DoubleVector a10 = DoubleVector.broadcast(D, m[4]);
+        final DoubleVector a11 = DoubleVector.broadcast(D, m[6]);
+        final DoubleVector b00 = DoubleVector.broadcast(D, n[0]);
+        final DoubleVector b01 = DoubleVector.broadcast(D, n[2]);
+        final DoubleVector b10 = DoubleVector.broadcast(D, n[4]);
+        final DoubleVector b11 = DoubleVector.broadcast(D, n[6]);
+        final int lo = Math.min(s1, s2);
+        final int hi = Math.max(s1, s2);
+        for (int h = start; h < end; h += hi << 1) {
+            for (int g = h; g < h + hi; g += lo << 1) {
+                for (int k = g; k < g + lo; k += L) {
+                    final DoubleVector v00 = DoubleVector.fromArray(D, psi, k);
+                    final DoubleVector v01 = DoubleVector.fromArray(D, psi, k + s1);
+                    final DoubleVector v10 = DoubleVector.fromArray(D, psi, k + s2);
+                    final DoubleVector v11 = DoubleVector.fromArray(D, psi, k + s1 + s2);
+                    final DoubleVector w00 = v01.fma(a01, v00.mul(a00));
+                    final DoubleVector w01 = v01.fma(a11, v00.mul(a10));
+                    final DoubleVector w10 = v11.fma(a01, v10.mul(a00));
+                    final DoubleVector w11 = v11.fma(a11, v10.mul(a10));
+                    w10.fma(b01, w00.mul(b00)).intoArray(psi, k);
+                    w10.fma(b11, w00.mul(b10)).intoArray(psi, k + s2);
+                    w11.fma(b01, w01.mul(b00)).intoArray(psi, k + s1);
+                    w11.fma(b11, w01.mul(b10)).intoArray(psi, k + s1 + s2);
+                }
+            }
+        }
+    }
+
+    private static void pairsRealCross(double[] psi, int start, int end, int s1, double[] m,
+            int s2, double[] n) {
+        final DoubleVector a00 = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector a01 = DoubleVector.broadcast(D, m[2]);
+        final DoubleVector a10 = DoubleVector.broadcast(D, m[4]);
+        final DoubleVector a11 = DoubleVector.broadcast(D, m[6]);
+        final DoubleVector e0 = DoubleVector.broadcast(D, n[0]);
+        final DoubleVector e1 = DoubleVector.broadcast(D, n[6]);
+        final DoubleVector p01 = SIGN.mul(n[3]);
+        final DoubleVector p10 = SIGN.mul(n[5]);
+        final int lo = Math.min(s1, s2);
+        final int hi = Math.max(s1, s2);
+        for (int h = start; h < end; h += hi << 1) {
+            for (int g = h; g < h + hi; g += lo << 1) {
+                for (int k = g; k < g + lo; k += L) {
+                    final DoubleVector v00 = DoubleVector.fromArray(D, psi, k);
+                    final DoubleVector v01 = DoubleVector.fromArray(D, psi, k + s1);
+                    final DoubleVector v10 = DoubleVector.fromArray(D, psi, k + s2);
+                    final DoubleVector v11 = DoubleVector.fromArray(D, psi, k + s1 + s2);
+                    final DoubleVector w00 = v01.fma(a01, v00.mul(a00));
+                    final DoubleVector w01 = v01.fma(a11, v00.mul(a10));
+                    final DoubleVector w10 = v11.fma(a01, v10.mul(a00));
+                    final DoubleVector w11 = v11.fma(a11, v10.mul(a10));
+                    w10.rearrange(SWAP).fma(p01, w00.mul(e0)).intoArray(psi, k);
+                    w00.rearrange(SWAP).fma(p10, w10.mul(e1)).intoArray(psi, k + s2);
+                    w11.rearrange(SWAP).fma(p01, w01.mul(e0)).intoArray(psi, k + s1);
+                    w01.rearrange(SWAP).fma(p10, w11.mul(e1)).intoArray(psi, k + s1 + s2);
+                }
+            }
+        }
+    }
+
+    private static void pairsCrossReal(double[] psi, int start, int end, int s1, double[] m,
+            int s2, double[] n) {
+        final DoubleVector d0 = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector d1 = DoubleVector.broadcast(D, m[6]);
+        final DoubleVector o01 = SIGN.mul(m[3]);
+        final DoubleVector o10 = SIGN.mul(m[5]);
+        final DoubleVector b00 = DoubleVector.broadcast(D, n[0]);
+        final DoubleVector b01 = DoubleVector.broadcast(D, n[2]);
+        final DoubleVector b10 = DoubleVector.broadcast(D, n[4]);
+        final DoubleVector b11 = DoubleVector.broadcast(D, n[6]);
+        final int lo = Math.min(s1, s2);
+        final int hi = Math.max(s1, s2);
+        for (int h = start; h < end; h += hi << 1) {
+            for (int g = h; g < h + hi; g += lo << 1) {
+                for (int k = g; k < g + lo; k += L) {
+                    final DoubleVector v00 = DoubleVector.fromArray(D, psi, k);
+                    final DoubleVector v01 = DoubleVector.fromArray(D, psi, k + s1);
+                    final DoubleVector v10 = DoubleVector.fromArray(D, psi, k + s2);
+                    final DoubleVector v11 = DoubleVector.fromArray(D, psi, k + s1 + s2);
+                    final DoubleVector w00 = v01.rearrange(SWAP).fma(o01, v00.mul(d0));
+                    final DoubleVector w01 = v00.rearrange(SWAP).fma(o10, v01.mul(d1));
+                    final DoubleVector w10 = v11.rearrange(SWAP).fma(o01, v10.mul(d0));
+                    final DoubleVector w11 = v10.rearrange(SWAP).fma(o10, v11.mul(d1));
+                    w10.fma(b01, w00.mul(b00)).intoArray(psi, k);
+                    w10.fma(b11, w00.mul(b10)).intoArray(psi, k + s2);
+                    w11.fma(b01, w01.mul(b00)).intoArray(psi, k + s1);
+                    w11.fma(b11, w01.mul(b10)).intoArray(psi, k + s1 + s2);
+                }
+            }
+        }
+    }
+
+    private static void pairsCrossCross(double[] psi, int start, int end, int s1, double[] m,
+            int s2, double[] n) {
+        final DoubleVector d0 = DoubleVector.broadcast(D, m[0]);
+        final DoubleVector d1 = DoubleVector.broadcast(D, m[6]);
+        final DoubleVector o01 = SIGN.mul(m[3]);
+        final DoubleVector o10 = SIGN.mul(m[5]);
+        final DoubleVector e0 = DoubleVector.broadcast(D, n[0]);
+        final DoubleVector e1 = DoubleVector.broadcast(D, n[6]);
+        final DoubleVector p01 = SIGN.mul(n[3]);
+        final DoubleVector p10 = SIGN.mul(n[5]);
+        final int lo = Math.min(s1, s2);
+        final int hi = Math.max(s1, s2);
+        for (int h = start; h < end; h += hi << 1) {
+            for (int g = h; g < h + hi; g += lo << 1) {
+                for (int k = g; k < g + lo; k += L) {
+                    final DoubleVector v00 = DoubleVector.fromArray(D, psi, k);
+                    final DoubleVector v01 = DoubleVector.fromArray(D, psi, k + s1);
+                    final DoubleVector v10 = DoubleVector.fromArray(D, psi, k + s2);
+                    final DoubleVector v11 = DoubleVector.fromArray(D, psi, k + s1 + s2);
+                    final DoubleVector w00 = v01.rearrange(SWAP).fma(o01, v00.mul(d0));
+                    final DoubleVector w01 = v00.rearrange(SWAP).fma(o10, v01.mul(d1));
+                    final DoubleVector w10 = v11.rearrange(SWAP).fma(o01, v10.mul(d0));
+                    final DoubleVector w11 = v10.rearrange(SWAP).fma(o10, v11.mul(d1));
+                    w10.rearrange(SWAP).fma(p01, w00.mul(e0)).intoArray(psi, k);
+                    w00.rearrange(SWAP).fma(p10, w10.mul(e1)).intoArray(psi, k + s2);
+                    w11.rearrange(SWAP).fma(p01, w01.mul(e0)).intoArray(psi, k + s1);
+                    w01.rearrange(SWAP).fma(p10, w11.mul(e1)).intoArray(psi, k + s1 + s2);
+                }
+            }
+        }
+    }
+
     private static void inRegisterReal(double[] psi, int start, int end, InRegister r,
             double[] m) {
         final DoubleVector ca = DoubleVector.fromArray(D, byMember(r, m[0], m[4], false), 0);
