@@ -160,8 +160,15 @@ public final class GateRate {
     }
 
     private static void gates(Settings s, PrintStream out) {
-        // Warm-up on a small state: every path of the loops compiled before timing.
-        gateTimes(Math.min(s.n, 14), 50, s.threads, s.precision);
+        // Warm-up on a state of up to 18 qubits for at least a second: every path of the loops
+        // compiled before timing, the threads' path too (it starts at 16 qubits). One round at
+        // 14 qubits (16 ms) left the compiler at work during the timing, its threads taking a
+        // processor from the team: two threads ran a 16-qubit gate at 0.96-1.42 times one (the
+        // C kernel's two at 1.08-1.77), and at 1.9 times once warm.
+        long warm = System.nanoTime();
+        do {
+            gateTimes(Math.min(s.n, 18), 50, s.threads, s.precision);
+        } while (System.nanoTime() - warm < 1_000_000_000L);
         final double[] time = gateTimes(s.n, s.reps, s.threads, s.precision);
         final double amps = Math.pow(2, s.n);
         final double bytes = BYTES_PER_AMPLITUDE * amps;

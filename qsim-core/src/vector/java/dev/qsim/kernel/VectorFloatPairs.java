@@ -61,6 +61,8 @@ final class VectorFloatPairs {
     /** Runs of 512 B to 8 KiB read ahead of themselves, as in {@link VectorPairs#AHEAD_MIN}. */
     private static final int AHEAD_MIN = 2 * VectorPairs.AHEAD_MIN;
     private static final int AHEAD_MAX = 2 * VectorPairs.AHEAD_MAX;
+    /** Arrays of 16 MiB and more only, as {@link VectorPairs#AHEAD_ARRAY_MIN}. */
+    private static final int AHEAD_ARRAY_MIN = 2 * VectorPairs.AHEAD_ARRAY_MIN;
     /** How far ahead, in array elements (8 KiB of floats). */
     private static final int AHEAD = 2048;
     /** Where the read-ahead values go, so that the compiler keeps the loads. */
@@ -167,7 +169,8 @@ final class VectorFloatPairs {
         final FloatVector m11 = FloatVector.broadcast(S, (float) m[6]);
         int touch = 0;
         final int last = u.length - 1;
-        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX;
+        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX
+                && u.length >= AHEAD_ARRAY_MIN;
         for (int b = 0; b < blocks; b++) {
             final int x0 = uo + b * stride;
             final int y0 = vo + b * stride;
@@ -192,7 +195,8 @@ final class VectorFloatPairs {
         final FloatVector o10 = SIGN.mul((float) m[5]);
         int touch = 0;
         final int last = u.length - 1;
-        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX;
+        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX
+                && u.length >= AHEAD_ARRAY_MIN;
         for (int b = 0; b < blocks; b++) {
             final int x0 = uo + b * stride;
             final int y0 = vo + b * stride;
@@ -221,7 +225,8 @@ final class VectorFloatPairs {
         final FloatVector m11i = SIGN.mul((float) m[7]);
         int touch = 0;
         final int last = u.length - 1;
-        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX;
+        final boolean ahead = u == v && len >= AHEAD_MIN && len <= AHEAD_MAX
+                && u.length >= AHEAD_ARRAY_MIN;
         for (int b = 0; b < blocks; b++) {
             final int x0 = uo + b * stride;
             final int y0 = vo + b * stride;
