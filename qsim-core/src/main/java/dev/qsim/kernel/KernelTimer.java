@@ -225,7 +225,7 @@ public final class KernelTimer {
                             + Workload.KINDS + ")");
             }
         }
-        return median(step, minNanos, brief) / (units * Math.scalb(1.0, n) * step.length);
+        return roundNanos(step, minNanos, brief) / (units * Math.scalb(1.0, n) * step.length);
     }
 
     /**
@@ -235,7 +235,7 @@ public final class KernelTimer {
      * (the quick probe, which times every kind twice and keeps the lower) skips the warm-up
      * and returns the lowest of at least two rounds.
      */
-    private static double median(Runnable[] step, long minNanos, boolean brief) {
+    private static double roundNanos(Runnable[] step, long minNanos, boolean brief) {
         Runnable all = () -> {
             for (Runnable r : step) {
                 r.run();
@@ -285,7 +285,7 @@ public final class KernelTimer {
                 plans[g] = dense(new int[] {g % Math.max(1, blockLog)}, NONE).plan(a);
             }
             Runnable[] step = {() -> Plan.applyBlocked(a, plans, blockLog, threads)};
-            t[i] = median(step, minNanos, brief);
+            t[i] = roundNanos(step, minNanos, brief);
         }
         double per = (t[1] - t[0]) / (LONG_GROUP - GROUP_GATES);
         // A difference of two timings can come out near zero on a noisy machine; a gate in

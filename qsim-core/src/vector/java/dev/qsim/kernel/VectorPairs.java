@@ -254,7 +254,10 @@ final class VectorPairs {
      * second to the two pairs along its own, with the formulas of {@link #runsReal} and
      * {@link #runsCross}, and stores them: every element gets the bits the two gates give one
      * after the other, with half the loads and stores (in cache, those loops are bound by
-     * moving data, not by arithmetic).
+     * moving data, not by arithmetic). The four kind combinations are spelled out as four
+     * loops: a loop taking a gate's formula as a parameter would pass vectors through calls the
+     * compiler need not inline, and a vector that crosses an uninlined call is not
+     * intrinsified on JDK 17 (see {@link #byMember}).
      */
     static void pairBlocks(double[] psi, int start, int end, int q1, double[] m1, int kind1,
             int q2, double[] m2, int kind2) {
