@@ -9,7 +9,7 @@ import java.util.SplittableRandom;
 import org.junit.jupiter.api.Test;
 
 /**
- * The tally's key sort ({@link Tally#sortKeys}, a least-significant-digit radix sort: D. E.
+ * The tally's key sort ({@link TallyKeys#sort}, a least-significant-digit radix sort: D. E.
  * Knuth, "The Art of Computer Programming", vol. 3, 2nd ed., 1998, sec. 5.2.5) against the
  * JDK's general-purpose {@link Arrays#sort(long[])}, on random keys of every width it takes and
  * at the sizes where it switches, and a tally built from many shots against one counted by a
@@ -28,7 +28,7 @@ class TallyKeysTest {
                 }
                 long[] expected = keys.clone();
                 Arrays.sort(expected);
-                Tally.sortKeys(keys, width);
+                TallyKeys.sort(keys, width);
                 assertArrayEquals(expected, keys, "width " + width + ", " + n + " keys");
             }
         }
