@@ -155,7 +155,7 @@ final class GatePairs {
     }
 
     /**
-     * Counts the pairs {@link #pairUp} makes of a list of gates on the given targets.
+     * Marks where {@link #pairUp} and the windows pair a list of gates on the given targets.
      *
      * @param lanes the storage's vector loops, or null
      * @param chunkLog the storage's chunk log
