@@ -222,6 +222,20 @@ public final class Simulator implements CircuitRunner {
     }
 
     /**
+     * Returns a simulator like this one with another seed, every other setting kept: for a sweep
+     * or a batch of independent runs of one configuration (each run of a simulator starts from
+     * its seed, so repeating a run with one seed repeats its shots exactly).
+     *
+     * @param seed the seed of every run
+     * @return the new simulator
+     * @since 0.1
+     */
+    public Simulator withSeed(long seed) {
+        return new Simulator(seed, threads, fusion, engine, noise, precision, bondLimit,
+                truncation);
+    }
+
+    /**
      * Returns a simulator like this one with another thread count. Results do not depend on it.
      *
      * @param threads at least 1 (at most 256)

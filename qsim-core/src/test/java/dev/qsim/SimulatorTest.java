@@ -40,6 +40,35 @@ class SimulatorTest {
     }
 
     @Test
+    void withSeedKeepsEverySettingAndRunsAsThatSeed() {
+        Simulator base = Simulator.seeded(5).withThreads(1).withFusion(false)
+                .withEngine(Simulator.Engine.TABLEAU).withPrecision(Precision.SINGLE)
+                .withBondLimit(17).withTruncation(1e-9);
+        Simulator other = base.withSeed(9);
+        assertEquals(9, other.seed());
+        assertEquals(5, base.seed(), "the original is unchanged");
+        assertEquals(base.threads(), other.threads());
+        assertEquals(base.fusion(), other.fusion());
+        assertEquals(base.engine(), other.engine());
+        assertEquals(base.precision(), other.precision());
+        assertEquals(base.noise(), other.noise());
+        assertEquals(base.bondLimit(), other.bondLimit());
+        assertEquals(base.truncation(), other.truncation());
+        // GHZ-like Clifford circuit with H on every qubit: many distinct outcomes, so two seeds
+        // giving one tally would be a coincidence of probability far below 1e-9.
+        Circuit.Builder b = Circuit.builder(12).h(0);
+        for (int q = 1; q < 12; q++) {
+            b.h(q).cnot(q - 1, q);
+        }
+        Circuit c = b.measure().build();
+        Tally nine = Simulator.seeded(9).withThreads(1).withFusion(false)
+                .withEngine(Simulator.Engine.TABLEAU).withPrecision(Precision.SINGLE)
+                .withBondLimit(17).withTruncation(1e-9).run(c, 500);
+        assertEquals(nine, other.run(c, 500));
+        assertTrue(!nine.equals(base.run(c, 500)), "another seed, other shots");
+    }
+
+    @Test
     void measurementsAtTheEndSampleLikeShotByShot() {
         // Deferred-measurement principle (Nielsen and Chuang 2010, §4.4): sampling the final
         // state and simulating each shot give the same distribution. Compared through the
