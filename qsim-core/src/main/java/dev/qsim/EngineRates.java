@@ -62,8 +62,9 @@ final class EngineRates {
         for (int i = 0; i < 2; i++) {
             Circuit c = spread(widths[i]).measure().build();
             Simulator sim = Simulator.seeded(1).withThreads(1).withFusion(false);
-            double few = best(() -> sim.run(c, 1), nanos);
-            double lots = best(() -> sim.run(c, many), nanos);
+            long[] seed = {1};
+            double few = best(() -> sim.withSeed(seed[0]++).run(c, 1), nanos);
+            double lots = best(() -> sim.withSeed(seed[0]++).run(c, many), nanos);
             per[i] = Math.max(1, (lots - few) / many);
         }
         double bit = Math.max(0, (per[1] - per[0]) / (widths[1] - widths[0]));
@@ -88,6 +89,7 @@ final class EngineRates {
         List<Double> y = new ArrayList<>();
         // Through the library call a user makes: its checks and engine choice cost per gate.
         Simulator tableau = Simulator.seeded(3).withEngine(Simulator.Engine.TABLEAU);
+        long[] seed = {3};
         for (int pass = 0; pass < 2; pass++) {
             boolean warm = pass == 0;
             for (int n : sizes) {
@@ -122,7 +124,10 @@ final class EngineRates {
                         } while (System.nanoTime() < until);
                         continue;
                     }
-                    double t = best(() -> tableau.run(c, s), each);
+                    // A new seed each run, as a user's runs draw new outcomes: one run
+                    // repeated with one seed repeats its random draws, and a processor's
+                    // branch predictor can learn a short run's draws by heart.
+                    double t = best(() -> tableau.withSeed(seed[0]++).run(c, s), each);
                     x.add(TableauCost.terms(c, s));
                     y.add(t);
                 }

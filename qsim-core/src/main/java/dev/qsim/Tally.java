@@ -350,9 +350,9 @@ public final class Tally {
             }
             long key = 0;
             for (int c = 0; c < width; c++) {
-                if (register[c]) {
-                    key |= 1L << c;
-                }
+                // No branch on the bit: outcome bits are random, and a mispredicted branch on
+                // each cost several times the loop's own work.
+                key |= (register[c] ? 1L : 0L) << c;
             }
             if (count > 1) {
                 repeated.merge(key, count, Long::sum);

@@ -15,6 +15,7 @@ import dev.qsim.Instruction;
 import dev.qsim.Tally;
 import dev.qsim.internal.Bridge;
 import dev.qsim.internal.ClassicalState;
+import dev.qsim.internal.Heap;
 import dev.qsim.internal.ShotRunner;
 
 /**
@@ -48,6 +49,8 @@ final class TableauEngine implements Bridge.Tableaus {
     private static final int CNOT = 6;
     private static final int CZ = 7;
     private static final int SWAP = 8;
+    /** The widest register whose shots are tallied as one key each ({@code Tally.fromShots}). */
+    private static final int MAX_KEY_WIDTH = 63;
 
     /** One compiled instruction of a circuit without classical control. */
     static final class Op {
@@ -224,10 +227,27 @@ final class TableauEngine implements Bridge.Tableaus {
         List<Instruction> list = circuit.instructions();
         StabilizerTableau t = StabilizerTableau.zero(circuit.qubits());
         boolean[] reg = new boolean[circuit.clbits()];
-        Tally.Recorder outcomes = Tally.recorder(reg.length);
         if (!controlled(list)) {
             SignReplay replay = SignReplay.record(t, compile(list));
             long[] bits = new long[reg.length];
+            if (reg.length <= MAX_KEY_WIDTH) {
+                // One key per shot, assembled without a branch on any outcome bit: the bits are
+                // random, and a branch on each cost about twice the replay's own time.
+                Heap.require(16L * shots, "the outcomes of " + shots + " shots");
+                long[] keys = new long[shots];
+                for (int done = 0; done < shots; done += 64) {
+                    int batch = Math.min(64, shots - done);
+                    replay.batch(batch, bits, rng);
+                    for (int c = 0; c < reg.length; c++) {
+                        final long w = bits[c];
+                        for (int s = 0; s < batch; s++) {
+                            keys[done + s] |= ((w >>> s) & 1L) << c;
+                        }
+                    }
+                }
+                return Tally.fromShots(reg.length, keys);
+            }
+            Tally.Recorder outcomes = Tally.recorder(reg.length);
             for (int done = 0; done < shots; done += 64) {
                 int batch = Math.min(64, shots - done);
                 replay.batch(batch, bits, rng);
@@ -240,6 +260,7 @@ final class TableauEngine implements Bridge.Tableaus {
             }
             return outcomes.build();
         }
+        Tally.Recorder outcomes = Tally.recorder(reg.length);
         Backend backend = new Backend(rng);
         backend.t = t;
         int first = 0;
@@ -365,9 +386,7 @@ final class TableauEngine implements Bridge.Tableaus {
             long[] draws = new long[randomSteps];
             for (int s = 0; s < count; s++) {
                 for (int k = 0; k < randomSteps; k++) {
-                    if (rng.nextBoolean()) {
-                        draws[k] |= 1L << s;
-                    }
+                    draws[k] |= (rng.nextBoolean() ? 1L : 0L) << s;
                 }
             }
             final long[] r = new long[half << 6];
