@@ -46,7 +46,7 @@ import dev.qsim.kernel.Workload;
  */
 public final class Calibration {
     /** The file format's version; a file of another version is ignored, with the reason. */
-    public static final int FORMAT = 6;
+    public static final int FORMAT = 7;
     /** System property naming the folder of the calibration file (tests use a temporary one). */
     public static final String FOLDER_PROPERTY = "qsim.config.dir";
     /** The calibration file's name inside the folder. */
@@ -76,7 +76,8 @@ public final class Calibration {
     /** Tableau rates, in the order of {@link TableauCost}'s terms. */
     private static final String[] TABLEAU_KEYS = {"tableau.run", "tableau.table.word",
         "tableau.gate", "tableau.gate.word", "tableau.measure", "tableau.measure.column",
-        "tableau.measure.word", "tableau.batch.step", "tableau.batch.row", "tableau.shot"};
+        "tableau.measure.word", "tableau.batch.step", "tableau.batch.row", "tableau.shot",
+        "tableau.shot.wide-bit"};
 
     private static final String[] OTHER_KEYS = otherKeys();
 

@@ -43,8 +43,16 @@ final class TableauCost {
      * so the tally's work per bit is part of a replayed step's.
      */
     static final int SHOTS = 9;
+    /**
+     * Term: bits of the shots tallied as bitstrings, {@code shots · clbits} for a register wider
+     * than a tally key (63 bits), 0 otherwise: each such shot writes, hashes and compares a
+     * string of one character a bit (at 200 bits about 1.7 µs a shot, ten times a key's).
+     */
+    static final int WIDE_BITS = 10;
     /** The number of terms. */
-    static final int TERMS = 10;
+    static final int TERMS = 11;
+    /** The widest register tallied as one key a shot. */
+    private static final int KEY_BITS = 63;
 
     private TableauCost() {
     }
@@ -129,6 +137,7 @@ final class TableauCost {
             t[RUNS] = 1;
         }
         t[SHOTS] = shots;
+        t[WIDE_BITS] = c.clbits() > KEY_BITS ? (double) shots * c.clbits() : 0;
         return t;
     }
 

@@ -80,7 +80,8 @@ class CalibrationTest {
         String[][] cases = {
             {good.replaceFirst("rate\\.dense2\\.one = \\S+", "rate.dense2.one = NaN"), "NaN"},
             {good.replaceFirst("rate\\.dense2\\.one = \\S+", "rate.dense2.one = -3"), "-3"},
-            {good.replaceFirst("format = " + Calibration.FORMAT, "format = 7"), "format 7"},
+            {good.replaceFirst("format = " + Calibration.FORMAT,
+                    "format = " + (Calibration.FORMAT + 1)), "format " + (Calibration.FORMAT + 1)},
             {good.replaceFirst("shot = .*\\n", ""), "'shot' is missing"},
             {good.replaceFirst("sizes = .*", "sizes = 20 12"), "ascending"},
             {good.replaceFirst("made = .*", "made = yesterday"), "yesterday"},

@@ -211,6 +211,11 @@ class ForecastCountTest {
         assertEquals(300, r[TableauCost.BATCH_ROWS], "replayed rows");
         assertEquals(1, r[TableauCost.MEASUREMENTS], "simulated once");
         assertEquals(130, r[TableauCost.SHOTS], "shots tallied");
+        // 100 classical bits are wider than a tally key: each shot's 100 bits as a bitstring.
+        assertEquals(130 * 100, r[TableauCost.WIDE_BITS], "bits tallied as bitstrings");
+        Circuit narrow = Circuit.builder(100, 63).h(0).measure(0, 0).build();
+        assertEquals(0, TableauCost.terms(narrow, 130)[TableauCost.WIDE_BITS],
+                "63 bits: one key a shot");
         // Y is applied as its catalogue decomposition into the tableau's primitives; each
         // primitive on one qubit rewrites 8 words here.
         Circuit y = Circuit.builder(100).y(3).build();
