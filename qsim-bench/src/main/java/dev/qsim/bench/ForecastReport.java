@@ -26,8 +26,9 @@ import dev.qsim.Simulator;
  *
  * <p>Measured time: the wall time of {@code run(circuit, shots)}, each run with a seed of its
  * own (as a user's runs draw new outcomes); runs predicted under a second are
- * run for two seconds at least and until two runs in a row agree within 10 % (at most 2,000:
- * the JIT's warm-up is not part of the forecast), then three times in a row, and the median kept.
+ * run for two seconds at least and until the median runs of two half-second windows in a row
+ * agree within 10 % (at most 20 s: the JIT's warm-up is not part of the forecast), then three
+ * times in a row, and the median kept.
  * Measured memory: the peak of the heap pools that hold long-lived and large objects (under G1,
  * the old generation, where every array of half a region or more goes) above their use after a
  * full collection just before the run; for runs under a second, in three runs of their own (the
@@ -172,6 +173,26 @@ public final class ForecastReport {
     /** How long a case predicted under a second is run before it is timed, at least. */
     private static final long WARM_CASE = 2_000_000_000L;
 
+    /** How long a case predicted under a second is run before it is timed, at most. */
+    private static final long WARM_CASE_MAX = 20_000_000_000L;
+
+    /** The shortest window of warm-up runs whose median {@link #windowMedian} takes. */
+    private static final long WINDOW_NANOS = 500_000_000L;
+
+    /** The median time of the runs of one window: half a second and three runs at least. */
+    private static double windowMedian(ForecastSet.Case c) {
+        List<Long> times = new ArrayList<>();
+        long start = System.nanoTime();
+        while (times.size() < 3 || System.nanoTime() - start < WINDOW_NANOS) {
+            Simulator sim = fresh(c);
+            long t0 = System.nanoTime();
+            sim.run(c.circuit(), c.shots());
+            times.add(System.nanoTime() - t0);
+        }
+        java.util.Collections.sort(times);
+        return times.get(times.size() / 2);
+    }
+
     /** How long {@link #warmUp} runs the small cases, at least. */
     private static final long WARM_NANOS = 3_000_000_000L;
 
@@ -180,23 +201,23 @@ public final class ForecastReport {
         double seconds;
         long peak;
         if (cost.seconds() < 1) {
-            // Warm for two seconds at least and until two runs in a row agree within 10 %
-            // (the JIT has compiled this case's loops and its per-run code: a cold 16-qubit
-            // run took twice its steady time, a 200-qubit tableau run three times, and a
-            // 4 ms run of 16 qubits still took twice its time after 40 runs, its time after
-            // 600), at most 2,000 runs.
-            double last = Double.MAX_VALUE;
+            // Warm for two seconds at least and until the median run of two windows in a row
+            // (half a second and three runs each) agree within 10 %, at most 20 s: the JIT has
+            // compiled this case's loops and its per-run code. A cold 16-qubit run took twice
+            // its steady time, a 200-qubit tableau run three times; and right after a 28-qubit
+            // case, whose first run made the JIT drop the compiled window loops, a 2 ms run of
+            // 16 qubits took 5 ms for two seconds (two runs in a row agreed on the slow time,
+            // which the earlier test of single runs took for the steady one), 2.1-2.7 after.
             long warm = System.nanoTime();
-            for (int i = 0; i < 2000; i++) {
-                Simulator sim = fresh(c);
-                long t0 = System.nanoTime();
-                sim.run(c.circuit(), c.shots());
-                long t1 = System.nanoTime();
-                double t = t1 - t0;
-                if (Math.abs(t - last) <= 0.1 * Math.min(t, last) && t1 - warm >= WARM_CASE) {
+            double previous = Double.MAX_VALUE;
+            while (true) {
+                double now = windowMedian(c);
+                long elapsed = System.nanoTime() - warm;
+                if (elapsed >= WARM_CASE_MAX || (elapsed >= WARM_CASE
+                        && Math.abs(now - previous) <= 0.1 * Math.min(now, previous))) {
                     break;
                 }
-                last = t;
+                previous = now;
             }
             double[] t = new double[3];
             for (int i = 0; i < 3; i++) {
