@@ -10,6 +10,8 @@
 #   ITEMS="..."    which items to run, any of: big big-all cache single threads circuit
 #   CEILING_C=...  the C source (default: ../shared/ceiling/ceiling.c beside the repository)
 #   JAVA=java      the java launcher; XMX=4g its heap
+#   JAVA_OPTS=...  more options for qsim's JVM (split at spaces), e.g.
+#                  -Djdk.incubator.vector.VECTOR_ACCESS_OOB_CHECK=0 (see docs/decisions.md)
 # Items (one thread unless said; rates count 32 bytes per amplitude per gate, as the C kernel):
 #   big       dense gate at 26 qubits, median over every target (and the worst target's ratio)
 #   big-all   the same on every processor
@@ -30,6 +32,7 @@ ceiling_c=${CEILING_C:-$root/../shared/ceiling/ceiling.c}
 jar=$root/qsim-bench/target/qsim-bench.jar
 java=${JAVA:-java}
 xmx=${XMX:-4g}
+read -r -a java_opts <<< "${JAVA_OPTS:-}"
 cores=$(nproc)
 
 # shellcheck source=ceiling-common.sh
@@ -37,7 +40,7 @@ cores=$(nproc)
 
 qsim() {
   "$java" -Xmx"$xmx" -XX:+UseTransparentHugePages --add-modules jdk.incubator.vector \
-    -cp "$jar" dev.qsim.bench.GateRate "$@" 2>/dev/null
+    ${java_opts[@]+"${java_opts[@]}"} -cp "$jar" dev.qsim.bench.GateRate "$@" 2>/dev/null
 }
 ceil() {
   local t=$1
