@@ -46,7 +46,7 @@ import dev.qsim.kernel.Workload;
  */
 public final class Calibration {
     /** The file format's version; a file of another version is ignored, with the reason. */
-    public static final int FORMAT = 7;
+    public static final int FORMAT = 8;
     /** System property naming the folder of the calibration file (tests use a temporary one). */
     public static final String FOLDER_PROPERTY = "qsim.config.dir";
     /** The calibration file's name inside the folder. */
@@ -520,9 +520,9 @@ public final class Calibration {
      * Below 2^16 amplitudes the kernels run on one thread whatever is asked.
      */
     double nanos(int kind, int n, int threads) {
-        if (kind == Workload.BLOCK_STREAM || kind == Workload.WINDOW_STREAM
-                || kind == Workload.WINDOW_STREAM_DOUBLE) {
-            // The group was timed with its in-cache gates; keep the streaming part.
+        if (kind == Workload.BLOCK_STREAM) {
+            // The group was timed with its in-cache gates; keep the streaming part (the
+            // window kinds are timed as their streaming part alone).
             double group = raw(kind, n, threads);
             double inCache = KernelTimer.GROUP_GATES * raw(BLOCK_GATE, n, threads);
             return Math.max(0.1 * group, group - inCache);
