@@ -238,10 +238,8 @@ public final class KernelTimer {
     /**
      * The time per amplitude of the two gates of the window kinds' group on one window in
      * cache: the same gates on the two highest qubits of a state of {@code 2^WINDOW_LOG}
-     * amplitudes, one thread. Subtracting a gate rate measured elsewhere (a gate in a
-     * cache-blocked group, whose targets include the in-register ones) took off more than the
-     * window's gates cost on the vector path, and the window pass came out at a third of its
-     * time.
+     * amplitudes, one thread. (Subtracting a rate measured elsewhere, one more gate in a
+     * cache-blocked group on other targets, mixed two measurements of different gates.)
      */
     private static double windowGatesNanos(long minNanos, boolean brief) {
         int w = Windows.WINDOW_LOG;
