@@ -79,6 +79,12 @@ final class DistanceInterval {
      */
     static final double POWER_QUANTILE = 0.16;
 
+    /**
+     * Draws are summed over the cells they reach only when all their shots number at most the
+     * cells over this (the sparse sum costs about twice the dense one per cell it visits).
+     */
+    private static final int SPARSE_SHARE = 4;
+
     private final int k;
     private final int tallyCells;
     private final double[] f;
@@ -360,6 +366,16 @@ final class DistanceInterval {
         if (known != null) {
             return known;
         }
+        double[] out = distances(d, shots + predictionShots <= k / SPARSE_SHARE);
+        cache.put(d, out);
+        return out;
+    }
+
+    /**
+     * The sorted reference distances at candidate {@code d}, summed over every cell or, when
+     * {@code sparse}, over the cells the draws reach ({@link #sparseDraws}).
+     */
+    double[] distances(double d, boolean sparse) {
         double[][] ref = reference(d);
         double[] p = ref[0];
         double[] center = ref[1];
@@ -369,6 +385,11 @@ final class DistanceInterval {
         double n = shots;
         double m = predictionShots;
         double[] out = new double[resamples];
+        if (sparse) {
+            sparseDraws(xs, ys, center, out);
+            Arrays.sort(out);
+            return out;
+        }
         Parallel.forRange(threads, resamples, resamples >= 64, (from, to) -> {
             long[] x = new long[k];
             long[] y = new long[k];
@@ -392,8 +413,66 @@ final class DistanceInterval {
             }
         });
         Arrays.sort(out);
-        cache.put(d, out);
         return out;
+    }
+
+    /**
+     * Draws whose shots are few beside the cells: the same draws as the dense loop of
+     * {@link #draws} (same generators, same counts), but each distance summed over the cells
+     * the draws reached only, the untouched cells' share of the prediction added as one sum,
+     * and only those cells cleared, so a draw costs its shots instead of every cell (at 16
+     * qubits and 10,000 shots, 65,536 cells: the dense loop took two thirds of a comparison's
+     * 2.7 s). The sums run in another order than the dense loop's, so a distance may differ
+     * from it in the last bits.
+     */
+    private void sparseDraws(MultinomialSampler xs, MultinomialSampler ys, double[] center,
+            double[] out) {
+        final double n = shots;
+        final double m = predictionShots;
+        double all = 0;
+        for (int i = 0; i < k; i++) {
+            all += center[i];
+        }
+        final double centerSum = all;
+        Parallel.forRange(threads, resamples, resamples >= 64, (from, to) -> {
+            long[] x = new long[k];
+            long[] y = new long[k];
+            int[] tx = new int[(int) Math.min(k, shots) + 1];
+            int[] ty = new int[(int) Math.min(k, predictionShots) + 1];
+            for (long j = from; j < to; j++) {
+                MultinomialSampler.SplitMix rng = MultinomialSampler.SplitMix.forDraw(seed, j);
+                int cx = xs.draw(rng, x, tx);
+                double s = 0;
+                if (ys != null) {
+                    int cy = ys.draw(rng, y, ty);
+                    for (int a = 0; a < cx; a++) {
+                        int i = tx[a];
+                        s += Math.abs(x[i] / n - y[i] / m);
+                    }
+                    for (int a = 0; a < cy; a++) {
+                        int i = ty[a];
+                        if (x[i] == 0) {
+                            s += y[i] / m;
+                        }
+                    }
+                    for (int a = 0; a < cy; a++) {
+                        y[ty[a]] = 0;
+                    }
+                } else {
+                    double rest = centerSum;
+                    for (int a = 0; a < cx; a++) {
+                        int i = tx[a];
+                        s += Math.abs(x[i] / n - center[i]);
+                        rest -= center[i];
+                    }
+                    s += Math.max(0, rest);
+                }
+                for (int a = 0; a < cx; a++) {
+                    x[tx[a]] = 0;
+                }
+                out[(int) j] = 0.5 * s;
+            }
+        });
     }
 
     /** The reference pair {@code {p_d, q_d}} at candidate distance {@code d}. */

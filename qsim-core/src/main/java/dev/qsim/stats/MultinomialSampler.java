@@ -177,6 +177,56 @@ final class MultinomialSampler {
         }
     }
 
+    /**
+     * As {@link #draw(SplitMix, long[])}, the same counts from the same generator, and also
+     * lists each cell the draw makes non-zero in {@code touched} (at least
+     * {@code min(k, shots) + 1} long: each step writes a slot before it knows whether the
+     * cell is new), once, in the order first reached.
+     *
+     * @return how many cells were listed
+     */
+    int draw(SplitMix rng, long[] out, int[] touched) {
+        int k = cells.length;
+        if (k == 0) {
+            return 0;
+        }
+        int t = 0;
+        long left = shots;
+        int j = 0;
+        for (; j < split && j < k - 1 && left > 0; j++) {
+            double prob = tail[j] > 0 ? Math.min(1, p[cells[j]] / tail[j]) : 1;
+            long x = binomial(rng, left, prob);
+            int cell = cells[j];
+            touched[t] = cell;
+            t += out[cell] == 0 && x > 0 ? 1 : 0;
+            out[cell] += x;
+            left -= x;
+        }
+        if (left == 0) {
+            return t;
+        }
+        if (j == k - 1) {
+            int cell = cells[j];
+            touched[t] = cell;
+            t += out[cell] == 0 ? 1 : 0;
+            out[cell] += left;
+            return t;
+        }
+        int width = alias.length;
+        for (long s = 0; s < left; s++) {
+            double u = rng.nextDouble() * width;
+            int c = (int) u;
+            if (c >= width) {
+                c = width - 1;
+            }
+            int own = (int) (Double.doubleToRawLongBits(u - c - aliasCut[c]) >>> 63);
+            int cell = target[(c << 1) | own];
+            touched[t] = cell;
+            t += out[cell]++ == 0 ? 1 : 0;
+        }
+        return t;
+    }
+
     /** A binomial variate {@code Bin(n, prob)}. */
     static long binomial(SplitMix rng, long n, double prob) {
         if (n <= 0 || prob <= 0) {

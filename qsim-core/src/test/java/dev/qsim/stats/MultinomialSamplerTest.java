@@ -103,6 +103,74 @@ class MultinomialSamplerTest {
     }
 
     @Test
+    void aDrawListingItsCellsGivesTheSameCountsAndListsEachNonZeroCellOnce() {
+        // Same generator, same counts: the listing variant must not change a draw. Every cell
+        // with a non-zero count is listed exactly once (definition of the list).
+        java.util.SplittableRandom r = new java.util.SplittableRandom(5);
+        for (int trial = 0; trial < 20; trial++) {
+            int k = 1 + r.nextInt(3000);
+            double[] p = new double[k];
+            for (int i = 0; i < k; i++) {
+                p[i] = r.nextInt(4) == 0 ? 0 : r.nextDouble();
+            }
+            p[r.nextInt(k)] += 1e-3;
+            double sum = Arrays.stream(p).sum();
+            for (int i = 0; i < k; i++) {
+                p[i] /= sum;
+            }
+            long shots = 1 + r.nextInt(2000);
+            MultinomialSampler m = new MultinomialSampler(p, shots);
+            long[] a = new long[k];
+            long[] b = new long[k];
+            int[] touched = new int[(int) Math.min(k, shots) + 1];
+            m.draw(MultinomialSampler.SplitMix.forDraw(trial, 7), a);
+            int listed = m.draw(MultinomialSampler.SplitMix.forDraw(trial, 7), b, touched);
+            assertArrayEquals(a, b, "trial " + trial);
+            boolean[] seen = new boolean[k];
+            for (int t = 0; t < listed; t++) {
+                assertTrue(b[touched[t]] > 0, "listed cell " + touched[t] + " is empty");
+                assertTrue(!seen[touched[t]], "cell " + touched[t] + " listed twice");
+                seen[touched[t]] = true;
+            }
+            for (int i = 0; i < k; i++) {
+                assertEquals(b[i] > 0, seen[i], "trial " + trial + ", cell " + i);
+            }
+        }
+    }
+
+    @Test
+    void summingOnlyTheReachedCellsGivesTheDenseDistances() {
+        // TVD(x/n, c) = 1/2 sum |x_i/n - c_i|; cells with x_i = 0 add c_i, so the sum over the
+        // reached cells plus the rest of c's mass is the same number (definition of the total
+        // variation distance, common practice), up to the order of the additions. With and
+        // without prediction shots, 4,096 cells and 300 shots.
+        java.util.SplittableRandom r = new java.util.SplittableRandom(11);
+        int k = 4096;
+        long[] counts = new long[k];
+        double[] q = new double[k];
+        for (int i = 0; i < k; i++) {
+            q[i] = r.nextDouble();
+        }
+        double qs = Arrays.stream(q).sum();
+        for (int i = 0; i < k; i++) {
+            q[i] /= qs;
+        }
+        for (int s = 0; s < 300; s++) {
+            counts[r.nextInt(k / 2)]++;
+        }
+        for (long m : new long[] {0, 400}) {
+            DistanceInterval iv = new DistanceInterval(counts, q, 300, m, k, 0.95, 200, 3, 2);
+            for (double d : new double[] {0, 0.1, iv.observed() / 2, iv.observed()}) {
+                double[] dense = iv.distances(d, false);
+                double[] sparse = iv.distances(d, true);
+                for (int j = 0; j < dense.length; j++) {
+                    assertEquals(dense[j], sparse[j], 1e-12, "M " + m + ", d " + d + ", " + j);
+                }
+            }
+        }
+    }
+
+    @Test
     void theReferenceAtEachCandidateLiesAtThatDistance() {
         // The fitted reference p_d must be a distribution at total variation distance exactly d
         // from the prediction (definition of the family), and at d = TVD(f, q) it is the tally's
