@@ -144,46 +144,16 @@ final class MultinomialSampler {
      * Adds one draw's counts to {@code out} (length {@code p.length}, cleared by the caller).
      */
     void draw(SplitMix rng, long[] out) {
-        int k = cells.length;
-        if (k == 0) {
-            return;
-        }
-        long left = shots;
-        int j = 0;
-        for (; j < split && j < k - 1 && left > 0; j++) {
-            double prob = tail[j] > 0 ? Math.min(1, p[cells[j]] / tail[j]) : 1;
-            long x = binomial(rng, left, prob);
-            out[cells[j]] += x;
-            left -= x;
-        }
-        if (left == 0) {
-            return;
-        }
-        if (j == k - 1) {
-            out[cells[j]] += left;
-            return;
-        }
-        int width = alias.length;
-        for (long s = 0; s < left; s++) {
-            double u = rng.nextDouble() * width;
-            int c = (int) u;
-            if (c >= width) {
-                c = width - 1;
-            }
-            // Branch-free choice (the comparison is a coin flip the processor cannot predict):
-            // the sign bit of (fraction - cut) is 1 exactly when the column keeps its own cell.
-            int own = (int) (Double.doubleToRawLongBits(u - c - aliasCut[c]) >>> 63);
-            out[target[(c << 1) | own]]++;
-        }
+        draw(rng, out, null);
     }
 
     /**
-     * As {@link #draw(SplitMix, long[])}, the same counts from the same generator, and also
-     * lists each cell the draw makes non-zero in {@code touched} (at least
+     * As {@link #draw(SplitMix, long[])}, the same counts from the same generator, and, unless
+     * {@code touched} is null, lists each cell the draw makes non-zero in it (at least
      * {@code min(k, shots) + 1} long: each step writes a slot before it knows whether the
      * cell is new), once, in the order first reached.
      *
-     * @return how many cells were listed
+     * @return how many cells were listed (0 when {@code touched} is null)
      */
     int draw(SplitMix rng, long[] out, int[] touched) {
         int k = cells.length;
@@ -197,8 +167,10 @@ final class MultinomialSampler {
             double prob = tail[j] > 0 ? Math.min(1, p[cells[j]] / tail[j]) : 1;
             long x = binomial(rng, left, prob);
             int cell = cells[j];
-            touched[t] = cell;
-            t += out[cell] == 0 && x > 0 ? 1 : 0;
+            if (touched != null) {
+                touched[t] = cell;
+                t += out[cell] == 0 && x > 0 ? 1 : 0;
+            }
             out[cell] += x;
             left -= x;
         }
@@ -207,8 +179,10 @@ final class MultinomialSampler {
         }
         if (j == k - 1) {
             int cell = cells[j];
-            touched[t] = cell;
-            t += out[cell] == 0 ? 1 : 0;
+            if (touched != null) {
+                touched[t] = cell;
+                t += out[cell] == 0 ? 1 : 0;
+            }
             out[cell] += left;
             return t;
         }
@@ -219,10 +193,15 @@ final class MultinomialSampler {
             if (c >= width) {
                 c = width - 1;
             }
+            // Branch-free choice (the comparison is a coin flip the processor cannot predict):
+            // the sign bit of (fraction - cut) is 1 exactly when the column keeps its own cell.
             int own = (int) (Double.doubleToRawLongBits(u - c - aliasCut[c]) >>> 63);
             int cell = target[(c << 1) | own];
-            touched[t] = cell;
-            t += out[cell]++ == 0 ? 1 : 0;
+            if (touched != null) {
+                touched[t] = cell;
+                t += out[cell] == 0 ? 1 : 0;
+            }
+            out[cell]++;
         }
         return t;
     }
