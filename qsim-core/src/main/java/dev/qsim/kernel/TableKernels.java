@@ -162,6 +162,8 @@ final class TableKernels {
         /** Factors, re/im interleaved (complex) or duplicated (real), or null. */
         private final double[] factor;
         private final boolean real;
+        /** Complex factors expanded for the vector loops ({@link LaneKernels#expand}), or null. */
+        private final double[][] expanded;
 
         TablePlan(Amplitudes a, int[] t, GateOp op) {
             super(a);
@@ -179,6 +181,7 @@ final class TableKernels {
                 this.source = null;
                 this.factor = null;
                 this.real = true;
+                this.expanded = null;
                 return;
             }
             final int size = 1 << b;
@@ -219,6 +222,9 @@ final class TableKernels {
                 }
                 this.factor = f;
             }
+            // Only the pure multiplication by complex factors runs on the expanded tables.
+            this.expanded = a.lanes != null && stays && !ones && !isReal
+                    ? LaneKernels.expand(f) : null;
         }
 
         /**
@@ -324,6 +330,8 @@ final class TableKernels {
                     }
                     if (real) {
                         multiply(lanes, psi, off, factor, len);
+                    } else if (expanded != null) {
+                        lanes.scaleByExpanded(psi, off, expanded[0], expanded[1], 1 << b);
                     } else if (lanes != null) {
                         lanes.scaleByTable(psi, off, factor, 1 << b);
                     } else {

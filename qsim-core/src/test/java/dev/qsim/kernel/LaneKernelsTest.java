@@ -206,6 +206,42 @@ class LaneKernelsTest {
     }
 
     /**
+     * Multiplying by an expanded table of complex factors gives the bits the plain table gives,
+     * on the vector loops, their scalar default and the scalar loops' {@code scaleByTable}
+     * (complex multiplication, (a + ib)(c + id) = ac - bd + i(ad + bc), common practice), for
+     * counts with and without a scalar tail and offsets inside an array.
+     */
+    @Test
+    void expandedTablesMultiplyAsThePlainTable() {
+        requireVectorLoops();
+        SplittableRandom r = new SplittableRandom(21);
+        LaneKernels vector = Lanes.kernels();
+        LaneKernels scalar = new ScalarLoops();
+        for (int count : new int[] {1, 3, 4, 5, 16, 67, 256}) {
+            double[] table = new double[2 * count];
+            double[] psi = new double[2 * count + 6];
+            for (int i = 0; i < table.length; i++) {
+                table[i] = r.nextDouble() * 2 - 1;
+            }
+            for (int i = 0; i < psi.length; i++) {
+                psi[i] = r.nextDouble() * 2 - 1;
+            }
+            double[][] ex = LaneKernels.expand(table);
+            double[] plain = psi.clone();
+            scalar.scaleByTable(plain, 4, table, count);
+            double[] fast = psi.clone();
+            vector.scaleByExpanded(fast, 4, ex[0], ex[1], count);
+            double[] slow = psi.clone();
+            scalar.scaleByExpanded(slow, 4, ex[0], ex[1], count);
+            double[] vectorPlain = psi.clone();
+            vector.scaleByTable(vectorPlain, 4, table, count);
+            assertArrayEquals(plain, slow, "scalar default, count " + count);
+            assertArrayEquals(vectorPlain, fast, "vector loops, count " + count);
+            assertArrayEquals(plain, fast, "vector against scalar, count " + count);
+        }
+    }
+
+    /**
      * A dense block of k = 2 to 4 targets (what {@code Fusion} emits) takes the vector k-qubit
      * plan when every target selects whole vectors, and the scalar plan when one lies inside a
      * vector (measured faster there, docs/decisions.md); either way the result is the

@@ -88,6 +88,11 @@ final class VectorLaneKernels extends LaneKernels {
     }
 
     @Override
+    void scaleByExpanded(double[] psi, int off, double[] re2, double[] im2, int count) {
+        VectorPairs.scaleByExpanded(psi, off, re2, im2, count);
+    }
+
+    @Override
     void multiply(double[] psi, int off, double[] f, int len) {
         VectorPairs.multiply(psi, off, f, len);
     }

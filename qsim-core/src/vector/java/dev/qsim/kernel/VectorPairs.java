@@ -578,6 +578,24 @@ final class VectorPairs {
     }
 
     /** See {@link LaneKernels#scaleByTable(double[], int, double[], int)}. */
+    static void scaleByExpanded(double[] psi, int off, double[] re2, double[] im2,
+            int count) {
+        final int len = count << 1;
+        int j = 0;
+        for (; j + L <= len; j += L) {
+            final DoubleVector w = DoubleVector.fromArray(D, psi, off + j);
+            w.mul(DoubleVector.fromArray(D, re2, j))
+                    .add(w.rearrange(SWAP).mul(DoubleVector.fromArray(D, im2, j)))
+                    .intoArray(psi, off + j);
+        }
+        for (; j < len; j += 2) {
+            final double re = psi[off + j];
+            final double im = psi[off + j + 1];
+            psi[off + j] = re * re2[j] + im * im2[j];
+            psi[off + j + 1] = im * re2[j + 1] + re * im2[j + 1];
+        }
+    }
+
     static void scaleByTable(double[] psi, int off, double[] table, int count) {
         final int len = count << 1;
         int j = 0;
