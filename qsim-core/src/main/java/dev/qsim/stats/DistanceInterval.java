@@ -81,7 +81,8 @@ final class DistanceInterval {
 
     /**
      * Draws are summed over the cells they reach only when all their shots number at most the
-     * cells over this (the sparse sum costs about twice the dense one per cell it visits).
+     * cells over this: a margin for the sparse sum's extra work per cell it visits (the list of
+     * cells, scattered reads instead of a stream); chosen, not tuned.
      */
     private static final int SPARSE_SHARE = 4;
 
@@ -436,9 +437,9 @@ final class DistanceInterval {
         final double centerSum = all;
         Parallel.forRange(threads, resamples, resamples >= 64, (from, to) -> {
             long[] x = new long[k];
-            long[] y = new long[k];
+            long[] y = ys != null ? new long[k] : null;
             int[] tx = new int[(int) Math.min(k, shots) + 1];
-            int[] ty = new int[(int) Math.min(k, predictionShots) + 1];
+            int[] ty = ys != null ? new int[(int) Math.min(k, predictionShots) + 1] : null;
             for (long j = from; j < to; j++) {
                 MultinomialSampler.SplitMix rng = MultinomialSampler.SplitMix.forDraw(seed, j);
                 int cx = xs.draw(rng, x, tx);
