@@ -51,6 +51,11 @@ final class TableKernels {
      * same amplitudes, so a table pays only when the state holds many blocks of its size.
      */
     static final int MIN_REUSE_LOG = 5;
+    /**
+     * The most gates one run's scan reads, run gates and gates it lets pass together, so that
+     * planning stays linear in the gates.
+     */
+    static final int MAX_SCAN = 64;
 
     private static final ThreadLocal<double[][]> SCRATCH =
             ThreadLocal.withInitial(() -> new double[MAX_LOG + 1][]);
@@ -62,8 +67,11 @@ final class TableKernels {
      * Replaces each run of at least {@value #MIN_RUN} consecutive diagonal gates, or
      * {@value #MIN_MOVING_RUN} diagonal or monomial gates of which one is not diagonal,
      * whose qubits all have a position, at most {@value #MAX_LOG} of them, the highest position
-     * below {@code limitLog}, by one {@link GateOp#TABLE} gate. Other gates stay as they are,
-     * in order; without such a run the list itself is returned.
+     * below {@code limitLog}, by one {@link GateOp#TABLE} gate. A run may step over gates on
+     * none of its qubits so far (the rotations between a ladder's gates): each of them commutes
+     * with every run gate before it, so it is applied before the merged run instead; a gate on
+     * a qubit of the run, or the {@value #MAX_SCAN}th gate read, ends it. Other gates stay as
+     * they are, in order; without such a run the list itself is returned.
      *
      * @param ops gates in order
      * @param position each qubit's bit in the storage the gates will run on, or -1 when it has
@@ -81,23 +89,47 @@ final class TableKernels {
         }
         List<GateOp> out = null;
         final int size = ops.size();
+        // Per gate of a scan: whether it joins the run (else it is passed: applied before).
+        final boolean[] joins = new boolean[MAX_SCAN];
         int i = 0;
         while (i < size) {
             long qubits = 0;
             boolean moves = false;
+            int members = 0;
             int j = i;
-            while (j < size) {
-                final long q = mergeable(ops.get(j), position, limit);
-                if (q == 0 || Long.bitCount(qubits | q) > MAX_LOG) {
+            while (j < size && j - i < MAX_SCAN) {
+                final GateOp g = ops.get(j);
+                final long q = mergeable(g, position, limit);
+                if (q != 0 && Long.bitCount(qubits | q) <= MAX_LOG) {
+                    qubits |= q;
+                    moves |= g.shape != GateOp.DIAGONAL;
+                    members++;
+                    joins[j - i] = true;
+                } else if (members > 0 && (qubitsOf(g) & qubits) == 0) {
+                    // On other qubits than the run so far: it commutes with every gate of
+                    // the run before it, so it may be applied before the whole run.
+                    joins[j - i] = false;
+                } else {
                     break;
                 }
-                qubits |= q;
-                moves |= ops.get(j).shape != GateOp.DIAGONAL;
                 j++;
             }
-            if (j - i >= (moves ? MIN_MOVING_RUN : MIN_RUN)) {
+            // Gates passed at the end of the scan stay after the run, where they were.
+            while (j > i && !joins[j - 1 - i]) {
+                j--;
+            }
+            if (members >= (moves ? MIN_MOVING_RUN : MIN_RUN)) {
                 if (out == null) {
                     out = new ArrayList<>(ops.subList(0, i));
+                }
+                final GateOp[] parts = new GateOp[members];
+                int m = 0;
+                for (int x = i; x < j; x++) {
+                    if (joins[x - i]) {
+                        parts[m++] = ops.get(x);
+                    } else {
+                        out.add(ops.get(x));
+                    }
                 }
                 int[] qs = new int[Long.bitCount(qubits)];
                 for (int x = 0, q = 0; x < qs.length; q++) {
@@ -105,17 +137,28 @@ final class TableKernels {
                         qs[x++] = q;
                     }
                 }
-                out.add(GateOp.table(qs, ops.subList(i, j).toArray(new GateOp[0])));
+                out.add(GateOp.table(qs, parts));
                 i = j;
             } else {
-                int end = Math.max(j, i + 1);
                 if (out != null) {
-                    out.addAll(ops.subList(i, end));
+                    out.add(ops.get(i));
                 }
-                i = end;
+                i++;
             }
         }
         return out == null ? ops : out;
+    }
+
+    /** Every qubit a gate acts on, targets and controls. */
+    private static long qubitsOf(GateOp op) {
+        long q = 0;
+        for (int t : op.targets) {
+            q |= 1L << t;
+        }
+        for (int c : op.controls) {
+            q |= 1L << c;
+        }
+        return q;
     }
 
     /**

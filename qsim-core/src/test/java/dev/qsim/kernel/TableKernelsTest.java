@@ -160,6 +160,42 @@ class TableKernelsTest {
     }
 
     @Test
+    void laddersWithRotationsBetweenTheirGatesMergeAndEqualTheReference() {
+        // A layer as circuits write it: each controlled phase of the ladder follows a rotation
+        // on the next qubit, which no gate of the ladder so far touches, so the run steps over
+        // it (the rotation is applied first). 20 qubits, chunks of 2^14: the ladder crosses
+        // windows and cache blocks.
+        int n = 20;
+        SplittableRandom r = new SplittableRandom(47);
+        double[] in = KernelsTest.randomVector(n, r);
+        double[] expected = in.clone();
+        List<GateOp> ops = new ArrayList<>();
+        List<double[]> matrices = new ArrayList<>();
+        for (int layer = 0; layer < 3; layer++) {
+            for (int q = 0; q + 1 < n; q++) {
+                double a = r.nextDouble(0, 2 * Math.PI);
+                double b = r.nextDouble(0, 2 * Math.PI);
+                // RZ(2a) RY(2b) up to a phase: unitary, complex, every entry non-zero.
+                double[] u = {Math.cos(b) * Math.cos(a), -Math.cos(b) * Math.sin(a), -Math.sin(b),
+                    0, Math.sin(b), 0, Math.cos(b) * Math.cos(a), Math.cos(b) * Math.sin(a)};
+                ops.add(new GateOp(GateOp.DENSE, new int[] {q + 1}, NONE, u, null));
+                matrices.add(u);
+                double phi = r.nextDouble(0, 2 * Math.PI);
+                ops.add(new GateOp(GateOp.DIAGONAL, new int[] {q + 1}, new int[] {q},
+                        new double[] {1, 0, Math.cos(phi), Math.sin(phi)}, null));
+                matrices.add(new double[] {1, 0, 0, 0, 0, 0, Math.cos(phi), Math.sin(phi)});
+            }
+        }
+        for (int g = 0; g < ops.size(); g++) {
+            expected = KernelsTest.reference(expected, n, ops.get(g).targets, ops.get(g).controls,
+                    matrices.get(g));
+        }
+        assertTrue(merged(ops, n, 14) > 0, "the ladders merge across their rotations");
+        KernelsTest.assertExecutes(expected, in, n, 14, false, ops, 1);
+        KernelsTest.assertExecutes(expected, in, n, 14, false, ops, 2);
+    }
+
+    @Test
     void laddersThroughTheFrameEqualTheReference() {
         // The shapes the planner meets most: RZ phases kept in the lazy frame, then a CZ ladder
         // and a CNOT ladder whose targets carry those phases (so the CNOTs arrive with phases),
@@ -273,5 +309,22 @@ class TableKernelsTest {
         // A table must serve 2^5 blocks: 13 bits of a 17-qubit state serve only 16.
         assertEquals(3, TableKernels.mergeRuns(ladder, high, 13, 17).size());
         assertEquals(1, TableKernels.mergeRuns(ladder, high, 13, 18).size());
+        // Gates on other qubits than the run so far are stepped over and applied first; gates
+        // stepped over at the end of the run stay after it.
+        GateOp h3 = new GateOp(GateOp.DENSE, new int[] {3}, NONE, h, null);
+        GateOp h2 = new GateOp(GateOp.DENSE, new int[] {2}, NONE, h, null);
+        GateOp h5 = new GateOp(GateOp.DENSE, new int[] {5}, NONE, h, null);
+        List<GateOp> stepped = TableKernels.mergeRuns(List.of(cz01, h3, h2, cz12, cz23, h5),
+                position, 8, 20);
+        assertEquals(List.of(h3, h2), stepped.subList(0, 2));
+        assertEquals(GateOp.TABLE, stepped.get(2).shape());
+        assertEquals(List.of(cz01, cz12, cz23), Arrays.asList(stepped.get(2).parts));
+        assertSame(h5, stepped.get(3));
+        assertEquals(4, stepped.size());
+        // A gate on a qubit of the run ends it: h on qubit 1 after CZ(0, 1) leaves two runs of
+        // fewer than three gates, so nothing merges.
+        GateOp h1 = new GateOp(GateOp.DENSE, new int[] {1}, NONE, h, null);
+        List<GateOp> blocked = List.of(cz01, h1, cz12, cz23);
+        assertSame(blocked, TableKernels.mergeRuns(blocked, position, 8, 20));
     }
 }
