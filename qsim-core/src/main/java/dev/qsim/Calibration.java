@@ -46,7 +46,7 @@ import dev.qsim.kernel.Workload;
  */
 public final class Calibration {
     /** The file format's version; a file of another version is ignored, with the reason. */
-    public static final int FORMAT = 8;
+    public static final int FORMAT = 9;
     /** System property naming the folder of the calibration file (tests use a temporary one). */
     public static final String FOLDER_PROPERTY = "qsim.config.dir";
     /** The calibration file's name inside the folder. */
@@ -68,7 +68,7 @@ public final class Calibration {
     private static final String[] KEYS = {"dense1", "dense1-controlled", "dense2", "dense3",
         "dense4", "diagonal", "permutation", "block-group", "window-group", "float1", "phases",
         "copy", "measure", "sample", "reduce", "window-group-double", "dense1-half",
-        "table-diagonal", "table-gather", "dense1-half-pair", "block-gate"};
+        "table-diagonal", "table-gather", "dense1-half-pair", "table-complex", "block-gate"};
     /** The rate row of one more dense 1-qubit gate in a cache-blocked group, per amplitude. */
     private static final int BLOCK_GATE = Workload.KINDS;
     private static final int ROWS = Workload.KINDS + 1;

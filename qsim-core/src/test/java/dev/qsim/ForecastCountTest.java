@@ -97,6 +97,33 @@ class ForecastCountTest {
     }
 
     @Test
+    void laddersOfDiagonalGatesAreOneMergedRunInCache() {
+        // A ladder of five controlled phases on qubits 0 to 5, each after an H on its target
+        // (which no earlier gate of the ladder touches, so the run steps over it): all below
+        // the cache block, one blocked group; the ladder merges into one table of complex
+        // factors, one unit of the state in cache; the five H gates stay (half arithmetic,
+        // real), two pairs and one alone. The same ladder of CZ gates: a table of real factors.
+        for (boolean phases : new boolean[] {true, false}) {
+            Circuit.Builder b = Circuit.builder(N);
+            for (int q = 0; q < 5; q++) {
+                b.h(q + 1);
+                if (phases) {
+                    b.cphase(q, q + 1, 0.4);
+                } else {
+                    b.cz(q, q + 1);
+                }
+            }
+            Workload w = only(sv(b.measure().build(), 10, false));
+            assertEquals(1, w.passes(Workload.BLOCK_STREAM), "one group");
+            assertEquals(phases ? 1 : 0, w.cached(Workload.TABLE_COMPLEX), "complex run");
+            assertEquals(phases ? 0 : 1, w.cached(Workload.TABLE_DIAGONAL), "real run");
+            assertEquals(0, w.cached(Workload.DIAGONAL), "no lone diagonal gate");
+            assertEquals(5, w.cached(Workload.DENSE1_HALF) + 2 * w.cached(
+                    Workload.DENSE1_HALF_PAIR), "the five H gates");
+        }
+    }
+
+    @Test
     void shotByShotCountsThePrefixOnceAndTheRestPerShot() {
         // h(15), measure(15 -> 0), h(15): the gate after the measurement makes it shot by shot.
         // The prefix once (1 dense pass, 1 copy made); per shot a copy of the prefix state, one

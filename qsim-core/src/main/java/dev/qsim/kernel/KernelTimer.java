@@ -142,11 +142,12 @@ public final class KernelTimer {
                     units = 0.5;
                     break;
                 case Workload.TABLE_DIAGONAL:
+                case Workload.TABLE_COMPLEX:
                 case Workload.TABLE_GATHER: {
                     // A ladder on the low qubits (up to a window's); its tables are built once,
                     // as a run builds them once for all the windows of a group.
-                    step[r] = planned(a, ladder(Math.min(n, TableKernels.MAX_LOG),
-                            kind == Workload.TABLE_GATHER), threads);
+                    step[r] = planned(a, ladder(Math.min(n, TableKernels.MAX_LOG), kind),
+                            threads);
                     break;
                 }
                 case Workload.BLOCK_STREAM: {
@@ -325,19 +326,26 @@ public final class KernelTimer {
     /** Gates in the longer group of {@link #blockGateNanos}. */
     private static final int LONG_GROUP = 40;
 
-    /** A merged ladder of CZ (or CNOT) gates on qubits 0 to k - 1. */
-    private static GateOp ladder(int k, boolean flips) {
+    /**
+     * A merged ladder on qubits 0 to k - 1: of CZ gates ({@link Workload#TABLE_DIAGONAL}), of
+     * controlled phases of angles 0.3 to 0.3 (k - 1) ({@link Workload#TABLE_COMPLEX}), or of
+     * CNOT gates ({@link Workload#TABLE_GATHER}).
+     */
+    private static GateOp ladder(int k, int kind) {
         GateOp[] parts = new GateOp[k - 1];
         int[] qs = new int[k];
         for (int q = 0; q < k; q++) {
             qs[q] = q;
         }
         for (int q = 0; q + 1 < k; q++) {
-            parts[q] = flips
+            double angle = 0.3 * (q + 1);
+            parts[q] = kind == Workload.TABLE_GATHER
                     ? new GateOp(GateOp.MONOMIAL, new int[] {q + 1}, new int[] {q},
                             new double[] {1, 0, 1, 0}, new int[] {1, 0})
                     : new GateOp(GateOp.DIAGONAL, new int[] {q + 1}, new int[] {q},
-                            new double[] {1, 0, -1, 0}, null);
+                            kind == Workload.TABLE_COMPLEX
+                                    ? new double[] {1, 0, Math.cos(angle), Math.sin(angle)}
+                                    : new double[] {1, 0, -1, 0}, null);
         }
         return GateOp.table(qs, parts);
     }
@@ -352,6 +360,7 @@ public final class KernelTimer {
             case Workload.COPY:
             case Workload.SAMPLE:
             case Workload.TABLE_DIAGONAL:
+            case Workload.TABLE_COMPLEX:
             case Workload.TABLE_GATHER:
                 return false;
             default:

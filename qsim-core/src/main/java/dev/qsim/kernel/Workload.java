@@ -67,8 +67,15 @@ public final class Workload {
      * cache ({@link GatePairs}, vector loops only), per amplitude of the state and pair.
      */
     public static final int DENSE1_HALF_PAIR = 19;
+    /**
+     * Kind: a run of diagonal gates with complex factors (phases other than 1 and -1) merged
+     * into one multiplication by a table of complex factors, per amplitude of the state: twice
+     * the arithmetic of a table of real factors, and on the vector loops an exchange of each
+     * amplitude's parts (a CZ ladder's table is real, a ladder of controlled phases complex).
+     */
+    public static final int TABLE_COMPLEX = 20;
     /** The number of kinds. */
-    public static final int KINDS = 20;
+    public static final int KINDS = 21;
 
     private static final String[] NAMES = {"dense 1-qubit", "controlled dense 1-qubit",
         "dense 2-qubit", "dense 3-qubit", "dense 4-qubit", "diagonal", "permutation",
@@ -76,7 +83,7 @@ public final class Workload {
         "single-precision 1-qubit", "frame phases", "state copy", "measurement or reset",
         "sampling", "reduced state", "double-precision window stream",
         "dense 1-qubit, half arithmetic", "merged diagonal run", "merged permutation run",
-        "paired dense 1-qubit, half arithmetic"};
+        "paired dense 1-qubit, half arithmetic", "merged diagonal run, complex factors"};
 
     private final int qubits;
     private final boolean single;
@@ -129,13 +136,16 @@ public final class Workload {
                 return DIAGONAL;
             case GateOp.MONOMIAL:
                 return PERMUTATION;
-            case GateOp.TABLE:
+            case GateOp.TABLE: {
+                boolean complex = false;
                 for (GateOp part : op.parts) {
                     if (part.shape != GateOp.DIAGONAL) {
                         return TABLE_GATHER;
                     }
+                    complex |= hasImaginary(part.data);
                 }
-                return TABLE_DIAGONAL;
+                return complex ? TABLE_COMPLEX : TABLE_DIAGONAL;
+            }
             default:
                 if (k == 1) {
                     if (op.controls.length > 0) {
@@ -146,6 +156,19 @@ public final class Workload {
                 }
                 return Math.min(k, 4);
         }
+    }
+
+    /** Whether a gate's entries have an imaginary part (its table's factors are complex). */
+    private static boolean hasImaginary(double[] data) {
+        if (data == null) {
+            return false;
+        }
+        for (int j = 1; j < data.length; j += 2) {
+            if (data[j] != 0) {
+                return true;
+            }
+        }
+        return false;
     }
 
     /**
