@@ -46,7 +46,7 @@ import dev.qsim.kernel.Workload;
  */
 public final class Calibration {
     /** The file format's version; a file of another version is ignored, with the reason. */
-    public static final int FORMAT = 9;
+    public static final int FORMAT = 10;
     /** System property naming the folder of the calibration file (tests use a temporary one). */
     public static final String FOLDER_PROPERTY = "qsim.config.dir";
     /** The calibration file's name inside the folder. */
@@ -98,6 +98,8 @@ public final class Calibration {
     private final double[][][] rates;
     private final double shotNanos;
     private final double shotBitNanos;
+    /** Nanoseconds to build a merged run's tables, per entry and gate. */
+    private final double tableNanos;
     private final double planNanos;
     private final double fuseNanos;
     /** The tableau's and the matrix product state's rates, measured when first asked for. */
@@ -144,7 +146,8 @@ public final class Calibration {
     private Calibration(Source source, Instant made, String kernels, int processors, int[] sizes,
             double[][][] rates, double[] other, String note) {
         this(source, made, kernels, processors, sizes, rates, new double[] {other[0], other[1]},
-                new double[] {other[2 + TableauCost.TERMS], other[3 + TableauCost.TERMS]},
+                new double[] {other[2 + TableauCost.TERMS], other[3 + TableauCost.TERMS],
+                    other[5 + TableauCost.TERMS]},
                 new Extras(Arrays.copyOfRange(other, 2, 2 + TableauCost.TERMS),
                         other[4 + TableauCost.TERMS]), note);
     }
@@ -162,6 +165,7 @@ public final class Calibration {
         this.shotBitNanos = shot[1];
         this.planNanos = plan[0];
         this.fuseNanos = plan[1];
+        this.tableNanos = plan[2];
         this.extras = extras;
         this.note = note;
     }
@@ -304,7 +308,7 @@ public final class Calibration {
         Calibration q = quickProbe();
         return new Calibration(q.source, q.made, q.kernels, q.processors, q.sizes, q.rates,
                 new double[] {q.shotNanos, q.shotBitNanos}, new double[] {q.planNanos,
-                    q.fuseNanos}, q.extras, why);
+                    q.fuseNanos, q.tableNanos}, q.extras, why);
     }
 
     /**
@@ -569,7 +573,7 @@ public final class Calibration {
 
     private double[] others() {
         return others(new double[] {shotNanos, shotBitNanos}, extras.tableau(),
-                new double[] {planNanos, fuseNanos}, extras.mps());
+                new double[] {planNanos, fuseNanos, tableNanos}, extras.mps());
     }
 
     /** The values of {@link #OTHER_KEYS} in order. */
@@ -581,23 +585,30 @@ public final class Calibration {
         o[2 + TableauCost.TERMS] = plan[0];
         o[3 + TableauCost.TERMS] = plan[1];
         o[4 + TableauCost.TERMS] = mps;
+        o[5 + TableauCost.TERMS] = plan[2];
         return o;
     }
 
     private static String[] otherKeys() {
-        String[] k = new String[TABLEAU_KEYS.length + 5];
+        String[] k = new String[TABLEAU_KEYS.length + 6];
         k[0] = "shot";
         k[1] = "shot.bit";
         System.arraycopy(TABLEAU_KEYS, 0, k, 2, TABLEAU_KEYS.length);
         k[2 + TABLEAU_KEYS.length] = "plan.gate";
         k[3 + TABLEAU_KEYS.length] = "fuse.gate";
         k[4 + TABLEAU_KEYS.length] = "mps.unit";
+        k[5 + TABLEAU_KEYS.length] = "table.entry";
         return k;
     }
 
     /** Nanoseconds to plan one gate (frame, conjugation, kernel layout), beyond its passes. */
     double planNanos() {
         return planNanos;
+    }
+
+    /** Nanoseconds to build a merged run's tables, per entry and gate. */
+    double tableNanos() {
+        return tableNanos;
     }
 
     /** Nanoseconds per gate read by gate fusion (grouping and multiplying matrices). */

@@ -141,6 +141,7 @@ final class CostModel {
         double[] passes = new double[Workload.KINDS];
         double[] inCache = new double[Workload.KINDS];
         double planning = 0;
+        double tables = 0;
         List<String> lines = new ArrayList<>();
         for (EngineWork.Part p : e.parts()) {
             Workload w = p.work();
@@ -164,12 +165,17 @@ final class CostModel {
             int busy = Math.max(1, Math.min(p.workers(), cal.processors()));
             planning += p.times() * (w.planned() * cal.planNanos() + w.fused()
                     * cal.fuseNanos()) / busy;
+            tables += p.times() * w.tableWork() * cal.tableNanos() / busy;
         }
         if (planning > 0) {
             lines.add(String.format(Locale.ROOT, "planning and fusing the gates: %s",
                     RunCost.secondsText(planning * 1e-9)));
         }
-        double total = planning;
+        if (tables > 0) {
+            lines.add(String.format(Locale.ROOT, "building the merged runs' tables: %s",
+                    RunCost.secondsText(tables * 1e-9)));
+        }
+        double total = planning + tables;
         double totalPasses = 0;
         for (int k = 0; k < Workload.KINDS; k++) {
             total += nanos[k] + cacheNanos[k];

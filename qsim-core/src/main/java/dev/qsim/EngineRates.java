@@ -256,7 +256,8 @@ final class EngineRates {
      * Nanoseconds to plan one gate (with the run's check of the circuit and choice of engine,
      * {@link Simulator#explain}), and to fuse one gate, on a random 16-qubit circuit of
      * rotation layers with CZ and CNOT gates (the planning is timed on a storage without
-     * amplitudes, so no pass is included).
+     * amplitudes, so no pass is included), and to build a merged run's tables, per entry and
+     * gate ({@link dev.qsim.kernel.KernelTimer#tableBuildNanos}).
      */
     static double[] planNanos(long nanos) {
         UniformRandomProvider rng = RandomSource.XO_RO_SHI_RO_128_PP.create(29L);
@@ -283,7 +284,8 @@ final class EngineRates {
         Circuit c = b.build();
         Simulator sim = Simulator.seeded(1);
         double choose = best(() -> sim.explain(c, 1000), nanos) / gates.size();
-        return new double[] {plan + choose, fuse};
+        double table = dev.qsim.kernel.KernelTimer.tableBuildNanos(nanos);
+        return new double[] {plan + choose, fuse, table};
     }
 
     static double best(Runnable r, long nanos) {

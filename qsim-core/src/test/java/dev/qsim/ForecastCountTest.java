@@ -120,6 +120,9 @@ class ForecastCountTest {
             assertEquals(0, w.cached(Workload.DIAGONAL), "no lone diagonal gate");
             assertEquals(5, w.cached(Workload.DENSE1_HALF) + 2 * w.cached(
                     Workload.DENSE1_HALF_PAIR), "the five H gates");
+            // Its table covers blocks of 2^6 amplitudes (qubits 0 to 5, and the smallest
+            // block is 2^6): 64 entries through each of the five gates, built once.
+            assertEquals(64 * 5, w.tableWork(), "table building");
         }
     }
 

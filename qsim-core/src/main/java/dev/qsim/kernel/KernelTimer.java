@@ -323,6 +323,23 @@ public final class KernelTimer {
         return Math.max(0.5 * t[1] / LONG_GROUP, per) / Math.scalb(1.0, n);
     }
 
+    /**
+     * Returns the time of building a merged run's tables, per entry and gate
+     * ({@link Workload#tableWork()}): a ladder of controlled phases on a window's qubits, as
+     * the planner builds it for each group (the median of repeated builds).
+     *
+     * @param minNanos how long to keep timing, at least
+     * @return nanoseconds per entry and gate
+     */
+    public static double tableBuildNanos(long minNanos) {
+        int w = Windows.WINDOW_LOG;
+        Amplitudes a = Amplitudes.allocate(w);
+        GateOp op = ladder(w, Workload.TABLE_COMPLEX);
+        Runnable[] step = {() -> op.plan(a)};
+        return roundNanos(step, minNanos, false)
+                / TableKernels.buildWork(op, Windows.identity(w), w);
+    }
+
     /** Gates in the longer group of {@link #blockGateNanos}. */
     private static final int LONG_GROUP = 40;
 

@@ -186,6 +186,25 @@ final class TableKernels {
     }
 
     /**
+     * The work of building a merged run's tables, in entries times gates: each of the
+     * {@code 2^b} entries of a table over a block of {@code 2^b} amplitudes goes through every
+     * gate of the run ({@code TablePlan}), at a few nanoseconds each, once per group.
+     *
+     * @param op the merged run ({@link GateOp#TABLE})
+     * @param position each qubit's bit in the storage the run is planned on
+     * @param storageLog log2 of the amplitudes of that storage (a window's or the state's)
+     * @return entries times gates
+     */
+    static double buildWork(GateOp op, int[] position, int storageLog) {
+        int top = 0;
+        for (int q : op.targets) {
+            top = Math.max(top, position[q] + 1);
+        }
+        int b = Math.max(top, Math.min(MIN_BLOCK_LOG, storageLog));
+        return Math.scalb((double) op.parts.length, b);
+    }
+
+    /**
      * Prepares a merged run for a storage.
      *
      * @param a double storage whose chunks hold at least the run's block

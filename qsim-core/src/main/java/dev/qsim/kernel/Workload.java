@@ -93,6 +93,7 @@ public final class Workload {
     private final double[] passes = new double[KINDS];
     private double weight = 1;
     private int phaseTableLog = -1;
+    private double tableWork;
     private double planned;
     private double fused;
 
@@ -307,6 +308,7 @@ public final class Workload {
             passes[k] += other.passes[k] * times;
         }
         phaseTableLog = Math.max(phaseTableLog, other.phaseTableLog);
+        tableWork += other.tableWork * times;
         planned += other.planned * times;
         fused += other.fused * times;
         return this;
@@ -378,6 +380,16 @@ public final class Workload {
     }
 
     /**
+     * Returns the work of building the merged runs' tables ({@link TableKernels}): for each
+     * run, the entries of its table times its gates, once per group that applies it.
+     *
+     * @return the count, possibly fractional for expected counts
+     */
+    public double tableWork() {
+        return tableWork;
+    }
+
+    /**
      * Returns every pass over memory, of every kind.
      *
      * @return the total pass count
@@ -400,6 +412,7 @@ public final class Workload {
         public void blocked(List<GateOp> ops, Plan[] plans, int blockLog) {
             add(BLOCK_STREAM, weight);
             inCache(ops, GatePairs.starts(phantom.lanes, phantom.chunkLog, ops, null));
+            tables(ops, Windows.identity(qubits), qubits);
         }
 
         @Override
@@ -407,8 +420,18 @@ public final class Workload {
             // A window moves its amplitudes in and out at the storage's precision.
             add(single ? WINDOW_STREAM : WINDOW_STREAM_DOUBLE, weight);
             int wl = low + Long.bitCount(mask >>> low);
-            inCache(ops, GatePairs.starts(phantom.lanes, wl, ops,
-                    Windows.positions(qubits, mask, low)));
+            int[] position = Windows.positions(qubits, mask, low);
+            inCache(ops, GatePairs.starts(phantom.lanes, wl, ops, position));
+            tables(ops, position, wl);
+        }
+
+        /** The building of a group's merged runs' tables, once per group. */
+        private void tables(List<GateOp> ops, int[] position, int storageLog) {
+            for (GateOp op : ops) {
+                if (op.shape == GateOp.TABLE) {
+                    tableWork += TableKernels.buildWork(op, position, storageLog) * weight;
+                }
+            }
         }
 
         /** The kernel work of a group in cache, pairs of gates run in one sweep apart. */
