@@ -200,8 +200,15 @@ final class TableKernels {
         for (int q : op.targets) {
             top = Math.max(top, position[q] + 1);
         }
-        int b = Math.max(top, Math.min(MIN_BLOCK_LOG, storageLog));
-        return Math.scalb((double) op.parts.length, b);
+        return Math.scalb((double) op.parts.length, blockLog(top, storageLog));
+    }
+
+    /**
+     * Log2 of the block a merged run's tables cover: up to its highest bit ({@code top} bits),
+     * at least {@value #MIN_BLOCK_LOG} where the storage's chunks hold that many.
+     */
+    private static int blockLog(int top, int chunkLog) {
+        return Math.max(top, Math.min(MIN_BLOCK_LOG, chunkLog));
     }
 
     /**
@@ -233,7 +240,7 @@ final class TableKernels {
             for (int x : t) {
                 top = Math.max(top, x + 1);
             }
-            this.b = Math.max(top, Math.min(MIN_BLOCK_LOG, Math.min(a.n, a.chunkLog)));
+            this.b = blockLog(top, Math.min(a.n, a.chunkLog));
             if (b > a.chunkLog || b > MAX_LOG) {
                 throw new IllegalStateException("a merged run reaches bit " + (top - 1)
                         + ", above its storage's chunks of 2^" + a.chunkLog + " amplitudes");

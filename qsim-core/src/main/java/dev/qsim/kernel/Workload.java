@@ -412,7 +412,7 @@ public final class Workload {
         public void blocked(List<GateOp> ops, Plan[] plans, int blockLog) {
             add(BLOCK_STREAM, weight);
             inCache(ops, GatePairs.starts(phantom.lanes, phantom.chunkLog, ops, null));
-            tables(ops, Windows.identity(qubits), qubits);
+            tables(ops, null, Math.min(qubits, phantom.chunkLog));
         }
 
         @Override
@@ -425,11 +425,18 @@ public final class Workload {
             tables(ops, position, wl);
         }
 
-        /** The building of a group's merged runs' tables, once per group. */
+        /**
+         * The building of a group's merged runs' tables, once per group; {@code position} null
+         * for a cache-blocked group, whose qubits are their own bits.
+         */
         private void tables(List<GateOp> ops, int[] position, int storageLog) {
+            int[] at = position;
             for (GateOp op : ops) {
                 if (op.shape == GateOp.TABLE) {
-                    tableWork += TableKernels.buildWork(op, position, storageLog) * weight;
+                    if (at == null) {
+                        at = Windows.identity(qubits);
+                    }
+                    tableWork += TableKernels.buildWork(op, at, storageLog) * weight;
                 }
             }
         }
