@@ -143,6 +143,8 @@ public final class Workload {
                     if (part.shape != GateOp.DIAGONAL) {
                         return TABLE_GATHER;
                     }
+                    // From the gates, without building the table: a run whose complex factors
+                    // multiply out real (S then S) counts as complex, a rare overestimate.
                     complex |= hasImaginary(part.data);
                 }
                 return complex ? TABLE_COMPLEX : TABLE_DIAGONAL;
