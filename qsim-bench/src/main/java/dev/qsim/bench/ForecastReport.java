@@ -24,11 +24,20 @@ import dev.qsim.Simulator;
  * summary: the share of runs within ±30 % in time, the largest ratio either way, and the
  * largest memory error over runs whose prediction is at least 16 MiB.
  *
+ * <p>The cases run in this JVM, in the set's order, after three seconds of warm-up on the
+ * small cases; {@code --own-jvm} measures each in a JVM of its own instead, started with this
+ * JVM's options and class path, which prices it from the calibration file (or a quick probe
+ * of its own) and not with {@code --fresh}, whose rates live in this JVM only:
+ * what a case measures then does not depend on the cases before it, but on how its own JVM
+ * compiled it ({@code docs/forecast.md}, eighth pass, has what each way measured).
+ *
  * <p>Measured time: the wall time of {@code run(circuit, shots)}, each run with a seed of its
  * own (as a user's runs draw new outcomes); runs predicted under a second are
  * run for five seconds at least and until the median runs of two half-second windows in a row
  * agree within 10 % (at most 20 s: the JIT's warm-up is not part of the forecast), then three
- * times in a row, and the median kept.
+ * times in a row, and the median kept; longer runs are timed once (with {@code --own-jvm},
+ * after the small cases' warm-up and one untimed run of their own: a JVM's first run at a size
+ * pays for memory new to it).
  * Measured memory: the peak of the heap pools that hold long-lived and large objects (under G1,
  * the old generation, where every array of half a region or more goes) above their use after a
  * full collection just before the run; for runs under a second, in three runs of their own (the
@@ -39,10 +48,12 @@ import dev.qsim.Simulator;
  * so that every array of 512 KiB or more (the states, the lazy frame's 1 MiB phase tables) is
  * seen, and says so on standard error when the region is larger. Usage: {@code java -Xmx6g
  * -XX:G1HeapRegionSize=1m -cp qsim-bench.jar dev.qsim.bench.ForecastReport [--max N]
- * [--threads T] [--only TEXT] [--lines] [--fresh] [--csv F] [--svg F]}; {@code --fresh}
+ * [--threads T] [--only TEXT] [--lines] [--fresh] [--own-jvm] [--csv F] [--svg F]};
+ * {@code --fresh}
  * calibrates first (about a minute) instead of using the calibration file; {@code --only}
  * keeps the cases whose name contains the text (for working on a few; the summary is then of
- * those only); {@code --lines} prints each forecast's lines.
+ * those only); {@code --lines} prints each forecast's lines ({@code --case NAME} is internal:
+ * what {@code --own-jvm} starts a case's JVM with).
  */
 public final class ForecastReport {
     private static final long MIB = 1L << 20;
@@ -79,7 +90,9 @@ public final class ForecastReport {
         int threads = Runtime.getRuntime().availableProcessors();
         boolean fresh = false;
         boolean lines = false;
+        boolean own = false;
         String only = "";
+        String child = null;
         Path csv = Paths.get("forecast.csv");
         Path svg = Paths.get("forecast.svg");
         for (int i = 0; i < args.length; i++) {
@@ -90,6 +103,10 @@ public final class ForecastReport {
             }
             if (a.equals("--lines")) {
                 lines = true;
+                continue;
+            }
+            if (a.equals("--own-jvm")) {
+                own = true;
                 continue;
             }
             if (i + 1 >= args.length) {
@@ -112,14 +129,23 @@ public final class ForecastReport {
                 case "--only":
                     only = v;
                     break;
+                case "--case":
+                    child = v;
+                    break;
                 default:
                     throw new IllegalArgumentException("unknown option " + a + "; use --max,"
-                            + " --threads, --only, --lines, --fresh, --csv, --svg");
+                            + " --threads, --only, --lines, --fresh, --own-jvm, --csv, --svg");
             }
+        }
+        if (child != null) {
+            runChild(child, max, threads);
+            return;
         }
         Calibration cal = fresh ? Calibration.measure(System.err::println)
                 : Calibration.current();
         System.err.println("rates: " + cal.describe());
+        // A freshly measured calibration lives in this JVM only, so its cases run here too.
+        own &= !fresh;
         long region = regionBytes();
         if (region > MIB) {
             System.err.println("warning: G1 regions of " + region / MIB + " MiB: arrays under "
@@ -128,7 +154,9 @@ public final class ForecastReport {
                     + " -XX:G1HeapRegionSize=1m");
         }
         List<ForecastSet.Case> cases = ForecastSet.cases(max, threads);
-        warmUp(threads);
+        if (!own) {
+            warmUp(threads);
+        }
         List<Row> rows = new ArrayList<>();
         for (ForecastSet.Case c : cases) {
             if (!c.name().contains(only)) {
@@ -140,7 +168,7 @@ public final class ForecastReport {
                     System.err.println("    " + l);
                 }
             }
-            Row r = measure(c, cal);
+            Row r = own ? inOwnJvm(c, max, threads) : measure(c, cal);
             rows.add(r);
             System.err.printf(Locale.ROOT, "%-34s %-14s predicted %9.4f s measured %9.4f s"
                     + " ratio %5.2f  memory %8.1f / %8.1f MiB%n", r.name(), r.engine(),
@@ -151,6 +179,101 @@ public final class ForecastReport {
         Files.writeString(svg, svg(rows, cal.describe()), StandardCharsets.UTF_8);
         System.out.println(summary(rows));
         System.out.println(planTime(cal, threads));
+    }
+
+    /** How long a case's own JVM may take before it is stopped. */
+    private static final long CHILD_LIMIT_SECONDS = 900;
+
+    /** The first field of the line a case's own JVM prints its result on. */
+    private static final String ROW_TAG = "row";
+
+    /**
+     * Measures one case in a JVM of its own, started with this JVM's options and class path,
+     * so that what it measures does not depend on the cases before it (in one JVM an 18-qubit
+     * single-precision run after the 28-qubit cases took 28 and 34 ms in two reports, 11-13 ms
+     * alone). It does depend on how that JVM compiles the case: a 20-qubit phase circuit took
+     * 43 ms a run in its own JVM, 22 in the shared one.
+     */
+    private static Row inOwnJvm(ForecastSet.Case c, int max, int threads) throws IOException {
+        List<String> cmd = new ArrayList<>();
+        cmd.add(Paths.get(System.getProperty("java.home"), "bin", "java").toString());
+        cmd.addAll(ManagementFactory.getRuntimeMXBean().getInputArguments());
+        cmd.add("-cp");
+        cmd.add(System.getProperty("java.class.path"));
+        cmd.add(ForecastReport.class.getName());
+        cmd.addAll(List.of("--case", c.name(), "--max", Integer.toString(max), "--threads",
+                Integer.toString(threads)));
+        Path result = Files.createTempFile("qsim-forecast-case", ".txt");
+        String out;
+        try {
+            Process p = new ProcessBuilder(cmd).redirectError(ProcessBuilder.Redirect.INHERIT)
+                    .redirectOutput(result.toFile()).start();
+            try {
+                if (!p.waitFor(CHILD_LIMIT_SECONDS, java.util.concurrent.TimeUnit.SECONDS)) {
+                    p.destroyForcibly();
+                    throw new IOException("case '" + c.name() + "' took more than "
+                            + CHILD_LIMIT_SECONDS + " s in its own JVM");
+                }
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                p.destroyForcibly();
+                throw new IOException("interrupted while case '" + c.name() + "' ran", e);
+            }
+            out = Files.readString(result, StandardCharsets.UTF_8) + "\n(exit " + p.exitValue()
+                    + ")";
+        } finally {
+            Files.deleteIfExists(result);
+        }
+        for (String line : out.split("\n")) {
+            if (line.startsWith(ROW_TAG + "\t")) {
+                return parseRow(line);
+            }
+        }
+        throw new IOException("case '" + c.name() + "' gave no result in its own JVM: "
+                + out.strip());
+    }
+
+    /** Runs the case named {@code name} in this JVM and prints its row ({@link #rowLine}). */
+    private static void runChild(String name, int max, int threads) {
+        for (ForecastSet.Case c : ForecastSet.cases(max, threads)) {
+            if (c.name().equals(name)) {
+                Calibration cal = Calibration.current();
+                if (c.simulator().forecast(c.circuit(), c.shots(), cal).seconds() >= 1) {
+                    // Measured in one run, so run once untimed first, as the shorter cases are
+                    // warmed: the JIT compiles the kernels on the small cases, and this JVM's
+                    // first run at this size pays for memory new to it (a 26-qubit phase
+                    // circuit 2.4-2.5 s first, 1.9-2.1 after; 28 qubits 26-28 s, then 21).
+                    warmUp(threads);
+                    fresh(c).run(c.circuit(), c.shots());
+                }
+                System.out.println(rowLine(measure(c, cal)));
+                return;
+            }
+        }
+        throw new IllegalArgumentException("no case named '" + name + "' in the set of up to "
+                + max + " qubits");
+    }
+
+    /** One row as a tab-separated line, every number exact ({@link #parseRow} reads it). */
+    static String rowLine(Row r) {
+        return String.join("\t", ROW_TAG, r.name(), r.engine(), Integer.toString(r.qubits()),
+                Double.toString(r.predicted()), Double.toString(r.measured()),
+                Long.toString(r.predictedBytes()), Long.toString(r.measuredBytes()));
+    }
+
+    /**
+     * Reads a line of {@link #rowLine}.
+     *
+     * @throws IllegalArgumentException if the line is not one
+     */
+    static Row parseRow(String line) {
+        String[] f = line.split("\t", -1);
+        if (f.length != 8 || !f[0].equals(ROW_TAG)) {
+            throw new IllegalArgumentException("not a result line (" + ROW_TAG + " and seven"
+                    + " tab-separated fields): '" + line + "'");
+        }
+        return new Row(f[1], f[2], Integer.parseInt(f[3]), Double.parseDouble(f[4]),
+                Double.parseDouble(f[5]), Long.parseLong(f[6]), Long.parseLong(f[7]));
     }
 
     /**
