@@ -25,7 +25,8 @@ import dev.qsim.kernel.Workload;
  * This machine's measured speeds, which {@link Simulator#forecast(Circuit, int)} uses to turn
  * counted work into time: nanoseconds per amplitude for each kind of pass over memory (dense
  * gates of one to four qubits, diagonal and permutation gates, cache-blocked groups, single
- * precision windows, copies, measurements, sampling) at a few state sizes in and out of cache,
+ * precision windows, copies, measurements, sampling, and a density matrix's gate and channel
+ * passes as that engine makes them) at a few state sizes in and out of cache,
  * on one thread and on every processor; nanoseconds per shot drawn; and the stabilizer
  * tableau's time per word. Immutable and thread-safe.
  *
@@ -46,7 +47,7 @@ import dev.qsim.kernel.Workload;
  */
 public final class Calibration {
     /** The file format's version; a file of another version is ignored, with the reason. */
-    public static final int FORMAT = 10;
+    public static final int FORMAT = 11;
     /** System property naming the folder of the calibration file (tests use a temporary one). */
     public static final String FOLDER_PROPERTY = "qsim.config.dir";
     /** The calibration file's name inside the folder. */
@@ -68,7 +69,8 @@ public final class Calibration {
     private static final String[] KEYS = {"dense1", "dense1-controlled", "dense2", "dense3",
         "dense4", "diagonal", "permutation", "block-group", "window-group", "float1", "phases",
         "copy", "measure", "sample", "reduce", "window-group-double", "dense1-half",
-        "table-diagonal", "table-gather", "dense1-half-pair", "table-complex", "block-gate"};
+        "table-diagonal", "table-gather", "dense1-half-pair", "table-complex", "density1",
+        "density1-half", "density2", "density-channel1", "density-channel2", "block-gate"};
     /** The rate row of one more dense 1-qubit gate in a cache-blocked group, per amplitude. */
     private static final int BLOCK_GATE = Workload.KINDS;
     private static final int ROWS = Workload.KINDS + 1;

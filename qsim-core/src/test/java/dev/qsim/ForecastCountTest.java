@@ -181,7 +181,8 @@ class ForecastCountTest {
     @Test
     void densityMatrixGatesAreTwoPassesAndChannelsOne() {
         // h(0) then cnot(0, 1) on 3 qubits, depolarizing after one-qubit gates:
-        // h: 2 dense 1-qubit passes on the 6-qubit storage; its channel: 1 dense 2-qubit pass;
+        // h: 2 density-matrix 1-qubit passes on the 6-qubit storage, with half the arithmetic
+        // (H is real); its channel: 1 pass of its superoperator on qubits 0 and 3;
         // cnot: 2 controlled passes over half the storage each.
         NoiseModel noise = NoiseModel.builder().afterOneQubitGates(Channel.depolarizing(0.1))
                 .build();
@@ -193,12 +194,38 @@ class ForecastCountTest {
         EngineWork e = dev.qsim.internal.Bridge.noise().work(c, noise, true, 100, 1);
         Workload w = only(e);
         assertEquals(6, w.qubits(), "storage qubits");
-        assertEquals(2, w.passes(Workload.DENSE1), "h on rows and columns");
-        assertEquals(1, w.passes(Workload.DENSE2), "the channel's superoperator");
+        assertEquals(2, w.passes(Workload.DENSITY1_HALF), "h on rows and columns");
+        assertEquals(2, w.streamed(Workload.DENSITY1_HALF), "each over the whole storage");
+        assertEquals(1, w.passes(Workload.DENSITY_CHANNEL1), "the channel's superoperator");
         assertEquals(1, w.streamed(Workload.DENSE1_CONTROLLED), "two passes over halves");
         assertEquals(5, w.totalPasses(), "all passes");
         assertTrue(e.bytes() >= 16L << 6, "at least 4^3 entries of 16 bytes");
         assertEquals(5, cost.passes(), 1e-12, "the forecast's count");
+    }
+
+    @Test
+    void densityMatrixKindsFollowTheGateAndChannelShapes() {
+        // rz(0.4) on qubit 1, then cz(1, 2) and a two-qubit depolarizing channel after it,
+        // then reset(0), on 3 qubits: rz is diagonal with complex entries (the complex
+        // kind, on rows and columns); cz is a two-qubit gate without controls (two passes);
+        // the channel's superoperator is one four-qubit pass (qubits 1, 2, 4, 5); the reset
+        // is a one-qubit channel (one pass; Kraus operators |0><0| and |0><1|, common
+        // practice). Column stacking: Horn and Johnson 1991, Topics in Matrix Analysis,
+        // Lemma 4.3.1.
+        NoiseModel noise = NoiseModel.builder()
+                .afterTwoQubitGates(Channel.twoQubitDepolarizing(0.1)).build();
+        Circuit c = Circuit.builder(3).rz(1, 0.4).cz(1, 2).reset(0).measure().build();
+        EngineWork e = dev.qsim.internal.Bridge.noise().work(c, noise, true, 100, 1);
+        Workload w = only(e);
+        assertEquals(2, w.passes(Workload.DENSITY1), "rz on rows and columns");
+        assertEquals(0, w.passes(Workload.DENSITY1_HALF), "no real one-qubit gate");
+        assertEquals(2, w.passes(Workload.DENSITY2), "cz on rows and columns");
+        assertEquals(1, w.passes(Workload.DENSITY_CHANNEL2), "the two-qubit channel");
+        assertEquals(1, w.passes(Workload.DENSITY_CHANNEL1), "the reset");
+        assertEquals(6, w.totalPasses(), "all passes");
+        assertEquals(6, w.streamed(Workload.DENSITY1) + w.streamed(Workload.DENSITY2)
+                + w.streamed(Workload.DENSITY_CHANNEL1) + w.streamed(Workload.DENSITY_CHANNEL2),
+                1e-12, "each pass over the whole storage");
     }
 
     @Test

@@ -70,6 +70,9 @@ public final class KernelTimer {
      */
     public static double nanosPerUnit(int kind, int n, int threads, long minNanos,
             boolean brief) {
+        if (kind >= Workload.DENSITY1 && kind <= Workload.DENSITY_CHANNEL2) {
+            return densityNanos(kind, n, threads, minNanos, brief);
+        }
         boolean single = kind == Workload.WINDOW_STREAM || kind == Workload.FLOAT1;
         Amplitudes a = filled(single ? 2 : 0, n, single);
         Amplitudes other = kind == Workload.COPY ? filled(1, n, false) : null;
@@ -234,6 +237,110 @@ public final class KernelTimer {
             perUnit = Math.max(0.1 * perUnit, perUnit - inCache);
         }
         return perUnit;
+    }
+
+    /**
+     * The density matrix kinds on a storage of {@code n} qubits holding a density matrix of
+     * {@code n / 2} qubits (an odd storage leaves its top qubit idle): each pass as that engine
+     * makes it ({@code DensityKernels}: a gate on the row qubits and its conjugate on the
+     * column qubits, a channel's superoperator on both at once), per pass and amplitude,
+     * averaged over the positions of the register (a qubit, or a qubit and the next). Every
+     * position is timed up to eight; beyond, the two lowest (the slowest, inside a vector) and
+     * a spread of the others standing for the rest, each weighted by the positions it stands
+     * for. The brief form times the lowest and a middle one.
+     */
+    private static double densityNanos(int kind, int n, int threads, long minNanos,
+            boolean brief) {
+        Amplitudes a = filled(0, n, false);
+        int m = n / 2;
+        boolean pair = kind == Workload.DENSITY2 || kind == Workload.DENSITY_CHANNEL2;
+        int places = pair ? m - 1 : m;
+        int[] at;
+        double[] weight;
+        if (brief) {
+            at = new int[] {0, places / 2};
+            weight = new double[] {1, places - 1};
+        } else if (places <= 8) {
+            at = new int[places];
+            weight = new double[places];
+            for (int i = 0; i < places; i++) {
+                at[i] = i;
+                weight[i] = 1;
+            }
+        } else {
+            int spread = n <= 20 ? 8 : 4;
+            at = new int[spread];
+            weight = new double[spread];
+            double each = (places - 2) / (double) (spread - 2);
+            for (int i = 0; i < spread; i++) {
+                at[i] = i < 2 ? i : 2 + (int) ((2L * (i - 2) + 1) * (places - 2)
+                        / (2L * (spread - 2)));
+                weight[i] = i < 2 ? 1 : each;
+            }
+        }
+        int passes = kind == Workload.DENSITY_CHANNEL1 || kind == Workload.DENSITY_CHANNEL2
+                ? 1 : 2;
+        double sum = 0;
+        double total = 0;
+        for (int i = 0; i < at.length; i++) {
+            int p = at[i];
+            Runnable step;
+            switch (kind) {
+                case Workload.DENSITY1:
+                    step = rowsAndColumns(a, dense(new int[] {p}, NONE),
+                            dense(new int[] {p + m}, NONE), threads);
+                    break;
+                case Workload.DENSITY1_HALF:
+                    step = rowsAndColumns(a, hadamard(p), hadamard(p + m), threads);
+                    break;
+                case Workload.DENSITY2:
+                    step = rowsAndColumns(a, dense(new int[] {p, p + 1}, NONE),
+                            dense(new int[] {p + m, p + m + 1}, NONE), threads);
+                    break;
+                case Workload.DENSITY_CHANNEL1:
+                    step = planned(a, realHadamards(new int[] {p, p + m}), threads);
+                    break;
+                default:
+                    step = planned(a, realHadamards(new int[] {p, p + 1, p + m, p + m + 1}),
+                            threads);
+                    break;
+            }
+            sum += weight[i] * roundNanos(new Runnable[] {step},
+                    Math.max(1, minNanos / at.length), brief);
+            total += weight[i];
+        }
+        return sum / total / (passes * Math.scalb(1.0, n));
+    }
+
+    /** A gate on the row qubits, then its counterpart on the column qubits. */
+    private static Runnable rowsAndColumns(Amplitudes a, GateOp rows, GateOp columns,
+            int threads) {
+        Runnable r = planned(a, rows, threads);
+        Runnable c = planned(a, columns, threads);
+        return () -> {
+            r.run();
+            c.run();
+        };
+    }
+
+    /**
+     * H on each target as one dense matrix: real entries, as a channel's superoperator has
+     * for the common channels (depolarizing, damping, dephasing), and unitary so that the
+     * values stay bounded.
+     */
+    private static GateOp realHadamards(int[] targets) {
+        int d = 1 << targets.length;
+        double s = Math.scalb(1.0, 0);
+        for (int k = 0; k < targets.length; k++) {
+            s *= H;
+        }
+        double[] m = new double[2 * d * d];
+        for (int r = 0; r < d; r++) {
+            for (int c = 0; c < d; c++) {
+                m[2 * (r * d + c)] = (Integer.bitCount(r & c) & 1) == 0 ? s : -s;
+            }
+        }
+        return new GateOp(GateOp.DENSE, targets, NONE, m, null);
     }
 
     /**

@@ -74,8 +74,35 @@ public final class Workload {
      * amplitude's parts (a CZ ladder's table is real, a ladder of controlled phases complex).
      */
     public static final int TABLE_COMPLEX = 20;
+    /**
+     * Kind: a density matrix's dense single-qubit gate with complex entries, as that engine
+     * applies it (the matrix on a row qubit, its conjugate on the column qubit), per pass and
+     * amplitude of the {@code 2n}-qubit storage, timed over the register's positions. The
+     * density matrix kinds are timed apart because the speed of a pass depends on its target's
+     * position (on the vector loops, a target inside one vector runs up to 7 times slower for
+     * a 4-qubit pass) and a density matrix's passes sit in other positions than a state
+     * vector's: its columns always high.
+     */
+    public static final int DENSITY1 = 21;
+    /** Kind: as {@link #DENSITY1}, a matrix with half the arithmetic (real, or shaped like RX). */
+    public static final int DENSITY1_HALF = 22;
+    /**
+     * Kind: a density matrix's two-qubit gate without controls on neighbouring qubits, per pass
+     * (rows or columns) and amplitude of the storage.
+     */
+    public static final int DENSITY2 = 23;
+    /**
+     * Kind: a density matrix's one-qubit channel: one dense two-qubit pass of its
+     * superoperator on a row qubit and its column qubit, per amplitude of the storage.
+     */
+    public static final int DENSITY_CHANNEL1 = 24;
+    /**
+     * Kind: a density matrix's two-qubit channel: one dense four-qubit pass of its
+     * superoperator on two neighbouring row qubits and their column qubits.
+     */
+    public static final int DENSITY_CHANNEL2 = 25;
     /** The number of kinds. */
-    public static final int KINDS = 21;
+    public static final int KINDS = 26;
 
     private static final String[] NAMES = {"dense 1-qubit", "controlled dense 1-qubit",
         "dense 2-qubit", "dense 3-qubit", "dense 4-qubit", "diagonal", "permutation",
@@ -83,7 +110,10 @@ public final class Workload {
         "single-precision 1-qubit", "frame phases", "state copy", "measurement or reset",
         "sampling", "reduced state", "double-precision window stream",
         "dense 1-qubit, half arithmetic", "merged diagonal run", "merged permutation run",
-        "paired dense 1-qubit, half arithmetic", "merged diagonal run, complex factors"};
+        "paired dense 1-qubit, half arithmetic", "merged diagonal run, complex factors",
+        "density-matrix 1-qubit", "density-matrix 1-qubit, half arithmetic",
+        "density-matrix 2-qubit", "density-matrix 1-qubit channel",
+        "density-matrix 2-qubit channel"};
 
     private final int qubits;
     private final boolean single;
@@ -281,6 +311,53 @@ public final class Workload {
         int kind = kindOf(op);
         streamed[kind] += units(op) * w;
         passes[kind] += w;
+        return this;
+    }
+
+    /**
+     * Counts a density matrix's gate: its matrix on the row qubits, then its conjugate on the
+     * column qubits, two passes over the {@code 2n}-qubit storage this count was made for. A
+     * single-qubit gate without controls or a two-qubit gate without controls counts as a
+     * density matrix kind ({@link #DENSITY1}, {@link #DENSITY1_HALF}, {@link #DENSITY2});
+     * other shapes as the dense kinds ({@link #dense}).
+     *
+     * @param m the gate's matrix on its targets (row-major, re/im interleaved), or null if
+     *     not known (counted as complex)
+     * @param targets the target count
+     * @param controls the control count
+     * @return this count
+     */
+    public Workload densityGate(double[] m, int targets, int controls) {
+        if (controls == 0 && targets == 1) {
+            int kind = m == null || LaneKernels.kind(m) == LaneKernels.COMPLEX ? DENSITY1
+                    : DENSITY1_HALF;
+            streamed[kind] += 2;
+            passes[kind] += 2;
+            return this;
+        }
+        if (controls == 0 && targets == 2) {
+            streamed[DENSITY2] += 2;
+            passes[DENSITY2] += 2;
+            return this;
+        }
+        return dense(targets, controls, 2);
+    }
+
+    /**
+     * Counts a density matrix's channel on {@code qubits} qubits: one dense pass of its
+     * superoperator on {@code 2 qubits} targets of the storage ({@link #DENSITY_CHANNEL1},
+     * {@link #DENSITY_CHANNEL2}, wider channels as the dense kinds).
+     *
+     * @param qubits the channel's qubits
+     * @return this count
+     */
+    public Workload densityChannel(int qubits) {
+        int kind = qubits == 1 ? DENSITY_CHANNEL1 : qubits == 2 ? DENSITY_CHANNEL2 : -1;
+        if (kind < 0) {
+            return dense(2 * qubits, 0, 1);
+        }
+        streamed[kind] += 1;
+        passes[kind] += 1;
         return this;
     }
 

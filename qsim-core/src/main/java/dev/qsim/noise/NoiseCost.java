@@ -35,12 +35,15 @@ final class NoiseCost {
         Workload w = Workload.of(2 * n, false);
         for (Instruction in : circuit.instructions()) {
             switch (in.kind()) {
-                case GATE:
-                    w.dense(in.targets().length, in.controls().length, 2);
+                case GATE: {
+                    int k = in.targets().length;
+                    double[] m = k == 1 && in.controls().length == 0 ? matrix(in) : null;
+                    w.densityGate(m, k, in.controls().length);
                     channels(w, model.noiseAfter(in));
                     break;
+                }
                 case RESET:
-                    w.dense(2, 0, 1);
+                    w.densityChannel(in.targets().length);
                     break;
                 case MEASURE:
                     break; // terminal: the distribution skips their channels
@@ -60,8 +63,15 @@ final class NoiseCost {
 
     private static void channels(Workload w, List<NoiseModel.Placed> placed) {
         for (NoiseModel.Placed p : placed) {
-            w.dense(2 * p.qubits().length, 0, 1);
+            w.densityChannel(p.qubits().length);
         }
+    }
+
+    /** A gate's matrix, a parameterized one's at angles of 1 (its shape, not its values). */
+    private static double[] matrix(Instruction in) {
+        return DensityMatrix.raw(in.isDynamic()
+                ? in.gate().operator(Arrays.copyOf(ONES, in.gate().parameters()))
+                : in.operator());
     }
 
     static EngineWork trajectories(Circuit circuit, NoiseModel model, int shots, int threads) {
@@ -84,10 +94,7 @@ final class NoiseCost {
         for (Instruction in : list) {
             switch (in.kind()) {
                 case GATE: {
-                    double[] m = DensityMatrix.raw(in.isDynamic()
-                            ? in.gate().operator(Arrays.copyOf(ONES, in.gate().parameters()))
-                            : in.operator());
-                    w.gates(List.of(GateOp.of(m, in.targets(), in.controls())));
+                    w.gates(List.of(GateOp.of(matrix(in), in.targets(), in.controls())));
                     kraus(w, model.noiseAfter(in));
                     break;
                 }
