@@ -324,23 +324,12 @@ public final class KernelTimer {
     }
 
     /**
-     * H on each target as one dense matrix: real entries, as a channel's superoperator has
-     * for the common channels (depolarizing, damping, dephasing), and unitary so that the
-     * values stay bounded.
+     * H on each target as one dense matrix (no phases): real entries, as a channel's
+     * superoperator has for the common channels (depolarizing, damping, dephasing), and
+     * unitary so that the values stay bounded.
      */
     private static GateOp realHadamards(int[] targets) {
-        int d = 1 << targets.length;
-        double s = Math.scalb(1.0, 0);
-        for (int k = 0; k < targets.length; k++) {
-            s *= H;
-        }
-        double[] m = new double[2 * d * d];
-        for (int r = 0; r < d; r++) {
-            for (int c = 0; c < d; c++) {
-                m[2 * (r * d + c)] = (Integer.bitCount(r & c) & 1) == 0 ? s : -s;
-            }
-        }
-        return new GateOp(GateOp.DENSE, targets, NONE, m, null);
+        return hadamards(targets, NONE, 0);
     }
 
     /**
@@ -553,6 +542,11 @@ public final class KernelTimer {
      * the validation set, rotations forecast at 0.55-0.58 of their measured time with H.
      */
     private static GateOp dense(int[] targets, int[] controls) {
+        return hadamards(targets, controls, 0.7);
+    }
+
+    /** H⊗...⊗H on the targets times phases {@code e^{i phase c}} on its columns. */
+    private static GateOp hadamards(int[] targets, int[] controls, double phase) {
         int d = 1 << targets.length;
         double[] m = new double[2 * d * d];
         double s = Math.scalb(1.0, 0);
@@ -562,8 +556,8 @@ public final class KernelTimer {
         for (int r = 0; r < d; r++) {
             for (int c = 0; c < d; c++) {
                 double v = (Integer.bitCount(r & c) & 1) == 0 ? s : -s;
-                m[2 * (r * d + c)] = v * Math.cos(0.7 * c);
-                m[2 * (r * d + c) + 1] = v * Math.sin(0.7 * c);
+                m[2 * (r * d + c)] = v * Math.cos(phase * c);
+                m[2 * (r * d + c) + 1] = v * Math.sin(phase * c);
             }
         }
         return new GateOp(GateOp.DENSE, targets, controls, m, null);
