@@ -47,7 +47,7 @@ import dev.qsim.kernel.Workload;
  */
 public final class Calibration {
     /** The file format's version; a file of another version is ignored, with the reason. */
-    public static final int FORMAT = 11;
+    public static final int FORMAT = 12;
     /** System property naming the folder of the calibration file (tests use a temporary one). */
     public static final String FOLDER_PROPERTY = "qsim.config.dir";
     /** The calibration file's name inside the folder. */
@@ -70,10 +70,21 @@ public final class Calibration {
         "dense4", "diagonal", "permutation", "block-group", "window-group", "float1", "phases",
         "copy", "measure", "sample", "reduce", "window-group-double", "dense1-half",
         "table-diagonal", "table-gather", "dense1-half-pair", "table-complex", "density1",
-        "density1-half", "density2", "density-channel1", "density-channel2", "block-gate"};
-    /** The rate row of one more dense 1-qubit gate in a cache-blocked group, per amplitude. */
-    private static final int BLOCK_GATE = Workload.KINDS;
-    private static final int ROWS = Workload.KINDS + 1;
+        "density1-half", "density2", "density-channel1", "density-channel2", "window-short",
+        "window-short-double", "block-group-long", "window-gate"};
+    /**
+     * The rate row of a cache-blocked group of {@value KernelTimer#LONG_GROUP_GATES} dense
+     * 1-qubit gates, per amplitude ({@link KernelTimer#longGroupNanos}); with the
+     * {@link Workload#BLOCK_STREAM} row (the same group of {@value KernelTimer#GROUP_GATES}) it
+     * gives one more gate in the group ({@link #blockGate}).
+     */
+    private static final int LONG_GROUP = Workload.KINDS;
+    /**
+     * The rate row of the window kinds' two gates on one window in cache, one thread, per
+     * amplitude ({@link KernelTimer#windowGatesNanos}).
+     */
+    private static final int WINDOW_GATE = Workload.KINDS + 1;
+    private static final int ROWS = Workload.KINDS + 2;
 
     /** Tableau rates, in the order of {@link TableauCost}'s terms. */
     private static final String[] TABLEAU_KEYS = {"tableau.run", "tableau.table.word",
@@ -94,10 +105,13 @@ public final class Calibration {
     private final int processors;
     private final int[] sizes;
     /**
-     * [kind][0: one thread, 1: all processors][size index], nanoseconds per unit; the row
-     * after the kinds ({@link #BLOCK_GATE}) is one more gate in a cache-blocked group.
+     * [kind][0: one thread, 1: all processors][size index], nanoseconds per unit; the rows
+     * after the kinds are a longer cache-blocked group ({@link #LONG_GROUP}) and the window
+     * kinds' gates ({@link #WINDOW_GATE}).
      */
     private final double[][][] rates;
+    /** The median of the {@link #WINDOW_GATE} row, nanoseconds per amplitude. */
+    private final double windowGates;
     private final double shotNanos;
     private final double shotBitNanos;
     /** Nanoseconds to build a merged run's tables, per entry and gate. */
@@ -163,6 +177,7 @@ public final class Calibration {
         this.processors = processors;
         this.sizes = sizes;
         this.rates = rates;
+        this.windowGates = median(rates[WINDOW_GATE]);
         this.shotNanos = shot[0];
         this.shotBitNanos = shot[1];
         this.planNanos = plan[0];
@@ -230,7 +245,8 @@ public final class Calibration {
             for (int k = 0; k < Workload.KINDS; k++) {
                 KernelTimer.nanosPerUnit(k, sizes[0], 1, 0);
             }
-            KernelTimer.blockGateNanos(sizes[0], 1, 0, false);
+            KernelTimer.longGroupNanos(sizes[0], 1, 0, false);
+            KernelTimer.windowGatesNanos(0, false);
             long spent = System.nanoTime() - start;
             boolean idle = !watch || jit.getTotalCompilationTime() == before;
             if ((idle && spent >= WARM_NANOS) || spent >= (quick ? 2 : 4) * WARM_NANOS) {
@@ -251,8 +267,9 @@ public final class Calibration {
                 for (int t = 0; t < 2; t++) {
                     int threads = t == 0 ? 1 : all;
                     for (int k = 0; k < ROWS; k++) {
-                        double v = k == BLOCK_GATE
-                                ? KernelTimer.blockGateNanos(sizes[s], threads, nanos, quick)
+                        double v = k == LONG_GROUP
+                                ? KernelTimer.longGroupNanos(sizes[s], threads, nanos, quick)
+                                : k == WINDOW_GATE ? KernelTimer.windowGatesNanos(nanos, quick)
                                 : KernelTimer.nanosPerUnit(k, sizes[s], threads, nanos, quick);
                         r[k][t][s] = sweep == 0 ? v : Math.min(r[k][t][s], v);
                     }
@@ -527,10 +544,22 @@ public final class Calibration {
      */
     double nanos(int kind, int n, int threads) {
         if (kind == Workload.BLOCK_STREAM) {
-            // The group was timed with its in-cache gates; keep the streaming part (the
-            // window kinds are timed as their streaming part alone).
+            // The group was timed with its in-cache gates; keep the streaming part.
             double group = raw(kind, n, threads);
-            double inCache = KernelTimer.GROUP_GATES * raw(BLOCK_GATE, n, threads);
+            double inCache = KernelTimer.GROUP_GATES * blockGate(n, threads);
+            return Math.max(0.1 * group, group - inCache);
+        }
+        if (kind == Workload.WINDOW_STREAM || kind == Workload.WINDOW_STREAM_DOUBLE
+                || kind == Workload.WINDOW_SHORT || kind == Workload.WINDOW_SHORT_DOUBLE) {
+            // Timed with its two gates; keep the streaming part: the group less its gates on
+            // one window in cache (the median of that row's timings, which do not depend on
+            // the size), shared by the threads. Both are timings of their own, each the lower
+            // of two sweeps; subtracting the gates inside the kind's timing, as before, made
+            // the lower of two differences the kept one (two-thread rates from 0.29 to 1.17 ns
+            // an amplitude at 2^20 and 2^23 in eleven calibrations).
+            double group = raw(kind, n, threads);
+            int used = n >= Parallel.MIN_PARALLEL_QUBITS ? Math.min(threads, processors) : 1;
+            double inCache = windowGates / Math.max(1, used);
             return Math.max(0.1 * group, group - inCache);
         }
         return raw(kind, n, threads);
@@ -543,9 +572,25 @@ public final class Calibration {
      * {@code workers} independent states at once share the processors.
      */
     double cached(int kind, int n, int threads, int workers) {
-        double small = raw(BLOCK_GATE, sizes[0], 1);
-        double scale = small > 0 ? raw(BLOCK_GATE, n, threads) / small : 1;
+        double small = blockGate(sizes[0], 1);
+        double scale = small > 0 ? blockGate(n, threads) / small : 1;
         return raw(kind, sizes[0], 1) * scale / Math.max(1, Math.min(workers, processors));
+    }
+
+    /**
+     * One more dense gate in a cache-blocked group, per amplitude: the long group's time less
+     * the short one's, over the gates between them; at least half the long group's time per
+     * gate (a difference of two timings can come out near zero on a noisy machine, and the
+     * stream is shared by the gates). Each group's time is the lower of two sweeps; the
+     * difference was taken inside each sweep before, and the lower of two differences kept (at
+     * 2^16 amplitudes on two threads 0.13 to 0.32 ns in four calibrations, vector loops).
+     */
+    private double blockGate(int n, int threads) {
+        double shortGroup = raw(Workload.BLOCK_STREAM, n, threads);
+        double longGroup = raw(LONG_GROUP, n, threads);
+        double per = (longGroup - shortGroup)
+                / (KernelTimer.LONG_GROUP_GATES - KernelTimer.GROUP_GATES);
+        return Math.max(0.5 * longGroup / KernelTimer.LONG_GROUP_GATES, per);
     }
 
     private double raw(int kind, int n, int threads) {
@@ -558,6 +603,22 @@ public final class Calibration {
             return all;
         }
         return one + (all - one) * (threads - 1) / (processors - 1);
+    }
+
+    /** The median of every value of the rows (the mean of the middle two for an even count). */
+    private static double median(double[][] rows) {
+        int count = 0;
+        for (double[] r : rows) {
+            count += r.length;
+        }
+        double[] all = new double[count];
+        int at = 0;
+        for (double[] r : rows) {
+            System.arraycopy(r, 0, all, at, r.length);
+            at += r.length;
+        }
+        java.util.Arrays.sort(all);
+        return count == 0 ? 0 : (all[(count - 1) / 2] + all[count / 2]) / 2;
     }
 
     private double interpolate(double[] v, int n) {

@@ -97,6 +97,36 @@ class ForecastCountTest {
     }
 
     @Test
+    void aWindowReadInShortRunsCountsAsTheShortRunKind() {
+        // A window holds 2^14 amplitudes: the low bits [0, l) and the group's targets at or
+        // above l, with l the largest that fits (Windows.lowBits). Unfused h on 13, 14, 15:
+        // l = 11 (11 + 3 targets = 14), runs of 2^11, a sixth of the way from runs of 2^12 to
+        // runs of 2^6: 5/6 of a long-run pass and 1/6 of a short-run one. h on 8 to 15: l = 6
+        // (6 + 8 = 14), one short-run pass. h on 14 and 15: l = 12, one long-run pass.
+        Circuit three = Circuit.builder(N).h(13).h(14).h(15).measure().build();
+        Workload w = only(sv(three, 10, false));
+        assertEquals(5.0 / 6, w.passes(Workload.WINDOW_STREAM_DOUBLE), 1e-12, "long runs");
+        assertEquals(1.0 / 6, w.passes(Workload.WINDOW_SHORT_DOUBLE), 1e-12, "short runs");
+        assertEquals(5.0 / 6, w.streamed(Workload.WINDOW_STREAM_DOUBLE), 1e-12, "long units");
+        assertEquals(1.0 / 6, w.streamed(Workload.WINDOW_SHORT_DOUBLE), 1e-12, "short units");
+        assertEquals(2, w.totalPasses(), 1e-12, "one window and the sampling pass");
+        Circuit.Builder b = Circuit.builder(N);
+        for (int q = 8; q < N; q++) {
+            b.h(q);
+        }
+        Workload eight = only(sv(b.measure().build(), 10, false));
+        assertEquals(0, eight.passes(Workload.WINDOW_STREAM_DOUBLE), "no long-run pass");
+        assertEquals(1, eight.passes(Workload.WINDOW_SHORT_DOUBLE), "one short-run pass");
+        Workload two = only(sv(Circuit.builder(N).h(14).h(15).measure().build(), 10, false));
+        assertEquals(1, two.passes(Workload.WINDOW_STREAM_DOUBLE), "one long-run pass");
+        assertEquals(0, two.passes(Workload.WINDOW_SHORT_DOUBLE), "no short-run pass");
+        // Single precision: every group is windowed, at the single-precision kinds.
+        Workload single = only(AmplitudeCost.work(three, 10, Precision.SINGLE, false, 2));
+        assertEquals(5.0 / 6, single.passes(Workload.WINDOW_STREAM), 1e-12, "single, long");
+        assertEquals(1.0 / 6, single.passes(Workload.WINDOW_SHORT), 1e-12, "single, short");
+    }
+
+    @Test
     void laddersOfDiagonalGatesAreOneMergedRunInCache() {
         // A ladder of five controlled phases on qubits 0 to 5, each after an H on its target
         // (which no earlier gate of the ladder touches, so the run steps over it): all below

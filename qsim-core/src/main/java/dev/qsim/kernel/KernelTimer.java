@@ -11,6 +11,8 @@ import java.util.List;
 public final class KernelTimer {
     /** Gates in the group timed for the stream kinds. */
     public static final int GROUP_GATES = 8;
+    /** Gates in the longer group of {@link #longGroupNanos}. */
+    public static final int LONG_GROUP_GATES = 40;
     private static final double H = Math.sqrt(0.5);
     private static final int[] NONE = new int[0];
 
@@ -40,10 +42,12 @@ public final class KernelTimer {
      * half the state). For {@link Workload#BLOCK_STREAM} the time is that of a whole group of
      * {@value #GROUP_GATES} dense single-qubit gates on the low qubits, per amplitude (the
      * caller subtracts the in-cache part); for {@link Workload#WINDOW_STREAM} and
-     * {@link Workload#WINDOW_STREAM_DOUBLE}, the streaming part alone of a group on single or
-     * double storage through {@link Windows} of two gates on the two highest qubits (a window
-     * gathered from runs of 2^12 amplitudes, as for targets above the cache block): the group's
-     * time less that of its two gates on one window in cache. The states are kept between calls
+     * {@link Workload#WINDOW_STREAM_DOUBLE}, the time of a group on single or double storage
+     * through {@link Windows} of two dense gates on the two highest qubits (a window gathered
+     * from runs of 2^12 amplitudes, as for targets above the cache block), per amplitude, its
+     * gates included (the caller subtracts {@link #windowGatesNanos}); for
+     * {@link Workload#WINDOW_SHORT} and {@link Workload#WINDOW_SHORT_DOUBLE}, the same with the
+     * window read in runs of 2^6 amplitudes. The states are kept between calls
      * of the same size until {@link #release()}.
      *
      * @param kind the kind
@@ -73,7 +77,8 @@ public final class KernelTimer {
         if (kind >= Workload.DENSITY1 && kind <= Workload.DENSITY_CHANNEL2) {
             return densityNanos(kind, n, threads, minNanos, brief);
         }
-        boolean single = kind == Workload.WINDOW_STREAM || kind == Workload.FLOAT1;
+        boolean single = kind == Workload.WINDOW_STREAM || kind == Workload.WINDOW_SHORT
+                || kind == Workload.FLOAT1;
         Amplitudes a = filled(single ? 2 : 0, n, single);
         Amplitudes other = kind == Workload.COPY ? filled(1, n, false) : null;
         double units = 1;
@@ -172,6 +177,18 @@ public final class KernelTimer {
                     step[r] = () -> Windows.apply(a, ops, threads);
                     break;
                 }
+                case Workload.WINDOW_SHORT:
+                case Workload.WINDOW_SHORT_DOUBLE: {
+                    // The same two gates, in windows read in the shortest runs a group
+                    // allows: the window's other qubits are the highest ones below them.
+                    List<GateOp> ops = List.of(dense(new int[] {n - 2}, NONE),
+                            dense(new int[] {n - 1}, NONE));
+                    int w = Math.min(n, Windows.WINDOW_LOG);
+                    int low = Math.min(Windows.MIN_RUN_LOG, w - 2);
+                    long mask = ((1L << (w - low)) - 1) << (n - (w - low));
+                    step[r] = () -> Windows.applyGroup(a, ops, mask, low, threads);
+                    break;
+                }
                 case Workload.FLOAT1: {
                     List<GateOp> ops = List.of(dense(new int[] {q}, NONE));
                     step[r] = () -> Windows.apply(a, ops, threads);
@@ -230,12 +247,6 @@ public final class KernelTimer {
         }
         double perUnit = roundNanos(step, minNanos, brief)
                 / (units * Math.scalb(1.0, n) * step.length);
-        if (kind == Workload.WINDOW_STREAM || kind == Workload.WINDOW_STREAM_DOUBLE) {
-            int used = n >= Parallel.MIN_PARALLEL_QUBITS
-                    ? Math.min(threads, Runtime.getRuntime().availableProcessors()) : 1;
-            double inCache = windowGatesNanos(minNanos, brief) / used;
-            perUnit = Math.max(0.1 * perUnit, perUnit - inCache);
-        }
         return perUnit;
     }
 
@@ -333,12 +344,17 @@ public final class KernelTimer {
     }
 
     /**
-     * The time per amplitude of the two gates of the window kinds' group on one window in
-     * cache: the same gates on the two highest qubits of a state of {@code 2^WINDOW_LOG}
-     * amplitudes, one thread. (Subtracting a rate measured elsewhere, one more gate in a
-     * cache-blocked group on other targets, mixed two measurements of different gates.)
+     * Returns the time per amplitude of the two gates of the window kinds' group on one window
+     * in cache: the same gates on the two highest qubits of a state of {@code 2^WINDOW_LOG}
+     * amplitudes, one thread. The calibration subtracts it from the window kinds' times, shared
+     * by the threads. (Subtracting a rate measured elsewhere, one more gate in a cache-blocked
+     * group on other targets, mixed two measurements of different gates.)
+     *
+     * @param minNanos how long to keep timing, at least
+     * @param brief whether to skip the warm-up round and keep the lowest round
+     * @return nanoseconds per amplitude, both gates
      */
-    private static double windowGatesNanos(long minNanos, boolean brief) {
+    public static double windowGatesNanos(long minNanos, boolean brief) {
         int w = Windows.WINDOW_LOG;
         Amplitudes small = Amplitudes.allocate(w);
         double v = Math.scalb(1.0, -w) * Math.sqrt(Math.scalb(1.0, w));
@@ -388,35 +404,29 @@ public final class KernelTimer {
     }
 
     /**
-     * Returns the time of one more dense single-qubit gate in a cache-blocked group, per
-     * amplitude: the median time of a group of {@value #LONG_GROUP} gates less that of
-     * {@value #GROUP_GATES}, over the difference. This is the in-cache rate a run sees on
-     * {@code threads} threads, each block in its own thread's cache (two threads need not
-     * halve it: they share the memory bus and, on some machines, the cache).
+     * Returns the time of a cache-blocked group of {@value #LONG_GROUP_GATES} dense
+     * single-qubit gates on the low qubits, per amplitude: the same group as
+     * {@link Workload#BLOCK_STREAM}'s of {@value #GROUP_GATES} gates, longer. The difference of
+     * the two over the gates between them is one more gate in cache, the rate a run sees on
+     * {@code threads} threads, each block in its own thread's cache (two threads need not halve
+     * it: they share the memory bus and, on some machines, the cache); the calibration takes
+     * it when the file is read, from each group's lower time of two sweeps.
      *
      * @param n qubits of the state, 4 to 30
      * @param threads threads, at least 1
-     * @param minNanos how long to keep timing each group, at least
-     * @param brief whether to skip the warm-up round
-     * @return nanoseconds per amplitude and gate, at least half the long group's per gate
+     * @param minNanos how long to keep timing, at least
+     * @param brief whether to skip the warm-up round and keep the lowest round
+     * @return nanoseconds per amplitude, the whole group
      */
-    public static double blockGateNanos(int n, int threads, long minNanos, boolean brief) {
+    public static double longGroupNanos(int n, int threads, long minNanos, boolean brief) {
         Amplitudes a = filled(0, n, false);
         int blockLog = Math.min(Frame.CACHE_LOG, a.chunkLog);
-        double[] t = new double[2];
-        int[] sizes = {GROUP_GATES, LONG_GROUP};
-        for (int i = 0; i < 2; i++) {
-            Plan[] plans = new Plan[sizes[i]];
-            for (int g = 0; g < plans.length; g++) {
-                plans[g] = dense(new int[] {g % Math.max(1, blockLog)}, NONE).plan(a);
-            }
-            Runnable[] step = {() -> Plan.applyBlocked(a, plans, blockLog, threads)};
-            t[i] = roundNanos(step, minNanos, brief);
+        Plan[] plans = new Plan[LONG_GROUP_GATES];
+        for (int g = 0; g < plans.length; g++) {
+            plans[g] = dense(new int[] {g % Math.max(1, blockLog)}, NONE).plan(a);
         }
-        double per = (t[1] - t[0]) / (LONG_GROUP - GROUP_GATES);
-        // A difference of two timings can come out near zero on a noisy machine; a gate in
-        // cache costs at least half the long group's time per gate (the stream is shared).
-        return Math.max(0.5 * t[1] / LONG_GROUP, per) / Math.scalb(1.0, n);
+        Runnable[] step = {() -> Plan.applyBlocked(a, plans, blockLog, threads)};
+        return roundNanos(step, minNanos, brief) / Math.scalb(1.0, n);
     }
 
     /**
@@ -436,8 +446,6 @@ public final class KernelTimer {
                 / TableKernels.buildWork(op, Windows.identity(w), w);
     }
 
-    /** Gates in the longer group of {@link #blockGateNanos}. */
-    private static final int LONG_GROUP = 40;
 
     /**
      * A merged ladder on qubits 0 to k - 1: of CZ gates ({@link Workload#TABLE_DIAGONAL}), of
@@ -469,6 +477,8 @@ public final class KernelTimer {
             case Workload.BLOCK_STREAM:
             case Workload.WINDOW_STREAM:
             case Workload.WINDOW_STREAM_DOUBLE:
+            case Workload.WINDOW_SHORT:
+            case Workload.WINDOW_SHORT_DOUBLE:
             case Workload.PHASES:
             case Workload.COPY:
             case Workload.SAMPLE:

@@ -32,7 +32,7 @@ public final class Windows {
      * amplitudes, 512 bytes in single precision. A gate that would make runs shorter starts a
      * new group (a first gate is always accepted).
      */
-    static final int MIN_RUN_LOG = 6;
+    public static final int MIN_RUN_LOG = 6;
 
     private static final ThreadLocal<Amplitudes[]> SCRATCH =
             ThreadLocal.withInitial(() -> new Amplitudes[WINDOW_LOG + 1]);
