@@ -133,8 +133,8 @@ public final class Workload {
         "paired dense 1-qubit, half arithmetic", "merged diagonal run, complex factors",
         "density-matrix 1-qubit", "density-matrix 1-qubit, half arithmetic",
         "density-matrix 2-qubit", "density-matrix 1-qubit channel",
-        "density-matrix 2-qubit channel", "single-precision window stream, short runs",
-        "double-precision window stream, short runs"};
+        "density-matrix 2-qubit channel", "short-run single-precision window stream",
+        "short-run double-precision window stream"};
 
     private final int qubits;
     private final boolean single;
