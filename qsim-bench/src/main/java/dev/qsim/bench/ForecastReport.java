@@ -118,6 +118,11 @@ public final class ForecastReport {
                 again = false;
                 continue;
             }
+            if (!List.of("--max", "--threads", "--csv", "--svg", "--only", "--case").contains(a)) {
+                throw new IllegalArgumentException("unknown option " + a + "; use --max,"
+                        + " --threads, --only, --lines, --fresh, --own-jvm, --once, --csv,"
+                        + " --svg");
+            }
             if (i + 1 >= args.length) {
                 throw new IllegalArgumentException("option " + a + " needs a value");
             }
