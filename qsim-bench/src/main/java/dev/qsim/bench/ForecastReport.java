@@ -118,10 +118,8 @@ public final class ForecastReport {
                 again = false;
                 continue;
             }
-            if (!List.of("--max", "--threads", "--csv", "--svg", "--only", "--case").contains(a)) {
-                throw new IllegalArgumentException("unknown option " + a + "; use --max,"
-                        + " --threads, --only, --lines, --fresh, --own-jvm, --once, --csv,"
-                        + " --svg");
+            if (!VALUED.contains(a)) {
+                throw unknown(a);
             }
             if (i + 1 >= args.length) {
                 throw new IllegalArgumentException("option " + a + " needs a value");
@@ -147,9 +145,7 @@ public final class ForecastReport {
                     child = v;
                     break;
                 default:
-                    throw new IllegalArgumentException("unknown option " + a + "; use --max,"
-                            + " --threads, --only, --lines, --fresh, --own-jvm, --once, --csv,"
-                            + " --svg");
+                    throw unknown(a);
             }
         }
         if (child != null) {
@@ -217,6 +213,15 @@ public final class ForecastReport {
         Files.writeString(svg, svg(rows, cal.describe()), StandardCharsets.UTF_8);
         System.out.println(summary(rows));
         System.out.println(planTime(cal, threads));
+    }
+
+    /** The options that take a value. */
+    private static final List<String> VALUED = List.of("--max", "--threads", "--csv", "--svg",
+            "--only", "--case");
+
+    private static IllegalArgumentException unknown(String option) {
+        return new IllegalArgumentException("unknown option " + option + "; use --max,"
+                + " --threads, --only, --lines, --fresh, --own-jvm, --once, --csv, --svg");
     }
 
     /** The predicted time under which a case is measured a second time (not with --once). */
