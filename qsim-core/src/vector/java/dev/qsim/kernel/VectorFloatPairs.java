@@ -1,5 +1,7 @@
 package dev.qsim.kernel;
 
+import static dev.qsim.kernel.VectorShapes.INTS;
+
 import jdk.incubator.vector.FloatVector;
 import jdk.incubator.vector.VectorShuffle;
 import jdk.incubator.vector.VectorSpecies;
@@ -22,27 +24,27 @@ final class VectorFloatPairs {
             VectorShapes.D.vectorShape());
     /** Floats per vector. */
     static final int L = S.length();
-    private static final VectorShuffle<Float> SWAP = VectorShuffle.fromOp(S, i -> i ^ 1);
+    private static final VectorShuffle<Integer> SWAP = VectorShuffle.fromOp(INTS, i -> i ^ 1);
     private static final FloatVector SIGN = alternating(-1, 1);
 
     /** Lane permutations for a target whose blocks fit in one vector (see VectorPairs). */
     private static final class InRegister {
-        final VectorShuffle<Float> low;
-        final VectorShuffle<Float> high;
-        final VectorShuffle<Float> lowSwapped;
-        final VectorShuffle<Float> highSwapped;
-        final VectorShuffle<Float> partner;
-        final VectorShuffle<Float> partnerSwapped;
+        final VectorShuffle<Integer> low;
+        final VectorShuffle<Integer> high;
+        final VectorShuffle<Integer> lowSwapped;
+        final VectorShuffle<Integer> highSwapped;
+        final VectorShuffle<Integer> partner;
+        final VectorShuffle<Integer> partnerSwapped;
         final boolean[] upper = new boolean[L];
 
         InRegister(int q) {
             final int s = 2 << q;
-            low = VectorShuffle.fromOp(S, i -> i & ~s);
-            high = VectorShuffle.fromOp(S, i -> i | s);
-            lowSwapped = VectorShuffle.fromOp(S, i -> (i & ~s) ^ 1);
-            highSwapped = VectorShuffle.fromOp(S, i -> (i | s) ^ 1);
-            partner = VectorShuffle.fromOp(S, i -> i ^ s);
-            partnerSwapped = VectorShuffle.fromOp(S, i -> i ^ s ^ 1);
+            low = VectorShuffle.fromOp(INTS, i -> i & ~s);
+            high = VectorShuffle.fromOp(INTS, i -> i | s);
+            lowSwapped = VectorShuffle.fromOp(INTS, i -> (i & ~s) ^ 1);
+            highSwapped = VectorShuffle.fromOp(INTS, i -> (i | s) ^ 1);
+            partner = VectorShuffle.fromOp(INTS, i -> i ^ s);
+            partnerSwapped = VectorShuffle.fromOp(INTS, i -> i ^ s ^ 1);
             for (int i = 0; i < L; i++) {
                 upper[i] = (i & s) != 0;
             }
@@ -206,8 +208,10 @@ final class VectorFloatPairs {
                 }
                 final FloatVector a = FloatVector.fromArray(S, u, x0 + k);
                 final FloatVector c = FloatVector.fromArray(S, v, y0 + k);
-                a.mul(d0).add(c.rearrange(SWAP).mul(o01)).intoArray(u, x0 + k);
-                c.mul(d1).add(a.rearrange(SWAP).mul(o10)).intoArray(v, y0 + k);
+                a.mul(d0).add(c.reinterpretAsInts().rearrange(SWAP).reinterpretAsFloats().mul(o01))
+                        .intoArray(u, x0 + k);
+                c.mul(d1).add(a.reinterpretAsInts().rearrange(SWAP).reinterpretAsFloats().mul(o10))
+                        .intoArray(v, y0 + k);
             }
         }
         sink = touch;
@@ -236,8 +240,8 @@ final class VectorFloatPairs {
                 }
                 final FloatVector a = FloatVector.fromArray(S, u, x0 + k);
                 final FloatVector c = FloatVector.fromArray(S, v, y0 + k);
-                final FloatVector as = a.rearrange(SWAP);
-                final FloatVector cs = c.rearrange(SWAP);
+                final FloatVector as = a.reinterpretAsInts().rearrange(SWAP).reinterpretAsFloats();
+                final FloatVector cs = c.reinterpretAsInts().rearrange(SWAP).reinterpretAsFloats();
                 a.mul(m00r).add(as.mul(m00i)).add(c.mul(m01r)).add(cs.mul(m01i))
                         .intoArray(u, x0 + k);
                 a.mul(m10r).add(as.mul(m10i)).add(c.mul(m11r)).add(cs.mul(m11i))
@@ -248,9 +252,10 @@ final class VectorFloatPairs {
     }
 
     private static void inRegisterFlip(float[] psi, int start, int end, InRegister r) {
-        final VectorShuffle<Float> p = r.partner;
+        final VectorShuffle<Integer> p = r.partner;
         for (int x = start; x < end; x += L) {
-            FloatVector.fromArray(S, psi, x).rearrange(p).intoArray(psi, x);
+            FloatVector.fromArray(S, psi, x).reinterpretAsInts().rearrange(p).reinterpretAsFloats()
+                    .intoArray(psi, x);
         }
     }
 
@@ -258,11 +263,13 @@ final class VectorFloatPairs {
             double[] m) {
         final FloatVector ca = FloatVector.fromArray(S, byMember(r, m[0], m[4], false), 0);
         final FloatVector cb = FloatVector.fromArray(S, byMember(r, m[2], m[6], false), 0);
-        final VectorShuffle<Float> low = r.low;
-        final VectorShuffle<Float> high = r.high;
+        final VectorShuffle<Integer> low = r.low;
+        final VectorShuffle<Integer> high = r.high;
         for (int x = start; x < end; x += L) {
             final FloatVector w = FloatVector.fromArray(S, psi, x);
-            w.rearrange(low).mul(ca).add(w.rearrange(high).mul(cb)).intoArray(psi, x);
+            w.reinterpretAsInts().rearrange(low).reinterpretAsFloats().mul(ca).add(w
+                    .reinterpretAsInts().rearrange(high).reinterpretAsFloats().mul(cb))
+                    .intoArray(psi, x);
         }
     }
 
@@ -270,10 +277,11 @@ final class VectorFloatPairs {
             double[] m) {
         final FloatVector dd = FloatVector.fromArray(S, byMember(r, m[0], m[6], false), 0);
         final FloatVector oo = FloatVector.fromArray(S, byMember(r, m[3], m[5], true), 0);
-        final VectorShuffle<Float> ps = r.partnerSwapped;
+        final VectorShuffle<Integer> ps = r.partnerSwapped;
         for (int x = start; x < end; x += L) {
             final FloatVector w = FloatVector.fromArray(S, psi, x);
-            w.mul(dd).add(w.rearrange(ps).mul(oo)).intoArray(psi, x);
+            w.mul(dd).add(w.reinterpretAsInts().rearrange(ps).reinterpretAsFloats().mul(oo))
+                    .intoArray(psi, x);
         }
     }
 
@@ -283,14 +291,17 @@ final class VectorFloatPairs {
         final FloatVector cai = FloatVector.fromArray(S, byMember(r, m[1], m[5], true), 0);
         final FloatVector cbr = FloatVector.fromArray(S, byMember(r, m[2], m[6], false), 0);
         final FloatVector cbi = FloatVector.fromArray(S, byMember(r, m[3], m[7], true), 0);
-        final VectorShuffle<Float> low = r.low;
-        final VectorShuffle<Float> lowSwapped = r.lowSwapped;
-        final VectorShuffle<Float> high = r.high;
-        final VectorShuffle<Float> highSwapped = r.highSwapped;
+        final VectorShuffle<Integer> low = r.low;
+        final VectorShuffle<Integer> lowSwapped = r.lowSwapped;
+        final VectorShuffle<Integer> high = r.high;
+        final VectorShuffle<Integer> highSwapped = r.highSwapped;
         for (int x = start; x < end; x += L) {
             final FloatVector w = FloatVector.fromArray(S, psi, x);
-            w.rearrange(low).mul(car).add(w.rearrange(lowSwapped).mul(cai))
-                    .add(w.rearrange(high).mul(cbr)).add(w.rearrange(highSwapped).mul(cbi))
+            w.reinterpretAsInts().rearrange(low).reinterpretAsFloats().mul(car).add(w
+                    .reinterpretAsInts().rearrange(lowSwapped).reinterpretAsFloats().mul(cai))
+                    .add(w.reinterpretAsInts().rearrange(high).reinterpretAsFloats().mul(cbr)).add(w
+                            .reinterpretAsInts().rearrange(highSwapped).reinterpretAsFloats()
+                            .mul(cbi))
                     .intoArray(psi, x);
         }
     }

@@ -220,8 +220,8 @@ final class VectorGatePlans {
         final double[] im;
         /** Per column: the vector it reads and the lane permutations. */
         final int[] from;
-        final VectorShuffle<Double>[] pick;
-        final VectorShuffle<Double>[] pickSwapped;
+        final VectorShuffle<Long>[] pick;
+        final VectorShuffle<Long>[] pickSwapped;
         final boolean[] keep;
 
         @SuppressWarnings({"unchecked", "rawtypes"})
@@ -337,10 +337,14 @@ final class VectorGatePlans {
             final DoubleVector v1 = DoubleVector.fromArray(D, p1, x + o1);
             final DoubleVector v2 = DoubleVector.fromArray(D, p2, x + o2);
             final DoubleVector v3 = DoubleVector.fromArray(D, p3, x + o3);
-            final DoubleVector w0 = v0.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w1 = v1.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w2 = v2.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w3 = v3.rearrange(SWAP).mul(SIGN);
+            final DoubleVector w0 = v0.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w1 = v1.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w2 = v2.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w3 = v3.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
             // Written out row by row: a helper taking vectors as arguments would box them
             // whenever the compiler does not inline it.
             v0.mul(m[0]).add(w0.mul(m[1])).add(v1.mul(m[2])).add(w1.mul(m[3]))
@@ -388,14 +392,22 @@ final class VectorGatePlans {
             final DoubleVector v5 = DoubleVector.fromArray(D, p5, x + o5);
             final DoubleVector v6 = DoubleVector.fromArray(D, p6, x + o6);
             final DoubleVector v7 = DoubleVector.fromArray(D, p7, x + o7);
-            final DoubleVector w0 = v0.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w1 = v1.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w2 = v2.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w3 = v3.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w4 = v4.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w5 = v5.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w6 = v6.rearrange(SWAP).mul(SIGN);
-            final DoubleVector w7 = v7.rearrange(SWAP).mul(SIGN);
+            final DoubleVector w0 = v0.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w1 = v1.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w2 = v2.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w3 = v3.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w4 = v4.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w5 = v5.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w6 = v6.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
+            final DoubleVector w7 = v7.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                    .mul(SIGN);
             DoubleVector.zero(D)
                     .add(v0.mul(m[0]).add(w0.mul(m[1])))
                     .add(v1.mul(m[2]).add(w1.mul(m[3])))
@@ -524,7 +536,8 @@ final class VectorGatePlans {
         for (int j = 0; j < d; j++) {
             final DoubleVector v = DoubleVector.fromArray(D, arr[j], (off[j] + e) << 1);
             v.intoArray(op, 2 * j * L);
-            v.rearrange(SWAP).mul(SIGN).intoArray(op, (2 * j + 1) * L);
+            v.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(SIGN).intoArray(op,
+                    (2 * j + 1) * L);
         }
     }
 
@@ -537,8 +550,10 @@ final class VectorGatePlans {
             for (int j = 0; j < d; j++) {
                 final int h = p.from[j];
                 final DoubleVector v = DoubleVector.fromArray(D, arr[h], (off[h] + e) << 1);
-                v.rearrange(p.pick[j]).intoArray(op, 2 * j * L);
-                v.rearrange(p.pickSwapped[j]).intoArray(op, (2 * j + 1) * L);
+                v.reinterpretAsLongs().rearrange(p.pick[j]).reinterpretAsDoubles().intoArray(op,
+                        2 * j * L);
+                v.reinterpretAsLongs().rearrange(p.pickSwapped[j]).reinterpretAsDoubles()
+                        .intoArray(op, (2 * j + 1) * L);
             }
             for (int ih = 0; ih < p.dh; ih++) {
                 final DoubleVector acc = p.grouped ? laneSumGrouped(op, p.re, p.im, ih * d, d)
@@ -661,7 +676,8 @@ final class VectorGatePlans {
             final int end = (off + s + run) << 1;
             for (int x = (off + s) << 1; x < end; x += L) {
                 final DoubleVector w = DoubleVector.fromArray(D, a, x);
-                w.mul(re).add(w.rearrange(SWAP).mul(im)).intoArray(a, x);
+                w.mul(re).add(w.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(im))
+                        .intoArray(a, x);
             }
         }
     }
@@ -686,7 +702,8 @@ final class VectorGatePlans {
             final int end = (off + s + run) << 1;
             for (int x = (off + s) << 1; x < end; x += L) {
                 final DoubleVector w = DoubleVector.fromArray(D, a, x);
-                w.blend(w.mul(re).add(w.rearrange(SWAP).mul(im)), ch).intoArray(a, x);
+                w.blend(w.mul(re).add(w.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                        .mul(im)), ch).intoArray(a, x);
             }
         }
     }
@@ -725,13 +742,14 @@ final class VectorGatePlans {
 
     private static void permuteRuns(double[] a, int off, int[] starts, int run, int target,
             boolean[] keep) {
-        final VectorShuffle<Double> p = VectorShapes.xor(2 << target);
+        final VectorShuffle<Long> p = VectorShapes.xor(2 << target);
         final VectorMask<Double> k = VectorMask.fromArray(D, keep == null ? ALL : keep, 0);
         for (int s : starts) {
             final int end = (off + s + run) << 1;
             for (int x = (off + s) << 1; x < end; x += L) {
                 final DoubleVector w = DoubleVector.fromArray(D, a, x);
-                w.blend(w.rearrange(p), k).intoArray(a, x);
+                w.blend(w.reinterpretAsLongs().rearrange(p).reinterpretAsDoubles(), k).intoArray(a,
+                        x);
             }
         }
     }

@@ -3,6 +3,7 @@ package dev.qsim.kernel;
 import static dev.qsim.kernel.VectorShapes.D;
 import static dev.qsim.kernel.VectorShapes.EVEN;
 import static dev.qsim.kernel.VectorShapes.L;
+import static dev.qsim.kernel.VectorShapes.LONGS;
 import static dev.qsim.kernel.VectorShapes.ODD;
 import static dev.qsim.kernel.VectorShapes.SIGN;
 import static dev.qsim.kernel.VectorShapes.SWAP;
@@ -32,23 +33,23 @@ import jdk.incubator.vector.VectorShuffle;
 final class VectorPairs {
     /** Lane permutations for a target whose blocks fit in one vector. */
     private static final class InRegister {
-        final VectorShuffle<Double> low;
-        final VectorShuffle<Double> high;
-        final VectorShuffle<Double> lowSwapped;
-        final VectorShuffle<Double> highSwapped;
-        final VectorShuffle<Double> partner;
-        final VectorShuffle<Double> partnerSwapped;
+        final VectorShuffle<Long> low;
+        final VectorShuffle<Long> high;
+        final VectorShuffle<Long> lowSwapped;
+        final VectorShuffle<Long> highSwapped;
+        final VectorShuffle<Long> partner;
+        final VectorShuffle<Long> partnerSwapped;
         /** Whether lane i belongs to the high member of its pair. */
         final boolean[] upper = new boolean[L];
 
         InRegister(int q) {
             final int s = 2 << q;
-            low = VectorShuffle.fromOp(D, i -> i & ~s);
-            high = VectorShuffle.fromOp(D, i -> i | s);
-            lowSwapped = VectorShuffle.fromOp(D, i -> (i & ~s) ^ 1);
-            highSwapped = VectorShuffle.fromOp(D, i -> (i | s) ^ 1);
-            partner = VectorShuffle.fromOp(D, i -> i ^ s);
-            partnerSwapped = VectorShuffle.fromOp(D, i -> i ^ s ^ 1);
+            low = VectorShuffle.fromOp(LONGS, i -> i & ~s);
+            high = VectorShuffle.fromOp(LONGS, i -> i | s);
+            lowSwapped = VectorShuffle.fromOp(LONGS, i -> (i & ~s) ^ 1);
+            highSwapped = VectorShuffle.fromOp(LONGS, i -> (i | s) ^ 1);
+            partner = VectorShuffle.fromOp(LONGS, i -> i ^ s);
+            partnerSwapped = VectorShuffle.fromOp(LONGS, i -> i ^ s ^ 1);
             for (int i = 0; i < L; i++) {
                 upper[i] = (i & s) != 0;
             }
@@ -208,8 +209,10 @@ final class VectorPairs {
                 }
                 final DoubleVector a = DoubleVector.fromArray(D, u, x0 + k);
                 final DoubleVector c = DoubleVector.fromArray(D, v, y0 + k);
-                c.rearrange(SWAP).fma(o01, a.mul(d0)).intoArray(u, x0 + k);
-                a.rearrange(SWAP).fma(o10, c.mul(d1)).intoArray(v, y0 + k);
+                c.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(o01, a.mul(d0))
+                        .intoArray(u, x0 + k);
+                a.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(o10, c.mul(d1))
+                        .intoArray(v, y0 + k);
             }
         }
         sink = touch;
@@ -238,8 +241,10 @@ final class VectorPairs {
                 }
                 final DoubleVector a = DoubleVector.fromArray(D, u, x0 + k);
                 final DoubleVector c = DoubleVector.fromArray(D, v, y0 + k);
-                final DoubleVector as = a.rearrange(SWAP);
-                final DoubleVector cs = c.rearrange(SWAP);
+                final DoubleVector as = a.reinterpretAsLongs().rearrange(SWAP)
+                        .reinterpretAsDoubles();
+                final DoubleVector cs = c.reinterpretAsLongs().rearrange(SWAP)
+                        .reinterpretAsDoubles();
                 cs.fma(m01i, c.fma(m01r, as.fma(m00i, a.mul(m00r)))).intoArray(u, x0 + k);
                 cs.fma(m11i, c.fma(m11r, as.fma(m10i, a.mul(m10r)))).intoArray(v, y0 + k);
             }
@@ -331,10 +336,14 @@ final class VectorPairs {
                     final DoubleVector w01 = v01.fma(a11, v00.mul(a10));
                     final DoubleVector w10 = v11.fma(a01, v10.mul(a00));
                     final DoubleVector w11 = v11.fma(a11, v10.mul(a10));
-                    w10.rearrange(SWAP).fma(p01, w00.mul(e0)).intoArray(psi, k);
-                    w00.rearrange(SWAP).fma(p10, w10.mul(e1)).intoArray(psi, k + s2);
-                    w11.rearrange(SWAP).fma(p01, w01.mul(e0)).intoArray(psi, k + s1);
-                    w01.rearrange(SWAP).fma(p10, w11.mul(e1)).intoArray(psi, k + s1 + s2);
+                    w10.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p01, w00
+                            .mul(e0)).intoArray(psi, k);
+                    w00.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p10, w10
+                            .mul(e1)).intoArray(psi, k + s2);
+                    w11.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p01, w01
+                            .mul(e0)).intoArray(psi, k + s1);
+                    w01.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p10, w11
+                            .mul(e1)).intoArray(psi, k + s1 + s2);
                 }
             }
         }
@@ -359,10 +368,14 @@ final class VectorPairs {
                     final DoubleVector v01 = DoubleVector.fromArray(D, psi, k + s1);
                     final DoubleVector v10 = DoubleVector.fromArray(D, psi, k + s2);
                     final DoubleVector v11 = DoubleVector.fromArray(D, psi, k + s1 + s2);
-                    final DoubleVector w00 = v01.rearrange(SWAP).fma(o01, v00.mul(d0));
-                    final DoubleVector w01 = v00.rearrange(SWAP).fma(o10, v01.mul(d1));
-                    final DoubleVector w10 = v11.rearrange(SWAP).fma(o01, v10.mul(d0));
-                    final DoubleVector w11 = v10.rearrange(SWAP).fma(o10, v11.mul(d1));
+                    final DoubleVector w00 = v01.reinterpretAsLongs().rearrange(SWAP)
+                            .reinterpretAsDoubles().fma(o01, v00.mul(d0));
+                    final DoubleVector w01 = v00.reinterpretAsLongs().rearrange(SWAP)
+                            .reinterpretAsDoubles().fma(o10, v01.mul(d1));
+                    final DoubleVector w10 = v11.reinterpretAsLongs().rearrange(SWAP)
+                            .reinterpretAsDoubles().fma(o01, v10.mul(d0));
+                    final DoubleVector w11 = v10.reinterpretAsLongs().rearrange(SWAP)
+                            .reinterpretAsDoubles().fma(o10, v11.mul(d1));
                     w10.fma(b01, w00.mul(b00)).intoArray(psi, k);
                     w10.fma(b11, w00.mul(b10)).intoArray(psi, k + s2);
                     w11.fma(b01, w01.mul(b00)).intoArray(psi, k + s1);
@@ -391,14 +404,22 @@ final class VectorPairs {
                     final DoubleVector v01 = DoubleVector.fromArray(D, psi, k + s1);
                     final DoubleVector v10 = DoubleVector.fromArray(D, psi, k + s2);
                     final DoubleVector v11 = DoubleVector.fromArray(D, psi, k + s1 + s2);
-                    final DoubleVector w00 = v01.rearrange(SWAP).fma(o01, v00.mul(d0));
-                    final DoubleVector w01 = v00.rearrange(SWAP).fma(o10, v01.mul(d1));
-                    final DoubleVector w10 = v11.rearrange(SWAP).fma(o01, v10.mul(d0));
-                    final DoubleVector w11 = v10.rearrange(SWAP).fma(o10, v11.mul(d1));
-                    w10.rearrange(SWAP).fma(p01, w00.mul(e0)).intoArray(psi, k);
-                    w00.rearrange(SWAP).fma(p10, w10.mul(e1)).intoArray(psi, k + s2);
-                    w11.rearrange(SWAP).fma(p01, w01.mul(e0)).intoArray(psi, k + s1);
-                    w01.rearrange(SWAP).fma(p10, w11.mul(e1)).intoArray(psi, k + s1 + s2);
+                    final DoubleVector w00 = v01.reinterpretAsLongs().rearrange(SWAP)
+                            .reinterpretAsDoubles().fma(o01, v00.mul(d0));
+                    final DoubleVector w01 = v00.reinterpretAsLongs().rearrange(SWAP)
+                            .reinterpretAsDoubles().fma(o10, v01.mul(d1));
+                    final DoubleVector w10 = v11.reinterpretAsLongs().rearrange(SWAP)
+                            .reinterpretAsDoubles().fma(o01, v10.mul(d0));
+                    final DoubleVector w11 = v10.reinterpretAsLongs().rearrange(SWAP)
+                            .reinterpretAsDoubles().fma(o10, v11.mul(d1));
+                    w10.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p01, w00
+                            .mul(e0)).intoArray(psi, k);
+                    w00.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p10, w10
+                            .mul(e1)).intoArray(psi, k + s2);
+                    w11.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p01, w01
+                            .mul(e0)).intoArray(psi, k + s1);
+                    w01.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p10, w11
+                            .mul(e1)).intoArray(psi, k + s1 + s2);
                 }
             }
         }
@@ -408,11 +429,13 @@ final class VectorPairs {
             double[] m) {
         final DoubleVector ca = DoubleVector.fromArray(D, byMember(r, m[0], m[4], false), 0);
         final DoubleVector cb = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
-        final VectorShuffle<Double> low = r.low;
-        final VectorShuffle<Double> high = r.high;
+        final VectorShuffle<Long> low = r.low;
+        final VectorShuffle<Long> high = r.high;
         for (int x = start; x < end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.rearrange(high).fma(cb, w.rearrange(low).mul(ca)).intoArray(psi, x);
+            w.reinterpretAsLongs().rearrange(high).reinterpretAsDoubles().fma(cb, w
+                    .reinterpretAsLongs().rearrange(low).reinterpretAsDoubles().mul(ca))
+                    .intoArray(psi, x);
         }
     }
 
@@ -420,10 +443,11 @@ final class VectorPairs {
             double[] m) {
         final DoubleVector dd = DoubleVector.fromArray(D, byMember(r, m[0], m[6], false), 0);
         final DoubleVector oo = DoubleVector.fromArray(D, byMember(r, m[3], m[5], true), 0);
-        final VectorShuffle<Double> ps = r.partnerSwapped;
+        final VectorShuffle<Long> ps = r.partnerSwapped;
         for (int x = start; x < end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.rearrange(ps).fma(oo, w.mul(dd)).intoArray(psi, x);
+            w.reinterpretAsLongs().rearrange(ps).reinterpretAsDoubles().fma(oo, w.mul(dd))
+                    .intoArray(psi, x);
         }
     }
 
@@ -433,14 +457,16 @@ final class VectorPairs {
         final DoubleVector cai = DoubleVector.fromArray(D, byMember(r, m[1], m[5], true), 0);
         final DoubleVector cbr = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
         final DoubleVector cbi = DoubleVector.fromArray(D, byMember(r, m[3], m[7], true), 0);
-        final VectorShuffle<Double> low = r.low;
-        final VectorShuffle<Double> lowSwapped = r.lowSwapped;
-        final VectorShuffle<Double> high = r.high;
-        final VectorShuffle<Double> highSwapped = r.highSwapped;
+        final VectorShuffle<Long> low = r.low;
+        final VectorShuffle<Long> lowSwapped = r.lowSwapped;
+        final VectorShuffle<Long> high = r.high;
+        final VectorShuffle<Long> highSwapped = r.highSwapped;
         for (int x = start; x < end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.rearrange(highSwapped).fma(cbi, w.rearrange(high).fma(cbr,
-                    w.rearrange(lowSwapped).fma(cai, w.rearrange(low).mul(car))))
+            w.reinterpretAsLongs().rearrange(highSwapped).reinterpretAsDoubles().fma(cbi, w
+                    .reinterpretAsLongs().rearrange(high).reinterpretAsDoubles().fma(cbr,
+                    w.reinterpretAsLongs().rearrange(lowSwapped).reinterpretAsDoubles().fma(cai, w
+                            .reinterpretAsLongs().rearrange(low).reinterpretAsDoubles().mul(car))))
                     .intoArray(psi, x);
         }
     }
@@ -465,8 +491,8 @@ final class VectorPairs {
         for (int x = 0; x < bound; x += L) {
             final DoubleVector a = DoubleVector.fromArray(D, u, uo + x);
             final DoubleVector c = DoubleVector.fromArray(D, v, vo + x);
-            final DoubleVector as = a.rearrange(SWAP);
-            final DoubleVector cs = c.rearrange(SWAP);
+            final DoubleVector as = a.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles();
+            final DoubleVector cs = c.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles();
             a.blend(cs.fma(m01i, c.fma(m01r, as.fma(m00i, a.mul(m00r)))), k)
                     .intoArray(u, uo + x);
             c.blend(cs.fma(m11i, c.fma(m11r, as.fma(m10i, a.mul(m10r)))), k)
@@ -492,14 +518,17 @@ final class VectorPairs {
         final DoubleVector cai = DoubleVector.fromArray(D, byMember(r, m[1], m[5], true), 0);
         final DoubleVector cbr = DoubleVector.fromArray(D, byMember(r, m[2], m[6], false), 0);
         final DoubleVector cbi = DoubleVector.fromArray(D, byMember(r, m[3], m[7], true), 0);
-        final VectorShuffle<Double> low = r.low;
-        final VectorShuffle<Double> lowSwapped = r.lowSwapped;
-        final VectorShuffle<Double> high = r.high;
-        final VectorShuffle<Double> highSwapped = r.highSwapped;
+        final VectorShuffle<Long> low = r.low;
+        final VectorShuffle<Long> lowSwapped = r.lowSwapped;
+        final VectorShuffle<Long> high = r.high;
+        final VectorShuffle<Long> highSwapped = r.highSwapped;
         for (int x = start; x < bound; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.blend(w.rearrange(highSwapped).fma(cbi, w.rearrange(high).fma(cbr,
-                    w.rearrange(lowSwapped).fma(cai, w.rearrange(low).mul(car)))), k)
+            w.blend(w.reinterpretAsLongs().rearrange(highSwapped).reinterpretAsDoubles().fma(cbi, w
+                    .reinterpretAsLongs().rearrange(high).reinterpretAsDoubles().fma(cbr,
+                    w.reinterpretAsLongs().rearrange(lowSwapped).reinterpretAsDoubles().fma(cai, w
+                            .reinterpretAsLongs().rearrange(low).reinterpretAsDoubles()
+                            .mul(car)))), k)
                     .intoArray(psi, x);
         }
         final int s2 = 2 << q;
@@ -550,7 +579,8 @@ final class VectorPairs {
         int x = from;
         for (; x + L <= to; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.mul(r).add(w.rearrange(SWAP).mul(i)).intoArray(psi, x);
+            w.mul(r).add(w.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(i))
+                    .intoArray(psi, x);
         }
         for (; x < to; x += 2) {
             final double re = psi[x];
@@ -567,7 +597,8 @@ final class VectorPairs {
         int x = from;
         for (; x + L <= to; x += L) {
             final DoubleVector w = VectorShapes.widen(psi, x);
-            VectorShapes.narrow(w.mul(r).add(w.rearrange(SWAP).mul(i)), psi, x);
+            VectorShapes.narrow(w.mul(r).add(w.reinterpretAsLongs().rearrange(SWAP)
+                    .reinterpretAsDoubles().mul(i)), psi, x);
         }
         for (; x < to; x += 2) {
             final double re = psi[x];
@@ -585,7 +616,8 @@ final class VectorPairs {
         for (; j + L <= len; j += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, off + j);
             w.mul(DoubleVector.fromArray(D, re2, j))
-                    .add(w.rearrange(SWAP).mul(DoubleVector.fromArray(D, im2, j)))
+                    .add(w.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .mul(DoubleVector.fromArray(D, im2, j)))
                     .intoArray(psi, off + j);
         }
         for (; j < len; j += 2) {
@@ -602,7 +634,9 @@ final class VectorPairs {
         for (; j + L <= len; j += L) {
             final DoubleVector t = DoubleVector.fromArray(D, table, j);
             final DoubleVector w = DoubleVector.fromArray(D, psi, off + j);
-            w.mul(t.rearrange(EVEN)).add(w.rearrange(SWAP).mul(t.rearrange(ODD).mul(SIGN)))
+            w.mul(t.reinterpretAsLongs().rearrange(EVEN).reinterpretAsDoubles()).add(w
+                    .reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(t
+                    .reinterpretAsLongs().rearrange(ODD).reinterpretAsDoubles().mul(SIGN)))
                     .intoArray(psi, off + j);
         }
         for (; j < len; j += 2) {
@@ -634,8 +668,10 @@ final class VectorPairs {
         for (; j + L <= len; j += L) {
             final DoubleVector t = DoubleVector.fromArray(D, table, j);
             final DoubleVector w = VectorShapes.widen(psi, off + j);
-            VectorShapes.narrow(w.mul(t.rearrange(EVEN))
-                    .add(w.rearrange(SWAP).mul(t.rearrange(ODD).mul(SIGN))), psi, off + j);
+            VectorShapes.narrow(w.mul(t.reinterpretAsLongs().rearrange(EVEN).reinterpretAsDoubles())
+                    .add(w.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(t
+                            .reinterpretAsLongs().rearrange(ODD).reinterpretAsDoubles()
+                            .mul(SIGN))), psi, off + j);
         }
         for (; j < len; j += 2) {
             final double tr = table[j];
@@ -667,7 +703,8 @@ final class VectorPairs {
         int x = start;
         for (; x + L <= end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            final DoubleVector z = w.mul(cr).add(w.rearrange(SWAP).mul(ci));
+            final DoubleVector z = w.mul(cr).add(w.reinterpretAsLongs().rearrange(SWAP)
+                    .reinterpretAsDoubles().mul(ci));
             (changed == null ? z : w.blend(z, changed)).intoArray(psi, x);
         }
         for (; x < end; x += s2 << 1) {
@@ -714,10 +751,11 @@ final class VectorPairs {
             }
             return;
         }
-        final VectorShuffle<Double> p = IN_REGISTER[q].partner;
+        final VectorShuffle<Long> p = IN_REGISTER[q].partner;
         int x = start;
         for (; x + L <= end; x += L) {
-            DoubleVector.fromArray(D, psi, x).rearrange(p).intoArray(psi, x);
+            DoubleVector.fromArray(D, psi, x).reinterpretAsLongs().rearrange(p)
+                    .reinterpretAsDoubles().intoArray(psi, x);
         }
         for (; x < end; x += s2 << 1) {
             for (int k = 0; k < s2; k++) {

@@ -3,6 +3,7 @@ package dev.qsim.kernel;
 import static dev.qsim.kernel.VectorShapes.AMP_LOG;
 import static dev.qsim.kernel.VectorShapes.D;
 import static dev.qsim.kernel.VectorShapes.L;
+import static dev.qsim.kernel.VectorShapes.LONGS;
 import static dev.qsim.kernel.VectorShapes.SIGN;
 import static dev.qsim.kernel.VectorShapes.SWAP;
 
@@ -19,10 +20,10 @@ import jdk.incubator.vector.VectorShuffle;
  */
 final class VectorSums {
     /** Lane i takes lane 2i mod L: the real parts, in both halves. */
-    private static final VectorShuffle<Double> REALS = VectorShuffle.fromOp(D, i -> (2 * i) % L);
+    private static final VectorShuffle<Long> REALS = VectorShuffle.fromOp(LONGS, i -> (2 * i) % L);
     /** Lane i takes lane 2i + 1 mod L: the imaginary parts, in both halves. */
-    private static final VectorShuffle<Double> IMAGS =
-            VectorShuffle.fromOp(D, i -> (2 * i + 1) % L);
+    private static final VectorShuffle<Long> IMAGS =
+            VectorShuffle.fromOp(LONGS, i -> (2 * i + 1) % L);
     /** The back half of the lanes. */
     private static final VectorMask<Double> BACK = VectorMask.fromLong(D, -1L << (L / 2));
     /** +1 on real lanes, -1 on imaginary lanes. */
@@ -69,8 +70,12 @@ final class VectorSums {
             final DoubleVector pa = a.mul(a);
             final DoubleVector pb = b.mul(b);
             // re² + im² of each amplitude: the even lane plus the odd lane, as the scalar loop.
-            final DoubleVector front = pa.rearrange(REALS).add(pa.rearrange(IMAGS));
-            final DoubleVector back = pb.rearrange(REALS).add(pb.rearrange(IMAGS));
+            final DoubleVector front = pa.reinterpretAsLongs().rearrange(REALS)
+                    .reinterpretAsDoubles().add(pa.reinterpretAsLongs().rearrange(IMAGS)
+                    .reinterpretAsDoubles());
+            final DoubleVector back = pb.reinterpretAsLongs().rearrange(REALS)
+                    .reinterpretAsDoubles().add(pb.reinterpretAsLongs().rearrange(IMAGS)
+                    .reinterpretAsDoubles());
             front.blend(back, BACK).intoArray(out, i);
         }
         for (; x < to; x += 2, i++) {
@@ -88,7 +93,8 @@ final class VectorSums {
             final DoubleVector a = DoubleVector.fromArray(D, u, uo + x);
             final DoubleVector b = DoubleVector.fromArray(D, v, vo + x);
             re = re.add(a.mul(b));
-            im = im.add(a.mul(b.rearrange(SWAP)).mul(CONJ));
+            im = im.add(a.mul(b.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles())
+                    .mul(CONJ));
         }
         double sr = lanesInOrder(re, DoubleVector.zero(D));
         double si = lanesInOrder(im, DoubleVector.zero(D));
@@ -120,17 +126,19 @@ final class VectorSums {
         final int xIn = xLow & lowMask;
         final int xOut = xLow & ~lowMask;
         final int zOut = zLow & ~lowMask;
-        final VectorShuffle<Double> perm = VectorShapes.xor(2 * xIn);
+        final VectorShuffle<Long> perm = VectorShapes.xor(2 * xIn);
         final DoubleVector signs = DoubleVector.fromArray(D, lowSigns(zLow & lowMask), 0);
         DoubleVector re = DoubleVector.zero(D);
         DoubleVector im = DoubleVector.zero(D);
         for (int o = start; o < end; o += 1 << AMP_LOG) {
             final DoubleVector kv = DoubleVector.fromArray(D, k, o << 1);
-            final DoubleVector bv = DoubleVector.fromArray(D, b, (o ^ xOut) << 1).rearrange(perm);
+            final DoubleVector bv = DoubleVector.fromArray(D, b, (o ^ xOut) << 1)
+                    .reinterpretAsLongs().rearrange(perm).reinterpretAsDoubles();
             final DoubleVector sg = signs.mul(1 - ((Integer.bitCount(o & zOut) & 1) << 1));
             // conj(b) k: re = br kr + bi ki, im = br ki - bi kr, each times the sign.
             re = re.add(bv.mul(kv).mul(sg));
-            im = im.add(bv.mul(kv.rearrange(SWAP)).mul(CONJ).mul(sg));
+            im = im.add(bv.mul(kv.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles())
+                    .mul(CONJ).mul(sg));
         }
         out[0] = lanesInOrder(re, DoubleVector.zero(D));
         out[1] = lanesInOrder(im, DoubleVector.zero(D));
@@ -143,7 +151,7 @@ final class VectorSums {
         final int xIn = xLow & lowMask;
         final int xOut = xLow & ~lowMask;
         final int zOut = zLow & ~lowMask;
-        final VectorShuffle<Double> perm = VectorShapes.xor(2 * xIn);
+        final VectorShuffle<Long> perm = VectorShapes.xor(2 * xIn);
         final DoubleVector signs = DoubleVector.fromArray(D, lowSigns(zLow & lowMask), 0);
         final DoubleVector cr = DoubleVector.broadcast(D, ar);
         final DoubleVector ci = SIGN.mul(ai);
@@ -151,7 +159,9 @@ final class VectorSums {
             final double s = 1 - ((Integer.bitCount(o & zOut) & 1) << 1);
             final DoubleVector w = DoubleVector.fromArray(D, src, o << 1).mul(signs.mul(s));
             // (ar + i ai)(r + i i): re = ar r - ai i, im = ar i + ai r, then to o ^ xLow.
-            final DoubleVector t = w.mul(cr).add(w.rearrange(SWAP).mul(ci)).rearrange(perm);
+            final DoubleVector t = w.mul(cr).add(w.reinterpretAsLongs().rearrange(SWAP)
+                    .reinterpretAsDoubles().mul(ci)).reinterpretAsLongs().rearrange(perm)
+                    .reinterpretAsDoubles();
             final int d = (o ^ xOut) << 1;
             DoubleVector.fromArray(D, dst, d).add(t).intoArray(dst, d);
         }
