@@ -267,8 +267,8 @@ final class VectorFloatPairs {
         final VectorShuffle<Integer> high = r.high;
         for (int x = start; x < end; x += L) {
             final FloatVector w = FloatVector.fromArray(S, psi, x);
-            w.reinterpretAsInts().rearrange(low).reinterpretAsFloats().mul(ca).add(w
-                    .reinterpretAsInts().rearrange(high).reinterpretAsFloats().mul(cb))
+            w.reinterpretAsInts().rearrange(low).reinterpretAsFloats().mul(ca)
+                    .add(w.reinterpretAsInts().rearrange(high).reinterpretAsFloats().mul(cb))
                     .intoArray(psi, x);
         }
     }

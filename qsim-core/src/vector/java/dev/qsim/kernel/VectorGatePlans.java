@@ -536,8 +536,8 @@ final class VectorGatePlans {
         for (int j = 0; j < d; j++) {
             final DoubleVector v = DoubleVector.fromArray(D, arr[j], (off[j] + e) << 1);
             v.intoArray(op, 2 * j * L);
-            v.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(SIGN).intoArray(op,
-                    (2 * j + 1) * L);
+            v.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(SIGN)
+                    .intoArray(op, (2 * j + 1) * L);
         }
     }
 
@@ -550,8 +550,8 @@ final class VectorGatePlans {
             for (int j = 0; j < d; j++) {
                 final int h = p.from[j];
                 final DoubleVector v = DoubleVector.fromArray(D, arr[h], (off[h] + e) << 1);
-                v.reinterpretAsLongs().rearrange(p.pick[j]).reinterpretAsDoubles().intoArray(op,
-                        2 * j * L);
+                v.reinterpretAsLongs().rearrange(p.pick[j]).reinterpretAsDoubles()
+                        .intoArray(op, 2 * j * L);
                 v.reinterpretAsLongs().rearrange(p.pickSwapped[j]).reinterpretAsDoubles()
                         .intoArray(op, (2 * j + 1) * L);
             }
@@ -748,8 +748,8 @@ final class VectorGatePlans {
             final int end = (off + s + run) << 1;
             for (int x = (off + s) << 1; x < end; x += L) {
                 final DoubleVector w = DoubleVector.fromArray(D, a, x);
-                w.blend(w.reinterpretAsLongs().rearrange(p).reinterpretAsDoubles(), k).intoArray(a,
-                        x);
+                w.blend(w.reinterpretAsLongs().rearrange(p).reinterpretAsDoubles(), k)
+                        .intoArray(a, x);
             }
         }
     }

@@ -336,14 +336,14 @@ final class VectorPairs {
                     final DoubleVector w01 = v01.fma(a11, v00.mul(a10));
                     final DoubleVector w10 = v11.fma(a01, v10.mul(a00));
                     final DoubleVector w11 = v11.fma(a11, v10.mul(a10));
-                    w10.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p01, w00
-                            .mul(e0)).intoArray(psi, k);
-                    w00.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p10, w10
-                            .mul(e1)).intoArray(psi, k + s2);
-                    w11.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p01, w01
-                            .mul(e0)).intoArray(psi, k + s1);
-                    w01.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p10, w11
-                            .mul(e1)).intoArray(psi, k + s1 + s2);
+                    w10.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .fma(p01, w00.mul(e0)).intoArray(psi, k);
+                    w00.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .fma(p10, w10.mul(e1)).intoArray(psi, k + s2);
+                    w11.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .fma(p01, w01.mul(e0)).intoArray(psi, k + s1);
+                    w01.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .fma(p10, w11.mul(e1)).intoArray(psi, k + s1 + s2);
                 }
             }
         }
@@ -412,14 +412,14 @@ final class VectorPairs {
                             .reinterpretAsDoubles().fma(o01, v10.mul(d0));
                     final DoubleVector w11 = v10.reinterpretAsLongs().rearrange(SWAP)
                             .reinterpretAsDoubles().fma(o10, v11.mul(d1));
-                    w10.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p01, w00
-                            .mul(e0)).intoArray(psi, k);
-                    w00.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p10, w10
-                            .mul(e1)).intoArray(psi, k + s2);
-                    w11.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p01, w01
-                            .mul(e0)).intoArray(psi, k + s1);
-                    w01.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().fma(p10, w11
-                            .mul(e1)).intoArray(psi, k + s1 + s2);
+                    w10.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .fma(p01, w00.mul(e0)).intoArray(psi, k);
+                    w00.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .fma(p10, w10.mul(e1)).intoArray(psi, k + s2);
+                    w11.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .fma(p01, w01.mul(e0)).intoArray(psi, k + s1);
+                    w01.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles()
+                            .fma(p10, w11.mul(e1)).intoArray(psi, k + s1 + s2);
                 }
             }
         }
@@ -433,8 +433,8 @@ final class VectorPairs {
         final VectorShuffle<Long> high = r.high;
         for (int x = start; x < end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            w.reinterpretAsLongs().rearrange(high).reinterpretAsDoubles().fma(cb, w
-                    .reinterpretAsLongs().rearrange(low).reinterpretAsDoubles().mul(ca))
+            w.reinterpretAsLongs().rearrange(high).reinterpretAsDoubles()
+                    .fma(cb, w.reinterpretAsLongs().rearrange(low).reinterpretAsDoubles().mul(ca))
                     .intoArray(psi, x);
         }
     }
@@ -703,8 +703,8 @@ final class VectorPairs {
         int x = start;
         for (; x + L <= end; x += L) {
             final DoubleVector w = DoubleVector.fromArray(D, psi, x);
-            final DoubleVector z = w.mul(cr).add(w.reinterpretAsLongs().rearrange(SWAP)
-                    .reinterpretAsDoubles().mul(ci));
+            final DoubleVector z = w.mul(cr)
+                    .add(w.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(ci));
             (changed == null ? z : w.blend(z, changed)).intoArray(psi, x);
         }
         for (; x < end; x += s2 << 1) {

@@ -71,11 +71,11 @@ final class VectorSums {
             final DoubleVector pb = b.mul(b);
             // re² + im² of each amplitude: the even lane plus the odd lane, as the scalar loop.
             final DoubleVector front = pa.reinterpretAsLongs().rearrange(REALS)
-                    .reinterpretAsDoubles().add(pa.reinterpretAsLongs().rearrange(IMAGS)
-                    .reinterpretAsDoubles());
+                    .reinterpretAsDoubles()
+                    .add(pa.reinterpretAsLongs().rearrange(IMAGS).reinterpretAsDoubles());
             final DoubleVector back = pb.reinterpretAsLongs().rearrange(REALS)
-                    .reinterpretAsDoubles().add(pb.reinterpretAsLongs().rearrange(IMAGS)
-                    .reinterpretAsDoubles());
+                    .reinterpretAsDoubles()
+                    .add(pb.reinterpretAsLongs().rearrange(IMAGS).reinterpretAsDoubles());
             front.blend(back, BACK).intoArray(out, i);
         }
         for (; x < to; x += 2, i++) {
@@ -159,9 +159,9 @@ final class VectorSums {
             final double s = 1 - ((Integer.bitCount(o & zOut) & 1) << 1);
             final DoubleVector w = DoubleVector.fromArray(D, src, o << 1).mul(signs.mul(s));
             // (ar + i ai)(r + i i): re = ar r - ai i, im = ar i + ai r, then to o ^ xLow.
-            final DoubleVector t = w.mul(cr).add(w.reinterpretAsLongs().rearrange(SWAP)
-                    .reinterpretAsDoubles().mul(ci)).reinterpretAsLongs().rearrange(perm)
-                    .reinterpretAsDoubles();
+            final DoubleVector t = w.mul(cr)
+                    .add(w.reinterpretAsLongs().rearrange(SWAP).reinterpretAsDoubles().mul(ci))
+                    .reinterpretAsLongs().rearrange(perm).reinterpretAsDoubles();
             final int d = (o ^ xOut) << 1;
             DoubleVector.fromArray(D, dst, d).add(t).intoArray(dst, d);
         }
